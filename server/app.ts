@@ -1,0 +1,95 @@
+import { existsSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import express, { type Express, type RequestHandler } from 'express';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import { configurePassport } from './auth/passport';
+import { createSessionMiddleware } from './auth/session';
+import { authRouter } from './auth/auth.routes';
+import { guildsRouter, invitationsRouter } from './guilds/guilds.routes';
+import { healthRouter } from './health.routes';
+import { requireCsrfHeader } from './http/csrf';
+import { apiNotFound, errorMiddleware } from './http/error-middleware';
+import type { AppDeps } from './deps';
+
+export const clientDist = fileURLToPath(new URL('../dist', import.meta.url));
+
+export interface BuiltApp {
+  app: Express;
+  /** Shared with socket.io so sockets authenticate with the HTTP session. */
+  sessionMiddleware: RequestHandler;
+  passportMiddleware: RequestHandler[];
+}
+
+/** Builds the Express app without listening, so tests can drive it with supertest. */
+export function createApp(deps: AppDeps): BuiltApp {
+  const { config, logger } = deps;
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', config.TRUST_PROXY ? 1 : false);
+  app.set('query parser', 'simple');
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          baseUri: ["'self'"],
+          objectSrc: ["'none'"],
+          frameAncestors: ["'none'"],
+          formAction: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'", 'data:'],
+          connectSrc: ["'self'", 'ws:', 'wss:'],
+          mediaSrc: ["'self'", 'blob:'],
+          workerSrc: ["'self'"],
+          manifestSrc: ["'self'"],
+          ...(config.PUBLIC_URL.startsWith('https://') ? { upgradeInsecureRequests: [] } : {}),
+        },
+      },
+      strictTransportSecurity: config.PUBLIC_URL.startsWith('https://'),
+    }),
+  );
+  app.use(
+    pinoHttp({
+      logger,
+      autoLogging: { ignore: (req) => !(req.url ?? '').startsWith('/api') },
+      customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
+    }),
+  );
+
+  const sessionMiddleware = createSessionMiddleware(config, deps.pool);
+  const passport = configurePassport();
+  const passportMiddleware = [passport.initialize(), passport.session()];
+
+  const api = express.Router();
+  api.use(express.json({ limit: '200kb' }));
+  api.use(sessionMiddleware, ...passportMiddleware);
+  api.use(requireCsrfHeader);
+  api.use(healthRouter(deps));
+  api.use(authRouter(deps));
+  api.use(invitationsRouter(deps));
+  api.use('/guilds', guildsRouter(deps));
+  // Feature routers are mounted here (swaps, blocks, photos, sew days, chat, mail).
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  if (config.SERVE_CLIENT && existsSync(clientDist)) {
+    app.use(express.static(clientDist, { index: false, maxAge: '1h', setHeaders: cacheHashedAssets }));
+    // Client-side routes: every other GET gets the app shell.
+    app.get('/{*splat}', (req, res, next) => {
+      if (req.path.startsWith('/socket.io')) return next();
+      res.set('Cache-Control', 'no-cache').sendFile('index.html', { root: clientDist });
+    });
+  }
+
+  app.use(errorMiddleware(logger));
+  return { app, sessionMiddleware, passportMiddleware };
+}
+
+function cacheHashedAssets(res: express.Response, path: string) {
+  if (path.includes('/assets/')) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
+}

@@ -1,0 +1,46 @@
+import passport from 'passport';
+import { Strategy as LocalStrategy } from 'passport-local';
+import { User } from '../db/models';
+import { decoyVerify, verifyPassword } from './passwords';
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    // The signed-in person, as loaded by deserializeUser.
+    interface User {
+      id: number;
+      email: string;
+      displayName: string;
+      units: 'in' | 'mm';
+    }
+  }
+}
+
+/** Configures the one passport instance: e-mail + password, sessions keyed by user id. */
+export function configurePassport() {
+  passport.use(
+    new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
+      User.findOne({ where: { email: email.trim().toLowerCase() } })
+        .then(async (user) => {
+          if (!user) {
+            await decoyVerify(password);
+            return done(null, false);
+          }
+          const ok = await verifyPassword(user.passwordHash, password);
+          return ok ? done(null, toSessionUser(user)) : done(null, false);
+        })
+        .catch(done);
+    }),
+  );
+  passport.serializeUser((user, done) => done(null, user.id));
+  passport.deserializeUser((id: number, done) => {
+    User.findByPk(id, { attributes: ['id', 'email', 'displayName', 'units'] })
+      .then((user) => done(null, user ? toSessionUser(user) : false))
+      .catch(done);
+  });
+  return passport;
+}
+
+export function toSessionUser(user: User): Express.User {
+  return { id: user.id, email: user.email, displayName: user.displayName, units: user.units };
+}

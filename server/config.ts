@@ -1,0 +1,42 @@
+import { z } from 'zod';
+
+const configSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  HOST: z.string().default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  DATABASE_URL: z.string().url({ message: 'DATABASE_URL must be a postgres:// URL' }),
+  SESSION_SECRET: z.string().min(16, 'SESSION_SECRET must be at least 16 characters'),
+  SMTP_URL: z.string().default('smtp://127.0.0.1:1025'),
+  MAIL_FROM: z.string().default('Blockpost <no-reply@blockpost.local>'),
+  PUBLIC_URL: z.string().url().default('http://127.0.0.1:3000'),
+  UPLOAD_DIR: z.string().default('uploads'),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  TRUST_PROXY: z
+    .enum(['true', 'false'])
+    .default('false')
+    .transform((v) => v === 'true'),
+  /** Serve the built client from dist/ (off in dev, where Vite serves it). */
+  SERVE_CLIENT: z
+    .enum(['true', 'false'])
+    .default('true')
+    .transform((v) => v === 'true'),
+  /** Sign-in attempts per 15 minutes per address and IP. */
+  LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(10),
+  /** Run the background job worker in this process. */
+  JOBS: z
+    .enum(['true', 'false'])
+    .default('true')
+    .transform((v) => v === 'true'),
+});
+
+export type Config = z.infer<typeof configSchema>;
+
+/** Reads and validates the environment once; the only place that touches process.env. */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
+  const parsed = configSchema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n');
+    throw new Error(`Blockpost configuration is invalid:\n${lines}`);
+  }
+  return parsed.data;
+}

@@ -1,0 +1,37 @@
+import type { Role } from '@shared/schemas/guilds';
+import { Membership } from '../db/models';
+import { ForbiddenError } from '../http/errors';
+
+/** Everything a guild role may do. Anything not listed is denied. */
+export const guildPermissions = {
+  'guild:read': ['admin', 'coordinator', 'member'],
+  'guild:update': ['admin'],
+  'members:read': ['admin', 'coordinator', 'member'],
+  'members:manage': ['admin'],
+  'invitations:read': ['admin', 'coordinator'],
+  'invitations:create': ['admin', 'coordinator'],
+  'invitations:create-officer': ['admin'],
+  'swaps:read': ['admin', 'coordinator', 'member'],
+  'swaps:manage': ['admin', 'coordinator'],
+  'swaps:join': ['admin', 'coordinator', 'member'],
+  'sewdays:read': ['admin', 'coordinator', 'member'],
+  'sewdays:manage': ['admin', 'coordinator'],
+  'chat:post': ['admin', 'coordinator', 'member'],
+  'chat:moderate': ['admin'],
+  'mail:read-log': ['admin'],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type GuildAction = keyof typeof guildPermissions;
+
+export function can(role: Role | null | undefined, action: GuildAction): boolean {
+  if (!role) return false;
+  return (guildPermissions[action] as readonly Role[]).includes(role);
+}
+
+/** Loads the caller's active membership and checks the action; throws 403 otherwise. */
+export async function authorizeGuild(userId: number, guildId: number, action: GuildAction): Promise<Membership> {
+  const membership = await Membership.findOne({ where: { userId, guildId, status: 'active' } });
+  if (!membership) throw new ForbiddenError('You are not a member of this guild.');
+  if (!can(membership.role, action)) throw new ForbiddenError();
+  return membership;
+}

@@ -1,0 +1,180 @@
+import { Op } from 'sequelize';
+import type { CreateGuildInput, Role } from '@shared/schemas/guilds';
+import type { GuildDto, InvitationDto, InvitationPreviewDto, MemberDto } from '@shared/types';
+import { Guild, Invitation, Membership, User } from '../db/models';
+import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '../http/errors';
+import { hashToken, newToken } from '../auth/tokens';
+import { invitationMail } from '../mail/account-messages';
+import { can } from './guilds.policy';
+import type { AppDeps } from '../deps';
+
+export const INVITATION_VALID_DAYS = 14;
+
+/** Creates a guild; its creator becomes its first admin. */
+export async function createGuild(userId: number, input: CreateGuildInput): Promise<GuildDto> {
+  const guild = await Guild.sequelize!.transaction(async (transaction) => {
+    const created = await Guild.create({ name: input.name, timeZone: input.timeZone ?? 'UTC' }, { transaction });
+    await Membership.create({ guildId: created.id, userId, role: 'admin' }, { transaction });
+    return created;
+  });
+  return { ...guildDto(guild, 'admin'), memberCount: 1 };
+}
+
+function guildDto(guild: Guild, myRole: Role): Omit<GuildDto, 'memberCount'> {
+  return { id: guild.id, name: guild.name, timeZone: guild.timeZone, createdAt: guild.createdAt.toISOString(), myRole };
+}
+
+async function memberCount(guildId: number) {
+  return Membership.count({ where: { guildId, status: 'active' } });
+}
+
+export async function listMyGuilds(userId: number): Promise<GuildDto[]> {
+  const memberships = await Membership.findAll({
+    where: { userId, status: 'active' },
+    include: [{ model: Guild, as: 'guild' }],
+    order: [[{ model: Guild, as: 'guild' }, 'name', 'ASC']],
+  });
+  return Promise.all(memberships.map(async (m) => ({ ...guildDto(m.guild!, m.role), memberCount: await memberCount(m.guildId) })));
+}
+
+export async function getGuild(guildId: number, myRole: Role): Promise<GuildDto> {
+  const guild = await Guild.findByPk(guildId);
+  if (!guild) throw new NotFoundError('That guild does not exist.');
+  return { ...guildDto(guild, myRole), memberCount: await memberCount(guildId) };
+}
+
+export async function updateGuild(guildId: number, myRole: Role, input: Partial<CreateGuildInput>) {
+  const guild = await Guild.findByPk(guildId);
+  if (!guild) throw new NotFoundError('That guild does not exist.');
+  await guild.update(input);
+  return getGuild(guildId, myRole);
+}
+
+export async function listMembers(guildId: number): Promise<MemberDto[]> {
+  const memberships = await Membership.findAll({
+    where: { guildId, status: 'active' },
+    include: [{ model: User, as: 'user', attributes: ['id', 'displayName', 'email'] }],
+    order: [[{ model: User, as: 'user' }, 'displayName', 'ASC']],
+  });
+  return memberships.map((m) => ({
+    userId: m.userId,
+    displayName: m.user!.displayName,
+    email: m.user!.email,
+    role: m.role,
+    joinedAt: m.createdAt.toISOString(),
+  }));
+}
+
+async function assertNotLastAdmin(guildId: number, userId: number, transaction: import('sequelize').Transaction) {
+  const admins = await Membership.findAll({
+    where: { guildId, role: 'admin', status: 'active' },
+    transaction,
+    lock: transaction.LOCK.UPDATE,
+  });
+  if (admins.length === 1 && admins[0]!.userId === userId) {
+    throw new ConflictError('A guild needs at least one admin. Make someone else admin first.', 'last_admin');
+  }
+}
+
+export async function changeRole(deps: Pick<AppDeps, 'events'>, guildId: number, userId: number, role: Role) {
+  await Membership.sequelize!.transaction(async (transaction) => {
+    const membership = await Membership.findOne({ where: { guildId, userId, status: 'active' }, transaction });
+    if (!membership) throw new NotFoundError('That person is not a member of this guild.');
+    if (membership.role === 'admin' && role !== 'admin') await assertNotLastAdmin(guildId, userId, transaction);
+    await membership.update({ role }, { transaction });
+  });
+  return (await listMembers(guildId)).find((m) => m.userId === userId)!;
+}
+
+export async function removeMember(deps: Pick<AppDeps, 'events'>, guildId: number, userId: number) {
+  await Membership.sequelize!.transaction(async (transaction) => {
+    const membership = await Membership.findOne({ where: { guildId, userId, status: 'active' }, transaction });
+    if (!membership) throw new NotFoundError('That person is not a member of this guild.');
+    if (membership.role === 'admin') await assertNotLastAdmin(guildId, userId, transaction);
+    await membership.update({ status: 'removed' }, { transaction });
+  });
+  deps.events.emit('member.removed', { guildId, userId });
+}
+
+export async function listInvitations(guildId: number): Promise<InvitationDto[]> {
+  const invitations = await Invitation.findAll({
+    where: { guildId, acceptedAt: null, expiresAt: { [Op.gt]: new Date() } },
+    order: [['createdAt', 'DESC']],
+  });
+  return invitations.map(invitationDto);
+}
+
+function invitationDto(i: Invitation): InvitationDto {
+  return { id: i.id, email: i.email, role: i.role, expiresAt: i.expiresAt.toISOString(), acceptedAt: i.acceptedAt?.toISOString() ?? null };
+}
+
+/** Records an invitation and e-mails its link; only the token's hash is kept. */
+export async function invite(
+  deps: Pick<AppDeps, 'mailer' | 'config' | 'logger'>,
+  opts: { guildId: number; inviter: Express.User; inviterRole: Role; email: string; role: Role },
+): Promise<InvitationDto> {
+  if (opts.role !== 'member' && !can(opts.inviterRole, 'invitations:create-officer')) {
+    throw new ForbiddenError('Only a guild admin can invite admins or coordinators.');
+  }
+  const guild = await Guild.findByPk(opts.guildId);
+  if (!guild) throw new NotFoundError('That guild does not exist.');
+  const existing = await Membership.findOne({
+    where: { guildId: opts.guildId, status: 'active' },
+    include: [{ model: User, as: 'user', where: { email: opts.email }, attributes: ['id'] }],
+  });
+  if (existing) throw new ConflictError('That person is already a member of this guild.', 'already_member');
+
+  const { token, tokenHash } = newToken();
+  const expiresAt = new Date(Date.now() + INVITATION_VALID_DAYS * 86_400_000);
+  const invitation = await Invitation.create({
+    guildId: opts.guildId,
+    email: opts.email,
+    role: opts.role,
+    tokenHash,
+    invitedById: opts.inviter.id,
+    expiresAt,
+  });
+  const url = `${deps.config.PUBLIC_URL}/invitations/${encodeURIComponent(token)}`;
+  await deps.mailer.send(
+    invitationMail({ to: opts.email, guildName: guild.name, inviterName: opts.inviter.displayName, role: opts.role, url, expiresAt }),
+  );
+  return invitationDto(invitation);
+}
+
+export async function revokeInvitation(guildId: number, invitationId: number) {
+  const removed = await Invitation.destroy({ where: { id: invitationId, guildId, acceptedAt: null } });
+  if (!removed) throw new NotFoundError('That invitation is not open any more.');
+}
+
+async function findOpenInvitation(token: string) {
+  const invitation = await Invitation.findOne({ where: { tokenHash: hashToken(token) }, include: [{ model: Guild, as: 'guild' }] });
+  if (!invitation) throw new NotFoundError('This invitation link is not valid. Ask the guild for a new one.');
+  if (invitation.acceptedAt) throw new ConflictError('This invitation was already accepted.', 'invitation_used');
+  if (invitation.expiresAt.getTime() < Date.now()) {
+    throw new ValidationError('This invitation has expired. Ask the guild for a new one.', { token: 'expired' });
+  }
+  return invitation;
+}
+
+export async function previewInvitation(token: string): Promise<InvitationPreviewDto> {
+  const invitation = await findOpenInvitation(token);
+  return { guildName: invitation.guild!.name, email: invitation.email, role: invitation.role, expiresAt: invitation.expiresAt.toISOString() };
+}
+
+/** The signed-in user joins with the invited role; a removed member comes back. */
+export async function acceptInvitation(deps: Pick<AppDeps, 'events'>, token: string, userId: number) {
+  const invitation = await findOpenInvitation(token);
+  const membership = await Invitation.sequelize!.transaction(async (transaction) => {
+    const [spent] = await Invitation.update(
+      { acceptedAt: new Date(), acceptedById: userId },
+      { where: { id: invitation.id, acceptedAt: null }, transaction },
+    );
+    if (spent !== 1) throw new ConflictError('This invitation was already accepted.', 'invitation_used');
+    const existing = await Membership.findOne({ where: { guildId: invitation.guildId, userId }, transaction });
+    if (existing?.status === 'active') return existing;
+    if (existing) return existing.update({ status: 'active', role: invitation.role }, { transaction });
+    return Membership.create({ guildId: invitation.guildId, userId, role: invitation.role }, { transaction });
+  });
+  deps.events.emit('member.joined', { guildId: membership.guildId, userId, role: membership.role });
+  return { guildId: membership.guildId, guildName: invitation.guild!.name, role: membership.role };
+}

@@ -1,0 +1,49 @@
+import { z } from 'zod';
+import { emailSchema } from './auth';
+
+export const roles = ['admin', 'coordinator', 'member'] as const;
+export const roleSchema = z.enum(roles, { error: 'Choose admin, coordinator or member.' });
+export type Role = z.infer<typeof roleSchema>;
+
+export const roleLabels: Record<Role, string> = {
+  admin: 'Guild admin',
+  coordinator: 'Swap coordinator',
+  member: 'Member',
+};
+
+export const idParam = z.coerce.number({ error: 'Expected a number.' }).int().positive('Expected a positive id.');
+
+export const guildParamsSchema = z.object({ guildId: idParam });
+export const memberParamsSchema = z.object({ guildId: idParam, userId: idParam });
+
+export const timeZoneSchema = z
+  .string()
+  .trim()
+  .refine((tz) => {
+    try {
+      new Intl.DateTimeFormat('en', { timeZone: tz });
+      return true;
+    } catch {
+      return false;
+    }
+  }, 'Choose a time zone such as America/Chicago.');
+
+export const createGuildSchema = z.object({
+  name: z
+    .string({ error: 'Give the guild a name.' })
+    .trim()
+    .min(2, 'Give the guild a name of at least 2 characters.')
+    .max(100, 'Keep the guild name under 100 characters.'),
+  timeZone: timeZoneSchema.optional(),
+});
+export type CreateGuildInput = z.infer<typeof createGuildSchema>;
+
+export const updateMemberSchema = z.object({ role: roleSchema });
+export type UpdateMemberInput = z.infer<typeof updateMemberSchema>;
+
+export const createInvitationSchema = z.object({ email: emailSchema, role: roleSchema.default('member') });
+export type CreateInvitationInput = z.input<typeof createInvitationSchema>;
+
+export const invitationTokenParams = z.object({
+  token: z.string().min(20, 'The invitation link is incomplete.').max(200),
+});

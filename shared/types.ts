@@ -1,0 +1,52 @@
+import type { Role } from './schemas/guilds';
+import type { Units } from './schemas/auth';
+
+export interface UserDto {
+  id: number;
+  email: string;
+  displayName: string;
+  units: Units;
+}
+
+export interface MembershipDto {
+  guildId: number;
+  guildName: string;
+  role: Role;
+}
+
+export interface MeDto {
+  user: UserDto;
+  memberships: MembershipDto[];
+}
+
+export interface GuildDto {
+  id: number;
+  name: string;
+  timeZone: string;
+  createdAt: string;
+  myRole: Role;
+  memberCount: number;
+}
+
+export interface MemberDto {
+  userId: number;
+  displayName: string;
+  email: string;
+  role: Role;
+  joinedAt: string;
+}
+
+export interface InvitationDto {
+  id: number;
+  email: string;
+  role: Role;
+  expiresAt: string;
+  acceptedAt: string | null;
+}
+
+export interface InvitationPreviewDto {
+  guildName: string;
+  email: string;
+  role: Role;
+  expiresAt: string;
+}
