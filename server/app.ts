@@ -11,6 +11,7 @@ import { healthRouter } from './health.routes';
 import { requireCsrfHeader } from './http/csrf';
 import { apiNotFound, errorMiddleware } from './http/error-middleware';
 import type { AppDeps } from './deps';
+import { featureRouters } from './features';
 
 export const clientDist = fileURLToPath(new URL('../dist', import.meta.url));
 
@@ -73,7 +74,7 @@ export function createApp(deps: AppDeps): BuiltApp {
   api.use(authRouter(deps));
   api.use(invitationsRouter(deps));
   api.use('/guilds', guildsRouter(deps));
-  // Feature routers are mounted here (swaps, blocks, photos, sew days, chat, mail).
+  for (const featureRouter of featureRouters) api.use(featureRouter(deps));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -1,13 +1,32 @@
 import { EventEmitter } from 'node:events';
+import type { Role } from '@shared/schemas/guilds';
+
+type SwapRef = { swapId: number; guildId: number };
+type Actor = { actorId: number };
+export type BlockEventState = 'pledged' | 'sewn' | 'handed_in' | 'received' | 'measured' | 'returned';
+export type VerdictName = 'true' | 'trim' | 'short' | 'skewed';
 
 /**
  * In-process domain events, emitted by services after their transaction commits. The live board and
  * the mail jobs subscribe here, so the services that change data know nothing about either.
  */
 export interface DomainEventMap {
-  'member.joined': { guildId: number; userId: number; role: string };
+  'member.joined': { guildId: number; userId: number; role: Role };
   'member.removed': { guildId: number; userId: number };
+  'swap.created': SwapRef & Actor;
+  'swap.updated': SwapRef & Actor;
+  'swap.transitioned': SwapRef & Actor & { from: string; to: string };
+  'signup.changed': SwapRef & Actor & { userId: number; blocks: number };
+  'signup.withdrawn': SwapRef & Actor & { userId: number };
+  /** sewn, handed in, received, trimmed, returned: any change of a block's state or recipient. */
+  'block.changed': SwapRef & Actor & { blockId: number; makerId: number; from: BlockEventState; to: BlockEventState };
+  'block.measured': SwapRef &
+    Actor & { blockId: number; makerId: number; measurementId: number; verdict: VerdictName; source: 'ruler' | 'maker' | 'photo' };
+  'photo.added': SwapRef & Actor & { blockId: number; makerId: number; photoId: number };
+  'distribution.confirmed': SwapRef & Actor & { transfers: number };
 }
+
+export type DomainEventName = keyof DomainEventMap;
 
 export class DomainEvents {
   private emitter = new EventEmitter();
@@ -16,20 +35,28 @@ export class DomainEvents {
     this.emitter.setMaxListeners(50);
   }
 
-  emit<K extends keyof DomainEventMap>(name: K, payload: DomainEventMap[K]) {
+  emit<K extends DomainEventName>(name: K, payload: DomainEventMap[K]) {
     this.emitter.emit(name, payload);
+    this.emitter.emit('*', name, payload);
   }
 
-  on<K extends keyof DomainEventMap>(name: K, listener: (payload: DomainEventMap[K]) => void | Promise<void>) {
-    this.emitter.on(name, (payload: DomainEventMap[K]) => {
-      // A listener's failure must never undo or fail the request that emitted the event.
-      Promise.resolve()
-        .then(() => listener(payload))
-        .catch((error: unknown) => this.emitter.emit('listener-error', { name, error }));
-    });
+  on<K extends DomainEventName>(name: K, listener: (payload: DomainEventMap[K]) => void | Promise<void>) {
+    this.emitter.on(name, (payload: DomainEventMap[K]) => this.guard(name, () => listener(payload)));
+  }
+
+  /** Every event, for subscribers that fan them all out (the live board). */
+  onAny(listener: (name: DomainEventName, payload: DomainEventMap[DomainEventName]) => void | Promise<void>) {
+    this.emitter.on('*', (name: DomainEventName, payload: DomainEventMap[DomainEventName]) => this.guard(name, () => listener(name, payload)));
   }
 
   onListenerError(handler: (info: { name: string; error: unknown }) => void) {
     this.emitter.on('listener-error', handler);
+  }
+
+  // A listener's failure must never undo or fail the request that emitted the event.
+  private guard(name: string, run: () => void | Promise<void>) {
+    Promise.resolve()
+      .then(run)
+      .catch((error: unknown) => this.emitter.emit('listener-error', { name, error }));
   }
 }

@@ -9,6 +9,7 @@ import { createMailer } from './mail/mailer';
 import { createApp } from './app';
 import { DomainEvents } from './events';
 import type { AppDeps } from './deps';
+import { featureStartups, type FeatureHandle } from './features';
 
 export interface RunningServer {
   server: Server;
@@ -28,9 +29,10 @@ export async function startServer(config: Config = loadConfig()): Promise<Runnin
   const events = new DomainEvents();
   events.onListenerError(({ name, error }) => logger.error({ err: error, event: name }, 'event listener failed'));
   const deps: AppDeps = { config, logger, sequelize, pool, mailer: createMailer(config), events };
-  const { app } = createApp(deps);
-  const server = createServer(app);
-  // Feature start-up hooks (socket.io, job workers) attach to `server` and `deps` here.
+  const built = createApp(deps);
+  const server = createServer(built.app);
+  const features: FeatureHandle[] = [];
+  for (const startup of featureStartups) features.push(await startup({ server, deps, built }));
   await new Promise<void>((resolve) => server.listen(config.PORT, config.HOST, resolve));
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.PORT;
@@ -45,6 +47,9 @@ export async function startServer(config: Config = loadConfig()): Promise<Runnin
         server.closeIdleConnections();
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
+      for (const feature of features.reverse()) {
+        await feature.close().catch((err: unknown) => logger.error({ err, feature: feature.name }, 'feature did not stop cleanly'));
+      }
       deps.mailer.close();
       await pool.end();
       await sequelize.close();

@@ -104,7 +104,7 @@ export function startCluster(pgBin: string, opts: ClusterOptions) {
     asClusterOwner(join(pgBin, 'pg_ctl'), ['-D', opts.dataDir, '-l', opts.logFile, '-w', '-t', '60', '-o', settings, 'start']);
   } catch (error) {
     const tail = existsSync(opts.logFile) ? readFileSync(opts.logFile, 'utf8').split('\n').slice(-15).join('\n') : '';
-    throw new Error(`PostgreSQL did not start on port ${opts.port}.\n${tail}\n${String(error)}`);
+    throw new Error(`PostgreSQL did not start on port ${opts.port}.\n${tail}`, { cause: error });
   }
 }
 

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { z } from 'zod';
+import { type z } from 'zod';
 import {
   createGuildSchema, createInvitationSchema, guildParamsSchema, idParam, invitationTokenParams, memberParamsSchema,
   updateMemberSchema,

@@ -1,4 +1,4 @@
-import { Op } from 'sequelize';
+import { Op, type Transaction } from 'sequelize';
 import type { CreateGuildInput, Role } from '@shared/schemas/guilds';
 import type { GuildDto, InvitationDto, InvitationPreviewDto, MemberDto } from '@shared/types';
 import { Guild, Invitation, Membership, User } from '../db/models';
@@ -65,7 +65,7 @@ export async function listMembers(guildId: number): Promise<MemberDto[]> {
   }));
 }
 
-async function assertNotLastAdmin(guildId: number, userId: number, transaction: import('sequelize').Transaction) {
+async function assertNotLastAdmin(guildId: number, userId: number, transaction: Transaction) {
   const admins = await Membership.findAll({
     where: { guildId, role: 'admin', status: 'active' },
     transaction,

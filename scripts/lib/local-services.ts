@@ -1,0 +1,71 @@
+/**
+ * The local services `npm start` and `npm run dev` need: a PostgreSQL cluster under .data/ on a fixed
+ * loopback port (unless DATABASE_URL is set) and maildev on loopback (unless SMTP_URL is set).
+ */
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { randomBytes } from 'node:crypto';
+import { join, resolve } from 'node:path';
+import { clusterUrl, ensureDatabase, ensurePostgresBinaries, initCluster, startCluster, stopCluster } from './postgres';
+import { startMaildev, type MaildevHandle } from './maildev';
+
+export const repoRoot = resolve(import.meta.dirname, '..', '..');
+export const dataDir = join(repoRoot, '.data');
+const PG_PORT = Number(process.env.BLOCKPOST_PG_PORT ?? 54329);
+
+export interface LocalServices {
+  env: Record<string, string>;
+  maildevUrl: string | null;
+  stop(): Promise<void>;
+}
+
+/** A stable session secret per checkout, so restarts keep people signed in. */
+function sessionSecret() {
+  const file = join(dataDir, 'session-secret');
+  if (!existsSync(file)) writeFileSync(file, randomBytes(32).toString('hex'), { mode: 0o600 });
+  return readFileSync(file, 'utf8').trim();
+}
+
+export async function startLocalServices(log: (msg: string) => void = console.log): Promise<LocalServices> {
+  mkdirSync(dataDir, { recursive: true });
+  const env: Record<string, string> = {};
+  let stopPostgres: (() => void) | null = null;
+  let maildev: MaildevHandle | null = null;
+
+  if (process.env.DATABASE_URL) {
+    log('Using the PostgreSQL server in DATABASE_URL.');
+    env.DATABASE_URL = process.env.DATABASE_URL;
+  } else {
+    const pgBin = ensurePostgresBinaries(log);
+    const cluster = { dataDir: join(dataDir, 'pg'), socketDir: join(dataDir, 'pg-run'), logFile: join(dataDir, 'postgres.log'), port: PG_PORT };
+    if (initCluster(pgBin, cluster)) log(`Created a PostgreSQL cluster in ${cluster.dataDir}.`);
+    startCluster(pgBin, cluster);
+    stopPostgres = () => stopCluster(pgBin, cluster.dataDir);
+    await ensureDatabase(PG_PORT, 'blockpost');
+    env.DATABASE_URL = clusterUrl(PG_PORT, 'blockpost');
+    log(`PostgreSQL is running on 127.0.0.1:${PG_PORT} (trust authentication: loopback development only).`);
+  }
+
+  if (process.env.SMTP_URL) {
+    env.SMTP_URL = process.env.SMTP_URL;
+  } else {
+    const smtpPort = Number(process.env.MAILDEV_SMTP_PORT ?? 1025);
+    const webPort = Number(process.env.MAILDEV_WEB_PORT ?? 1080);
+    try {
+      maildev = await startMaildev({ smtpPort, webPort, mailDir: join(dataDir, 'mail') });
+    } catch (error) {
+      stopPostgres?.();
+      throw new Error(`maildev could not start on ports ${smtpPort}/${webPort}: ${(error as Error).message}`, { cause: error });
+    }
+    env.SMTP_URL = `smtp://127.0.0.1:${smtpPort}`;
+  }
+  env.SESSION_SECRET = process.env.SESSION_SECRET ?? sessionSecret();
+
+  return {
+    env,
+    maildevUrl: maildev ? `http://127.0.0.1:${maildev.webPort}` : null,
+    async stop() {
+      await maildev?.stop();
+      stopPostgres?.();
+    },
+  };
+}

@@ -1,0 +1,28 @@
+/**
+ * Where feature slices plug into the app: their routers (mounted under /api, after the core ones) and
+ * their start-up hooks (socket.io, job workers), which run once the HTTP server exists.
+ */
+import type { Server } from 'node:http';
+import type { Router } from 'express';
+import type { AppDeps } from './deps';
+import type { BuiltApp } from './app';
+
+export type FeatureRouter = (deps: AppDeps) => Router;
+
+export interface FeatureContext {
+  server: Server;
+  deps: AppDeps;
+  built: BuiltApp;
+}
+
+/** A running part of the process that must stop cleanly on shutdown. */
+export interface FeatureHandle {
+  name: string;
+  close(): Promise<void>;
+}
+
+export type FeatureStartup = (ctx: FeatureContext) => Promise<FeatureHandle>;
+
+export const featureRouters: FeatureRouter[] = [];
+
+export const featureStartups: FeatureStartup[] = [];

@@ -1,0 +1,61 @@
+import { Link, NavLink, Outlet, useNavigate } from 'react-router';
+import { useMe } from '@/features/auth/api/get-me';
+import { useLogout } from '@/features/auth/api/auth-mutations';
+import { paths } from '@/lib/paths';
+
+const navClass = ({ isActive }: { isActive: boolean }) =>
+  `inline-flex min-h-11 items-center rounded-lg px-3 font-semibold ${isActive ? 'bg-indigo text-white' : 'text-indigo hover:bg-linen-deep'}`;
+
+export function BrandMark() {
+  return (
+    <span className="inline-flex items-center gap-2">
+      <img src="/blockpost-mark.svg" alt="" className="h-9 w-9" />
+      <span className="font-display text-2xl font-bold text-indigo-deep">Blockpost</span>
+    </span>
+  );
+}
+
+export function AppShell() {
+  const me = useMe();
+  const logout = useLogout();
+  const navigate = useNavigate();
+  const signedIn = Boolean(me.data);
+  return (
+    <div className="min-h-screen">
+      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-10 focus:bg-card focus:p-3">
+        Skip to the page
+      </a>
+      <header className="border-b border-walnut/15 bg-card print:hidden">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center justify-between gap-3 px-4 py-3">
+          <Link to={signedIn ? paths.guilds : paths.home} aria-label="Blockpost home">
+            <BrandMark />
+          </Link>
+          <nav aria-label="Main" className="flex flex-wrap items-center gap-1">
+            {signedIn ? (
+              <>
+                <NavLink to={paths.guilds} className={navClass}>Guilds</NavLink>
+                <NavLink to={paths.planner} className={navClass}>Cutting planner</NavLink>
+                <NavLink to={paths.settings} className={navClass}>Settings</NavLink>
+                <button
+                  type="button"
+                  className="inline-flex min-h-11 items-center rounded-lg px-3 font-semibold text-madder-deep hover:bg-linen-deep"
+                  onClick={() => logout.mutate(undefined, { onSuccess: () => navigate(paths.signIn) })}
+                >
+                  Sign out
+                </button>
+              </>
+            ) : (
+              <>
+                <NavLink to={paths.signIn} className={navClass}>Sign in</NavLink>
+                <NavLink to={paths.register} className={navClass}>Create account</NavLink>
+              </>
+            )}
+          </nav>
+        </div>
+      </header>
+      <main id="main" className="mx-auto max-w-6xl px-4 py-6 sm:py-10">
+        <Outlet />
+      </main>
+    </div>
+  );
+}

@@ -1,0 +1,29 @@
+import { NavLink, Outlet, useParams } from 'react-router';
+import { roleLabels } from '@shared/schemas/guilds';
+import { useGuild } from '@/features/guilds/api/get-guild';
+import { Loading, QueryError } from '@/components/ui/page';
+import { paths } from '@/lib/paths';
+
+const tabClass = ({ isActive }: { isActive: boolean }) =>
+  `inline-flex min-h-11 items-center border-b-4 px-3 font-semibold ${isActive ? 'border-madder text-walnut' : 'border-transparent text-indigo hover:border-walnut/20'}`;
+
+/** The guild's name, the caller's role and the guild's sections. */
+export function GuildLayout() {
+  const guildId = Number(useParams().guildId);
+  const guild = useGuild(guildId);
+  if (guild.isPending) return <Loading />;
+  if (guild.isError) return <QueryError error={guild.error} what="the guild" />;
+  return (
+    <div>
+      <div className="mb-6 print:hidden">
+        <p className="text-walnut-soft">{roleLabels[guild.data.myRole]}</p>
+        <h1 className="text-3xl font-bold text-indigo-deep sm:text-4xl">{guild.data.name}</h1>
+        <nav aria-label="Guild sections" className="mt-4 flex flex-wrap gap-1 border-b border-walnut/15">
+          <NavLink end to={paths.guild(guildId)} className={tabClass}>Overview</NavLink>
+          <NavLink to={paths.members(guildId)} className={tabClass}>Members</NavLink>
+        </nav>
+      </div>
+      <Outlet />
+    </div>
+  );
+}

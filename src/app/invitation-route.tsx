@@ -1,0 +1,9 @@
+import { AcceptInvitationPage } from '@/features/guilds/components/accept-invitation-page';
+import { useMe } from '@/features/auth/api/get-me';
+import { Loading } from '@/components/ui/page';
+
+export function InvitationRoute() {
+  const me = useMe();
+  if (me.isPending) return <Loading />;
+  return <AcceptInvitationPage signedIn={Boolean(me.data)} />;
+}

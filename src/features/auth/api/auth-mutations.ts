@@ -1,0 +1,35 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { LoginInput, ProfileUpdateInput, RegisterInput, ResetInput, ResetRequestInput } from '@shared/schemas/auth';
+import type { MeDto } from '@shared/types';
+import { api } from '@/lib/api-client';
+import { authKeys } from './auth-keys';
+
+export const login = (input: LoginInput) => api.post<MeDto>('/auth/login', input);
+export const register = (input: RegisterInput) => api.post<MeDto>('/auth/register', input);
+export const logout = () => api.post<void>('/auth/logout');
+export const requestReset = (input: ResetRequestInput) => api.post<{ message: string }>('/auth/reset-request', input);
+export const resetPassword = (input: ResetInput) => api.post<{ message: string }>('/auth/reset', input);
+export const updateProfile = (input: ProfileUpdateInput) => api.patch<MeDto>('/me', input);
+
+/** Signing in or out changes everything a page shows, so the whole cache starts over. */
+function useSessionChange<I>(fn: (input: I) => Promise<MeDto | void>) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: fn,
+    onSuccess: (me) => {
+      queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== authKeys.all[0] });
+      queryClient.setQueryData(authKeys.me(), me ?? null);
+    },
+  });
+}
+
+export const useLogin = () => useSessionChange(login);
+export const useRegister = () => useSessionChange(register);
+export const useLogout = () => useSessionChange(() => logout());
+export const useRequestReset = () => useMutation({ mutationFn: requestReset });
+export const useResetPassword = () => useMutation({ mutationFn: resetPassword });
+
+export function useUpdateProfile() {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: updateProfile, onSuccess: (me) => queryClient.setQueryData(authKeys.me(), me) });
+}

@@ -1,0 +1,20 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { MeDto } from '@shared/types';
+import { api, ApiError } from '@/lib/api-client';
+import { authKeys } from './auth-keys';
+
+/** The signed-in person, or null when signed out. */
+export async function getMe(): Promise<MeDto | null> {
+  try {
+    return await api.get<MeDto>('/me', { allowUnauthenticated: true });
+  } catch (error) {
+    if (error instanceof ApiError && error.status === 401) return null;
+    throw error;
+  }
+}
+
+export const meQueryOptions = () => queryOptions({ queryKey: authKeys.me(), queryFn: getMe, staleTime: 60_000 });
+
+export function useMe() {
+  return useQuery(meQueryOptions());
+}

@@ -1,0 +1,56 @@
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { Link, useNavigate, useSearchParams } from 'react-router';
+import { registerSchema, type RegisterInput } from '@shared/schemas/auth';
+import { Button } from '@/components/ui/button';
+import { TextField } from '@/components/ui/fields';
+import { Alert } from '@/components/ui/alert';
+import { applyServerErrors } from '@/components/ui/form-errors';
+import { paths } from '@/lib/paths';
+import { useRegister } from '../api/auth-mutations';
+import { AuthFrame } from './auth-frame';
+import { safeNext } from './sign-in-page';
+
+export function RegisterPage() {
+  const [params] = useSearchParams();
+  const navigate = useNavigate();
+  const registration = useRegister();
+  const [formError, setFormError] = useState('');
+  const { register, handleSubmit, setError, formState } = useForm<RegisterInput>({ resolver: zodResolver(registerSchema) });
+
+  const onSubmit = handleSubmit(async (values) => {
+    setFormError('');
+    try {
+      await registration.mutateAsync(values);
+      navigate(safeNext(params.get('next')), { replace: true });
+    } catch (error) {
+      setFormError(applyServerErrors(error, setError, ['email', 'password', 'displayName']));
+    }
+  });
+
+  return (
+    <AuthFrame
+      title="Create your account"
+      lead="One account for every guild you belong to."
+      footer={
+        <p>
+          Already have an account?{' '}
+          <Link className="font-semibold text-indigo underline" to={`${paths.signIn}${params.get('next') ? `?next=${encodeURIComponent(params.get('next')!)}` : ''}`}>
+            Sign in
+          </Link>
+        </p>
+      }
+    >
+      <form onSubmit={onSubmit} noValidate className="space-y-4">
+        {formError && <Alert tone="error">{formError}</Alert>}
+        <TextField label="Your name" hint="As your guild knows you." autoComplete="name" error={formState.errors.displayName?.message} {...register('displayName')} />
+        <TextField label="E-mail" type="email" autoComplete="email" error={formState.errors.email?.message} {...register('email')} />
+        <TextField label="Password" type="password" hint="At least 10 characters." autoComplete="new-password" error={formState.errors.password?.message} {...register('password')} />
+        <Button type="submit" className="w-full" pending={registration.isPending} pendingLabel="Creating your account…">
+          Create account
+        </Button>
+      </form>
+    </AuthFrame>
+  );
+}

@@ -1,0 +1,55 @@
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { profileUpdateSchema, type ProfileUpdateInput } from '@shared/schemas/auth';
+import { Card } from '@/components/ui/card';
+import { Button } from '@/components/ui/button';
+import { SelectField, TextField } from '@/components/ui/fields';
+import { Alert } from '@/components/ui/alert';
+import { Loading, PageHeader } from '@/components/ui/page';
+import { applyServerErrors } from '@/components/ui/form-errors';
+import { useMe } from '../api/get-me';
+import { useUpdateProfile } from '../api/auth-mutations';
+
+export function SettingsPage() {
+  const me = useMe();
+  if (!me.data) return <Loading />;
+  return (
+    <div className="space-y-6">
+      <PageHeader title="Settings" lead="How Blockpost shows sizes to you, and what your guild sees." />
+      <ProfileForm defaults={{ displayName: me.data.user.displayName, units: me.data.user.units }} />
+    </div>
+  );
+}
+
+function ProfileForm({ defaults }: { defaults: ProfileUpdateInput }) {
+  const update = useUpdateProfile();
+  const [formError, setFormError] = useState('');
+  const { register, handleSubmit, setError, formState } = useForm<ProfileUpdateInput>({ resolver: zodResolver(profileUpdateSchema), defaultValues: defaults });
+  const onSubmit = handleSubmit(async (values) => {
+    setFormError('');
+    try {
+      await update.mutateAsync(values);
+    } catch (error) {
+      setFormError(applyServerErrors(error, setError, ['displayName', 'units', 'mailingAddress']));
+    }
+  });
+  return (
+    <Card title="Your profile">
+      <form onSubmit={onSubmit} noValidate className="grid max-w-xl gap-4">
+        {formError && <Alert tone="error">{formError}</Alert>}
+        {update.isSuccess && <Alert tone="success">Saved.</Alert>}
+        <TextField label="Your name" error={formState.errors.displayName?.message} {...register('displayName')} />
+        <SelectField
+          label="Show lengths in"
+          options={[{ value: 'in', label: 'Inches and fractions (8½″)' }, { value: 'mm', label: 'Millimetres (215.9 mm)' }]}
+          error={formState.errors.units?.message}
+          {...register('units')}
+        />
+        <div>
+          <Button type="submit" pending={update.isPending} pendingLabel="Saving…">Save</Button>
+        </div>
+      </form>
+    </Card>
+  );
+}

@@ -1,0 +1,8 @@
+export const guildKeys = {
+  all: ['guilds'] as const,
+  lists: () => [...guildKeys.all, 'list'] as const,
+  detail: (guildId: number) => [...guildKeys.all, 'detail', guildId] as const,
+  members: (guildId: number) => [...guildKeys.detail(guildId), 'members'] as const,
+  invitations: (guildId: number) => [...guildKeys.detail(guildId), 'invitations'] as const,
+  invitationPreview: (token: string) => [...guildKeys.all, 'invitation', token] as const,
+};

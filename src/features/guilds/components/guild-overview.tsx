@@ -1,0 +1,25 @@
+import { Link, useParams } from 'react-router';
+import { roleLabels } from '@shared/schemas/guilds';
+import { Card } from '@/components/ui/card';
+import { Loading, QueryError } from '@/components/ui/page';
+import { paths } from '@/lib/paths';
+import { useGuild } from '../api/get-guild';
+
+/** The guild's front page until other sections fill it. */
+export function GuildOverview() {
+  const guildId = Number(useParams().guildId);
+  const guild = useGuild(guildId);
+  if (guild.isPending) return <Loading />;
+  if (guild.isError) return <QueryError error={guild.error} what="the guild" />;
+  return (
+    <Card title="About this guild">
+      <p>
+        You are {roleLabels[guild.data.myRole].toLowerCase()} here. {guild.data.memberCount} members · deadlines shown in{' '}
+        {guild.data.timeZone}.
+      </p>
+      <p className="mt-3">
+        <Link className="font-semibold text-indigo underline" to={paths.members(guildId)}>See the members</Link>
+      </p>
+    </Card>
+  );
+}

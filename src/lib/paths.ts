@@ -1,0 +1,14 @@
+/** Every page URL in one place. */
+export const paths = {
+  home: '/',
+  signIn: '/sign-in',
+  register: '/register',
+  forgotPassword: '/forgot-password',
+  resetPassword: '/reset-password',
+  invitation: (token = ':token') => `/invitations/${token}`,
+  guilds: '/guilds',
+  guild: (guildId: number | string = ':guildId') => `/guilds/${guildId}`,
+  members: (guildId: number | string = ':guildId') => `/guilds/${guildId}/members`,
+  planner: '/planner',
+  settings: '/settings',
+} as const;

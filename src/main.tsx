@@ -1,0 +1,16 @@
+import { StrictMode } from 'react';
+import { createRoot } from 'react-dom/client';
+import { RouterProvider } from 'react-router';
+import { Providers } from './app/providers';
+import { createRouter } from './app/router';
+import './styles.css';
+
+const router = createRouter();
+
+createRoot(document.getElementById('root')!).render(
+  <StrictMode>
+    <Providers>
+      <RouterProvider router={router} />
+    </Providers>
+  </StrictMode>,
+);
