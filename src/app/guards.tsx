@@ -1,7 +1,7 @@
-import { Navigate, Outlet, useLocation } from 'react-router';
+import { Navigate, Outlet, useLocation, useSearchParams } from 'react-router';
 import { useMe } from '@/features/auth/api/get-me';
 import { Loading, QueryError } from '@/components/ui/page';
-import { paths } from '@/lib/paths';
+import { paths, safeNext } from '@/lib/paths';
 
 /** Pages behind sign-in send a signed-out visitor to sign in and back. */
 export function RequireSignedIn() {
@@ -13,10 +13,11 @@ export function RequireSignedIn() {
   return <Outlet />;
 }
 
-/** Sign-in pages send a signed-in visitor on to their guilds. */
+/** Sign-in pages send a signed-in visitor on to where they were going, or their guilds. */
 export function RedirectIfSignedIn() {
   const me = useMe();
+  const [params] = useSearchParams();
   if (me.isPending) return <Loading />;
-  if (me.data) return <Navigate to={paths.guilds} replace />;
+  if (me.data) return <Navigate to={safeNext(params.get('next'))} replace />;
   return <Outlet />;
 }

@@ -12,3 +12,8 @@ export const paths = {
   planner: '/planner',
   settings: '/settings',
 } as const;
+
+/** Where to go after signing in: only same-site paths are followed. */
+export function safeNext(next: string | null | undefined): string {
+  return next && next.startsWith('/') && !next.startsWith('//') ? next : paths.guilds;
+}

@@ -7,10 +7,9 @@ import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
 import { Alert } from '@/components/ui/alert';
 import { applyServerErrors } from '@/components/ui/form-errors';
-import { paths } from '@/lib/paths';
+import { paths, safeNext } from '@/lib/paths';
 import { useRegister } from '../api/auth-mutations';
 import { AuthFrame } from './auth-frame';
-import { safeNext } from './sign-in-page';
 
 export function RegisterPage() {
   const [params] = useSearchParams();

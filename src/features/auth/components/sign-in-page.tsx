@@ -7,14 +7,9 @@ import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
 import { Alert } from '@/components/ui/alert';
 import { applyServerErrors } from '@/components/ui/form-errors';
-import { paths } from '@/lib/paths';
+import { paths, safeNext } from '@/lib/paths';
 import { useLogin } from '../api/auth-mutations';
 import { AuthFrame } from './auth-frame';
-
-/** Only same-site paths are followed after sign-in. */
-export function safeNext(next: string | null) {
-  return next && next.startsWith('/') && !next.startsWith('//') ? next : paths.guilds;
-}
 
 export function SignInPage() {
   const [params] = useSearchParams();
