@@ -4,8 +4,15 @@ import { Guild } from './guild';
 import { Membership } from './membership';
 import { Invitation } from './invitation';
 import { PasswordReset } from './password-reset';
+import { Swap } from './swap';
+import { SwapTransition } from './swap-transition';
+import { Signup } from './signup';
+import { Block } from './block';
+import { Measurement } from './measurement';
+import { BlockRequest } from './block-request';
 
 export { User, Guild, Membership, Invitation, PasswordReset };
+export { Swap, SwapTransition, Signup, Block, Measurement, BlockRequest };
 
 let initialised: Sequelize | null = null;
 
@@ -27,4 +34,18 @@ export function initModels(sequelize: Sequelize) {
   PasswordReset.belongsTo(User, { foreignKey: 'userId', as: 'user' });
 
   // Feature models (server/db/models/<feature>.ts) are initialised below, after the core ones.
+
+  for (const model of [Swap, SwapTransition, Signup, Block, Measurement, BlockRequest]) model.initModel(sequelize);
+  Swap.belongsTo(Guild, { foreignKey: 'guildId', as: 'guild' });
+  Swap.belongsTo(User, { foreignKey: 'createdById', as: 'createdBy' });
+  SwapTransition.belongsTo(User, { foreignKey: 'byId', as: 'by' });
+  Signup.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+  Swap.hasMany(Signup, { foreignKey: 'swapId', as: 'signups' });
+  Swap.hasMany(Block, { foreignKey: 'swapId', as: 'blocks' });
+  Block.belongsTo(Swap, { foreignKey: 'swapId', as: 'swap' });
+  Block.belongsTo(User, { foreignKey: 'makerId', as: 'maker' });
+  Block.belongsTo(User, { foreignKey: 'recipientId', as: 'recipient' });
+  Block.hasMany(Measurement, { foreignKey: 'blockId', as: 'measurements' });
+  Measurement.belongsTo(User, { foreignKey: 'measuredById', as: 'measuredBy' });
+  BlockRequest.belongsTo(Block, { foreignKey: 'blockId', as: 'block' });
 }

@@ -1,0 +1,184 @@
+/** What the swap API answers; lengths are numbers of inches, dates ISO 8601 strings. */
+import type { BlockSpec } from './schemas/blocks';
+import type { BlockState, SwapMode, SwapState } from './schemas/swaps';
+import type { Role } from './schemas/guilds';
+
+export type VerdictName = 'true' | 'trim' | 'short' | 'skewed';
+export type MeasurementSource = 'ruler' | 'maker' | 'photo';
+
+export interface SizeDto {
+  width: number;
+  height: number;
+}
+
+export interface SwapSummaryDto {
+  id: number;
+  guildId: number;
+  title: string;
+  state: SwapState;
+  mode: SwapMode;
+  unfinished: SizeDto;
+  signupClosesAt: string;
+  dueAt: string;
+  quota: { min: number; max: number };
+  /** members with an active sign-up, and blocks they pledged */
+  signups: number;
+  pledged: number;
+  /** the caller's pledge, 0 when not signed up */
+  myPledge: number;
+}
+
+export interface SwapDto extends SwapSummaryDto {
+  description: string;
+  block: BlockSpec;
+  seam: number;
+  finished: SizeDto;
+  tolerance: number;
+  squareness: number;
+  colourRules: { role: string; note: string }[];
+  signupReminderDays: number;
+  dueReminderDays: number;
+  giftRecipient: { userId: number | null; name: string } | null;
+  createdBy: { id: number; displayName: string } | null;
+  createdAt: string;
+  updatedAt: string;
+  distributionConfirmedAt: string | null;
+  /** true while state is signup and the close date has not passed */
+  signupOpen: boolean;
+  guild: { id: number; name: string; timeZone: string };
+  myRole: Role;
+  canManage: boolean;
+}
+
+export interface SwapTransitionDto {
+  id: number;
+  from: SwapState | null;
+  to: SwapState;
+  by: { id: number; displayName: string } | null;
+  at: string;
+  reason: string | null;
+}
+
+export interface SignupDto {
+  swapId: number;
+  userId: number;
+  blocks: number;
+  status: 'active' | 'withdrawn';
+}
+
+export interface PhotoRefDto {
+  id: number;
+  thumbUrl: string;
+  url: string;
+}
+
+export interface MeasurementDto {
+  id: number;
+  blockId: number;
+  source: MeasurementSource;
+  measuredBy: { id: number; displayName: string } | null;
+  width: number;
+  height: number;
+  diagonals: [number, number] | null;
+  verdict: VerdictName;
+  deviations: { width: number; height: number; diagonal?: number };
+  note: string | null;
+  at: string;
+}
+
+export interface BlockDto {
+  id: number;
+  swapId: number;
+  maker: { id: number; displayName: string };
+  sequence: number;
+  state: BlockState;
+  /** verdict of the latest ruler measurement */
+  verdict: VerdictName | null;
+  trimmed: boolean;
+  /** true once the block counts for the return: true to size, or trimmed */
+  accepted: boolean;
+  handIn: { how: 'in-person' | 'post'; note: string | null } | null;
+  recipient: { id: number | null; displayName: string } | null;
+  times: { sewn: string | null; handedIn: string | null; received: string | null; measured: string | null; returned: string | null; trimmed: string | null };
+  latest: { ruler: MeasurementDto | null; maker: MeasurementDto | null };
+  photos: PhotoRefDto[];
+}
+
+export interface RosterBlockDto {
+  id: number;
+  sequence: number;
+  state: BlockState;
+  verdict: VerdictName | null;
+  trimmed: boolean;
+  recipientId: number | null;
+  handIn: { how: 'in-person' | 'post'; note: string | null } | null;
+  photos: PhotoRefDto[];
+}
+
+export interface VerdictCounts {
+  true: number;
+  trim: number;
+  short: number;
+  skewed: number;
+}
+
+export interface RosterCounts {
+  pledged: number;
+  sewn: number;
+  handedIn: number;
+  received: number;
+  measured: number;
+  returned: number;
+  verdicts: VerdictCounts;
+}
+
+export interface RosterRowDto extends RosterCounts {
+  userId: number;
+  displayName: string;
+  /** pledged blocks not handed in yet */
+  owed: number;
+  /** blocks accepted for the return (true, or trimmed) */
+  accepted: number;
+  blocks: RosterBlockDto[];
+  /** only for coordinators and admins */
+  mailingAddress?: string | null;
+}
+
+export interface RosterDto {
+  swap: { id: number; state: SwapState; unfinished: SizeDto; title: string; mode: SwapMode };
+  totals: RosterCounts & { accepted: number; members: number };
+  rows: RosterRowDto[];
+}
+
+export interface TransferDto {
+  from: number;
+  to: number | null;
+  count: number;
+  fromName: string;
+  toName: string;
+}
+
+export interface DistributionPlanDto {
+  mode: SwapMode;
+  transfers: TransferDto[];
+  shortfall: { id: number; displayName: string; missing: number }[];
+  /** makers and how many of their blocks are accepted */
+  makers: { id: number; displayName: string; accepted: number }[];
+  acceptedTotal: number;
+  /** blocks left out: not arrived, not measured, runs short, out of square, or awaiting a trim */
+  leftOut: { pending: number; rejected: number; untrimmed: number };
+}
+
+export interface DistributionResultDto {
+  swapId: number;
+  confirmedAt: string;
+  transfers: TransferDto[];
+  blocksReturned: number;
+}
+
+export interface IncomingBlockDto {
+  id: number;
+  maker: { id: number; displayName: string };
+  sequence: number;
+  returnedAt: string | null;
+}
