@@ -38,6 +38,8 @@ export interface Rect {
 }
 
 export interface BackingLayout {
+  /** which way the panels (and any seams between them) run on the quilt */
+  direction: 'vertical' | 'horizontal';
   seams: 'none' | 'vertical' | 'horizontal';
   panels: number;
   /** length each panel is cut to */
@@ -61,7 +63,7 @@ export interface QuiltPlan {
   };
   borders: { finished: number; sides: { count: 2; cut: Rect }; topAndBottom: { count: 2; cut: Rect } }[];
   binding: { perimeter: number; length: number; stripWidth: number; strips: number; joinLoss: number; yards: number };
-  backing: { width: number; height: number } & BackingLayout & { alternative: BackingLayout | null };
+  backing: { width: number; height: number } & BackingLayout & { alternative: BackingLayout };
   batting: Rect;
 }
 
@@ -104,6 +106,7 @@ function backingLayout(across: Fraction, along: Fraction, f: Fraction, join: Fra
   const panels = panelsFor(across, f, join);
   const fabric = along.mul(panels);
   return {
+    direction: seams,
     seams: panels === 1 ? 'none' : seams,
     panels,
     panelLength: along.valueOf(),
@@ -181,7 +184,7 @@ export function quiltPlan(opts: QuiltPlanOptions): QuiltPlan {
       joinLoss: bindingWidth.valueOf(),
       yards: fabricYardsExact(bindingWidth.mul(strips)).valueOf(),
     },
-    backing: { width: needW.valueOf(), height: needH.valueOf(), ...chosen, alternative: chosen.seams === 'none' ? null : other },
+    backing: { width: needW.valueOf(), height: needH.valueOf(), ...chosen, alternative: other },
     batting: rect(w.add(battingOverage.mul(2)), h.add(battingOverage.mul(2))),
   };
   if (sash.gt(0)) {
