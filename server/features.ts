@@ -6,6 +6,7 @@ import type { Server } from 'node:http';
 import type { Router } from 'express';
 import type { AppDeps } from './deps';
 import type { BuiltApp } from './app';
+import { liveFeature } from './live';
 
 export type FeatureRouter = (deps: AppDeps) => Router;
 
@@ -25,4 +26,4 @@ export type FeatureStartup = (ctx: FeatureContext) => Promise<FeatureHandle>;
 
 export const featureRouters: FeatureRouter[] = [];
 
-export const featureStartups: FeatureStartup[] = [];
+export const featureStartups: FeatureStartup[] = [liveFeature];

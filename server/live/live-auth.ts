@@ -1,0 +1,54 @@
+import type { IncomingMessage, ServerResponse } from 'node:http';
+import type { RequestHandler } from 'express';
+import type { BuiltApp } from '../app';
+import type { AppDeps } from '../deps';
+import type { LiveServer } from './live-types';
+
+type EngineRequest = IncomingMessage & { _query?: Record<string, string>; user?: Express.User };
+type EngineMiddleware = (req: EngineRequest, res: ServerResponse, next: (err?: unknown) => void) => void;
+
+// Only the handshake carries the session; later polling requests of the same connection have a sid.
+function onlyForHandshake(middleware: RequestHandler): EngineMiddleware {
+  return (req, res, next) => {
+    if (req._query?.sid === undefined) (middleware as unknown as EngineMiddleware)(req, res, next);
+    else next();
+  };
+}
+
+/** The origins a browser may open a socket from: the public URL, or the host the request was sent to. */
+function originAllowed(origin: string | undefined, host: string | undefined, publicUrl: string): boolean {
+  if (!origin) return true; // not a browser (tests, tools): the session cookie still decides
+  try {
+    const url = new URL(origin);
+    return url.origin === new URL(publicUrl).origin || url.host === host;
+  } catch {
+    return false;
+  }
+}
+
+/**
+ * Sockets authenticate with the HTTP session: the express-session and passport middleware run on the
+ * handshake, and a socket without a signed-in user is refused (and logged). A cross-site page cannot
+ * open a socket with the visitor's cookie: its Origin is checked.
+ */
+export function attachLiveAuth(io: LiveServer, deps: AppDeps, built: BuiltApp) {
+  const { logger, config } = deps;
+  io.engine.use(onlyForHandshake(built.sessionMiddleware));
+  for (const middleware of built.passportMiddleware) io.engine.use(onlyForHandshake(middleware));
+
+  io.use((socket, next) => {
+    const req = socket.request as EngineRequest;
+    const ip = socket.handshake.address;
+    if (!originAllowed(req.headers.origin, req.headers.host, config.PUBLIC_URL)) {
+      logger.warn({ ip, origin: req.headers.origin }, 'socket refused: foreign origin');
+      return next(Object.assign(new Error('This page may not open a live connection.'), { data: { code: 'forbidden_origin' } }));
+    }
+    const user = req.user;
+    if (!user) {
+      logger.warn({ ip }, 'socket refused: not signed in');
+      return next(Object.assign(new Error('Please sign in first.'), { data: { code: 'unauthenticated' } }));
+    }
+    socket.data.user = { userId: user.id, displayName: user.displayName };
+    next();
+  });
+}

@@ -1,0 +1,73 @@
+import { Server } from 'socket.io';
+import { createAdapter } from '@socket.io/postgres-adapter';
+import type { FeatureStartup } from '../features';
+import type { AppDeps } from '../deps';
+import type { LiveServer, LiveSocket } from './live-types';
+import { attachLiveAuth } from './live-auth';
+import { Presence } from './presence';
+import { guildPrefix, userRoom } from './rooms';
+
+export interface LiveContext {
+  io: LiveServer;
+  deps: AppDeps;
+  presence: Presence;
+}
+
+/** A live part that adds its socket handlers and domain-event subscriptions. */
+export interface LivePart {
+  onConnection?(ctx: LiveContext, socket: LiveSocket): void;
+  start?(ctx: LiveContext): void;
+}
+
+/**
+ * The socket.io server: shares the HTTP session, keeps rooms in step across app nodes through the
+ * PostgreSQL adapter (LISTEN/NOTIFY, large payloads in socket_io_attachments), and hosts the live parts.
+ */
+export function liveStartup(parts: LivePart[]): FeatureStartup {
+  return async ({ server, deps, built }) => {
+    const io: LiveServer = new Server(server, {
+      serveClient: false,
+      maxHttpBufferSize: 64 * 1024,
+      adapter: createAdapter(deps.pool, {
+        errorHandler: (err) => deps.logger.warn({ err }, 'socket.io adapter error'),
+      }),
+    });
+    attachLiveAuth(io, deps, built);
+    const presence = new Presence(io, deps.logger);
+    const ctx: LiveContext = { io, deps, presence };
+
+    // Someone removed from a guild leaves its rooms on every node at once.
+    deps.events.on('member.removed', async ({ guildId, userId }) => {
+      const sockets = await io.in(userRoom(userId)).fetchSockets();
+      for (const socket of sockets) {
+        for (const room of socket.rooms) if (room.startsWith(guildPrefix(guildId))) socket.leave(room);
+      }
+      io.to(userRoom(userId)).emit('guild:left', { guildId });
+    });
+
+    for (const part of parts) part.start?.(ctx);
+    io.on('connection', (socket) => {
+      void socket.join(userRoom(socket.data.user.userId));
+      for (const part of parts) part.onConnection?.(ctx, socket);
+      socket.on('disconnecting', () => {
+        for (const room of socket.rooms) presence.announce(room);
+      });
+    });
+
+    // Open sockets would hold the HTTP server's close() until they time out: end them first.
+    const closeHttp = server.close.bind(server);
+    server.close = ((callback?: (err?: Error) => void) => {
+      io.local.disconnectSockets(true);
+      return closeHttp(callback);
+    }) as typeof server.close;
+
+    return {
+      name: 'live',
+      async close() {
+        presence.close();
+        io.local.disconnectSockets(true);
+        await new Promise<void>((resolve) => io.close(() => resolve()));
+      },
+    };
+  };
+}

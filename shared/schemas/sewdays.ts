@@ -1,0 +1,107 @@
+import { z } from 'zod';
+
+export const rsvpAnswers = ['going', 'maybe', 'no'] as const;
+export const rsvpAnswerSchema = z.enum(rsvpAnswers, { error: 'Answer going, maybe or no.' });
+export type RsvpAnswer = z.infer<typeof rsvpAnswerSchema>;
+export const rsvpLabels: Record<RsvpAnswer, string> = { going: 'Going', maybe: 'Maybe', no: 'Not going' };
+
+/** A wall-clock time as a datetime-local input gives it: read in the guild's time zone. */
+const wallTime = z
+  .string({ error: 'Enter a date and time.' })
+  .regex(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/, 'Enter a date and time like 2027-03-14 10:00.')
+  .refine((s) => !Number.isNaN(Date.parse(`${s}:00Z`)), 'That date does not exist.');
+
+const optionalText = (max: number, message: string) =>
+  z
+    .string()
+    .trim()
+    .max(max, message)
+    .nullish()
+    .transform((s) => (s ? s : null));
+
+const sewDayFields = z.object({
+  title: z.string({ error: 'Give the sew day a name.' }).trim().min(2, 'Give the sew day a name of at least 2 characters.').max(120, 'Keep the name under 120 characters.'),
+  startsAt: wallTime,
+  endsAt: wallTime,
+  place: optionalText(300, 'Keep the place under 300 characters.'),
+  videoUrl: z
+    .string()
+    .trim()
+    .nullish()
+    .transform((s) => (s ? s : null))
+    .pipe(z.url({ protocol: /^https?$/, error: 'Give a video link starting with https://' }).max(500, 'That link is too long.').nullable()),
+  notes: optionalText(4000, 'Keep the notes under 4,000 characters.'),
+});
+
+function checkWhenAndWhere(value: { startsAt: string; endsAt: string; place: string | null; videoUrl: string | null }, ctx: z.RefinementCtx) {
+  if (value.endsAt <= value.startsAt) ctx.addIssue({ code: 'custom', path: ['endsAt'], message: 'The end must come after the start.' });
+  if (!value.place && !value.videoUrl) ctx.addIssue({ code: 'custom', path: ['place'], message: 'Give a place, a video link, or both.' });
+}
+
+/** Body of POST /api/guilds/:guildId/sew-days and PATCH /api/sew-days/:sewDayId. Times are in the guild's zone. */
+export const sewDayInputSchema = sewDayFields.superRefine(checkWhenAndWhere);
+export type SewDayInput = z.infer<typeof sewDayInputSchema>;
+export type SewDayFormValues = z.input<typeof sewDayInputSchema>;
+
+export const rsvpInputSchema = z.object({ answer: rsvpAnswerSchema }).strict();
+export type RsvpInput = z.infer<typeof rsvpInputSchema>;
+
+export const sewDayListQuerySchema = z.object({ when: z.enum(['upcoming', 'past'], { error: 'Choose upcoming or past.' }).default('upcoming') });
+export type SewDayListQuery = z.infer<typeof sewDayListQuerySchema>;
+
+export const sewDayParamsSchema = z.object({
+  sewDayId: z.coerce.number({ error: 'Expected a number.' }).int().positive('Expected a positive id.'),
+});
+
+export interface SewDayDto {
+  id: number;
+  guildId: number;
+  title: string;
+  /** Instants in UTC; show them in `timeZone`. */
+  startsAt: string;
+  endsAt: string;
+  /** The same times as wall-clock values in the guild's zone, for editing. */
+  startsAtLocal: string;
+  endsAtLocal: string;
+  timeZone: string;
+  place: string | null;
+  videoUrl: string | null;
+  notes: string | null;
+  cancelledAt: string | null;
+  createdBy: { id: number; displayName: string } | null;
+  rsvpCounts: Record<RsvpAnswer, number>;
+  myRsvp: RsvpAnswer | null;
+  chatRoomId: number | null;
+  canManage: boolean;
+}
+
+export interface SewDayDetailDto extends SewDayDto {
+  rsvps: { userId: number; displayName: string; answer: RsvpAnswer }[];
+}
+
+/** The offset of `timeZone` from UTC at `instant`, in minutes (Chicago in winter: -360). */
+export function zoneOffsetMinutes(instant: Date, timeZone: string): number {
+  const parts = new Intl.DateTimeFormat('en-US', {
+    timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit',
+  }).formatToParts(instant);
+  const get = (type: string) => Number(parts.find((p) => p.type === type)?.value);
+  const asUtc = Date.UTC(get('year'), get('month') - 1, get('day'), get('hour'), get('minute'), get('second'));
+  return Math.round((asUtc - Math.floor(instant.getTime() / 1000) * 1000) / 60_000);
+}
+
+/**
+ * The instant a wall-clock time `YYYY-MM-DDTHH:mm` names in `timeZone`. A time skipped by a
+ * daylight-saving change is read with the offset before the change.
+ */
+export function wallTimeToInstant(wall: string, timeZone: string): Date {
+  const naive = Date.parse(`${wall}:00Z`);
+  const first = naive - zoneOffsetMinutes(new Date(naive), timeZone) * 60_000;
+  const second = naive - zoneOffsetMinutes(new Date(first), timeZone) * 60_000;
+  return new Date(second);
+}
+
+/** The wall-clock `YYYY-MM-DDTHH:mm` of `instant` in `timeZone`, as a datetime-local input wants it. */
+export function instantToWallTime(instant: Date, timeZone: string): string {
+  const shifted = new Date(instant.getTime() + zoneOffsetMinutes(instant, timeZone) * 60_000);
+  return shifted.toISOString().slice(0, 16);
+}
