@@ -25,25 +25,29 @@ function sessionSecret() {
   return readFileSync(file, 'utf8').trim();
 }
 
-export async function startLocalServices(log: (msg: string) => void = console.log): Promise<LocalServices> {
+/**
+ * The database for local use: DATABASE_URL when set, else the cluster under .data/ (created and started
+ * as needed). `stop` stops the cluster only if this call started it.
+ */
+export async function startLocalDatabase(log: (msg: string) => void = console.log): Promise<{ url: string; stop(): void }> {
   mkdirSync(dataDir, { recursive: true });
-  const env: Record<string, string> = {};
-  let stopPostgres: (() => void) | null = null;
-  let maildev: MaildevHandle | null = null;
-
   if (process.env.DATABASE_URL) {
     log('Using the PostgreSQL server in DATABASE_URL.');
-    env.DATABASE_URL = process.env.DATABASE_URL;
-  } else {
-    const pgBin = ensurePostgresBinaries(log);
-    const cluster = { dataDir: join(dataDir, 'pg'), socketDir: join(dataDir, 'pg-run'), logFile: join(dataDir, 'postgres.log'), port: PG_PORT };
-    if (initCluster(pgBin, cluster)) log(`Created a PostgreSQL cluster in ${cluster.dataDir}.`);
-    startCluster(pgBin, cluster);
-    stopPostgres = () => stopCluster(pgBin, cluster.dataDir);
-    await ensureDatabase(PG_PORT, 'blockpost');
-    env.DATABASE_URL = clusterUrl(PG_PORT, 'blockpost');
-    log(`PostgreSQL is running on 127.0.0.1:${PG_PORT} (trust authentication: loopback development only).`);
+    return { url: process.env.DATABASE_URL, stop: () => {} };
   }
+  const pgBin = ensurePostgresBinaries(log);
+  const cluster = { dataDir: join(dataDir, 'pg'), socketDir: join(dataDir, 'pg-run'), logFile: join(dataDir, 'postgres.log'), port: PG_PORT };
+  if (initCluster(pgBin, cluster)) log(`Created a PostgreSQL cluster in ${cluster.dataDir}.`);
+  const started = startCluster(pgBin, cluster);
+  await ensureDatabase(PG_PORT, 'blockpost');
+  log(`PostgreSQL is running on 127.0.0.1:${PG_PORT} (trust authentication: loopback development only).`);
+  return { url: clusterUrl(PG_PORT, 'blockpost'), stop: () => (started ? stopCluster(pgBin, cluster.dataDir) : undefined) };
+}
+
+export async function startLocalServices(log: (msg: string) => void = console.log): Promise<LocalServices> {
+  const database = await startLocalDatabase(log);
+  const env: Record<string, string> = { DATABASE_URL: database.url };
+  let maildev: MaildevHandle | null = null;
 
   if (process.env.SMTP_URL) {
     env.SMTP_URL = process.env.SMTP_URL;
@@ -53,7 +57,7 @@ export async function startLocalServices(log: (msg: string) => void = console.lo
     try {
       maildev = await startMaildev({ smtpPort, webPort, mailDir: join(dataDir, 'mail') });
     } catch (error) {
-      stopPostgres?.();
+      database.stop();
       throw new Error(`maildev could not start on ports ${smtpPort}/${webPort}: ${(error as Error).message}`, { cause: error });
     }
     env.SMTP_URL = `smtp://127.0.0.1:${smtpPort}`;
@@ -65,7 +69,7 @@ export async function startLocalServices(log: (msg: string) => void = console.lo
     maildevUrl: maildev ? `http://127.0.0.1:${maildev.webPort}` : null,
     async stop() {
       await maildev?.stop();
-      stopPostgres?.();
+      database.stop();
     },
   };
 }

@@ -90,8 +90,9 @@ export function isClusterRunning(pgBin: string, dataDir: string): boolean {
   }
 }
 
-export function startCluster(pgBin: string, opts: ClusterOptions) {
-  if (isClusterRunning(pgBin, opts.dataDir)) return;
+/** Starts the cluster; false when it was already running (and so is not ours to stop). */
+export function startCluster(pgBin: string, opts: ClusterOptions): boolean {
+  if (isClusterRunning(pgBin, opts.dataDir)) return false;
   ownedDir(opts.socketDir, 0o775);
   const settings = [
     '-c listen_addresses=127.0.0.1',
@@ -106,6 +107,7 @@ export function startCluster(pgBin: string, opts: ClusterOptions) {
     const tail = existsSync(opts.logFile) ? readFileSync(opts.logFile, 'utf8').split('\n').slice(-15).join('\n') : '';
     throw new Error(`PostgreSQL did not start on port ${opts.port}.\n${tail}`, { cause: error });
   }
+  return true;
 }
 
 export function stopCluster(pgBin: string, dataDir: string) {
