@@ -10,6 +10,8 @@ const configSchema = z.object({
   MAIL_FROM: z.string().default('Blockpost <no-reply@blockpost.local>'),
   PUBLIC_URL: z.string().url().default('http://127.0.0.1:3000'),
   UPLOAD_DIR: z.string().default('uploads'),
+  /** Format of stored photos and thumbnails. */
+  PHOTO_FORMAT: z.enum(['jpeg', 'webp']).default('jpeg'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   TRUST_PROXY: z
     .enum(['true', 'false'])
