@@ -1,5 +1,6 @@
 import { EventEmitter } from 'node:events';
 import type { Role } from '@shared/schemas/guilds';
+import type { ChatMessageDto } from '@shared/schemas/chat';
 
 type SwapRef = { swapId: number; guildId: number };
 type Actor = { actorId: number };
@@ -24,6 +25,12 @@ export interface DomainEventMap {
     Actor & { blockId: number; makerId: number; measurementId: number; verdict: VerdictName; source: 'ruler' | 'maker' | 'photo' };
   'photo.added': SwapRef & Actor & { blockId: number; makerId: number; photoId: number };
   'distribution.confirmed': SwapRef & Actor & { transfers: number };
+  /** Sew days: scheduled, changed or cancelled by an officer; an RSVP given or changed. */
+  'sewday.changed': { guildId: number; sewDayId: number; actorId: number; change: 'scheduled' | 'updated' | 'cancelled' };
+  'rsvp.changed': { guildId: number; sewDayId: number; userId: number; answer: 'going' | 'maybe' | 'no' };
+  /** Chat: a message as it now stands (new, edited, deleted by its author or removed by a moderator). */
+  'chat.posted': { guildId: number; roomId: number; actorId: number; message: ChatMessageDto };
+  'chat.changed': { guildId: number; roomId: number; actorId: number; change: 'edited' | 'deleted' | 'removed'; message: ChatMessageDto };
 }
 
 export type DomainEventName = keyof DomainEventMap;

@@ -7,6 +7,12 @@ import type { Router } from 'express';
 import type { AppDeps } from './deps';
 import type { BuiltApp } from './app';
 import { liveFeature } from './live';
+import { photosRouter } from './uploads/photos.routes';
+import { photoSweepFeature } from './uploads/photos.startup';
+import { swapsRouter } from './swaps/swaps.routes';
+import { blocksRouter } from './blocks/blocks.routes';
+import { distributionRouter } from './distribution/distribution.routes';
+import { sewDaysRouter } from './sewdays/sewdays.routes';
 
 export type FeatureRouter = (deps: AppDeps) => Router;
 
@@ -24,6 +30,6 @@ export interface FeatureHandle {
 
 export type FeatureStartup = (ctx: FeatureContext) => Promise<FeatureHandle>;
 
-export const featureRouters: FeatureRouter[] = [];
+export const featureRouters: FeatureRouter[] = [sewDaysRouter, swapsRouter, blocksRouter, distributionRouter, photosRouter];
 
-export const featureStartups: FeatureStartup[] = [liveFeature];
+export const featureStartups: FeatureStartup[] = [liveFeature, photoSweepFeature];

@@ -105,3 +105,14 @@ export function instantToWallTime(instant: Date, timeZone: string): string {
   const shifted = new Date(instant.getTime() + zoneOffsetMinutes(instant, timeZone) * 60_000);
   return shifted.toISOString().slice(0, 16);
 }
+
+/**
+ * Reminders shown on every sew-day page and in its calendar file: our own wording of common workroom
+ * safety practice. The maker's own judgement and the host's rules come first.
+ */
+export const sewDayCautions = [
+  { topic: 'Irons', text: 'Never leave a hot iron face down or unattended: stand it on its heel, and unplug it when you step away or finish.' },
+  { topic: 'Cords', text: 'Run extension and iron cords along walls or under tables, not across walkways where someone could catch a foot.' },
+  { topic: 'Rotary cutters', text: 'Close or cover the blade every time you put the cutter down, even for a moment, and cut away from yourself.' },
+  { topic: 'Pins and needles', text: 'Keep pins in a cushion or dish, never between your lips, and switch the machine off before changing a needle.' },
+] as const;

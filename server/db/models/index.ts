@@ -10,9 +10,15 @@ import { Signup } from './signup';
 import { Block } from './block';
 import { Measurement } from './measurement';
 import { BlockRequest } from './block-request';
+import { SewDay } from './sew-day';
+import { Rsvp } from './rsvp';
+import { ChatRoom } from './chat-room';
+import { ChatMessage } from './chat-message';
+import { Activity } from './activity';
 
 export { User, Guild, Membership, Invitation, PasswordReset };
 export { Swap, SwapTransition, Signup, Block, Measurement, BlockRequest };
+export { SewDay, Rsvp, ChatRoom, ChatMessage, Activity };
 
 let initialised: Sequelize | null = null;
 
@@ -48,4 +54,14 @@ export function initModels(sequelize: Sequelize) {
   Block.hasMany(Measurement, { foreignKey: 'blockId', as: 'measurements' });
   Measurement.belongsTo(User, { foreignKey: 'measuredById', as: 'measuredBy' });
   BlockRequest.belongsTo(Block, { foreignKey: 'blockId', as: 'block' });
+
+  for (const model of [SewDay, Rsvp, ChatRoom, ChatMessage, Activity]) model.initModel(sequelize);
+  SewDay.belongsTo(Guild, { foreignKey: 'guildId', as: 'guild' });
+  SewDay.belongsTo(User, { foreignKey: 'createdById', as: 'createdBy' });
+  SewDay.hasMany(Rsvp, { foreignKey: 'sewDayId', as: 'rsvps' });
+  Rsvp.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+  ChatRoom.belongsTo(SewDay, { foreignKey: 'sewDayId', as: 'sewDay' });
+  ChatRoom.belongsTo(Guild, { foreignKey: 'guildId', as: 'guild' });
+  ChatMessage.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+  ChatMessage.belongsTo(User, { foreignKey: 'deletedById', as: 'deletedBy' });
 }
