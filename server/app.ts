@@ -67,10 +67,11 @@ export function createApp(deps: AppDeps): BuiltApp {
   const passportMiddleware = [passport.initialize(), passport.session()];
 
   const api = express.Router();
+  // Health first: it must answer even when the session store (PostgreSQL) cannot.
+  api.use(healthRouter(deps));
   api.use(express.json({ limit: '200kb' }));
   api.use(sessionMiddleware, ...passportMiddleware);
   api.use(requireCsrfHeader);
-  api.use(healthRouter(deps));
   api.use(authRouter(deps));
   api.use(invitationsRouter(deps));
   api.use('/guilds', guildsRouter(deps));

@@ -1,8 +1,8 @@
 import { createServer, type Server } from 'node:http';
-import pg from 'pg';
 import { loadConfig, type Config } from './config';
 import { createLogger } from './logger';
 import { createSequelize } from './db/sequelize';
+import { createPool } from './db/pool';
 import { initModels } from './db/models';
 import { migrateUp } from './db/migrator';
 import { createMailer } from './mail/mailer';
@@ -24,8 +24,7 @@ export async function startServer(config: Config = loadConfig()): Promise<Runnin
   const sequelize = createSequelize(config.DATABASE_URL, logger);
   initModels(sequelize);
   await migrateUp(sequelize);
-  const pool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 10 });
-  pool.on('error', (err) => logger.warn({ err }, 'idle database connection failed'));
+  const pool = createPool(config.DATABASE_URL, logger);
   const events = new DomainEvents();
   events.onListenerError(({ name, error }) => logger.error({ err: error, event: name }, 'event listener failed'));
   const deps: AppDeps = { config, logger, sequelize, pool, mailer: createMailer(config), events };
@@ -51,7 +50,9 @@ export async function startServer(config: Config = loadConfig()): Promise<Runnin
         await feature.close().catch((err: unknown) => logger.error({ err, feature: feature.name }, 'feature did not stop cleanly'));
       }
       deps.mailer.close();
-      await pool.end();
+      // A client the socket.io adapter lost in a database restart is never given back to the pool,
+      // and pool.end() would wait for it forever.
+      await Promise.race([pool.end(), new Promise((resolve) => setTimeout(resolve, 3000).unref())]);
       await sequelize.close();
     })());
   return { server, deps, url, close };

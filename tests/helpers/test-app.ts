@@ -6,12 +6,12 @@ import { randomBytes } from 'node:crypto';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import pg from 'pg';
 import { inject } from 'vitest';
 import supertest from 'supertest';
 import { loadConfig, type Config } from '../../server/config';
 import { createLogger } from '../../server/logger';
 import { createSequelize } from '../../server/db/sequelize';
+import { createPool } from '../../server/db/pool';
 import { initModels } from '../../server/db/models';
 import { createMailer } from '../../server/mail/mailer';
 import { createApp, type BuiltApp } from '../../server/app';
@@ -57,7 +57,7 @@ export async function createTestApp(overrides: Partial<Record<string, string>> =
   const logger = createLogger(config);
   const sequelize = createSequelize(databaseUrl);
   initModels(sequelize);
-  const pool = new pg.Pool({ connectionString: databaseUrl, max: 5 });
+  const pool = createPool(databaseUrl, logger, 5);
   const deps: AppDeps = { config, logger, sequelize, pool, mailer: createMailer(config), events: new DomainEvents() };
   const built = createApp(deps);
   return {
