@@ -175,10 +175,3 @@ export interface DistributionResultDto {
   transfers: TransferDto[];
   blocksReturned: number;
 }
-
-export interface IncomingBlockDto {
-  id: number;
-  maker: { id: number; displayName: string };
-  sequence: number;
-  returnedAt: string | null;
-}

@@ -134,7 +134,7 @@ export type HandInInput = z.infer<typeof handInSchema>;
 
 export const clientIdSchema = z.uuid({ error: 'clientId must be a UUID.' }).optional();
 
-export const receiveSchema = z.object({ clientId: clientIdSchema }).strict();
+export const receiveSchema = z.object({ clientId: clientIdSchema });
 export type ReceiveInput = z.infer<typeof receiveSchema>;
 
 const measured = (what: string) =>
@@ -151,8 +151,8 @@ export const measurementBodySchema = z
     source: z.enum(['ruler', 'maker'], { error: 'Source is "ruler" or "maker".' }).optional(),
     note: z.string().trim().max(500, 'Keep the note under 500 characters.').optional(),
     clientId: clientIdSchema,
-  })
-  .strict();
+  });
+// Not strict on purpose: an offline client may send its own verdict along; it is dropped, never read.
 export type MeasurementBodyInput = z.input<typeof measurementBodySchema>;
 export type MeasurementBody = z.output<typeof measurementBodySchema>;
 

@@ -85,29 +85,42 @@ export const colourRuleSchema = z.object({
   note: z.string().trim().max(300, 'Keep the note under 300 characters.').default(''),
 });
 
+// Without defaults: a PATCH must hold only what the caller sent (zod 4 applies defaults inside optional).
 const swapFields = {
   title: z.string({ error: 'Give the swap a title.' }).trim().min(2, 'Give the swap a title of at least 2 characters.').max(120, 'Keep the title under 120 characters.'),
-  description: z.string().trim().max(4000, 'Keep the description under 4000 characters.').default(''),
+  description: z.string().trim().max(4000, 'Keep the description under 4000 characters.'),
   block: blockSpecSchema,
-  tolerance: inchesUpTo(2, 'The tolerance').default(0.125),
-  squareness: inchesUpTo(2, 'The squareness limit').default(0.25),
-  colourRules: z.array(colourRuleSchema).max(12, 'Use at most 12 colour rules.').default([]),
+  tolerance: inchesUpTo(2, 'The tolerance'),
+  squareness: inchesUpTo(2, 'The squareness limit'),
+  colourRules: z.array(colourRuleSchema).max(12, 'Use at most 12 colour rules.'),
   quota: z.object({
     min: z.number({ error: 'Give the fewest blocks a member may pledge.' }).int('Use a whole number.').min(1, 'At least 1 block.').max(50, 'At most 50 blocks.'),
     max: z.number({ error: 'Give the most blocks a member may pledge.' }).int('Use a whole number.').min(1, 'At least 1 block.').max(50, 'At most 50 blocks.'),
   }),
   signupClosesAt: isoDate('the sign-up close'),
   dueAt: isoDate('the due date'),
-  signupReminderDays: z.number().int('Use a whole number of days.').min(0, 'Use 0 or more days.').max(60, 'At most 60 days.').default(7),
-  dueReminderDays: z.number().int('Use a whole number of days.').min(0, 'Use 0 or more days.').max(60, 'At most 60 days.').default(2),
-  mode: z.enum(swapModes, { error: 'Choose return (makers get blocks back) or gift (all to one recipient).' }).default('return'),
+  signupReminderDays: z.number().int('Use a whole number of days.').min(0, 'Use 0 or more days.').max(60, 'At most 60 days.'),
+  dueReminderDays: z.number().int('Use a whole number of days.').min(0, 'Use 0 or more days.').max(60, 'At most 60 days.'),
+  mode: z.enum(swapModes, { error: 'Choose return (makers get blocks back) or gift (all to one recipient).' }),
   /** gift mode: a guild member who receives every block … */
   giftRecipientId: z.number().int().positive().nullable().optional(),
   /** … or a name, such as a charity */
   giftRecipientName: z.string().trim().max(120, 'Keep the name under 120 characters.').nullable().optional(),
 };
 
-type SwapShape = {
+/** Defaults for a new swap: ±⅛″ tolerance and ¼″ between diagonals (DESIGN defaults). */
+const createFields = {
+  ...swapFields,
+  description: swapFields.description.default(''),
+  tolerance: swapFields.tolerance.default(0.125),
+  squareness: swapFields.squareness.default(0.25),
+  colourRules: swapFields.colourRules.default([]),
+  signupReminderDays: swapFields.signupReminderDays.default(7),
+  dueReminderDays: swapFields.dueReminderDays.default(2),
+  mode: swapFields.mode.default('return'),
+};
+
+export type SwapShape = {
   quota: { min: number; max: number };
   signupClosesAt: Date;
   dueAt: Date;
@@ -116,22 +129,24 @@ type SwapShape = {
   giftRecipientName?: string | null;
 };
 
-/** Rules across fields, also applied to a PATCH merged onto the stored swap. */
-export function checkSwapRules(s: SwapShape, ctx: z.RefinementCtx) {
-  if (s.quota.max < s.quota.min) ctx.addIssue({ code: 'custom', path: ['quota', 'max'], message: 'The most blocks cannot be fewer than the fewest.' });
-  if (s.dueAt.getTime() <= s.signupClosesAt.getTime()) {
-    ctx.addIssue({ code: 'custom', path: ['dueAt'], message: 'Blocks must be due after sign-up closes.' });
+/** Problems across fields as `{ field: message }`; also run on a PATCH merged onto the stored swap. */
+export function swapRuleProblems(s: SwapShape): Record<string, string> {
+  const problems: Record<string, string> = {};
+  if (s.quota.max < s.quota.min) problems['quota.max'] = 'The most blocks cannot be fewer than the fewest.';
+  if (s.dueAt.getTime() <= s.signupClosesAt.getTime()) problems.dueAt = 'Blocks must be due after sign-up closes.';
+  const named = Boolean(s.giftRecipientName?.trim());
+  if (s.mode === 'gift' && !s.giftRecipientId && !named) {
+    problems.giftRecipientName = 'Say who receives the blocks: a member or a name such as a charity.';
   }
-  const hasRecipient = Boolean(s.giftRecipientId) || Boolean(s.giftRecipientName?.trim());
-  if (s.mode === 'gift' && !hasRecipient) {
-    ctx.addIssue({ code: 'custom', path: ['giftRecipientName'], message: 'Say who receives the blocks: a member or a name such as a charity.' });
-  }
-  if (s.giftRecipientId && s.giftRecipientName?.trim()) {
-    ctx.addIssue({ code: 'custom', path: ['giftRecipientName'], message: 'Choose either a member or a name, not both.' });
-  }
+  if (s.giftRecipientId && named) problems.giftRecipientName = 'Choose either a member or a name, not both.';
+  return problems;
 }
 
-export const createSwapSchema = z.object(swapFields).strict().superRefine(checkSwapRules);
+function checkSwapRules(s: SwapShape, ctx: z.RefinementCtx) {
+  for (const [field, message] of Object.entries(swapRuleProblems(s))) ctx.addIssue({ code: 'custom', path: field.split('.'), message });
+}
+
+export const createSwapSchema = z.object(createFields).strict().superRefine(checkSwapRules);
 export type CreateSwapInput = z.input<typeof createSwapSchema>;
 export type CreateSwap = z.output<typeof createSwapSchema>;
 

@@ -11,7 +11,7 @@ export class BlockRequest extends Model<InferAttributes<BlockRequest>, InferCrea
   declare blockId: ForeignKey<Block['id']>;
   declare action: string;
   declare statusCode: CreationOptional<number | null>;
-  declare response: CreationOptional<unknown>;
+  declare response: CreationOptional<object | null>;
   declare createdAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize) {

@@ -1,5 +1,5 @@
 import {
-  DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes,
+  DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes,
   type NonAttribute, type Sequelize,
 } from 'sequelize';
 import type { SwapState } from '@shared/schemas/swaps';
@@ -9,7 +9,7 @@ import type { User } from './user';
 /** One move of a swap between states: who asked, when, and why. Creation is recorded with from = null. */
 export class SwapTransition extends Model<InferAttributes<SwapTransition>, InferCreationAttributes<SwapTransition>> {
   declare id: CreationOptional<number>;
-  declare swapId: ForeignKey<Swap['id']>;
+  declare swapId: Swap['id'];
   declare fromState: SwapState | null;
   declare toState: SwapState;
   declare byId: number | null;
@@ -21,6 +21,7 @@ export class SwapTransition extends Model<InferAttributes<SwapTransition>, Infer
     SwapTransition.init(
       {
         id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+        swapId: { type: DataTypes.INTEGER, allowNull: false },
         fromState: { type: DataTypes.STRING(16), allowNull: true },
         toState: { type: DataTypes.STRING(16), allowNull: false },
         byId: { type: DataTypes.INTEGER, allowNull: true },

@@ -1,0 +1,64 @@
+/** Block routes: the maker's steps, the coordinator's intake and measuring. */
+import { Router, type Request, type Response } from 'express';
+import { blockParamsSchema, handInSchema, measurementBodySchema, receiveSchema } from '@shared/schemas/blocks';
+import { validate } from '../http/validate';
+import { currentUser, requireUser } from '../auth/require-user';
+import { canActAsMaker, canManageBlock, canReadBlock } from '../swaps/swaps.policy';
+import type { AppDeps } from '../deps';
+import * as blocks from './blocks.service';
+import { listMeasurements, recordMeasurement } from './measurements.service';
+import type { Answer } from './idempotency';
+
+const blockId = (req: Request) => (req.params as unknown as { blockId: number }).blockId;
+const params = validate({ params: blockParamsSchema });
+
+function reply<T>(res: Response, answer: Answer<T>) {
+  if (answer.replayed) res.set('Idempotent-Replay', 'true');
+  res.status(answer.status).json(answer.body);
+}
+
+export function blocksRouter(deps: AppDeps) {
+  const router = Router();
+
+  router.get('/blocks/:blockId', requireUser, params, async (req, res) => {
+    const { block } = await canReadBlock(currentUser(req).id, blockId(req));
+    res.json(await blocks.getBlock(block));
+  });
+
+  router.get('/blocks/:blockId/measurements', requireUser, params, async (req, res) => {
+    const { block } = await canReadBlock(currentUser(req).id, blockId(req));
+    res.json(await listMeasurements(block));
+  });
+
+  router.post('/blocks/:blockId/sewn', requireUser, params, async (req, res) => {
+    const userId = currentUser(req).id;
+    await canActAsMaker(userId, blockId(req));
+    res.json(await blocks.markSewn(deps, blockId(req), userId));
+  });
+
+  router.post('/blocks/:blockId/handed-in', requireUser, validate({ params: blockParamsSchema, body: handInSchema }), async (req, res) => {
+    const userId = currentUser(req).id;
+    await canActAsMaker(userId, blockId(req));
+    res.json(await blocks.handIn(deps, blockId(req), userId, req.body));
+  });
+
+  router.post('/blocks/:blockId/received', requireUser, validate({ params: blockParamsSchema, body: receiveSchema }), async (req, res) => {
+    const userId = currentUser(req).id;
+    await canManageBlock(userId, blockId(req));
+    reply(res, await blocks.receive(deps, blockId(req), userId, req.body.clientId));
+  });
+
+  router.post('/blocks/:blockId/trimmed', requireUser, params, async (req, res) => {
+    const userId = currentUser(req).id;
+    await canManageBlock(userId, blockId(req));
+    res.json(await blocks.markTrimmed(deps, blockId(req), userId));
+  });
+
+  router.post('/blocks/:blockId/measurements', requireUser, validate({ params: blockParamsSchema, body: measurementBodySchema }), async (req, res) => {
+    const userId = currentUser(req).id;
+    const { canManage, isMaker } = await canReadBlock(userId, blockId(req));
+    reply(res, await recordMeasurement(deps, blockId(req), { userId, canManage, isMaker }, req.body));
+  });
+
+  return router;
+}

@@ -1,0 +1,111 @@
+/**
+ * Measuring blocks. The server works out the verdict itself with the engine's checkBlock; a
+ * verdict sent by a client is never read. Every measurement is kept: the latest ruler one is the
+ * block's verdict, the maker's own are shown beside it.
+ */
+import { checkBlock } from '@shared/quilt';
+import type { MeasurementBody } from '@shared/schemas/blocks';
+import type { BlockDto, MeasurementDto } from '@shared/swap-types';
+import { Block, Measurement, Swap, User } from '../db/models';
+import { ConflictError, ForbiddenError } from '../http/errors';
+import type { AppDeps } from '../deps';
+import { blockDto, measurementDto } from './block-dto';
+import { idempotent, type Answer } from './idempotency';
+import { assertSwapIn, lockedBlock } from './blocks.service';
+
+type Deps = Pick<AppDeps, 'events'>;
+
+export type MeasurementAnswer = MeasurementDto & { block: BlockDto };
+
+// Stored as NUMERIC(8,4): the verdict is worked out on the stored value so it can be recomputed.
+const four = (x: number) => Math.round(x * 10_000) / 10_000;
+
+/** Verdict and deviations of a measured size against the swap's unfinished size and tolerance. */
+export function verdictFor(swap: Swap, m: { width: number; height: number; diagonals?: [number, number] }) {
+  return checkBlock({
+    target: { width: swap.unfinishedWidth, height: swap.unfinishedHeight },
+    tolerance: swap.tolerance,
+    squareness: swap.squareness,
+    measured: m.diagonals ? { width: m.width, height: m.height, diagonals: m.diagonals } : { width: m.width, height: m.height },
+  });
+}
+
+/**
+ * Records a measurement. A ruler measurement (officers) needs the block received and moves it to
+ * `measured`; a maker's own measurement (the maker) changes no state.
+ */
+export function recordMeasurement(
+  deps: Deps,
+  blockId: number,
+  actor: { userId: number; canManage: boolean; isMaker: boolean },
+  body: MeasurementBody,
+): Promise<Answer<MeasurementAnswer>> {
+  const source = body.source ?? (actor.canManage ? 'ruler' : 'maker');
+  if (source === 'ruler' && !actor.canManage) throw new ForbiddenError('Only a coordinator or admin records the ruler measurement; yours is saved as the maker’s own.');
+  if (source === 'maker' && !actor.isMaker) throw new ForbiddenError('Only the block’s maker can record the maker’s own measurement.');
+
+  return idempotent({ clientId: body.clientId, userId: actor.userId, blockId, action: `measurement:${source}` }, async (transaction) => {
+    const { block, swap } = await lockedBlock(blockId, transaction);
+    if (source === 'ruler') {
+      assertSwapIn(swap, ['sewing', 'collecting', 'sorting'], 'measured');
+      if (swap.distributionConfirmedAt) throw new ConflictError('The return of blocks is already confirmed; measurements are closed.', 'distribution_confirmed');
+      if (block.state !== 'received' && block.state !== 'measured') {
+        throw new ConflictError('Mark the block received before measuring it.', 'not_received');
+      }
+    } else {
+      assertSwapIn(swap, ['signup', 'sewing', 'collecting', 'sorting'], 'measured by their maker');
+    }
+    const measured = {
+      width: four(body.width),
+      height: four(body.height),
+      ...(body.diagonals ? { diagonals: [four(body.diagonals[0]), four(body.diagonals[1])] as [number, number] } : {}),
+    };
+    const { verdict, deviations } = verdictFor(swap, measured);
+    const row = await Measurement.create(
+      {
+        blockId,
+        measuredById: actor.userId,
+        source,
+        width: measured.width,
+        height: measured.height,
+        diagonal1: measured.diagonals?.[0] ?? null,
+        diagonal2: measured.diagonals?.[1] ?? null,
+        verdict,
+        deviationWidth: deviations.width,
+        deviationHeight: deviations.height,
+        deviationDiagonal: deviations.diagonal ?? null,
+        note: body.note || null,
+      },
+      { transaction },
+    );
+    const from = block.state;
+    if (source === 'ruler') {
+      // A new ruler measurement replaces the verdict; an earlier trim no longer applies to it.
+      await block.update({ state: 'measured', verdict, measuredAt: row.createdAt, trimmed: false, trimmedAt: null }, { transaction });
+    }
+    await row.reload({ include: [{ model: User, as: 'measuredBy', attributes: ['id', 'displayName'] }], transaction });
+    const body_ = { ...measurementDto(row), block: await blockDto(block, swap, transaction) };
+    return {
+      status: 201,
+      body: body_,
+      after: () => {
+        deps.events.emit('block.measured', {
+          swapId: swap.id, guildId: swap.guildId, actorId: actor.userId, blockId, makerId: block.makerId, measurementId: row.id, verdict, source,
+        });
+        if (from !== block.state) {
+          deps.events.emit('block.changed', { swapId: swap.id, guildId: swap.guildId, actorId: actor.userId, blockId, makerId: block.makerId, from, to: block.state });
+        }
+      },
+    };
+  });
+}
+
+/** Every measurement of a block, newest first. */
+export async function listMeasurements(block: Block): Promise<MeasurementDto[]> {
+  const rows = await Measurement.findAll({
+    where: { blockId: block.id },
+    include: [{ model: User, as: 'measuredBy', attributes: ['id', 'displayName'] }],
+    order: [['createdAt', 'DESC'], ['id', 'DESC']],
+  });
+  return rows.map(measurementDto);
+}

@@ -1,0 +1,38 @@
+/**
+ * Photo references for blocks. The photos table belongs to the upload feature and may not exist
+ * yet on an older database, so it is read with plain SQL once its presence is known.
+ */
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import type { PhotoRefDto } from '@shared/swap-types';
+
+let photosTableKnown = false;
+
+async function hasPhotosTable(sequelize: Sequelize, transaction?: Transaction): Promise<boolean> {
+  if (photosTableKnown) return true;
+  const [row] = await sequelize.query<{ present: boolean }>("SELECT to_regclass('public.photos') IS NOT NULL AS present", {
+    type: QueryTypes.SELECT,
+    transaction,
+  });
+  photosTableKnown = Boolean(row?.present);
+  return photosTableKnown;
+}
+
+export function photoRef(id: number): PhotoRefDto {
+  return { id, url: `/api/photos/${id}`, thumbUrl: `/api/photos/${id}?size=thumb` };
+}
+
+/** Photos of each block, oldest first, in one query. */
+export async function photosByBlock(sequelize: Sequelize, blockIds: number[], transaction?: Transaction): Promise<Map<number, PhotoRefDto[]>> {
+  const byBlock = new Map<number, PhotoRefDto[]>();
+  if (blockIds.length === 0 || !(await hasPhotosTable(sequelize, transaction))) return byBlock;
+  const rows = await sequelize.query<{ id: number; block_id: number }>(
+    'SELECT id, block_id FROM photos WHERE block_id = ANY($ids::int[]) ORDER BY created_at, id',
+    { bind: { ids: blockIds }, type: QueryTypes.SELECT, transaction },
+  );
+  for (const row of rows) {
+    const list = byBlock.get(row.block_id) ?? [];
+    list.push(photoRef(row.id));
+    byBlock.set(row.block_id, list);
+  }
+  return byBlock;
+}

@@ -1,0 +1,49 @@
+/** CSV exports of the roster and the confirmed return, built with csv-stringify. */
+import { stringify } from 'csv-stringify/sync';
+import { blockStateLabels } from '@shared/schemas/swaps';
+import type { Swap } from '../db/models';
+import { ConflictError } from '../http/errors';
+import { confirmedTransfers } from '../distribution/distribution.service';
+import { buildRoster } from './roster.service';
+
+// A cell starting with = + - @ (or tab/CR) runs as a formula in spreadsheets; a leading ' keeps it text.
+function safeCell(value: unknown): string | number {
+  if (typeof value === 'number') return value;
+  const text = value == null ? '' : String(value);
+  return /^[=+\-@\t\r]/.test(text) ? `'${text}` : text;
+}
+
+function csv(header: string[], rows: (string | number | null | undefined)[][]): string {
+  // A byte-order mark so spreadsheet programs read names such as “Ibáñez” as UTF-8.
+  return '\uFEFF' + stringify([header, ...rows.map((r) => r.map(safeCell))], { record_delimiter: 'windows' });
+}
+
+/** "Harvest Stripes" → "harvest-stripes", for file names. */
+export function slug(title: string): string {
+  const s = title.normalize('NFKD').replace(/[\u0300-\u036f]/g, '').toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '');
+  return s.slice(0, 60) || 'swap';
+}
+
+export async function rosterCsv(swap: Swap): Promise<{ fileName: string; body: string }> {
+  const roster = await buildRoster(swap, { withAddresses: true });
+  const header = [
+    'Member', 'E-mail', 'Pledged', 'Sewn', 'Handed in', 'Received', 'Measured', 'Still owed',
+    'True to size', 'Trim to size', 'Runs short', 'Out of square', 'Accepted', 'Returned', 'Blocks', 'Mailing address',
+  ];
+  const rows = roster.rows.map((r) => [
+    r.displayName, r.email, r.pledged, r.sewn, r.handedIn, r.received, r.measured, r.owed,
+    r.verdicts.true, r.verdicts.trim, r.verdicts.short, r.verdicts.skewed, r.accepted, r.returned,
+    r.blocks.map((b) => `#${b.sequence} ${blockStateLabels[b.state]}${b.verdict ? ` (${b.verdict}${b.trimmed ? ', trimmed' : ''})` : ''}`).join('; '),
+    r.mailingAddress ?? '',
+  ]);
+  return { fileName: `${slug(swap.title)}-swap-${swap.id}-roster.csv`, body: csv(header, rows) };
+}
+
+export async function distributionCsv(swap: Swap): Promise<{ fileName: string; body: string }> {
+  if (!swap.distributionConfirmedAt) {
+    throw new ConflictError('The return of blocks is not confirmed yet; plan and confirm it first.', 'distribution_not_confirmed');
+  }
+  const transfers = await confirmedTransfers(swap);
+  const rows = transfers.map((t) => [t.from, t.to, t.count, t.blocks]);
+  return { fileName: `${slug(swap.title)}-swap-${swap.id}-distribution.csv`, body: csv(['From (maker)', 'To (recipient)', 'Blocks', 'Block numbers'], rows) };
+}

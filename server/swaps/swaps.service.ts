@@ -1,0 +1,218 @@
+/** Setting up swaps and moving them through their states. */
+import { Op, type Transaction } from 'sequelize';
+import { QuiltInputError } from '@shared/quilt';
+import { blockSizes, type BlockSpec } from '@shared/schemas/blocks';
+import { scheduleFields, swapMoves, swapRuleProblems, type CreateSwap, type SwapState, type UpdateSwap } from '@shared/schemas/swaps';
+import type { Role } from '@shared/schemas/guilds';
+import type { SwapDto, SwapSummaryDto, SwapTransitionDto } from '@shared/swap-types';
+import { Block, Membership, Signup, Swap, SwapTransition, User } from '../db/models';
+import { ConflictError, NotFoundError, ValidationError } from '../http/errors';
+import type { AppDeps } from '../deps';
+import { signupStats, summaryDto, swapDto, transitionDto } from './swap-dto';
+
+type Deps = Pick<AppDeps, 'events'>;
+type Viewer = { userId: number; role: Role; canManage: boolean };
+
+/** Sizes from the engine; an engine objection becomes a 400 on the block's field. */
+function sizesOf(block: BlockSpec) {
+  try {
+    return blockSizes(block);
+  } catch (error) {
+    if (error instanceof QuiltInputError) throw new ValidationError(error.message, { [`block.${error.field}`]: error.message });
+    throw error;
+  }
+}
+
+function specColumns(block: BlockSpec) {
+  const sizes = sizesOf(block);
+  return {
+    blockSpec: block,
+    seam: sizes.seam,
+    unfinishedWidth: sizes.unfinished.width,
+    unfinishedHeight: sizes.unfinished.height,
+    finishedWidth: sizes.finished.width,
+    finishedHeight: sizes.finished.height,
+  };
+}
+
+async function assertGiftRecipient(guildId: number, userId: number | null | undefined, transaction?: Transaction) {
+  if (!userId) return;
+  const member = await Membership.findOne({ where: { guildId, userId, status: 'active' }, transaction });
+  if (!member) throw new ValidationError('The gift recipient must be a member of this guild.', { giftRecipientId: 'Choose a member of this guild.' });
+}
+
+/** Creates a swap as a draft and records its creation in the history. */
+export async function createSwap(deps: Deps, guildId: number, viewer: Viewer, input: CreateSwap): Promise<SwapDto> {
+  await assertGiftRecipient(guildId, input.giftRecipientId);
+  const swap = await Swap.sequelize!.transaction(async (transaction) => {
+    const created = await Swap.create(
+      {
+        guildId,
+        title: input.title,
+        description: input.description,
+        ...specColumns(input.block),
+        tolerance: input.tolerance,
+        squareness: input.squareness,
+        colourRules: input.colourRules.map((r) => ({ role: r.role, note: r.note })),
+        quotaMin: input.quota.min,
+        quotaMax: input.quota.max,
+        signupClosesAt: input.signupClosesAt,
+        dueAt: input.dueAt,
+        signupReminderDays: input.signupReminderDays,
+        dueReminderDays: input.dueReminderDays,
+        mode: input.mode,
+        giftRecipientId: input.mode === 'gift' ? (input.giftRecipientId ?? null) : null,
+        giftRecipientName: input.mode === 'gift' && !input.giftRecipientId ? (input.giftRecipientName?.trim() ?? null) : null,
+        createdById: viewer.userId,
+      },
+      { transaction },
+    );
+    await SwapTransition.create({ swapId: created.id, fromState: null, toState: 'draft', byId: viewer.userId }, { transaction });
+    return created;
+  });
+  deps.events.emit('swap.created', { swapId: swap.id, guildId, actorId: viewer.userId });
+  return swapDto(await swap.reload(), viewer);
+}
+
+/** The guild's swaps, newest first; drafts only for officers. */
+export async function listSwaps(guildId: number, viewer: Viewer): Promise<SwapSummaryDto[]> {
+  const swaps = await Swap.findAll({
+    where: { guildId, ...(viewer.canManage ? {} : { state: { [Op.ne]: 'draft' } }) },
+    order: [['createdAt', 'DESC'], ['id', 'DESC']],
+  });
+  const stats = await signupStats(swaps.map((s) => s.id), viewer.userId);
+  return swaps.map((s) => summaryDto(s, stats.get(s.id)));
+}
+
+export const getSwap = (swap: Swap, viewer: Viewer) => swapDto(swap, viewer);
+
+/**
+ * Applies a PATCH. The block, tolerance, quota and mode change only in draft or sign-up; the title,
+ * description and dates until the swap is complete or cancelled. Rules across fields are checked on
+ * the merged result.
+ */
+export async function updateSwap(deps: Deps, swapId: number, viewer: Viewer, patch: UpdateSwap): Promise<SwapDto> {
+  const swap = await Swap.sequelize!.transaction(async (transaction) => {
+    const current = await Swap.findByPk(swapId, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!current) throw new NotFoundError('That swap does not exist.');
+    if (current.state === 'complete' || current.state === 'cancelled') {
+      throw new ConflictError(`This swap is ${current.state}; it cannot be changed any more.`, 'swap_closed');
+    }
+    const specKeys = Object.keys(patch).filter((k) => !(scheduleFields as readonly string[]).includes(k));
+    if (specKeys.length && current.state !== 'draft' && current.state !== 'signup') {
+      throw new ConflictError(
+        `The block, tolerance, quota and return mode can only change while the swap is a draft or open for sign-up (it is ${current.state} now; changed: ${specKeys.join(', ')}).`,
+        'spec_locked',
+      );
+    }
+    const merged = {
+      quota: patch.quota ?? { min: current.quotaMin, max: current.quotaMax },
+      signupClosesAt: patch.signupClosesAt ?? current.signupClosesAt,
+      dueAt: patch.dueAt ?? current.dueAt,
+      mode: patch.mode ?? current.mode,
+      giftRecipientId: patch.giftRecipientId !== undefined ? patch.giftRecipientId : current.giftRecipientId,
+      giftRecipientName: patch.giftRecipientName !== undefined ? patch.giftRecipientName : current.giftRecipientName,
+    };
+    if (patch.giftRecipientId && patch.giftRecipientName === undefined) merged.giftRecipientName = null;
+    if (patch.giftRecipientName?.trim() && patch.giftRecipientId === undefined) merged.giftRecipientId = null;
+    const problems = swapRuleProblems(merged);
+    if (Object.keys(problems).length) throw new ValidationError(Object.values(problems)[0]!, problems);
+    await assertGiftRecipient(current.guildId, merged.giftRecipientId, transaction);
+    if (patch.quota) await assertPledgesFit(current.id, patch.quota, transaction);
+
+    await current.update(
+      {
+        ...(patch.title !== undefined ? { title: patch.title } : {}),
+        ...(patch.description !== undefined ? { description: patch.description } : {}),
+        ...(patch.block ? specColumns(patch.block) : {}),
+        ...(patch.tolerance !== undefined ? { tolerance: patch.tolerance } : {}),
+        ...(patch.squareness !== undefined ? { squareness: patch.squareness } : {}),
+        ...(patch.colourRules ? { colourRules: patch.colourRules.map((r) => ({ role: r.role, note: r.note })) } : {}),
+        ...(patch.signupReminderDays !== undefined ? { signupReminderDays: patch.signupReminderDays } : {}),
+        ...(patch.dueReminderDays !== undefined ? { dueReminderDays: patch.dueReminderDays } : {}),
+        quotaMin: merged.quota.min,
+        quotaMax: merged.quota.max,
+        signupClosesAt: merged.signupClosesAt,
+        dueAt: merged.dueAt,
+        mode: merged.mode,
+        giftRecipientId: merged.mode === 'gift' ? (merged.giftRecipientId ?? null) : null,
+        giftRecipientName: merged.mode === 'gift' && !merged.giftRecipientId ? (merged.giftRecipientName?.trim() || null) : null,
+      },
+      { transaction },
+    );
+    return current;
+  });
+  deps.events.emit('swap.updated', { swapId, guildId: swap.guildId, actorId: viewer.userId });
+  return swapDto(swap, viewer);
+}
+
+async function assertPledgesFit(swapId: number, quota: { min: number; max: number }, transaction: Transaction) {
+  const outside = await Signup.count({
+    where: { swapId, status: 'active', [Op.or]: [{ blocks: { [Op.lt]: quota.min } }, { blocks: { [Op.gt]: quota.max } }] },
+    transaction,
+  });
+  if (outside > 0) {
+    throw new ConflictError(
+      `${outside} member${outside === 1 ? ' has' : 's have'} pledged outside ${quota.min}–${quota.max} blocks; ask them to change their pledge first.`,
+      'quota_conflict',
+    );
+  }
+}
+
+/** Why a move is not allowed right now, or null when it is. */
+async function moveProblem(swap: Swap, to: SwapState, transaction: Transaction): Promise<string | null> {
+  const from: SwapState = swap.state;
+  if (!swapMoves[from].includes(to)) {
+    if (from === 'complete' || from === 'cancelled') return `This swap is ${from}; it cannot move any more.`;
+    return `A swap in “${from}” cannot move to “${to}”. From here it can move to: ${swapMoves[from].join(', ')}.`;
+  }
+  const now = Date.now();
+  const countBlocks = (state: string | string[]) => Block.count({ where: { swapId: swap.id, state }, transaction });
+  if (to === 'signup' && swap.signupClosesAt.getTime() <= now) {
+    return 'Sign-up would close at once: move the sign-up close date later first.';
+  }
+  if (from === 'signup' && to === 'sewing') {
+    const pledged = await Signup.count({ where: { swapId: swap.id, status: 'active' }, transaction });
+    if (pledged === 0) return 'Nobody has signed up yet, so there is nothing to sew. Wait for sign-ups or cancel the swap.';
+  }
+  if (from === 'collecting' && to === 'sorting') {
+    const unmeasured = await countBlocks('received');
+    if (unmeasured > 0) {
+      return `${unmeasured} received block${unmeasured === 1 ? ' is' : 's are'} not measured yet; measure every block that has arrived before sorting.`;
+    }
+    const measured = await countBlocks('measured');
+    if (measured === 0) return 'No block has been received and measured yet, so there is nothing to sort.';
+  }
+  if (from === 'sorting' && to === 'collecting' && swap.distributionConfirmedAt) {
+    return 'The return of blocks is already confirmed; the swap cannot go back to collecting.';
+  }
+  if (to === 'complete' && !swap.distributionConfirmedAt) {
+    return 'Confirm who receives which blocks (the distribution) before marking the swap complete.';
+  }
+  return null;
+}
+
+/** Moves the swap to another state after checking the move; records who asked and when. */
+export async function transitionSwap(deps: Deps, swapId: number, viewer: Viewer, to: SwapState, reason?: string): Promise<SwapDto> {
+  const { swap, from } = await Swap.sequelize!.transaction(async (transaction) => {
+    const current = await Swap.findByPk(swapId, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!current) throw new NotFoundError('That swap does not exist.');
+    const problem = await moveProblem(current, to, transaction);
+    if (problem) throw new ConflictError(problem, 'transition_refused');
+    const previous = current.state;
+    await current.update({ state: to }, { transaction });
+    await SwapTransition.create({ swapId, fromState: previous, toState: to, byId: viewer.userId, reason: reason || null }, { transaction });
+    return { swap: current, from: previous };
+  });
+  deps.events.emit('swap.transitioned', { swapId, guildId: swap.guildId, actorId: viewer.userId, from, to });
+  return swapDto(swap, viewer);
+}
+
+export async function listTransitions(swapId: number): Promise<SwapTransitionDto[]> {
+  const rows = await SwapTransition.findAll({
+    where: { swapId },
+    include: [{ model: User, as: 'by', attributes: ['id', 'displayName'] }],
+    order: [['at', 'ASC'], ['id', 'ASC']],
+  });
+  return rows.map(transitionDto);
+}
