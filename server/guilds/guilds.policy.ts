@@ -19,6 +19,8 @@ export const guildPermissions = {
   'chat:post': ['admin', 'coordinator', 'member'],
   'chat:moderate': ['admin'],
   'mail:read-log': ['admin'],
+  'photos:read': ['admin', 'coordinator', 'member'],
+  'photos:manage': ['admin', 'coordinator'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type GuildAction = keyof typeof guildPermissions;

@@ -44,6 +44,12 @@ export interface PhotoDto {
   thumbUrl: string;
 }
 
+/** The answer to POST /api/blocks/:blockId/photos: the new photos and the block's state after them. */
+export interface BlockPhotosUploadDto {
+  photos: PhotoDto[];
+  block: { id: number; state: string };
+}
+
 /** Size of an image scaled to fit inside a square of `longSide` pixels, never enlarged. */
 export function fitInside(width: number, height: number, longSide: number): { width: number; height: number } {
   const scale = Math.min(1, longSide / Math.max(width, height));

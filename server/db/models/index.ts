@@ -4,6 +4,7 @@ import { Guild } from './guild';
 import { Membership } from './membership';
 import { Invitation } from './invitation';
 import { PasswordReset } from './password-reset';
+import { Photo } from './photo';
 import { Swap } from './swap';
 import { SwapTransition } from './swap-transition';
 import { Signup } from './signup';
@@ -17,6 +18,7 @@ import { ChatMessage } from './chat-message';
 import { Activity } from './activity';
 
 export { User, Guild, Membership, Invitation, PasswordReset };
+export { Photo };
 export { Swap, SwapTransition, Signup, Block, Measurement, BlockRequest };
 export { SewDay, Rsvp, ChatRoom, ChatMessage, Activity };
 
@@ -54,6 +56,9 @@ export function initModels(sequelize: Sequelize) {
   Block.hasMany(Measurement, { foreignKey: 'blockId', as: 'measurements' });
   Measurement.belongsTo(User, { foreignKey: 'measuredById', as: 'measuredBy' });
   BlockRequest.belongsTo(Block, { foreignKey: 'blockId', as: 'block' });
+
+  Photo.initModel(sequelize);
+  Photo.belongsTo(User, { foreignKey: 'uploadedById', as: 'uploadedBy' });
 
   for (const model of [SewDay, Rsvp, ChatRoom, ChatMessage, Activity]) model.initModel(sequelize);
   SewDay.belongsTo(Guild, { foreignKey: 'guildId', as: 'guild' });

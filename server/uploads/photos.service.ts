@@ -1,0 +1,75 @@
+/**
+ * Photos of blocks over HTTP: upload (which marks a pledged block sewn), list, serve, remove.
+ * The storing itself is photo-store.ts, shared with chat.
+ */
+import type { BlockPhotosUploadDto, PhotoDto, PhotoSize } from '@shared/schemas/photos';
+import type { AppDeps } from '../deps';
+import { Photo, User } from '../db/models';
+import { lockedBlock, markBlockSewn } from '../blocks/blocks.service';
+import type { BlockAccess } from '../swaps/swaps.policy';
+import { preparePhotos, type IncomingPhotoFile } from './photo-pipeline';
+import { deletePhotos, storePreparedPhotos } from './photo-store';
+import { storedPath } from './photo-files';
+
+const uploader = { model: User, as: 'uploadedBy', attributes: ['id', 'displayName'] };
+
+export function photoDto(photo: Photo): PhotoDto {
+  return {
+    id: photo.id,
+    guildId: photo.guildId,
+    blockId: photo.blockId,
+    chatMessageId: photo.chatMessageId,
+    uploadedBy: photo.uploadedBy ? { id: photo.uploadedBy.id, displayName: photo.uploadedBy.displayName } : null,
+    mime: photo.mime,
+    width: photo.width,
+    height: photo.height,
+    thumbWidth: photo.thumbWidth,
+    thumbHeight: photo.thumbHeight,
+    bytes: photo.bytes,
+    createdAt: photo.createdAt.toISOString(),
+    url: `/api/photos/${photo.id}`,
+    thumbUrl: `/api/photos/${photo.id}?size=thumb`,
+  };
+}
+
+/**
+ * Stores photos of a block and, when the block is still `pledged`, marks it `sewn` in the same
+ * transaction. Images are encoded before the transaction opens, so no row stays locked meanwhile.
+ * Emits `block.changed` and `photo.added` after commit.
+ */
+export async function uploadBlockPhotos(
+  deps: AppDeps,
+  access: BlockAccess,
+  actorId: number,
+  files: readonly IncomingPhotoFile[],
+): Promise<BlockPhotosUploadDto> {
+  const prepared = await preparePhotos(files, deps.config.PHOTO_FORMAT);
+  const blockId = access.block.id;
+  const { rows, state, swapId, makerId, guildId, afterCommit } = await deps.sequelize.transaction(async (transaction) => {
+    let { block, swap } = await lockedBlock(blockId, transaction);
+    let sewn: (() => void) | undefined;
+    if (block.state === 'pledged') ({ block, swap, after: sewn } = await markBlockSewn(deps, blockId, actorId, transaction));
+    const stored = await storePreparedPhotos(deps, { photos: prepared, guildId: swap.guildId, uploadedBy: actorId, owner: { blockId }, transaction });
+    return { rows: stored, state: block.state, swapId: swap.id, makerId: block.makerId, guildId: swap.guildId, afterCommit: sewn };
+  });
+  afterCommit?.();
+  for (const row of rows) deps.events.emit('photo.added', { swapId, guildId, actorId, blockId, makerId, photoId: row.id });
+  const withUploader = await Photo.findAll({ where: { id: rows.map((r) => r.id) }, include: [uploader], order: [['id', 'ASC']] });
+  return { photos: withUploader.map(photoDto), block: { id: blockId, state } };
+}
+
+/** A block's photos, oldest first. */
+export async function listBlockPhotos(blockId: number): Promise<PhotoDto[]> {
+  const photos = await Photo.findAll({ where: { blockId }, include: [uploader], order: [['createdAt', 'ASC'], ['id', 'ASC']] });
+  return photos.map(photoDto);
+}
+
+/** Where the requested size of a photo is on disk. */
+export function photoFile(deps: Pick<AppDeps, 'config'>, photo: Photo, size: PhotoSize): string {
+  return storedPath(deps.config.UPLOAD_DIR, size === 'thumb' ? photo.thumbFileName : photo.fileName);
+}
+
+/** Removes the row, then both files. */
+export async function removePhoto(deps: AppDeps, photo: Photo): Promise<void> {
+  await deletePhotos(deps, [photo]);
+}
