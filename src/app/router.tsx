@@ -25,6 +25,7 @@ export const routes: RouteObject[] = [
         children: [
           { path: paths.guilds, lazy: () => import('@/features/guilds/components/guild-list-page').then((m) => ({ Component: m.GuildListPage })) },
           { path: paths.settings, lazy: () => import('@/features/auth/components/settings-page').then((m) => ({ Component: m.SettingsPage })) },
+          { path: paths.planner, lazy: () => import('./planner-route').then((m) => ({ Component: m.PlannerRoute })) },
           {
             path: paths.guild(),
             lazy: () => import('./guild-layout').then((m) => ({ Component: m.GuildLayout })),
