@@ -1,7 +1,7 @@
 /** Turns block and measurement rows into the API's answers, loading related rows in batches. */
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { BlockDto, MeasurementDto } from '@shared/swap-types';
-import { Block, Measurement, Swap, User } from '../db/models';
+import { Block, Measurement, type Swap, User } from '../db/models';
 import { photosByBlock } from './photo-refs';
 
 export function isAccepted(block: Pick<Block, 'verdict' | 'trimmed' | 'state'>): boolean {
@@ -55,11 +55,10 @@ const iso = (d: Date | null | undefined) => d?.toISOString() ?? null;
 export async function blockDtos(blocks: Block[], swap: Swap, transaction?: Transaction): Promise<BlockDto[]> {
   const ids = blocks.map((b) => b.id);
   const userIds = [...new Set(blocks.flatMap((b) => [b.makerId, b.recipientId].filter((x): x is number => x != null)))];
-  const [users, measurements, photos] = await Promise.all([
-    User.findAll({ where: { id: userIds }, attributes: ['id', 'displayName'], transaction }),
-    latestMeasurements(ids, transaction),
-    photosByBlock(Block.sequelize!, ids, transaction),
-  ]);
+  // One after another: queries inside a transaction share its single connection.
+  const users = await User.findAll({ where: { id: userIds }, attributes: ['id', 'displayName'], transaction });
+  const measurements = await latestMeasurements(ids, transaction);
+  const photos = await photosByBlock(Block.sequelize!, ids, transaction);
   const names = new Map(users.map((u) => [u.id, u.displayName]));
   return blocks.map((b) => {
     const latest = measurements.get(b.id) ?? [];

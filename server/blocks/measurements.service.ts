@@ -6,7 +6,7 @@
 import { checkBlock } from '@shared/quilt';
 import type { MeasurementBody } from '@shared/schemas/blocks';
 import type { BlockDto, MeasurementDto } from '@shared/swap-types';
-import { Block, Measurement, Swap, User } from '../db/models';
+import { type Block, Measurement, type Swap, User } from '../db/models';
 import { ConflictError, ForbiddenError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { blockDto, measurementDto } from './block-dto';

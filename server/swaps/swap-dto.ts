@@ -2,7 +2,7 @@
 import { QueryTypes } from 'sequelize';
 import type { Role } from '@shared/schemas/guilds';
 import type { SwapDto, SwapSummaryDto, SwapTransitionDto } from '@shared/swap-types';
-import { Guild, Swap, SwapTransition, User } from '../db/models';
+import { Guild, Swap, type SwapTransition, User } from '../db/models';
 
 export interface SignupStats {
   signups: number;

@@ -1,5 +1,5 @@
 /** Swap routes: set-up, states, sign-ups, roster, block lists and exports. */
-import { Router, type Request } from 'express';
+import { Router, type Request, type Response } from 'express';
 import { guildParamsSchema } from '@shared/schemas/guilds';
 import {
   blocksQuerySchema, createSwapSchema, signupSchema, swapParamsSchema, transitionSchema, updateSwapSchema,
@@ -102,7 +102,7 @@ export function swapsRouter(deps: AppDeps) {
   return router;
 }
 
-function sendCsv(res: import('express').Response, file: { fileName: string; body: string }) {
+function sendCsv(res: Response, file: { fileName: string; body: string }) {
   res
     .status(200)
     .set('Content-Type', 'text/csv; charset=utf-8')
