@@ -13,6 +13,8 @@ import { swapsRouter } from './swaps/swaps.routes';
 import { blocksRouter } from './blocks/blocks.routes';
 import { distributionRouter } from './distribution/distribution.routes';
 import { sewDaysRouter } from './sewdays/sewdays.routes';
+import { chatRouter } from './chat/chat.routes';
+import { boardRouter } from './live/board.routes';
 
 export type FeatureRouter = (deps: AppDeps) => Router;
 
@@ -30,6 +32,6 @@ export interface FeatureHandle {
 
 export type FeatureStartup = (ctx: FeatureContext) => Promise<FeatureHandle>;
 
-export const featureRouters: FeatureRouter[] = [sewDaysRouter, swapsRouter, blocksRouter, distributionRouter, photosRouter];
+export const featureRouters: FeatureRouter[] = [sewDaysRouter, chatRouter, boardRouter, swapsRouter, blocksRouter, distributionRouter, photosRouter];
 
 export const featureStartups: FeatureStartup[] = [liveFeature, photoSweepFeature];

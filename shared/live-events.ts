@@ -3,7 +3,8 @@
  * client event may take an acknowledgement callback answered with `{ data }` or `{ error }`.
  */
 import type { ChatMessageDto } from './schemas/chat';
-import type { BoardRef, ChatRoomRef, Roster, RosterRow, RosterTotals } from './schemas/live';
+import type { BoardRef, ChatRoomRef } from './schemas/live';
+import type { RosterDto, RosterRowDto } from './swap-types';
 import type { SendMessageInput } from './schemas/chat';
 
 export interface LiveError {
@@ -42,9 +43,9 @@ export interface ActivityDto {
 
 /** The rows and totals that changed, recomputed from the database after the commit. */
 export interface BoardPatch {
-  swap: Roster['swap'];
-  totals: RosterTotals;
-  rows: RosterRow[];
+  swap: RosterDto['swap'];
+  totals: RosterDto['totals'];
+  rows: RosterRowDto[];
   /** People who no longer have a row (a withdrawn sign-up). */
   removedUserIds: number[];
   /** True when `rows` is every row of the roster (after a redistribution). */
@@ -55,7 +56,8 @@ export interface BoardChange {
   swapId: number;
   /** Increases by one with every change of this swap, on every node alike. */
   version: number;
-  activity: ActivityDto | null;
+  /** What happened, newest first (several when changes came in a burst). */
+  activities: ActivityDto[];
   /** Null when the change cannot be patched in; the client refetches the roster then. */
   patch: BoardPatch | null;
 }

@@ -25,6 +25,7 @@ export class ChatMessage extends Model<InferAttributes<ChatMessage>, InferCreati
     ChatMessage.init(
       {
         id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+        roomId: { type: DataTypes.INTEGER, allowNull: false },
         body: { type: DataTypes.TEXT, allowNull: false },
         editedAt: { type: DataTypes.DATE, allowNull: true },
         deletedAt: { type: DataTypes.DATE, allowNull: true },

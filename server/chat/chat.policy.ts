@@ -1,0 +1,23 @@
+import { ChatRoom, type Membership } from '../db/models';
+import { NotFoundError } from '../http/errors';
+import { authorizeGuild, can } from '../guilds/guilds.policy';
+import { canReadSwap } from '../swaps/swaps.policy';
+
+export interface RoomAccess {
+  room: ChatRoom;
+  membership: Membership;
+  canPost: boolean;
+  canModerate: boolean;
+}
+
+/**
+ * Any active member of the room's guild may read and post; admins also moderate. A swap's room
+ * follows the swap's own visibility (a draft is for its officers only).
+ */
+export async function authorizeRoom(userId: number, roomId: number): Promise<RoomAccess> {
+  const room = await ChatRoom.findByPk(roomId);
+  if (!room) throw new NotFoundError('That chat room does not exist.');
+  const membership = await authorizeGuild(userId, room.guildId, 'guild:read');
+  if (room.kind === 'swap' && room.swapId) await canReadSwap(userId, room.swapId);
+  return { room, membership, canPost: can(membership.role, 'chat:post'), canModerate: can(membership.role, 'chat:moderate') };
+}

@@ -1,0 +1,118 @@
+import { Op } from 'sequelize';
+import {
+  CHAT_PHOTOS_MAX, CHAT_RATE_LIMIT, CHAT_RATE_WINDOW_MS, type ChatMessageDto, type ChatPageDto, type HistoryQuery,
+} from '@shared/schemas/chat';
+import { ChatMessage, Photo } from '../db/models';
+import { AppError, ConflictError, ForbiddenError, NotFoundError, ValidationError } from '../http/errors';
+import { storePhotos } from '../uploads/photo-store';
+import { deletePhotos } from '../uploads/photo-store';
+import type { IncomingPhotoFile } from '../uploads/photo-pipeline';
+import type { AppDeps } from '../deps';
+import { authorInclude, messageDto, messageDtos } from './chat-dto';
+import { authorizeRoom, type RoomAccess } from './chat.policy';
+
+type ChatDeps = Pick<AppDeps, 'events' | 'sequelize' | 'config'>;
+
+export class RateLimitedError extends AppError {
+  constructor(readonly retryAfterSeconds: number) {
+    super(
+      429,
+      'rate_limited',
+      `You are sending messages faster than the room allows (${CHAT_RATE_LIMIT} in ${CHAT_RATE_WINDOW_MS / 1000} seconds). ` +
+        `Wait ${retryAfterSeconds} second${retryAfterSeconds === 1 ? '' : 's'} and send it again; your message is still in the box.`,
+      { retryAfterSeconds: String(retryAfterSeconds) },
+    );
+  }
+}
+
+/** A page of a room's history, newest first; `before` is the id of the oldest message already shown. */
+export async function history(roomId: number, query: HistoryQuery): Promise<ChatPageDto> {
+  const rows = await ChatMessage.findAll({
+    where: { roomId, ...(query.before ? { id: { [Op.lt]: query.before } } : {}) },
+    include: authorInclude,
+    order: [['id', 'DESC']],
+    limit: query.limit + 1,
+  });
+  const more = rows.length > query.limit;
+  const page = more ? rows.slice(0, query.limit) : rows;
+  return { messages: await messageDtos(page), nextCursor: more ? page.at(-1)!.id : null };
+}
+
+/**
+ * Posts a message (text, photos, or both). The per-person rate limit is counted in PostgreSQL under
+ * an advisory lock, so it holds across every app node and two quick posts cannot both slip through.
+ */
+export async function postMessage(
+  deps: ChatDeps,
+  access: RoomAccess,
+  authorId: number,
+  input: { body: string; files?: readonly IncomingPhotoFile[] },
+): Promise<ChatMessageDto> {
+  const files = input.files ?? [];
+  if (!access.canPost) throw new ForbiddenError('Your role in this guild does not allow posting here.');
+  if (!input.body && files.length === 0) throw new ValidationError('Write a message or add a photo first.', { body: 'Write a message or add a photo first.' });
+  if (files.length > CHAT_PHOTOS_MAX) throw new ValidationError(`Send at most ${CHAT_PHOTOS_MAX} photos in one message.`, { photos: `At most ${CHAT_PHOTOS_MAX} photos.` });
+  const { room } = access;
+  const message = await deps.sequelize.transaction(async (transaction) => {
+    await deps.sequelize.query('SELECT pg_advisory_xact_lock(7314005, $userId)', { bind: { userId: authorId }, transaction });
+    const since = new Date(Date.now() - CHAT_RATE_WINDOW_MS);
+    const recent = await ChatMessage.findAll({
+      where: { authorId, createdAt: { [Op.gt]: since } },
+      attributes: ['createdAt'],
+      order: [['createdAt', 'ASC']],
+      transaction,
+    });
+    if (recent.length >= CHAT_RATE_LIMIT) {
+      const freeAt = recent[recent.length - CHAT_RATE_LIMIT]!.createdAt.getTime() + CHAT_RATE_WINDOW_MS;
+      throw new RateLimitedError(Math.max(1, Math.ceil((freeAt - Date.now()) / 1000)));
+    }
+    const created = await ChatMessage.create({ roomId: room.id, authorId, body: input.body, deletedById: null }, { transaction });
+    if (files.length) {
+      await storePhotos(deps, { files, guildId: room.guildId, uploadedBy: authorId, owner: { chatMessageId: created.id }, transaction });
+    }
+    return created;
+  });
+  const dto = await messageDto(message);
+  deps.events.emit('chat.posted', { guildId: room.guildId, roomId: room.id, actorId: authorId, message: dto });
+  return dto;
+}
+
+async function loadMessage(messageId: number) {
+  const message = await ChatMessage.findByPk(messageId, { include: authorInclude });
+  if (!message) throw new NotFoundError('That message does not exist.');
+  return message;
+}
+
+/** Only the author edits, and only a message still standing. */
+export async function editMessage(deps: ChatDeps, userId: number, messageId: number, body: string): Promise<ChatMessageDto> {
+  const message = await loadMessage(messageId);
+  const access = await authorizeRoom(userId, message.roomId);
+  if (message.authorId !== userId) throw new ForbiddenError('You can edit only your own messages.');
+  if (message.deletedAt) throw new ConflictError('That message was deleted, so it cannot be edited.', 'message_deleted');
+  await message.update({ body, editedAt: new Date() });
+  const dto = await messageDto(message);
+  deps.events.emit('chat.changed', { guildId: access.room.guildId, roomId: message.roomId, actorId: userId, change: 'edited', message: dto });
+  return dto;
+}
+
+/**
+ * The author deletes their own message; a moderator (guild admin) removes anyone's. Either way the
+ * text and photos go and the line stays, saying who took it down.
+ */
+export async function deleteMessage(deps: ChatDeps, userId: number, messageId: number): Promise<ChatMessageDto> {
+  const message = await loadMessage(messageId);
+  const access = await authorizeRoom(userId, message.roomId);
+  const own = message.authorId === userId;
+  if (!own && !access.canModerate) throw new ForbiddenError('You can delete only your own messages; a guild admin can remove others.');
+  if (message.deletedAt) throw new ConflictError('That message was already taken down.', 'message_deleted');
+  await deps.sequelize.transaction(async (transaction) => {
+    await message.update({ body: '', deletedAt: new Date(), deletedById: userId }, { transaction });
+    const photos = await Photo.findAll({ where: { chatMessageId: message.id }, transaction });
+    await deletePhotos(deps, photos, transaction);
+  });
+  const dto = await messageDto(message);
+  deps.events.emit('chat.changed', {
+    guildId: access.room.guildId, roomId: message.roomId, actorId: userId, change: own ? 'deleted' : 'removed', message: dto,
+  });
+  return dto;
+}

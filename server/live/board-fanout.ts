@@ -1,0 +1,93 @@
+import { QueryTypes } from 'sequelize';
+import type { BoardChange, BoardPatch } from '@shared/live-events';
+import type { RosterDto } from '@shared/swap-types';
+import { Swap } from '../db/models';
+import { getRoster } from '../swaps/roster.service';
+import type { AppDeps } from '../deps';
+import type { LiveServer } from './live-types';
+import { activitiesById, recordActivities, type SwapEvent } from './board-activity';
+import { boardRoom } from './rooms';
+
+// Changes to the swap as a whole (its state, a redistribution) touch every row.
+const WHOLE_BOARD = new Set(['swap.created', 'swap.updated', 'swap.transitioned', 'distribution.confirmed']);
+
+function affectedUser(event: SwapEvent): number | null {
+  const p = event.payload as Record<string, unknown>;
+  const id = p.userId ?? p.makerId;
+  return typeof id === 'number' ? id : null;
+}
+
+/** The rows the batch touched, recomputed; every row when the swap as a whole changed. */
+export function patchFor(roster: RosterDto, batch: SwapEvent[]): BoardPatch {
+  if (batch.some((e) => WHOLE_BOARD.has(e.name))) {
+    return { swap: roster.swap, totals: roster.totals, rows: roster.rows, removedUserIds: [], complete: true };
+  }
+  const affected = new Set(batch.map(affectedUser).filter((id): id is number => id !== null));
+  const rows = roster.rows.filter((r) => affected.has(r.userId));
+  const removedUserIds = [...affected].filter((id) => !rows.some((r) => r.userId === id));
+  return { swap: roster.swap, totals: roster.totals, rows, removedUserIds, complete: false };
+}
+
+/**
+ * Turns committed swap events into board changes. Events of one swap are handled one batch at a time
+ * (a burst becomes one change); each change takes the next number from the swap's counter in
+ * PostgreSQL and holds that row lock while the roster is read, so on every node a higher number
+ * always carries a later state.
+ */
+export class BoardFanout {
+  private queues = new Map<number, SwapEvent[]>();
+
+  constructor(
+    private io: LiveServer,
+    private deps: Pick<AppDeps, 'sequelize' | 'logger'>,
+  ) {}
+
+  push(event: SwapEvent) {
+    const swapId = event.payload.swapId;
+    const queued = this.queues.get(swapId);
+    if (queued) {
+      queued.push(event);
+      return;
+    }
+    this.queues.set(swapId, [event]);
+    void this.drain(swapId);
+  }
+
+  private async drain(swapId: number) {
+    // Let the rest of a burst arrive before the first batch is taken.
+    await new Promise((r) => setImmediate(r));
+    for (;;) {
+      const batch = this.queues.get(swapId)!.splice(0);
+      if (batch.length === 0) break;
+      await this.publish(swapId, batch).catch((err: unknown) => this.deps.logger.error({ err, swapId }, 'board change not sent'));
+    }
+    this.queues.delete(swapId);
+  }
+
+  private async publish(swapId: number, batch: SwapEvent[]) {
+    const swap = await Swap.findByPk(swapId);
+    if (!swap) return; // deleted since: nobody's board shows it any more
+    const { sequelize } = this.deps;
+    const { version, activityIds, roster } = await sequelize.transaction(async (transaction) => {
+      const [row] = await sequelize.query<{ version: string }>(
+        `INSERT INTO swap_versions (swap_id, version) VALUES ($swapId, 1)
+         ON CONFLICT (swap_id) DO UPDATE SET version = swap_versions.version + 1 RETURNING version`,
+        { bind: { swapId }, type: QueryTypes.SELECT, transaction },
+      );
+      const ids = await recordActivities(batch, transaction);
+      await swap.reload();
+      // Read while the counter row is locked, so the next number cannot carry an older roster.
+      return { version: Number(row!.version), activityIds: ids, roster: await getRoster(swap, { withAddresses: false }) };
+    });
+    const change: BoardChange = { swapId, version, activities: await activitiesById(activityIds), patch: patchFor(roster, batch) };
+    this.io.to(boardRoom(swap.guildId, swapId)).emit('board:changed', change);
+  }
+}
+
+/** The swap's current change number (0 before its first change). */
+export async function boardVersion(sequelize: AppDeps['sequelize'], swapId: number): Promise<number> {
+  const [row] = await sequelize.query<{ version: string }>('SELECT version FROM swap_versions WHERE swap_id = $swapId', {
+    bind: { swapId }, type: QueryTypes.SELECT,
+  });
+  return row ? Number(row.version) : 0;
+}

@@ -1,0 +1,52 @@
+import { boardRefSchema } from '@shared/schemas/live';
+import type { BoardJoined } from '@shared/live-events';
+import { AppError } from '../http/errors';
+import { canReadSwap } from '../swaps/swaps.policy';
+import type { LivePart } from './live.startup';
+import { BoardFanout, boardVersion } from './board-fanout';
+import type { SwapEvent } from './board-activity';
+import { handle } from './socket-handler';
+import { boardRoom } from './rooms';
+
+/** Live swap boards: committed swap events fan out to the swap's room; viewers join with their membership checked. */
+export function boardLive(): LivePart {
+  return {
+    start({ io, deps }) {
+      const board = new BoardFanout(io, deps);
+      deps.events.onAny((name, payload) => {
+        if (typeof (payload as { swapId?: unknown }).swapId !== 'number') return;
+        board.push({ name, payload } as SwapEvent);
+      });
+    },
+
+    onConnection({ deps, presence }, socket) {
+      const { logger } = deps;
+      const user = socket.data.user;
+      const joined = new Map<number, string>();
+
+      handle(socket, logger, 'board:join', boardRefSchema, async ({ swapId }): Promise<BoardJoined> => {
+        const access = await canReadSwap(user.userId, swapId).catch((error: unknown) => {
+          if (error instanceof AppError) logger.warn({ userId: user.userId, swapId, code: error.code }, 'socket join refused');
+          throw error;
+        });
+        const name = boardRoom(access.swap.guildId, swapId);
+        // Join first, then read the number: any later change reaches this socket with a higher one.
+        await socket.join(name);
+        joined.set(swapId, name);
+        presence.announce(name);
+        const [version, viewers] = await Promise.all([boardVersion(deps.sequelize, swapId), presence.viewers(name)]);
+        return { version, viewers };
+      });
+
+      handle(socket, logger, 'board:leave', boardRefSchema, async ({ swapId }) => {
+        const name = joined.get(swapId);
+        if (name) {
+          await socket.leave(name);
+          joined.delete(swapId);
+          presence.announce(name);
+        }
+        return true as const;
+      });
+    },
+  };
+}
