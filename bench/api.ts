@@ -112,6 +112,9 @@ const percentile = (sorted: number[], p: number) => sorted[Math.min(sorted.lengt
 async function cannon(opts: { name: string; url: string; connections: number; duration: number; rate?: number; method?: 'GET' | 'POST'; headers?: Record<string, string>; paths?: string[]; body?: string }): Promise<ApiRow> {
   const latencies: number[] = [];
   let next = 0;
+  let finish!: (r: autocannon.Result) => void;
+  let fail!: (e: unknown) => void;
+  const done = new Promise<autocannon.Result>((resolve, reject) => ((finish = resolve), (fail = reject)));
   const instance = autocannon({
     url: opts.url,
     connections: opts.connections,
@@ -125,9 +128,9 @@ async function cannon(opts: { name: string; url: string; connections: number; du
         setupRequest: (req) => (opts.paths ? { ...req, path: opts.paths[next++ % opts.paths.length] } : req),
       },
     ],
-  });
+  }, (err, result) => (err ? fail(err) : finish(result)));
   instance.on('response', (_client, _status, _bytes, responseTime) => latencies.push(responseTime));
-  const result = await instance;
+  const result = await done;
   latencies.sort((a, b) => a - b);
   return {
     name: opts.name,

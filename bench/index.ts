@@ -43,7 +43,7 @@ async function optional<T>(path: string, name: string): Promise<T | null> {
 
 const runEngineBench = await optional<() => Promise<Row[]>>('./engine.ts', 'runEngineBench');
 if (runEngineBench) await section('Quilt math engine', 'Median time per call; target: a 60 × 4 distribution under 5 ms.', runEngineBench);
-await section('API (autocannon over loopback)', `${seconds} s per run; the app versus bare Express + pg doing one equivalent query. Goals: roster p95 < 20 ms at 200 req/s; throughput ≥ 50 % of bare.`, () => runApiBench({ duration: seconds }) as Promise<Row[]>);
+await section('API (autocannon over loopback)', `${seconds} s per run; the app versus bare Express + pg doing one equivalent query. Goals: roster p95 < 20 ms at 200 req/s; throughput ≥ 50 % of bare.`, async () => (await runApiBench({ duration: seconds })) as unknown as Row[]);
 const runLiveBench = await optional<() => Promise<Row[]>>('./live.ts', 'runLiveBench');
 if (runLiveBench) await section('Live board and chat (socket.io over loopback)', 'From the database commit to receipt on every socket; target p95 < 50 ms.', runLiveBench);
 await section('Client bundle (gzip)', 'Initial route JS target < 200 kB gzip; route chunks load on demand.', () => runBundleBench() as unknown as Row[]);
