@@ -29,6 +29,21 @@ const configSchema = z.object({
     .enum(['true', 'false'])
     .default('true')
     .transform((v) => v === 'true'),
+  /** Cron (UTC) for the sweep that sends deadline reminders and re-queues stalled mail. */
+  MAIL_SWEEP_CRON: z.string().default('*/10 * * * *'),
+  /** Cron (UTC) for the coordinators' weekly digest. */
+  MAIL_DIGEST_CRON: z.string().default('0 7 * * 1'),
+  /**
+   * Seconds to wait after a pledge changes or a block is received or measured, so one message covers
+   * a burst of changes (six blocks measured in a row make one receipt notice).
+   */
+  MAIL_BATCH_DELAY_SECONDS: z.coerce.number().int().min(0).max(86_400).default(120),
+  /** Delivery attempts after the first before a message is marked failed (backoff doubles each time). */
+  MAIL_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(5),
+  /** First retry delay in seconds. */
+  MAIL_RETRY_DELAY_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
+  /** How often an idle job worker looks for new jobs. */
+  JOBS_POLL_SECONDS: z.coerce.number().min(0.5).max(60).default(2),
 });
 
 export type Config = z.infer<typeof configSchema>;

@@ -13,6 +13,8 @@ import { swapsRouter } from './swaps/swaps.routes';
 import { blocksRouter } from './blocks/blocks.routes';
 import { distributionRouter } from './distribution/distribution.routes';
 import { sewDaysRouter } from './sewdays/sewdays.routes';
+import { notificationsRouter } from './notifications/notifications.routes';
+import { mailJobsFeature } from './jobs/startup';
 import { chatRouter } from './chat/chat.routes';
 import { boardRouter } from './live/board.routes';
 
@@ -32,6 +34,6 @@ export interface FeatureHandle {
 
 export type FeatureStartup = (ctx: FeatureContext) => Promise<FeatureHandle>;
 
-export const featureRouters: FeatureRouter[] = [sewDaysRouter, chatRouter, boardRouter, swapsRouter, blocksRouter, distributionRouter, photosRouter];
+export const featureRouters: FeatureRouter[] = [sewDaysRouter, chatRouter, boardRouter, swapsRouter, blocksRouter, distributionRouter, photosRouter, notificationsRouter];
 
-export const featureStartups: FeatureStartup[] = [liveFeature, photoSweepFeature];
+export const featureStartups: FeatureStartup[] = [liveFeature, photoSweepFeature, mailJobsFeature];

@@ -11,6 +11,8 @@ import { Signup } from './signup';
 import { Block } from './block';
 import { Measurement } from './measurement';
 import { BlockRequest } from './block-request';
+import { MailMessage } from './mail-message';
+import { MailPreference } from './mail-preference';
 import { SewDay } from './sew-day';
 import { Rsvp } from './rsvp';
 import { ChatRoom } from './chat-room';
@@ -20,6 +22,7 @@ import { Activity } from './activity';
 export { User, Guild, Membership, Invitation, PasswordReset };
 export { Photo };
 export { Swap, SwapTransition, Signup, Block, Measurement, BlockRequest };
+export { MailMessage, MailPreference };
 export { SewDay, Rsvp, ChatRoom, ChatMessage, Activity };
 
 let initialised: Sequelize | null = null;
@@ -56,6 +59,9 @@ export function initModels(sequelize: Sequelize) {
   Block.hasMany(Measurement, { foreignKey: 'blockId', as: 'measurements' });
   Measurement.belongsTo(User, { foreignKey: 'measuredById', as: 'measuredBy' });
   BlockRequest.belongsTo(Block, { foreignKey: 'blockId', as: 'block' });
+
+  for (const model of [MailMessage, MailPreference]) model.initModel(sequelize);
+  MailMessage.belongsTo(User, { foreignKey: 'userId', as: 'user', constraints: false });
 
   Photo.initModel(sequelize);
   Photo.belongsTo(User, { foreignKey: 'uploadedById', as: 'uploadedBy' });

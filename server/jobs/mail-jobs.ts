@@ -1,0 +1,137 @@
+/**
+ * The mail side of the job queue: domain events become compose jobs; compose jobs record one
+ * message per recipient and queue its delivery; delivery jobs send. A cron sweep sends deadline
+ * reminders and re-queues mail whose job was lost; a weekly cron sends the coordinators' digest.
+ * Every node may run this: jobs are shared, and each message's idempotency key keeps it single.
+ */
+import type PgBoss from 'pg-boss';
+import type { AppDeps } from '../deps';
+import type { Mailer } from '../mail/mailer';
+import { deliverMessage, RetryableDeliveryError } from '../mail/deliver';
+import { requeueStalled, type RecordResult } from '../mail/outbox';
+import type { ComposeDeps } from '../mail/compose/context';
+import { composeAnnouncement } from '../mail/compose/announcement';
+import { composeSignupConfirmation } from '../mail/compose/signup-confirmation';
+import { composeReminders } from '../mail/compose/reminders';
+import { composeReceipt } from '../mail/compose/receipt';
+import { composeDistribution } from '../mail/compose/distribution';
+import { composeDigests } from '../mail/compose/digest';
+import { queues, startBoss } from './queue';
+
+export type ComposeJob =
+  | { kind: 'announcement'; swapId: number }
+  | { kind: 'signup-confirmation'; swapId: number; userId: number }
+  | { kind: 'receipt'; swapId: number; userId: number }
+  | { kind: 'distribution'; swapId: number };
+
+export interface MailJobs {
+  boss: PgBoss;
+  /** Queues a compose job as an event would (used by the event subscriptions and tests). */
+  enqueue(job: ComposeJob, delaySeconds?: number): Promise<string | null>;
+  /** Runs a compose job now, in this process. */
+  compose(job: ComposeJob): Promise<RecordResult>;
+  /** Reminders due at `now`, plus re-queueing stalled mail. */
+  sweep(now?: Date): Promise<RecordResult & { requeued: number }>;
+  digest(now?: Date): Promise<RecordResult>;
+  close(): Promise<void>;
+}
+
+export interface MailJobsOptions {
+  /** Deliver through this mailer instead of deps.mailer (tests point one at a dead SMTP port). */
+  mailer?: Mailer;
+  /** Take jobs from the queue in this process (default true). */
+  workers?: boolean;
+  /** Turn domain events into mail (default true). */
+  events?: boolean;
+  /** Register the sweep and digest crons (default true). */
+  schedule?: boolean;
+}
+
+/** One waiting compose job per subject: a burst of events for it makes one message. */
+function singletonKey(job: ComposeJob) {
+  return 'userId' in job ? `${job.kind}:${job.swapId}:${job.userId}` : `${job.kind}:${job.swapId}`;
+}
+
+/** Starts the queue, its workers, its crons and the event subscriptions. */
+export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): Promise<MailJobs> {
+  const { config, logger } = deps;
+  const boss = await startBoss(config, logger, { schedule: opts.schedule ?? true });
+  const composeDeps: ComposeDeps = { pool: deps.pool, config, logger, boss };
+  const delivery = { pool: deps.pool, mailer: opts.mailer ?? deps.mailer, config };
+  let closed = false;
+
+  const compose = async (job: ComposeJob): Promise<RecordResult> => {
+    switch (job.kind) {
+      case 'announcement':
+        return composeAnnouncement(composeDeps, job.swapId);
+      case 'signup-confirmation':
+        return composeSignupConfirmation(composeDeps, job.swapId, job.userId);
+      case 'receipt':
+        return composeReceipt(composeDeps, job.swapId, job.userId);
+      case 'distribution':
+        return composeDistribution(composeDeps, job.swapId);
+    }
+  };
+  const sweep = async (now = new Date()) => {
+    const reminders = await composeReminders(composeDeps, now);
+    return { ...reminders, requeued: await requeueStalled(deps.pool, boss) };
+  };
+  const digest = (now = new Date()) => composeDigests(composeDeps, now);
+  const enqueue = (job: ComposeJob, delaySeconds = 0) =>
+    boss.send(queues.compose, job, { singletonKey: singletonKey(job), ...(delaySeconds > 0 ? { startAfter: delaySeconds } : {}) });
+
+  if (opts.workers ?? true) {
+    const work = { batchSize: 1, pollingIntervalSeconds: config.JOBS_POLL_SECONDS };
+    await boss.work<{ messageId: number }>(queues.send, work, async ([job]) => {
+      try {
+        const outcome = await deliverMessage(delivery, job!.data.messageId);
+        logger.debug({ messageId: job!.data.messageId, outcome }, 'mail delivery');
+      } catch (error) {
+        if (error instanceof RetryableDeliveryError) logger.warn({ messageId: job!.data.messageId, reason: error.message }, 'mail delivery failed; will retry');
+        throw error;
+      }
+    });
+    await boss.work<ComposeJob>(queues.compose, work, async ([job]) => {
+      const result = await compose(job!.data);
+      logger.info({ job: job!.data, ...result }, 'mail composed');
+    });
+    await boss.work(queues.sweep, work, async () => {
+      const result = await sweep();
+      if (result.queued || result.requeued) logger.info(result, 'mail sweep');
+    });
+    await boss.work(queues.digest, work, async () => {
+      logger.info(await digest(), 'weekly digests composed');
+    });
+  }
+  if (opts.schedule ?? true) {
+    await boss.schedule(queues.sweep, config.MAIL_SWEEP_CRON, {}, { tz: 'UTC' });
+    await boss.schedule(queues.digest, config.MAIL_DIGEST_CRON, {}, { tz: 'UTC' });
+  }
+
+  if (opts.events ?? true) {
+    const delay = config.MAIL_BATCH_DELAY_SECONDS;
+    // A listener's failure is logged by DomainEvents and never fails the request that emitted.
+    const on = async (job: ComposeJob, delaySeconds = 0) => {
+      if (!closed) await enqueue(job, delaySeconds);
+    };
+    deps.events.on('swap.transitioned', (e) => (e.to === 'signup' ? on({ kind: 'announcement', swapId: e.swapId }) : undefined));
+    deps.events.on('signup.changed', (e) => on({ kind: 'signup-confirmation', swapId: e.swapId, userId: e.userId }, delay));
+    deps.events.on('block.changed', (e) => (e.to === 'received' ? on({ kind: 'receipt', swapId: e.swapId, userId: e.makerId }, delay) : undefined));
+    // Makers' own and photo estimates are not the coordinator's verdict; only the ruler's counts.
+    deps.events.on('block.measured', (e) => (e.source === 'ruler' ? on({ kind: 'receipt', swapId: e.swapId, userId: e.makerId }, delay) : undefined));
+    deps.events.on('distribution.confirmed', (e) => on({ kind: 'distribution', swapId: e.swapId }));
+  }
+
+  return {
+    boss,
+    enqueue,
+    compose,
+    sweep,
+    digest,
+    async close() {
+      closed = true;
+      // Graceful: running jobs finish (or are left for another worker once they expire).
+      await boss.stop({ graceful: true, wait: true, timeout: 10_000 });
+    },
+  };
+}

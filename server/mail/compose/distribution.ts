@@ -1,0 +1,71 @@
+/** "Your blocks are coming back": after the coordinator confirms the return, to each recipient. */
+import { QueryTypes } from 'sequelize';
+import { Swap } from '../../db/models';
+import { plural } from '../format';
+import { renderMail } from '../render';
+import { recordAndQueue, type RecordResult } from '../outbox';
+import { frameFor, loadSwap, recordsFor, swapUrl, usersByIds, type ComposeDeps, type Recipient } from './context';
+
+interface Share {
+  recipientId: number;
+  makers: { name: string; count: number }[];
+  count: number;
+}
+
+/** Per recipient: how many returned blocks, from which makers. */
+async function sharesOf(swapId: number): Promise<Share[]> {
+  const rows = await Swap.sequelize!.query<{ recipient_id: number; maker: string; count: string }>(
+    `SELECT b.recipient_id, u.display_name AS maker, count(*) AS count
+       FROM blocks b JOIN users u ON u.id = b.maker_id
+      WHERE b.swap_id = $swapId AND b.state = 'returned' AND b.recipient_id IS NOT NULL
+      GROUP BY b.recipient_id, u.display_name
+      ORDER BY b.recipient_id, u.display_name`,
+    { bind: { swapId }, type: QueryTypes.SELECT },
+  );
+  const shares = new Map<number, Share>();
+  for (const r of rows) {
+    const share = shares.get(r.recipient_id) ?? { recipientId: r.recipient_id, makers: [], count: 0 };
+    share.makers.push({ name: r.maker, count: Number(r.count) });
+    share.count += Number(r.count);
+    shares.set(r.recipient_id, share);
+  }
+  return [...shares.values()];
+}
+
+export async function composeDistribution(deps: ComposeDeps, swapId: number): Promise<RecordResult> {
+  const loaded = await loadSwap(swapId);
+  if (!loaded) return { queued: 0, skipped: 0, existing: 0 };
+  const { swap, guild } = loaded;
+  const shares = await sharesOf(swapId);
+  const users = await usersByIds(shares.map((s) => s.recipientId));
+  const byUser = new Map(shares.map((s) => [s.recipientId, s]));
+  const recipients = shares.map((s) => users.get(s.recipientId)).filter((u): u is Recipient => Boolean(u));
+  const records = await recordsFor('distribution', { guildId: guild.id, swapId: swap.id }, recipients, (r) => {
+    const share = byUser.get(r.id)!;
+    const countText = plural(share.count, 'block');
+    const makersText = plural(share.makers.length, 'maker');
+    return {
+      key: `swap:${swap.id}:distribution:user:${r.id}`,
+      kind: 'distribution',
+      mail: renderMail(
+        'distribution',
+        {
+          name: r.displayName,
+          swapTitle: swap.title,
+          countText,
+          makersText,
+          makers: share.makers,
+          gift: swap.mode === 'gift',
+          url: swapUrl(deps.config, guild.id, swap.id),
+        },
+        frameFor(deps.config, r.id, 'distribution', {
+          subject: `${countText} from ${makersText} coming back to you: ${swap.title}`,
+          preheader: `The blocks of ${swap.title} have been shared out.`,
+          heading: `${countText} coming your way`,
+          reason: `You get this because you take part in a swap in ${guild.name}.`,
+        }),
+      ),
+    };
+  });
+  return recordAndQueue(deps.pool, deps.boss, records);
+}

@@ -1,0 +1,108 @@
+/**
+ * "Your blocks arrived": once a coordinator has received or measured a maker's blocks, one notice
+ * lists each block with its verdict in words and, for blocks that need work, what to do next.
+ * Events start a delayed job (one waiting job per maker and swap), so measuring six blocks in a
+ * row sends one notice, not six. The key carries a fingerprint of what the notice says, so the same
+ * news is never sent twice and new news always is.
+ */
+import { createHash } from 'node:crypto';
+import { Op } from 'sequelize';
+import { VERDICT_LABELS } from '@shared/quilt';
+import type { Units } from '@shared/schemas/auth';
+import type { VerdictName } from '@shared/swap-types';
+import { Block, Measurement, type Swap } from '../../db/models';
+import { mailLength, mailSize, plural } from '../format';
+import { renderMail } from '../render';
+import { recordAndQueue, type RecordResult } from '../outbox';
+import { frameFor, loadSwap, recordsFor, swapUrl, usersByIds, type ComposeDeps } from './context';
+import { swapView } from './swap-view';
+
+const IN_HAND = ['received', 'measured', 'returned'];
+
+/** What the maker should do about a block, in plain words; null when nothing. */
+export function adviceFor(verdict: VerdictName | null, trimmed: boolean, swap: Swap, units: Units, due: string): string | null {
+  const size = mailSize({ width: swap.unfinishedWidth, height: swap.unfinishedHeight }, units);
+  switch (verdict) {
+    case 'trim':
+      return trimmed
+        ? 'It has been trimmed to size and counts as accepted. Nothing for you to do.'
+        : `It is a little larger than ${size}, so it can be trimmed down and still counts. Your coordinator will trim it or ask you to; if you trim it yourself, square it to ${size} with the design centred.`;
+    case 'short':
+      return `It came out smaller than ${size} by more than the tolerance, so it cannot be trimmed to fit. If you can, make a replacement and hand it in by ${due}. Checking your seam allowance first usually finds the cause.`;
+    case 'skewed':
+      return `Its two diagonals differ by more than ${mailLength(swap.squareness, units)}, so it is out of square. A careful press (lift and lower the iron rather than pushing it) and squaring up often fixes it; your coordinator will say whether to rework it or make a new one.`;
+    default:
+      return null;
+  }
+}
+
+/** Composes the maker's receipt notice, if anything has changed since the last one. */
+export async function composeReceipt(deps: ComposeDeps, swapId: number, makerId: number, now = new Date()): Promise<RecordResult> {
+  const nothing = { queued: 0, skipped: 0, existing: 0 };
+  const loaded = await loadSwap(swapId);
+  if (!loaded) return nothing;
+  const { swap, guild } = loaded;
+  const all = await Block.findAll({ where: { swapId, makerId }, order: [['sequence', 'ASC']] });
+  const inHand = all.filter((b) => IN_HAND.includes(b.state) || b.receivedAt);
+  const maker = (await usersByIds([makerId])).get(makerId);
+  if (inHand.length === 0 || !maker) return nothing;
+
+  const latest = new Map<number, Measurement>();
+  const measurements = await Measurement.findAll({
+    where: { blockId: { [Op.in]: inHand.map((b) => b.id) }, source: 'ruler' },
+    order: [['createdAt', 'ASC'], ['id', 'ASC']],
+  });
+  for (const m of measurements) latest.set(m.blockId, m);
+
+  const fingerprint = createHash('sha256')
+    .update(inHand.map((b) => `${b.id}:${b.verdict ?? '-'}:${b.trimmed ? 1 : 0}`).join('|'))
+    .digest('hex')
+    .slice(0, 12);
+  const owed = all.filter((b) => b.state === 'pledged' || b.state === 'sewn').length;
+  const measuredCount = inHand.filter((b) => b.verdict).length;
+
+  const records = await recordsFor('receipts', { guildId: guild.id, swapId: swap.id }, [maker], (r) => {
+    const view = swapView(swap, guild, r.units, now);
+    const blocks = inHand.map((b) => {
+      const label = b.verdict ? VERDICT_LABELS[b.verdict as VerdictName] : null;
+      const m = latest.get(b.id);
+      return {
+        label: `Block ${b.sequence}`,
+        verdict: label ? label.label : 'Received, not measured yet',
+        glyph: label ? label.glyph : '•',
+        verdictStyle: b.verdict ? `verdict_${b.verdict}` : 'verdict_none',
+        measured: m && b.verdict && b.verdict !== 'true' ? mailSize(m, r.units) : null,
+        advice: adviceFor(b.verdict, b.trimmed, swap, r.units, view.due),
+      };
+    });
+    const needWork = inHand.filter((b) => (b.verdict === 'trim' && !b.trimmed) || b.verdict === 'short' || b.verdict === 'skewed').length;
+    return {
+      key: `swap:${swap.id}:receipt:user:${r.id}:${fingerprint}`,
+      kind: 'receipt',
+      mail: renderMail(
+        'receipt',
+        {
+          name: r.displayName,
+          swapTitle: swap.title,
+          receivedText: plural(inHand.length, 'block'),
+          measuredCount,
+          measuredText: measuredCount === inHand.length ? (inHand.length === 1 ? 'it' : `all ${inHand.length}`) : String(measuredCount),
+          blocks,
+          unfinished: view.unfinished,
+          owed,
+          owedText: plural(owed, 'block'),
+          due: view.due,
+          needsCare: needWork > 0,
+          url: swapUrl(deps.config, guild.id, swap.id),
+        },
+        frameFor(deps.config, r.id, 'receipts', {
+          subject: needWork > 0 ? `Your blocks for ${swap.title}: ${plural(needWork, 'block needs', 'blocks need')} a look` : `Your blocks for ${swap.title} have arrived`,
+          preheader: `${plural(inHand.length, 'block')} received, ${measuredCount} measured.`,
+          heading: 'Your blocks have arrived',
+          reason: `You get this because you made blocks for a swap in ${guild.name}.`,
+        }),
+      ),
+    };
+  });
+  return recordAndQueue(deps.pool, deps.boss, records);
+}

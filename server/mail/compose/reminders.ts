@@ -1,0 +1,114 @@
+/**
+ * Deadline reminders, worked out by a periodic sweep rather than one timer per reminder: the sweep
+ * reads today's dates and pledges, so a moved deadline or a block handed in yesterday is always
+ * taken into account. Each reminder's key carries the deadline's date in the guild's zone, so it
+ * goes once per deadline however often the sweep runs, and again only if the deadline moves.
+ */
+import { Op, QueryTypes } from 'sequelize';
+import { Guild, Swap } from '../../db/models';
+import { localDateKey, plural } from '../format';
+import { renderMail } from '../render';
+import { recordAndQueue, type RecordResult } from '../outbox';
+import { frameFor, recordsFor, swapUrl, usersByIds, type ComposeDeps, type Recipient } from './context';
+import { swapView } from './swap-view';
+
+const DAY_MS = 86_400_000;
+
+export interface Debt {
+  userId: number;
+  pledged: number;
+  /** blocks handed in, received, measured or returned */
+  handedIn: number;
+  /** blocks still pledged or only sewn */
+  owed: number;
+}
+
+/** Each active, still-member signer's pledge and how many blocks they still owe. */
+export async function debtsOf(swapId: number, guildId: number): Promise<Debt[]> {
+  const rows = await Swap.sequelize!.query<{ user_id: number; pledged: number; handed_in: string; owed: string }>(
+    `SELECT s.user_id, s.blocks AS pledged,
+            count(b.id) FILTER (WHERE b.state NOT IN ('pledged', 'sewn')) AS handed_in,
+            count(b.id) FILTER (WHERE b.state IN ('pledged', 'sewn')) AS owed
+       FROM signups s
+       JOIN memberships m ON m.user_id = s.user_id AND m.guild_id = $guildId AND m.status = 'active'
+       LEFT JOIN blocks b ON b.swap_id = s.swap_id AND b.maker_id = s.user_id
+      WHERE s.swap_id = $swapId AND s.status = 'active'
+      GROUP BY s.user_id, s.blocks
+      ORDER BY s.user_id`,
+    { bind: { swapId, guildId }, type: QueryTypes.SELECT },
+  );
+  return rows.map((r) => ({ userId: r.user_id, pledged: Number(r.pledged), handedIn: Number(r.handed_in), owed: Number(r.owed) }));
+}
+
+/** True from `days` days before the deadline until the deadline; 0 days means no reminder. */
+export function inReminderWindow(deadline: Date, days: number, now: Date) {
+  return days > 0 && now.getTime() >= deadline.getTime() - days * DAY_MS && now.getTime() < deadline.getTime();
+}
+
+async function remind(deps: ComposeDeps, swap: Swap, guild: Guild, which: 'signup' | 'due', now: Date): Promise<RecordResult> {
+  const debts = (await debtsOf(swap.id, guild.id)).filter((d) => d.owed > 0);
+  const users = await usersByIds(debts.map((d) => d.userId));
+  const byUser = new Map(debts.map((d) => [d.userId, d]));
+  const recipients = debts.map((d) => users.get(d.userId)).filter((u): u is Recipient => Boolean(u));
+  const deadline = which === 'signup' ? swap.signupClosesAt : swap.dueAt;
+  const dateKey = localDateKey(deadline, guild.timeZone);
+  const url = swapUrl(deps.config, guild.id, swap.id);
+  const records = await recordsFor('reminders', { guildId: guild.id, swapId: swap.id }, recipients, (r) => {
+    const debt = byUser.get(r.id)!;
+    const view = swapView(swap, guild, r.units, now);
+    const owedText = plural(debt.owed, 'block');
+    const data = {
+      name: r.displayName,
+      swapTitle: swap.title,
+      owedText,
+      pledgedText: plural(debt.pledged, 'block'),
+      handedIn: debt.handedIn,
+      handedInText: plural(debt.handedIn, 'block'),
+      closes: view.signupCloses,
+      closesIn: view.signupClosesIn,
+      due: view.due,
+      dueIn: view.dueIn,
+      unfinished: view.unfinished,
+      tolerance: view.tolerance,
+      zone: view.zone,
+      url,
+    };
+    const template = which === 'signup' ? 'signup-reminder' : 'due-reminder';
+    const text =
+      which === 'signup'
+        ? { subject: `Sign-up for ${swap.title} closes ${view.signupClosesIn}`, heading: `Sign-up closes ${view.signupClosesIn}`, preheader: `You still owe ${owedText}.` }
+        : { subject: `${owedText} still to hand in for ${swap.title}, due ${view.dueIn}`, heading: `Blocks due ${view.dueIn}`, preheader: `You still have ${owedText} to hand in.` };
+    return {
+      key: `swap:${swap.id}:${template}:${dateKey}:user:${r.id}`,
+      kind: template,
+      mail: renderMail(template, data, frameFor(deps.config, r.id, 'reminders', { ...text, reason: `You get this because you pledged blocks to a swap in ${guild.name}.` })),
+    };
+  });
+  return recordAndQueue(deps.pool, deps.boss, records);
+}
+
+/** Sends every reminder that is due now and has not gone yet. */
+export async function composeReminders(deps: ComposeDeps, now = new Date()): Promise<RecordResult> {
+  const total: RecordResult = { queued: 0, skipped: 0, existing: 0 };
+  const add = (r: RecordResult) => {
+    total.queued += r.queued;
+    total.skipped += r.skipped;
+    total.existing += r.existing;
+  };
+  // Only swaps whose next deadline is near: those at most 60 days (the longest reminder) away.
+  const horizon = new Date(now.getTime() + 61 * DAY_MS);
+  const swaps = await Swap.findAll({
+    where: {
+      state: { [Op.in]: ['signup', 'sewing', 'collecting'] },
+      [Op.or]: [{ signupClosesAt: { [Op.between]: [now, horizon] } }, { dueAt: { [Op.between]: [now, horizon] } }],
+    },
+  });
+  const guilds = new Map((await Guild.findAll({ where: { id: { [Op.in]: [...new Set(swaps.map((s) => s.guildId))] } } })).map((g) => [g.id, g]));
+  for (const swap of swaps) {
+    const guild = guilds.get(swap.guildId);
+    if (!guild) continue;
+    if (swap.state === 'signup' && inReminderWindow(swap.signupClosesAt, swap.signupReminderDays, now)) add(await remind(deps, swap, guild, 'signup', now));
+    if (inReminderWindow(swap.dueAt, swap.dueReminderDays, now)) add(await remind(deps, swap, guild, 'due', now));
+  }
+  return total;
+}

@@ -1,0 +1,90 @@
+/**
+ * Delivering one recorded message. A worker first claims the row (queued → sending, with a lease),
+ * so two workers holding jobs for the same message cannot both send it; a finished message is
+ * never touched again. The person's choices are checked once more just before sending.
+ */
+import type pg from 'pg';
+import type { AnyMailCategory, MailCategory } from '@shared/schemas/notifications';
+import type { Config } from '../config';
+import type { Mailer } from './mailer';
+import { optedOut, optedOutReason } from '../notifications/preferences';
+import { unsubscribeHeaders, unsubscribeToken } from './unsubscribe-token';
+
+/** How long a claim holds; a worker that dies mid-send lets the message go after this. */
+const LEASE_MINUTES = 15;
+
+interface ClaimedRow {
+  id: number;
+  category: AnyMailCategory;
+  user_id: number | null;
+  to_address: string;
+  subject: string;
+  text_body: string;
+  html_body: string;
+  attempts: number;
+}
+
+export type DeliveryOutcome = 'sent' | 'skipped' | 'failed' | 'not-claimed';
+
+/** Thrown for a failure worth retrying; the job queue brings the job back with backoff. */
+export class RetryableDeliveryError extends Error {}
+
+export interface DeliveryDeps {
+  pool: pg.Pool;
+  mailer: Mailer;
+  config: Pick<Config, 'PUBLIC_URL' | 'SESSION_SECRET' | 'MAIL_RETRY_LIMIT'>;
+}
+
+function reasonOf(error: unknown): string {
+  const e = error as { message?: string; responseCode?: number; code?: string };
+  return (e?.message ?? String(error)).replace(/\s+/g, ' ').trim().slice(0, 500);
+}
+
+/** SMTP 5xx answers are permanent (unknown mailbox, refused); retrying would not help. */
+function isPermanent(error: unknown) {
+  const code = (error as { responseCode?: number })?.responseCode;
+  return typeof code === 'number' && code >= 500 && code < 600;
+}
+
+/** Sends message `id` if nobody else has or is; records the outcome on the row. */
+export async function deliverMessage(deps: DeliveryDeps, id: number): Promise<DeliveryOutcome> {
+  const claimed = await deps.pool.query<ClaimedRow>(
+    `UPDATE mail_messages
+        SET status = 'sending', attempts = attempts + 1, locked_until = now() + make_interval(mins => $2), updated_at = now()
+      WHERE id = $1 AND (status = 'queued' OR (status = 'sending' AND locked_until < now()))
+      RETURNING id, category, user_id, to_address, subject, text_body, html_body, attempts`,
+    [id, LEASE_MINUTES],
+  );
+  const row = claimed.rows[0];
+  if (!row) return 'not-claimed';
+
+  const finish = (status: 'sent' | 'skipped' | 'failed' | 'queued', reason: string | null, providerId: string | null = null) =>
+    deps.pool.query(
+      `UPDATE mail_messages
+          SET status = $2::text, status_reason = $3, provider_message_id = COALESCE($4, provider_message_id),
+              sent_at = CASE WHEN $2::text = 'sent' THEN now() ELSE sent_at END, locked_until = NULL, updated_at = now()
+        WHERE id = $1`,
+      [id, status, reason, providerId],
+    );
+
+  if (row.category !== 'account' && row.user_id !== null && (await optedOut([row.user_id], row.category)).has(row.user_id)) {
+    await finish('skipped', optedOutReason(row.category as MailCategory));
+    return 'skipped';
+  }
+
+  const headers =
+    row.category !== 'account' && row.user_id !== null
+      ? unsubscribeHeaders(deps.config.PUBLIC_URL, unsubscribeToken(deps.config.SESSION_SECRET, row.user_id, row.category as MailCategory))
+      : undefined;
+  try {
+    const info = await deps.mailer.send({ to: row.to_address, subject: row.subject, text: row.text_body, html: row.html_body, headers });
+    await finish('sent', null, info.messageId);
+    return 'sent';
+  } catch (error) {
+    const reason = reasonOf(error);
+    const lastTry = row.attempts > deps.config.MAIL_RETRY_LIMIT || isPermanent(error);
+    await finish(lastTry ? 'failed' : 'queued', lastTry ? reason : `Will try again: ${reason}`);
+    if (lastTry) return 'failed';
+    throw new RetryableDeliveryError(reason);
+  }
+}

@@ -1,0 +1,66 @@
+/** Words and numbers as e-mails show them: dates in the guild's zone, lengths in the reader's units. */
+import { formatLength } from '@shared/quilt';
+import type { Units } from '@shared/schemas/auth';
+
+/** "Monday 1 March 2027 at 6:00 pm" in the given IANA zone (or without the time). */
+export function mailDate(date: Date | string, timeZone: string, withTime = true): string {
+  const d = new Date(date);
+  const day = new Intl.DateTimeFormat('en-GB', { timeZone, weekday: 'long', day: 'numeric', month: 'long', year: 'numeric' }).format(d);
+  if (!withTime) return day;
+  const time = new Intl.DateTimeFormat('en-GB', { timeZone, hour: 'numeric', minute: '2-digit', hour12: true }).format(d);
+  return `${day} at ${time.replace(/\s+/g, ' ')}`;
+}
+
+/** The zone as people read it: "America/Chicago" → "America/Chicago time", UTC stays "UTC". */
+export function zoneLabel(timeZone: string): string {
+  return timeZone === 'UTC' ? 'UTC' : `${timeZone.replace(/_/g, ' ')} time`;
+}
+
+/** The calendar date (YYYY-MM-DD) of an instant in a zone; used in idempotency keys. */
+export function localDateKey(date: Date | string, timeZone: string): string {
+  return new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(new Date(date));
+}
+
+/** Whole days from `now` until `date`, rounded up: a deadline 36 hours away is "in 2 days". */
+export function daysUntil(date: Date | string, now = new Date()): number {
+  return Math.ceil((new Date(date).getTime() - now.getTime()) / 86_400_000);
+}
+
+/** "today", "tomorrow", "in 5 days". */
+export function inDays(days: number): string {
+  if (days <= 0) return 'today';
+  if (days === 1) return 'tomorrow';
+  return `in ${days} days`;
+}
+
+/** "1 block", "4 blocks". */
+export function plural(count: number, singular: string, pluralForm = `${singular}s`): string {
+  return `${count} ${count === 1 ? singular : pluralForm}`;
+}
+
+/** A length in inches shown in the reader's units: 8½″ or 215.9 mm. */
+export function mailLength(inches: number, units: Units = 'in'): string {
+  return formatLength(inches, { unit: units });
+}
+
+/** "9½″ × 9½″". */
+export function mailSize(size: { width: number; height: number }, units: Units = 'in'): string {
+  return `${mailLength(size.width, units)} × ${mailLength(size.height, units)}`;
+}
+
+/** Yardage already rounded to ⅛ yd: "1⅛ yd", with metres beside it for metric readers. */
+export function mailYards(yards: number, units: Units = 'in'): string {
+  const text = `${formatLength(yards).replace('″', '')} yd`;
+  if (units !== 'mm') return text;
+  return `${text} (${(yards * 0.9144).toFixed(2)} m)`; // 1 yd = 0.9144 m exactly (international yard, 1959)
+}
+
+/** Week label for digests and their keys: ISO 8601 year and week, e.g. "2027-W14". */
+export function isoWeek(date: Date): string {
+  const d = new Date(Date.UTC(date.getUTCFullYear(), date.getUTCMonth(), date.getUTCDate()));
+  const day = d.getUTCDay() || 7;
+  d.setUTCDate(d.getUTCDate() + 4 - day);
+  const yearStart = new Date(Date.UTC(d.getUTCFullYear(), 0, 1));
+  const week = Math.ceil(((d.getTime() - yearStart.getTime()) / 86_400_000 + 1) / 7);
+  return `${d.getUTCFullYear()}-W${String(week).padStart(2, '0')}`;
+}

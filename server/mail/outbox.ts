@@ -1,0 +1,87 @@
+/**
+ * Recording a message and queueing its delivery, in one transaction: the row in mail_messages is
+ * inserted only if its idempotency key is new, and the delivery job is inserted on the same
+ * connection, so either both exist or neither does. Whoever inserts the key first owns the message.
+ */
+import type PgBoss from 'pg-boss';
+import type pg from 'pg';
+import type { AnyMailCategory } from '@shared/schemas/notifications';
+import { inTransaction, queues } from '../jobs/queue';
+import type { RenderedMail, TemplateName } from './render';
+
+export interface OutgoingRecord {
+  /** Unique per message and recipient, e.g. `swap:12:due-reminder:2027-04-03:user:7`. */
+  key: string;
+  category: AnyMailCategory;
+  kind: TemplateName;
+  guildId: number | null;
+  swapId: number | null;
+  userId: number | null;
+  to: string;
+  mail: RenderedMail;
+  /** Set when the person switched this kind of mail off: recorded as not sent, never delivered. */
+  skipReason?: string | null;
+}
+
+export interface RecordResult {
+  queued: number;
+  skipped: number;
+  /** keys already recorded earlier (by this or another worker) */
+  existing: number;
+}
+
+const INSERT = `
+  INSERT INTO mail_messages
+    (idempotency_key, category, kind, guild_id, swap_id, user_id, to_address, subject, text_body, html_body, status, status_reason)
+  VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12)
+  ON CONFLICT (idempotency_key) DO NOTHING
+  RETURNING id`;
+
+/** Records each message once and queues its delivery; a key seen before is left alone. */
+export async function recordAndQueue(pool: pg.Pool, boss: PgBoss, records: OutgoingRecord[]): Promise<RecordResult> {
+  const result: RecordResult = { queued: 0, skipped: 0, existing: 0 };
+  for (const r of records) {
+    const client = await pool.connect();
+    try {
+      await client.query('BEGIN');
+      const status = r.skipReason ? 'skipped' : 'queued';
+      const inserted = await client.query<{ id: number }>(INSERT, [
+        r.key, r.category, r.kind, r.guildId, r.swapId, r.userId, r.to, r.mail.subject.slice(0, 300), r.mail.text, r.mail.html, status, r.skipReason ?? null,
+      ]);
+      const id = inserted.rows[0]?.id;
+      if (id !== undefined && status === 'queued') {
+        await boss.send(queues.send, { messageId: id }, { singletonKey: r.key, db: inTransaction(client) });
+      }
+      await client.query('COMMIT');
+      if (id === undefined) result.existing += 1;
+      else if (status === 'skipped') result.skipped += 1;
+      else result.queued += 1;
+    } catch (error) {
+      await client.query('ROLLBACK').catch(() => undefined);
+      throw error;
+    } finally {
+      client.release();
+    }
+  }
+  return result;
+}
+
+/**
+ * Queues delivery again for messages whose job was lost (a node died between claiming and
+ * finishing, or a job expired). The delivery step re-checks the row, so a message that was sent
+ * meanwhile is not sent again.
+ */
+export async function requeueStalled(pool: pg.Pool, boss: PgBoss, olderThanMinutes = 60): Promise<number> {
+  const { rows } = await pool.query<{ id: number; idempotency_key: string }>(
+    `SELECT id, idempotency_key FROM mail_messages
+      WHERE (status = 'queued' AND updated_at < now() - make_interval(mins => $1))
+         OR (status = 'sending' AND locked_until < now())
+      ORDER BY id LIMIT 500`,
+    [olderThanMinutes],
+  );
+  let count = 0;
+  for (const row of rows) {
+    if (await boss.send(queues.send, { messageId: row.id }, { singletonKey: row.idempotency_key })) count += 1;
+  }
+  return count;
+}
