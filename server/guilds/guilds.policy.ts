@@ -21,6 +21,7 @@ export const guildPermissions = {
   'mail:read-log': ['admin'],
   'photos:read': ['admin', 'coordinator', 'member'],
   'photos:manage': ['admin', 'coordinator'],
+  'intake:run': ['admin', 'coordinator'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type GuildAction = keyof typeof guildPermissions;
