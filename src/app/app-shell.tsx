@@ -1,4 +1,5 @@
-import { Link, NavLink, Outlet, useNavigate } from 'react-router';
+import { useEffect, useRef } from 'react';
+import { Link, NavLink, Outlet, useLocation, useNavigate } from 'react-router';
 import { useMe } from '@/features/auth/api/get-me';
 import { useLogout } from '@/features/auth/api/auth-mutations';
 import { paths } from '@/lib/paths';
@@ -15,8 +16,27 @@ export function BrandMark() {
   );
 }
 
+/**
+ * After a client-side page change, focus moves to the page's content, as a full page load would reset
+ * it, so keyboard and screen-reader users start at the new page rather than on a vanished button.
+ */
+function useFocusMainOnNavigation() {
+  const { pathname } = useLocation();
+  const mainRef = useRef<HTMLElement>(null);
+  const first = useRef(true);
+  useEffect(() => {
+    if (first.current) {
+      first.current = false;
+      return;
+    }
+    mainRef.current?.focus({ preventScroll: false });
+  }, [pathname]);
+  return mainRef;
+}
+
 export function AppShell() {
   const me = useMe();
+  const mainRef = useFocusMainOnNavigation();
   const logout = useLogout();
   const navigate = useNavigate();
   const signedIn = Boolean(me.data);
@@ -53,7 +73,7 @@ export function AppShell() {
           </nav>
         </div>
       </header>
-      <main id="main" className="mx-auto max-w-6xl px-4 py-6 sm:py-10">
+      <main id="main" ref={mainRef} tabIndex={-1} className="mx-auto max-w-6xl px-4 py-6 outline-none sm:py-10">
         <Outlet />
       </main>
     </div>

@@ -1,0 +1,100 @@
+/**
+ * Every page, signed out and as each role: no serious or critical axe-core violations, and no
+ * Content-Security-Policy errors in the console (the app must work under its own CSP).
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { launchBrowser } from '../helpers/browser';
+import { startE2eServer } from '../helpers/e2e-server';
+import { seriousViolations } from '../helpers/axe';
+import type { RunningServer } from '../../server/index';
+import { seedDemoIfEmpty, DEMO_SIGN_INS } from '../../server/db/seed/demo';
+
+let server: RunningServer;
+let browser: BrowserContext;
+let guildId: number;
+
+beforeAll(async () => {
+  server = await startE2eServer();
+  const demo = await seedDemoIfEmpty(server.deps.sequelize, { ...server.deps.config, NODE_ENV: 'development' });
+  guildId = demo!.guild.id;
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+});
+
+/** Visits a page, waits for it to settle, and returns its axe findings and CSP console errors. */
+async function audit(page: Page, path: string) {
+  const cspErrors: string[] = [];
+  const onConsole = (m: { type(): string; text(): string }) => {
+    if (m.type() === 'error' && /Content.Security.Policy|Refused to/i.test(m.text())) cspErrors.push(m.text());
+  };
+  page.on('console', onConsole);
+  await page.goto(`${server.url}${path}`);
+  await page.waitForLoadState('networkidle');
+  await page.locator('main h1, main h2').first().waitFor();
+  const violations = await seriousViolations(page);
+  page.off('console', onConsole);
+  return { violations, cspErrors };
+}
+
+async function signIn(page: Page, email: string) {
+  await page.goto(`${server.url}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(DEMO_SIGN_INS.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL('**/guilds');
+}
+
+const signedOutPages = ['/', '/sign-in', '/register', '/forgot-password', '/reset-password?token=not-a-real-token-but-long-enough'];
+const memberPages = () => ['/guilds', `/guilds/${guildId}`, `/guilds/${guildId}/members`, '/planner', '/settings'];
+
+describe('signed out', () => {
+  for (const path of signedOutPages) {
+    it(`${path} has no serious accessibility problems or CSP errors`, async () => {
+      const page = await browser.newPage();
+      const { violations, cspErrors } = await audit(page, path);
+      expect(violations, JSON.stringify(violations, null, 2)).toEqual([]);
+      expect(cspErrors).toEqual([]);
+      await page.close();
+    });
+  }
+});
+
+for (const who of ['member@demo.test', 'coordinator@demo.test', 'admin@demo.test']) {
+  describe(who, () => {
+    it('every page passes axe and runs under the CSP', async () => {
+      const page = await browser.newPage();
+      await browser.clearCookies();
+      await signIn(page, who);
+      const problems: Record<string, unknown> = {};
+      for (const path of memberPages()) {
+        const { violations, cspErrors } = await audit(page, path);
+        if (violations.length || cspErrors.length) problems[path] = { violations, cspErrors };
+      }
+      expect(problems).toEqual({});
+      await page.close();
+    });
+  });
+}
+
+it('can be walked through by keyboard alone: sign in with Tab and Enter', async () => {
+  const page = await browser.newPage();
+  await browser.clearCookies();
+  await page.goto(`${server.url}/sign-in`);
+  await page.getByLabel('E-mail').focus();
+  await page.keyboard.type('member@demo.test');
+  await page.keyboard.press('Tab');
+  await page.keyboard.type(DEMO_SIGN_INS.password);
+  await page.keyboard.press('Enter');
+  await page.waitForURL('**/guilds');
+  await page.getByRole('heading', { name: 'Your guilds' }).waitFor();
+  // Focus moved to the new page's content, so the next Tab reaches the first guild, not the header.
+  expect(await page.evaluate(() => document.activeElement?.id)).toBe('main');
+  await page.keyboard.press('Tab');
+  expect(await page.evaluate(() => document.activeElement?.textContent)).toMatch(/^Kestrel Hollow Quilters/);
+  await page.keyboard.press('Enter');
+  await page.getByRole('heading', { name: 'Kestrel Hollow Quilters' }).waitFor();
+});
