@@ -4,11 +4,14 @@ import type { Units } from '@shared/schemas/auth';
 
 /** "Monday 1 March 2027 at 6:00 pm" in the given IANA zone (or without the time). */
 export function mailDate(date: Date | string, timeZone: string, withTime = true): string {
-  const d = new Date(date);
-  const day = new Intl.DateTimeFormat('en-GB', { timeZone, weekday: 'long', day: 'numeric', month: 'long', year: 'numeric' }).format(d);
+  // Built from parts: ICU versions differ on commas in the long English form.
+  const parts = new Intl.DateTimeFormat('en-GB', {
+    timeZone, weekday: 'long', day: 'numeric', month: 'long', year: 'numeric', hour: 'numeric', minute: '2-digit', hourCycle: 'h12',
+  }).formatToParts(new Date(date));
+  const part = (type: Intl.DateTimeFormatPartTypes) => parts.find((p) => p.type === type)?.value ?? '';
+  const day = `${part('weekday')} ${part('day')} ${part('month')} ${part('year')}`;
   if (!withTime) return day;
-  const time = new Intl.DateTimeFormat('en-GB', { timeZone, hour: 'numeric', minute: '2-digit', hour12: true }).format(d);
-  return `${day} at ${time.replace(/\s+/g, ' ')}`;
+  return `${day} at ${part('hour')}:${part('minute')} ${part('dayPeriod').toLowerCase()}`;
 }
 
 /** The zone as people read it: "America/Chicago" → "America/Chicago time", UTC stays "UTC". */

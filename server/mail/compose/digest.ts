@@ -5,7 +5,7 @@
  * depend on which node saw which event.
  */
 import { Op, QueryTypes } from 'sequelize';
-import { VERDICT_LABELS } from '@shared/quilt';
+import { VERDICTS, VERDICT_LABELS } from '@shared/quilt';
 import { swapStateShort, type SwapState } from '@shared/schemas/swaps';
 import type { VerdictName } from '@shared/swap-types';
 import { Guild, Swap } from '../../db/models';
@@ -84,7 +84,7 @@ export function changeLines(w: WeekCounts, timeZone: string): string[] {
   const measured = w.verdicts.reduce((s, v) => s + v.count, 0);
   if (measured) {
     const parts = w.verdicts
-      .sort((a, b) => b.count - a.count)
+      .sort((a, b) => b.count - a.count || VERDICTS.indexOf(a.verdict) - VERDICTS.indexOf(b.verdict))
       .map((v) => `${v.count} ${VERDICT_LABELS[v.verdict].label.toLowerCase()}`);
     lines.push(`${plural(measured, 'block')} measured: ${parts.join(', ')}.`);
   }
