@@ -104,7 +104,7 @@ describe('one-click unsubscribe', () => {
     await user.agent.patch('/api/me/mail-preferences').send({ receipts: false }).expect(200);
     const worker = await startMailJobs(app.deps, { events: false, schedule: false });
     const deadline = Date.now() + 10_000;
-    let row = await MailMessage.findOne({ where: { idempotencyKey: `test:late-choice:${user.id}` } });
+    const row = await MailMessage.findOne({ where: { idempotencyKey: `test:late-choice:${user.id}` } });
     while (row!.status === 'queued' && Date.now() < deadline) {
       await pause(200);
       await row!.reload();
