@@ -4,8 +4,10 @@ import { RouterProvider } from 'react-router';
 import { Providers } from './app/providers';
 import { createRouter } from './app/router';
 import './styles.css';
+import { registerServiceWorker } from './features/intake/offline/register-service-worker';
 
 const router = createRouter();
+registerServiceWorker();
 
 createRoot(document.getElementById('root')!).render(
   <StrictMode>

@@ -6,6 +6,8 @@ import { z } from 'zod';
 import type { BlockState, SwapState } from './swaps';
 import type { VerdictName } from '../swap-types';
 import { idParam } from './guilds';
+import { MAX_INCHES } from './blocks';
+import { LengthParseError, parseLength } from '../quilt';
 
 export const resolveBodySchema = z
   .object({
@@ -26,6 +28,62 @@ export const labelsQuerySchema = z.object({
     .default('me'),
 });
 export type LabelsQuery = z.infer<typeof labelsQuerySchema>;
+
+function readSide(what: string, text: string, ctx: z.RefinementCtx): number | undefined {
+  let inches: number;
+  try {
+    inches = parseLength(text);
+  } catch (error) {
+    ctx.addIssue({ code: 'custom', message: error instanceof LengthParseError ? error.message : `Type the ${what} as a length, e.g. 9 1/2.` });
+    return undefined;
+  }
+  if (inches <= 0) ctx.addIssue({ code: 'custom', message: `The ${what} must be more than zero.` });
+  else if (inches > MAX_INCHES) ctx.addIssue({ code: 'custom', message: `The ${what} must be at most ${MAX_INCHES}″.` });
+  else return inches;
+  return undefined;
+}
+
+const sideSchema = (what: string) =>
+  z.string().transform((text, ctx) => {
+    if (text.trim() === '') {
+      ctx.addIssue({ code: 'custom', message: `Type the ${what}, e.g. 9 1/2 or 241 mm.` });
+      return z.NEVER;
+    }
+    return readSide(what, text, ctx) ?? z.NEVER;
+  });
+
+const optionalSide = (what: string) => z.string().transform((text, ctx) => (text.trim() === '' ? undefined : (readSide(what, text, ctx) ?? z.NEVER)));
+
+/**
+ * The measuring card: width and height in any format parseLength reads, diagonals optional but in
+ * pairs. Gives the body of a ruler measurement in inches.
+ */
+export const measuringFormSchema = z
+  .object({
+    width: sideSchema('width'),
+    height: sideSchema('height'),
+    diagonal1: optionalSide('first diagonal'),
+    diagonal2: optionalSide('second diagonal'),
+  })
+  .superRefine((v, ctx) => {
+    if ((v.diagonal1 === undefined) !== (v.diagonal2 === undefined)) {
+      const missing = v.diagonal1 === undefined ? 'diagonal1' : 'diagonal2';
+      ctx.addIssue({ code: 'custom', path: [missing], message: 'Give both diagonals, or neither.' });
+    }
+  })
+  .transform(({ width, height, diagonal1, diagonal2 }) => ({
+    width,
+    height,
+    ...(diagonal1 !== undefined && diagonal2 !== undefined ? { diagonals: [diagonal1, diagonal2] as [number, number] } : {}),
+  }));
+/** What the card's four text boxes hold. */
+export interface MeasuringFormInput {
+  width: string;
+  height: string;
+  diagonal1: string;
+  diagonal2: string;
+}
+export type MeasuringFormOutput = z.output<typeof measuringFormSchema>;
 
 export const labelSheetIds = ['a4-21', 'a4-14', 'letter-30', 'letter-10', 'single'] as const;
 export const labelSheetSchema = z.enum(labelSheetIds, { error: 'Choose a label sheet.' });

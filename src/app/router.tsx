@@ -32,12 +32,19 @@ export const routes: RouteObject[] = [
             children: [
               { index: true, lazy: () => import('@/features/guilds/components/guild-overview').then((m) => ({ Component: m.GuildOverview })) },
               { path: 'members', lazy: () => import('@/features/guilds/components/members-page').then((m) => ({ Component: m.MembersPage })) },
+              { path: 'swaps/:swapId/intake', lazy: () => import('@/features/intake/components/intake-page').then((m) => ({ Component: m.IntakePage })) },
             ],
           },
         ],
       },
       { path: '*', element: <Navigate to={paths.home} replace /> },
     ],
+  },
+  // Label sheets print on their own, without the app's frame around them.
+  {
+    element: <RequireSignedIn />,
+    errorElement: <RouteError />,
+    children: [{ path: paths.swapLabels(), lazy: () => import('@/features/intake/components/labels-page').then((m) => ({ Component: m.LabelsPage })) }],
   },
 ];
 

@@ -10,6 +10,8 @@ export const paths = {
   guild: (guildId: number | string = ':guildId') => `/guilds/${guildId}`,
   members: (guildId: number | string = ':guildId') => `/guilds/${guildId}/members`,
   planner: '/planner',
+  swapIntake: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/intake`,
+  swapLabels: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/labels`,
   settings: '/settings',
 } as const;
 

@@ -1,0 +1,79 @@
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { formatLength } from '@shared/quilt';
+import { measuringFormSchema, type IntakeBlockDto, type MeasuringFormInput, type MeasuringFormOutput } from '@shared/schemas/intake';
+import { Button } from '@/components/ui/button';
+import { TextField } from '@/components/ui/fields';
+import { VerdictBadge } from './verdict-panel';
+
+interface Props {
+  block: IntakeBlockDto;
+  target: { width: number; height: number };
+  tolerance: number;
+  units: 'in' | 'mm';
+  onMeasured: (m: MeasuringFormOutput) => void;
+  onCancel: () => void;
+}
+
+/**
+ * Keyboard-first: the width box has focus, Tab to the height, Enter records (diagonals are optional),
+ * Escape closes the card. Lengths in any form: 9 1/2, 9½″, 9.5, 241 mm.
+ */
+export function MeasuringCard({ block, target, tolerance, units, onMeasured, onCancel }: Props) {
+  const form = useForm<MeasuringFormInput, unknown, MeasuringFormOutput>({
+    resolver: zodResolver(measuringFormSchema),
+    defaultValues: { width: '', height: '', diagonal1: '', diagonal2: '' },
+  });
+  const { errors } = form.formState;
+  const size = `${formatLength(target.width, { unit: units })} × ${formatLength(target.height, { unit: units })}`;
+  return (
+    <section aria-labelledby="measuring-title" className="seam rounded-card border-2 border-indigo bg-card p-5">
+      <form
+        noValidate
+        onSubmit={form.handleSubmit(onMeasured)}
+        onKeyDown={(e) => {
+          if (e.key === 'Escape') onCancel();
+        }}
+      >
+        <h2 id="measuring-title" className="text-2xl font-bold text-indigo-deep">
+          Block {block.ordinal} of {block.of} · {block.maker.displayName}
+        </h2>
+        <p className="text-walnut-soft">
+          Received. Target {size} unfinished, ± {formatLength(tolerance, { unit: units })}.{' '}
+          {block.state === 'measured' && block.verdict && (
+            <>
+              Measured before: <VerdictBadge verdict={block.verdict} />; a new measurement replaces it.
+            </>
+          )}
+        </p>
+        <div className="mt-4 grid grid-cols-2 gap-3">
+          <TextField
+            label="Width"
+            autoFocus
+            inputMode="decimal"
+            autoComplete="off"
+            enterKeyHint="next"
+            className="text-2xl"
+            error={errors.width?.message}
+            {...form.register('width')}
+          />
+          <TextField label="Height" inputMode="decimal" autoComplete="off" enterKeyHint="done" className="text-2xl" error={errors.height?.message} {...form.register('height')} />
+        </div>
+        <fieldset className="mt-3">
+          <legend className="font-semibold">Diagonals (optional, for squareness)</legend>
+          <div className="grid grid-cols-2 gap-3">
+            <TextField label="Diagonal 1" inputMode="decimal" autoComplete="off" error={errors.diagonal1?.message} {...form.register('diagonal1')} />
+            <TextField label="Diagonal 2" inputMode="decimal" autoComplete="off" error={errors.diagonal2?.message} {...form.register('diagonal2')} />
+          </div>
+        </fieldset>
+        <div className="mt-4 flex flex-wrap items-center gap-3">
+          <Button type="submit">Record measurement</Button>
+          <Button variant="quiet" onClick={onCancel}>
+            Not now
+          </Button>
+          <span className="text-base text-walnut-soft">Enter records · Esc closes</span>
+        </div>
+      </form>
+    </section>
+  );
+}
