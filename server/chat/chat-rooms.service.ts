@@ -11,7 +11,7 @@ async function roomTitle(room: ChatRoom): Promise<string> {
   return 'Chat';
 }
 
-export async function roomDto(access: Pick<RoomAccess, 'room' | 'canPost' | 'canModerate'>): Promise<ChatRoomDto> {
+export async function roomDto(access: Pick<RoomAccess, 'room' | 'canPost' | 'canModerate'>, viewerId: number): Promise<ChatRoomDto> {
   const { room } = access;
   return {
     id: room.id,
@@ -22,6 +22,7 @@ export async function roomDto(access: Pick<RoomAccess, 'room' | 'canPost' | 'can
     swapId: room.swapId,
     canPost: access.canPost,
     canModerate: access.canModerate,
+    viewerId,
   };
 }
 
@@ -35,5 +36,5 @@ export async function swapRoom(userId: number, swapId: number): Promise<ChatRoom
     { bind: { guildId: swap.guildId, swapId } },
   );
   const room = await ChatRoom.findOne({ where: { swapId } });
-  return roomDto({ room: room!, canPost: can(membership.role, 'chat:post'), canModerate: can(membership.role, 'chat:moderate') });
+  return roomDto({ room: room!, canPost: can(membership.role, 'chat:post'), canModerate: can(membership.role, 'chat:moderate') }, userId);
 }

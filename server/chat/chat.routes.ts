@@ -22,7 +22,8 @@ export function chatRouter(deps: AppDeps) {
 
   router.get('/chat/rooms/:roomId', requireUser, validate({ params: roomParamsSchema }), async (req, res) => {
     const { roomId } = req.params as unknown as RoomParams;
-    res.json(await roomDto(await authorizeRoom(currentUser(req).id, roomId)));
+    const userId = currentUser(req).id;
+    res.json(await roomDto(await authorizeRoom(userId, roomId), userId));
   });
 
   router.get('/chat/rooms/:roomId/messages', requireUser, validate({ params: roomParamsSchema, query: historyQuerySchema }), async (req, res) => {

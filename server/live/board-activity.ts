@@ -24,6 +24,8 @@ function describe({ name, payload }: SwapEvent): { subjectId: number | null; blo
     case 'block.changed':
       // A redistribution returns every block at once; its own line says so.
       if (p.to === 'returned') return null;
+      // Being measured is told by the measurement's own line, with its verdict.
+      if (p.to === 'measured' && p.from !== 'measured') return null;
       return { subjectId: num('makerId'), blockId: num('blockId'), detail: { from: String(p.from), to: String(p.to) } };
     case 'block.measured':
       return { subjectId: num('makerId'), blockId: num('blockId'), detail: { verdict: String(p.verdict), source: String(p.source) } };

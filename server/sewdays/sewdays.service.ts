@@ -1,7 +1,7 @@
 import { Op, QueryTypes } from 'sequelize';
 import {
   instantToWallTime, rsvpAnswers, sewDayInputSchema, wallTimeToInstant, type RsvpAnswer, type SewDayDetailDto, type SewDayDto,
-  type SewDayInput, type SewDayListQuery,
+  type SewDayInput, type SewDayListDto, type SewDayListQuery,
 } from '@shared/schemas/sewdays';
 import { zodFields } from '@shared/schemas/errors';
 import { ChatRoom, Guild, Rsvp, SewDay, User } from '../db/models';
@@ -70,7 +70,7 @@ async function toDtos(sewDays: SewDay[], timeZone: string, viewer: Viewer): Prom
 const withCreator = [{ model: User, as: 'createdBy', attributes: ['id', 'displayName'] }];
 
 /** Upcoming (not yet ended, soonest first) or past (most recent first) sew days of a guild. */
-export async function listSewDays(guildId: number, viewer: Viewer, query: SewDayListQuery): Promise<SewDayDto[]> {
+export async function listSewDays(guildId: number, viewer: Viewer, query: SewDayListQuery): Promise<SewDayListDto> {
   const guild = await guildZone(guildId);
   const now = new Date();
   const sewDays = await SewDay.findAll({
@@ -79,7 +79,7 @@ export async function listSewDays(guildId: number, viewer: Viewer, query: SewDay
     order: [['startsAt', query.when === 'upcoming' ? 'ASC' : 'DESC']],
     limit: 100,
   });
-  return toDtos(sewDays, guild.timeZone, viewer);
+  return { timeZone: guild.timeZone, canManage: viewer.canManage, sewDays: await toDtos(sewDays, guild.timeZone, viewer) };
 }
 
 /** One sew day with everyone's answers, grouped for the page. */

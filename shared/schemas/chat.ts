@@ -93,4 +93,6 @@ export interface ChatRoomDto {
   swapId: number | null;
   canPost: boolean;
   canModerate: boolean;
+  /** The caller, so the client knows which messages are theirs to edit. */
+  viewerId: number;
 }

@@ -75,6 +75,14 @@ export interface SewDayDto {
   canManage: boolean;
 }
 
+/** GET /api/guilds/:guildId/sew-days */
+export interface SewDayListDto {
+  timeZone: string;
+  /** Whether the caller may schedule, edit and cancel. */
+  canManage: boolean;
+  sewDays: SewDayDto[];
+}
+
 export interface SewDayDetailDto extends SewDayDto {
   rsvps: { userId: number; displayName: string; answer: RsvpAnswer }[];
 }

@@ -21,6 +21,7 @@ export function GuildLayout() {
         <nav aria-label="Guild sections" className="mt-4 flex flex-wrap gap-1 border-b border-walnut/15">
           <NavLink end to={paths.guild(guildId)} className={tabClass}>Overview</NavLink>
           <NavLink to={paths.members(guildId)} className={tabClass}>Members</NavLink>
+          <NavLink to={paths.sewDays(guildId)} className={tabClass}>Sew days</NavLink>
         </nav>
       </div>
       <Outlet />

@@ -4,6 +4,15 @@ import { RedirectIfSignedIn, RequireSignedIn } from './guards';
 import { RouteError } from './route-error';
 import { paths } from '@/lib/paths';
 
+/** The sew-day page with the sew day's chat composed in (features do not import each other). */
+async function sewDayWithChat() {
+  const [{ SewDayPage }, { ChatPanel }] = await Promise.all([
+    import('@/features/sew-days/components/sew-day-page'),
+    import('@/features/chat/components/chat-panel'),
+  ]);
+  return { Component: () => <SewDayPage renderChat={(roomId) => <ChatPanel roomId={roomId} title="Sew-day chat" />} /> };
+}
+
 export const routes: RouteObject[] = [
   {
     element: <AppShell />,
@@ -32,6 +41,12 @@ export const routes: RouteObject[] = [
             children: [
               { index: true, lazy: () => import('@/features/guilds/components/guild-overview').then((m) => ({ Component: m.GuildOverview })) },
               { path: 'members', lazy: () => import('@/features/guilds/components/members-page').then((m) => ({ Component: m.MembersPage })) },
+              { path: 'sew-days', lazy: () => import('@/features/sew-days/components/sew-days-page').then((m) => ({ Component: m.SewDaysPage })) },
+              { path: 'sew-days/new', lazy: () => import('@/features/sew-days/components/new-sew-day-page').then((m) => ({ Component: m.NewSewDayPage })) },
+              { path: 'sew-days/:sewDayId', lazy: sewDayWithChat },
+              { path: 'sew-days/:sewDayId/edit', lazy: () => import('@/features/sew-days/components/edit-sew-day-page').then((m) => ({ Component: m.EditSewDayPage })) },
+              { path: 'swaps/:swapId/board', lazy: () => import('@/features/live-board/components/live-board-page').then((m) => ({ Component: m.LiveBoardPage })) },
+              { path: 'swaps/:swapId/chat', lazy: () => import('@/features/chat/components/swap-chat-page').then((m) => ({ Component: m.SwapChatPage })) },
               { path: 'swaps/:swapId/intake', lazy: () => import('@/features/intake/components/intake-page').then((m) => ({ Component: m.IntakePage })) },
             ],
           },

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import ICAL from 'ical.js';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles, signedInUser } from '../helpers/factories';
-import type { SewDayDetailDto, SewDayDto } from '../../shared/schemas/sewdays';
+import type { SewDayDetailDto, SewDayListDto } from '../../shared/schemas/sewdays';
 
 let app: TestApp;
 let g: Awaited<ReturnType<typeof guildWithRoles>>;
@@ -90,7 +90,7 @@ describe('editing and cancelling', () => {
     await g.coordinator.agent.patch(`/api/sew-days/${made.id}`).send({ title: 'Back on' }).expect(409);
     await g.member.agent.put(`/api/sew-days/${made.id}/rsvp`).send({ answer: 'going' }).expect(409);
     const list = await g.member.agent.get(`/api/guilds/${g.guildId}/sew-days`).expect(200);
-    expect((list.body as SewDayDto[]).find((d) => d.id === made.id)?.cancelledAt).toEqual(expect.any(String));
+    expect((list.body as SewDayListDto).sewDays.find((d) => d.id === made.id)?.cancelledAt).toEqual(expect.any(String));
   });
 });
 
@@ -119,11 +119,13 @@ describe('answers', () => {
     const pastYear = new Date().getUTCFullYear() - 1;
     const past = await schedule({ ...winterDay, title: 'Last year', startsAt: `${pastYear}-02-01T10:00`, endsAt: `${pastYear}-02-01T12:00` });
     const later = await schedule({ ...winterDay, title: 'Much later', startsAt: `${nextYear + 1}-02-01T10:00`, endsAt: `${nextYear + 1}-02-01T12:00` });
-    const upcoming = (await g.member.agent.get(`/api/guilds/${g.guildId}/sew-days?when=upcoming`).expect(200)).body as SewDayDto[];
+    const upcomingList = (await g.member.agent.get(`/api/guilds/${g.guildId}/sew-days?when=upcoming`).expect(200)).body as SewDayListDto;
+    expect(upcomingList).toMatchObject({ timeZone: 'America/Chicago', canManage: false });
+    const upcoming = upcomingList.sewDays;
     expect(upcoming.map((d) => d.id)).not.toContain(past.id);
     expect(upcoming.at(-1)?.id).toBe(later.id);
     expect(upcoming.map((d) => d.startsAt)).toEqual([...upcoming.map((d) => d.startsAt)].sort());
-    const before = (await g.member.agent.get(`/api/guilds/${g.guildId}/sew-days?when=past`).expect(200)).body as SewDayDto[];
+    const before = ((await g.member.agent.get(`/api/guilds/${g.guildId}/sew-days?when=past`).expect(200)).body as SewDayListDto).sewDays;
     expect(before.map((d) => d.id)).toEqual([past.id]);
     expect((await g.member.agent.put(`/api/sew-days/${past.id}/rsvp`).send({ answer: 'going' }).expect(409)).body.error.code).toBe('sew_day_over');
     await g.member.agent.get(`/api/guilds/${g.guildId}/sew-days?when=someday`).expect(400);

@@ -1,0 +1,10 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { RosterDto } from '@shared/swap-types';
+import { api } from '@/lib/api-client';
+import { liveBoardKeys } from './live-board-keys';
+
+/** The swap's roster (GET /api/swaps/:swapId/roster), kept current by board changes. */
+export const getRoster = (swapId: number) => api.get<RosterDto>(`/swaps/${swapId}/roster`);
+export const rosterQueryOptions = (swapId: number) =>
+  queryOptions({ queryKey: liveBoardKeys.roster(swapId), queryFn: () => getRoster(swapId), staleTime: 5 * 60_000 });
+export const useRoster = (swapId: number) => useQuery(rosterQueryOptions(swapId));

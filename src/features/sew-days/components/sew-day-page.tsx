@@ -1,0 +1,96 @@
+import { useState, type ReactNode } from 'react';
+import { Link, useParams } from 'react-router';
+import { rsvpAnswers, rsvpLabels } from '@shared/schemas/sewdays';
+import { Card } from '@/components/ui/card';
+import { Alert } from '@/components/ui/alert';
+import { Button, buttonClass } from '@/components/ui/button';
+import { Loading, QueryError } from '@/components/ui/page';
+import { ApiError } from '@/lib/api-client';
+import { paths } from '@/lib/paths';
+import { sewDayCalendarUrl, useSewDay } from '../api/get-sew-day';
+import { useCancelSewDay } from '../api/cancel-sew-day';
+import { RsvpPicker } from './rsvp-picker';
+import { SewDayCautions } from './sew-day-cautions';
+import { SewDayWhen } from './sew-day-when';
+
+interface SewDayPageProps {
+  /** The chat of the sew day, composed in by the app (features do not import each other). */
+  renderChat?: (roomId: number) => ReactNode;
+}
+
+export function SewDayPage({ renderChat }: SewDayPageProps) {
+  const params = useParams();
+  const guildId = Number(params.guildId);
+  const sewDayId = Number(params.sewDayId);
+  const sewDay = useSewDay(sewDayId);
+  const cancel = useCancelSewDay(guildId, sewDayId);
+  const [problem, setProblem] = useState('');
+  if (sewDay.isPending) return <Loading label="Loading the sew day…" />;
+  if (sewDay.isError) return <QueryError error={sewDay.error} what="the sew day" />;
+  const s = sewDay.data;
+
+  return (
+    <div className="space-y-6">
+      <p><Link className="font-semibold text-indigo underline" to={paths.sewDays(guildId)}>← All sew days</Link></p>
+      {s.cancelledAt && <Alert tone="warning" title="Cancelled">This sew day was cancelled. It stays here so nobody turns up by mistake.</Alert>}
+      <Card
+        title={s.title}
+        actions={
+          s.canManage && !s.cancelledAt ? (
+            <div className="flex flex-wrap gap-2">
+              <Link className={buttonClass('secondary')} to={paths.editSewDay(guildId, sewDayId)}>Change</Link>
+              <Button
+                variant="danger"
+                pending={cancel.isPending}
+                pendingLabel="Cancelling…"
+                onClick={() => {
+                  if (!window.confirm(`Cancel “${s.title}”? Everyone will see it as cancelled.`)) return;
+                  setProblem('');
+                  cancel.mutate(undefined, { onError: (e) => setProblem(e instanceof ApiError ? e.message : 'That did not work.') });
+                }}
+              >
+                Cancel sew day
+              </Button>
+            </div>
+          ) : undefined
+        }
+      >
+        {problem && <div className="mb-4"><Alert tone="error">{problem}</Alert></div>}
+        <dl className="grid gap-x-6 gap-y-2 sm:grid-cols-[auto_1fr]">
+          <dt className="font-semibold">When</dt>
+          <dd><SewDayWhen sewDay={s} /></dd>
+          {s.place && (<><dt className="font-semibold">Where</dt><dd className="break-words">{s.place}</dd></>)}
+          {s.videoUrl && (
+            <>
+              <dt className="font-semibold">Video call</dt>
+              <dd className="break-all"><a className="text-indigo underline" href={s.videoUrl} target="_blank" rel="noopener noreferrer nofollow">{s.videoUrl}</a></dd>
+            </>
+          )}
+          {s.createdBy && (<><dt className="font-semibold">Posted by</dt><dd>{s.createdBy.displayName}</dd></>)}
+        </dl>
+        {s.notes && <p className="mt-4 whitespace-pre-wrap break-words">{s.notes}</p>}
+        <p className="mt-4">
+          <a className={buttonClass('secondary')} href={sewDayCalendarUrl(s.id)} download>Add to my calendar (.ics)</a>
+        </p>
+      </Card>
+
+      <Card title="Will you come?">
+        <RsvpPicker sewDay={s} />
+        <div className="mt-5 grid gap-4 sm:grid-cols-3">
+          {rsvpAnswers.map((a) => {
+            const people = s.rsvps.filter((r) => r.answer === a);
+            return (
+              <div key={a}>
+                <h3 className="font-semibold">{rsvpLabels[a]} ({s.rsvpCounts[a]})</h3>
+                <p className="text-walnut-soft">{people.length ? people.map((p) => p.displayName).join(', ') : 'Nobody yet'}</p>
+              </div>
+            );
+          })}
+        </div>
+      </Card>
+
+      <SewDayCautions />
+      {s.chatRoomId && renderChat?.(s.chatRoomId)}
+    </div>
+  );
+}
