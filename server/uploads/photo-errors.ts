@@ -101,6 +101,10 @@ export function fromMulterError(error: unknown): unknown {
         return new PhotoRejectedError(400, 'bad_upload', 'The upload could not be read. Choose the photos again and resend them.');
     }
   }
+  // The person stopped the upload or lost the connection: their mistake to retry, not our failure.
+  if (error instanceof Error && /^Request (aborted|closed|error)$/.test(error.message)) {
+    return new PhotoRejectedError(400, 'upload_interrupted', 'The upload stopped before it finished. Nothing was saved; please send the photos again.');
+  }
   // busboy's own complaints (a malformed multipart body) carry no status.
   if (error instanceof Error && /multipart|boundary|Unexpected end of form/i.test(error.message)) {
     return new PhotoRejectedError(400, 'bad_upload', 'The upload arrived incomplete or malformed. Please send the photos again.');

@@ -4,7 +4,8 @@ import exifReader from 'exif-reader';
 import {
   encodePhoto, heicReadable, inspectPhoto, isSafeFileName, preparePhotos, type IncomingPhotoFile,
 } from '../../server/uploads/photo-pipeline';
-import { acceptedKindsText, PhotoRejectedError } from '../../server/uploads/photo-errors';
+import { MulterError } from 'multer';
+import { acceptedKindsText, fromMulterError, PhotoRejectedError } from '../../server/uploads/photo-errors';
 import { PHOTO_LONG_SIDE, THUMB_LONG_SIDE } from '../../shared/schemas/photos';
 import {
   elfExecutable, heicHeader, htmlPolyglot, jpegWithGps, jpegWithTrailingHtml, oversizedFile, picture, pixelBombPng,
@@ -155,5 +156,19 @@ describe('refusals, each naming the file', () => {
     const error = await refusal(inspectPhoto(file('mixed.webp', mixed)));
     expect(error.message).toMatch(/^“mixed\.webp” starts like a WebP picture but cannot be read/);
     await expect(encodePhoto(file('mixed.webp', mixed), 'WebP')).rejects.toBeInstanceOf(PhotoRejectedError);
+  });
+});
+
+describe('multer and busboy errors in plain words', () => {
+  it('maps size, count, field and interrupted uploads to 4xx refusals', () => {
+    const size = fromMulterError(Object.assign(new MulterError('LIMIT_FILE_SIZE', 'photos'), { filename: 'quilt-top.jpg' })) as PhotoRejectedError;
+    expect([size.status, size.code, size.message]).toEqual([413, 'file_too_large', expect.stringMatching(/^“quilt-top\.jpg” is larger than 15 MB/)]);
+    expect((fromMulterError(new MulterError('LIMIT_FILE_COUNT')) as PhotoRejectedError).code).toBe('too_many_files');
+    expect((fromMulterError(new MulterError('LIMIT_UNEXPECTED_FILE', 'photos')) as PhotoRejectedError).code).toBe('too_many_files');
+    expect((fromMulterError(new MulterError('LIMIT_UNEXPECTED_FILE', 'avatar')) as PhotoRejectedError).message).toMatch(/not “avatar”/);
+    const stopped = fromMulterError(new Error('Request aborted')) as PhotoRejectedError;
+    expect([stopped.status, stopped.code]).toEqual([400, 'upload_interrupted']);
+    const other = new Error('disk on fire');
+    expect(fromMulterError(other)).toBe(other);
   });
 });

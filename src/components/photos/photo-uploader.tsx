@@ -107,7 +107,13 @@ export function PhotoUploader<T = BlockPhotosUploadDto>({
       {count > 0 && (
         <ul className="divide-y divide-walnut/10 rounded-lg ring-1 ring-walnut/15" aria-label="Chosen photos">
           {chosen.map((c) => (
-            <ChosenRow key={c.key} photo={c} onRemove={() => remove(c.key)} disabled={sending} />
+            <ChosenRow
+              key={c.key}
+              photo={c}
+              onRemove={() => remove(c.key)}
+              disabled={sending}
+              atFault={status.kind === 'failed' && status.message.includes(`“${c.file.name}”`)}
+            />
           ))}
         </ul>
       )}
@@ -127,7 +133,7 @@ export function PhotoUploader<T = BlockPhotosUploadDto>({
       {status.kind === 'failed' && (
         <Alert tone="error" title="The photos were not saved">
           <p>{status.message}</p>
-          {count > 0 && <p className="mt-1">Your photos are still listed above: remove the one at fault (or add a better copy) and send again.</p>}
+          {count > 0 && <p className="mt-1">Your photos are still listed above, ready to send again.</p>}
         </Alert>
       )}
       {status.kind === 'sent' && (
@@ -143,28 +149,35 @@ export function PhotoUploader<T = BlockPhotosUploadDto>({
   );
 }
 
-function ChosenRow({ photo, onRemove, disabled }: { photo: ChosenPhoto; onRemove: () => void; disabled: boolean }) {
+function ChosenRow({ photo, onRemove, disabled, atFault }: { photo: ChosenPhoto; onRemove: () => void; disabled: boolean; atFault: boolean }) {
   return (
-    <li className="flex items-center gap-3 p-3">
-      <img
-        alt=""
-        className="size-14 shrink-0 rounded bg-linen-deep object-cover"
-        // A blob URL made for this row and released when the row goes (React 19 ref clean-up).
-        ref={(img) => {
-          if (!img) return;
-          const url = URL.createObjectURL(photo.file);
-          img.src = url;
-          return () => URL.revokeObjectURL(url);
-        }}
-        onError={(e) => e.currentTarget.classList.add('invisible')}
-      />
-      <div className="min-w-0 flex-1">
-        <p className="truncate font-semibold">{photo.file.name}</p>
-        <p className="text-walnut-soft">{formatBytes(photo.file.size)}</p>
+    <li className={`flex items-center gap-3 p-3 ${atFault ? 'bg-madder/8 ring-2 ring-madder ring-inset' : ''}`}>
+      <span className="size-14 shrink-0 overflow-hidden rounded bg-linen-deep">
+        <img
+          alt=""
+          className="size-14 object-cover"
+          // A blob URL made for this row and released when the row goes (React 19 ref clean-up).
+          ref={(img) => {
+            if (!img) return;
+            const url = URL.createObjectURL(photo.file);
+            img.src = url;
+            return () => URL.revokeObjectURL(url);
+          }}
+          // Browsers that cannot show HEIC keep the plain square instead of a broken-image mark.
+          onError={(e) => e.currentTarget.classList.add('invisible')}
+        />
+      </span>
+      <div className="min-w-0 flex-1 sm:flex sm:items-center sm:gap-3">
+        <div className="min-w-0 flex-1">
+          <p className="font-semibold wrap-anywhere">{photo.file.name}</p>
+          <p className="text-walnut-soft">{formatBytes(photo.file.size)}</p>
+          {atFault && <p className="font-semibold text-madder-deep">Refused: see the message below</p>}
+        </div>
+        {/* Under the name on a phone, so long names keep the width; the negative margin lines the word up with them. */}
+        <Button variant="quiet" onClick={onRemove} disabled={disabled} aria-label={`Remove ${photo.file.name}`} className="-ml-5 sm:ml-0">
+          Remove
+        </Button>
       </div>
-      <Button variant="quiet" onClick={onRemove} disabled={disabled} aria-label={`Remove ${photo.file.name}`}>
-        Remove
-      </Button>
     </li>
   );
 }
