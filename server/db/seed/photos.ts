@@ -97,19 +97,16 @@ export function demoBlockSvg(design: DemoDesign, seed: number): string {
   }
   return `<svg xmlns="http://www.w3.org/2000/svg" width="${WIDTH}" height="${HEIGHT}" viewBox="0 0 ${WIDTH} ${HEIGHT}">
   <defs>
-    <pattern id="weave" width="6" height="6" patternUnits="userSpaceOnUse">
-      <rect width="6" height="6" fill="#ffffff" fill-opacity="0"/><rect width="3" height="3" fill="#ffffff" fill-opacity="0.05"/>
-    </pattern>
     <linearGradient id="light" x1="0" y1="0" x2="1" y2="1">
       <stop offset="0" stop-color="#ffffff" stop-opacity="0.18"/><stop offset="1" stop-color="#000000" stop-opacity="0.22"/>
     </linearGradient>
-    <filter id="shadow" x="-10%" y="-10%" width="130%" height="130%"><feDropShadow dx="8" dy="10" stdDeviation="9" flood-color="#000" flood-opacity="0.35"/></filter>
   </defs>
   <rect width="${WIDTH}" height="${HEIGHT}" fill="#2f5447"/>
   ${grid.join('')}
   <g transform="translate(${cx} ${cy}) rotate(${angle}) translate(${-BLOCK / 2} ${-BLOCK / 2})">
-    <g filter="url(#shadow)">${patches(design, dark, medium, palette.linen)}</g>
-    <rect width="${BLOCK}" height="${BLOCK}" fill="url(#weave)"/>
+    <rect x="6" y="8" width="${BLOCK + 4}" height="${BLOCK + 4}" rx="3" fill="#000000" fill-opacity="0.28"/>
+    <rect x="3" y="4" width="${BLOCK + 2}" height="${BLOCK + 2}" rx="2" fill="#000000" fill-opacity="0.18"/>
+    ${patches(design, dark, medium, palette.linen)}
   </g>
   <rect width="${WIDTH}" height="${HEIGHT}" fill="url(#light)"/>
 </svg>`;
