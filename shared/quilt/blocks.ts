@@ -2,7 +2,7 @@
  * Seam allowances, strip sets and grid blocks. A grid block is a set of column cut widths and row
  * cut heights: each cell is a patch cut at (column width × row height) and sewn with `seam`.
  */
-import { Fraction, QuiltInputError, lengthArg, lengthListArg, sumQ } from './rational';
+import { type Fraction, QuiltInputError, lengthArg, lengthListArg, sumQ } from './rational';
 
 export const DEFAULT_SEAM = 0.25;
 

@@ -2,7 +2,7 @@
  * Tolerance verdict for a measured block. All comparisons are exact rationals, so a block at
  * exactly target − tolerance (8⅜″ against 8½″ ± ⅛″) is within tolerance.
  */
-import { Fraction, QuiltInputError, lengthArg } from './rational';
+import { type Fraction, QuiltInputError, lengthArg } from './rational';
 
 export type Verdict = 'true' | 'trim' | 'short' | 'skewed';
 export const VERDICTS: readonly Verdict[] = ['true', 'trim', 'short', 'skewed'];

@@ -2,7 +2,7 @@
  * Fabric: strips cut across the width of fabric (WOF), sub-cuts, yardage rounded up to ⅛ yd,
  * fat quarters and 10-inch precut squares. 1 yd = 36″ exactly.
  */
-import { Fraction, QuiltInputError, ceilTo, countArg, lengthArg, q } from './rational';
+import { type Fraction, QuiltInputError, ceilTo, countArg, lengthArg, q } from './rational';
 
 export const INCHES_PER_YARD = 36;
 export const DEFAULT_USABLE_WOF = 42;

@@ -2,7 +2,7 @@
  * How to make a grid block in quantity: the strip sets (rows of the grid sewn as long strips and
  * sub-cut at the row heights) and, for cutting patch by patch, the cut list grouped by fabric role.
  */
-import { GridSpec, gridArg, stripSetWidthExact } from './blocks';
+import { type GridSpec, gridArg, stripSetWidthExact } from './blocks';
 import { fabricYardsExact } from './fabric';
 import { Fraction, QuiltInputError, countArg, lengthArg } from './rational';
 

@@ -2,7 +2,7 @@
  * Reading and writing lengths the way quilters type them: mixed fractions, Unicode fractions,
  * decimals, and metric. 1 in = 25.4 mm exactly (NIST SP 811, Appendix B.8).
  */
-import { Fraction, fromDecimalString, fromNumber, q, roundTo } from './rational';
+import { type Fraction, fromDecimalString, fromNumber, q, roundTo } from './rational';
 
 export const MM_PER_INCH = q(254, 10);
 const UNIT_FACTORS: Record<string, Fraction> = {

@@ -4,7 +4,7 @@
  * four corners mapped through it give its sides and diagonals in inches. Corner order for both:
  * top-left, top-right, bottom-right, bottom-left.
  */
-import { Homography, Point, Quad, applyHomography, homography, isConvexQuad, pointsArg } from './homography';
+import { type Homography, type Point, type Quad, applyHomography, homography, isConvexQuad, pointsArg } from './homography';
 import { QuiltInputError, lengthArg } from './rational';
 
 export interface PhotoReference {

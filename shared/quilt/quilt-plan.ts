@@ -4,7 +4,7 @@
  */
 import { DEFAULT_SEAM, seamArg } from './blocks';
 import { DEFAULT_USABLE_WOF, fabricYardsExact } from './fabric';
-import { Fraction, QuiltInputError, countArg, lengthArg, maxQ, q, sumQ } from './rational';
+import { type Fraction, QuiltInputError, countArg, lengthArg, maxQ, q, sumQ } from './rational';
 
 export interface QuiltPlanOptions {
   blockFinished: { width: number; height: number };

@@ -3,7 +3,7 @@
  * geese, square-in-a-square and on-point setting triangles. Inputs are finished sizes in inches;
  * results are cut sizes. Sizes that involve √2 are rounded UP to the next ⅛″, decided exactly.
  */
-import { Fraction, QuiltInputError, ceilSqrtTo, lengthArg, q } from './rational';
+import { type Fraction, QuiltInputError, ceilSqrtTo, lengthArg, q } from './rational';
 
 const EIGHTH = q(1, 8);
 const SEVEN_EIGHTHS = q(7, 8);

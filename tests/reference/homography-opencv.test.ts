@@ -4,6 +4,7 @@
  * pinhole camera with known geometry.
  */
 import { createRequire } from 'node:module';
+import type * as OpenCv from '@techstark/opencv-js';
 import fc from 'fast-check';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { type Quad, applyHomography, homography, measureFromPhoto } from '@shared/quilt';
@@ -13,7 +14,7 @@ import { type Camera, type Point, project, rectangle } from '../unit/quilt/suppo
  * Loaded with require: the module object is a thenable that never settles, and a static import
  * hangs under vitest, whose module interop awaits it. Nor may it be awaited here.
  */
-const cv = createRequire(import.meta.url)('@techstark/opencv-js') as typeof import('@techstark/opencv-js') & { Mat: unknown };
+const cv = createRequire(import.meta.url)('@techstark/opencv-js') as typeof OpenCv & { Mat: unknown };
 
 /** Waits for the wasm runtime to initialise. */
 function openCvReady(): Promise<void> {

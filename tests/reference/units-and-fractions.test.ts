@@ -4,11 +4,11 @@
  */
 import fc from 'fast-check';
 import Fraction from 'fraction.js';
-import { all, create } from 'mathjs';
+import { type FactoryFunctionMap, all, create } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { formatLength, inchesToMm, parseLength, parseLengthExact } from '@shared/quilt';
 
-const exactMath = create(all, { number: 'Fraction' });
+const exactMath = create(all as FactoryFunctionMap, { number: 'Fraction' });
 /** mathjs's exact conversion of `value` `unit` into inches, as "n/d". */
 const mathjsInches = (value: string, unit: string): string =>
   (exactMath.unit(exactMath.fraction(value), unit).toNumeric('inch') as unknown as { toFraction(): string }).toFraction();
