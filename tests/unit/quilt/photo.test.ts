@@ -95,6 +95,33 @@ describe('photoMeasureQuality', () => {
     expect(tiny.warnings.join(' ')).toMatch(/much larger than the reference/);
   });
 
+  it('agrees with a seeded Monte Carlo simulation of click errors', () => {
+    let state = 2_027;
+    const uniform = () => {
+      state = (Math.imul(state, 1_664_525) + 1_013_904_223) >>> 0;
+      return (state + 0.5) / 2 ** 32;
+    };
+    const gauss = () => Math.sqrt(-2 * Math.log(uniform())) * Math.cos(2 * Math.PI * uniform());
+    const cam = camera({ tilt: 10, target: [12, 7] });
+    const ref = shoot(cam, rectangle(0, 0, 6, 6));
+    const blk = shoot(cam, rectangle(8, 1, 12.5, 12.5));
+    const sigma = 1.5;
+    const predicted = photoMeasureQuality({ corners: ref, size: 6 }, { corners: blk }, { clickError: sigma }).expectedError;
+    const jitter = (q: Quad) => q.map(([x, y]) => [x + sigma * gauss(), y + sigma * gauss()]) as Quad;
+    const samples = Array.from({ length: 2000 }, () => {
+      const m = measureFromPhoto({ corners: jitter(ref), size: 6 }, { corners: jitter(blk) });
+      return [m.width, m.height, m.diagonals[0], m.diagonals[1]];
+    });
+    const sd = [0, 1, 2, 3].map((k) => {
+      const xs = samples.map((s) => s[k]!);
+      const mean = xs.reduce((a, b) => a + b, 0) / xs.length;
+      return Math.sqrt(xs.reduce((a, b) => a + (b - mean) ** 2, 0) / (xs.length - 1));
+    });
+    const ratio = Math.max(...sd) / predicted;
+    expect(ratio).toBeGreaterThan(0.85);
+    expect(ratio).toBeLessThan(1.15);
+  });
+
   it('scales the expected error with the click error', () => {
     const cam = camera();
     const args = [{ corners: shoot(cam, rectangle(0, 0, 6, 6)), size: 6 }, { corners: shoot(cam, block) }] as const;
