@@ -1,0 +1,117 @@
+import { useState } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
+import { checkBlock, formatDeviation, parseLength, type CheckBlockResult } from '@shared/quilt';
+import { measurementBodySchema } from '@shared/schemas/blocks';
+import { zodFields } from '@shared/schemas/errors';
+import type { SwapDto } from '@shared/swap-types';
+import { Alert } from '@/components/ui/alert';
+import { Button } from '@/components/ui/button';
+import { TextField } from '@/components/ui/fields';
+import { ApiError } from '@/lib/api-client';
+import { useMeasureBlock, type MeasurementAnswer } from '../api/measure-block';
+import { newClientId } from '../hooks/client-id';
+import { len, sizeText } from './lengths';
+import { VerdictBadge } from './verdict-badge';
+
+interface Values {
+  width: string;
+  height: string;
+  diagonal1: string;
+  diagonal2: string;
+}
+type Field = keyof Values;
+
+function body(v: Values) {
+  const diagonals: [string, string] | undefined = v.diagonal1.trim() || v.diagonal2.trim() ? [v.diagonal1, v.diagonal2] : undefined;
+  return { width: v.width, height: v.height, ...(diagonals ? { diagonals } : {}) };
+}
+
+/** The verdict as the engine sees what is typed so far, or null while it cannot be read. */
+function preview(swap: SwapDto, v: Values): CheckBlockResult | null {
+  try {
+    const d = v.diagonal1.trim() && v.diagonal2.trim() ? ([parseLength(v.diagonal1), parseLength(v.diagonal2)] as [number, number]) : undefined;
+    return checkBlock({
+      target: swap.unfinished,
+      tolerance: swap.tolerance,
+      squareness: swap.squareness,
+      measured: { width: parseLength(v.width), height: parseLength(v.height), ...(d ? { diagonals: d } : {}) },
+    });
+  } catch {
+    return null;
+  }
+}
+
+const fieldOf = (path: string): Field => (path.startsWith('diagonals') ? (path.endsWith('1') ? 'diagonal2' : 'diagonal1') : (path as Field));
+
+/**
+ * Width, height and optional diagonals in any format parseLength reads. The verdict shows as soon
+ * as the numbers can be read; on saving, the server's own verdict replaces it.
+ */
+export function MeasureForm({ swap, blockId, source, label, onSaved }: { swap: SwapDto; blockId: number; source: 'ruler' | 'maker'; label: string; onSaved?: (m: MeasurementAnswer) => void }) {
+  const measure = useMeasureBlock(swap.id);
+  const form = useForm<Values>({ defaultValues: { width: '', height: '', diagonal1: '', diagonal2: '' } });
+  const values = useWatch({ control: form.control }) as Values;
+  const [saved, setSaved] = useState<MeasurementAnswer | null>(null);
+  const [problem, setProblem] = useState('');
+  // One id per entry: a retry after a lost answer is recorded once.
+  const [clientId, setClientId] = useState(newClientId);
+  const live = preview(swap, values);
+  const e = form.formState.errors;
+
+  const onSubmit = form.handleSubmit(async (v) => {
+    setProblem('');
+    setSaved(null);
+    const parsed = measurementBodySchema.safeParse(body(v));
+    if (!parsed.success) {
+      for (const [path, message] of Object.entries(zodFields(parsed.error))) form.setError(fieldOf(path), { message });
+      return;
+    }
+    try {
+      const answer = await measure.mutateAsync({ blockId, ...body(v), source, clientId });
+      setSaved(answer);
+      setClientId(newClientId());
+      form.reset();
+      onSaved?.(answer);
+    } catch (error) {
+      if (error instanceof ApiError) {
+        for (const [path, message] of Object.entries(error.fields)) form.setError(fieldOf(path), { message });
+        setProblem(error.message);
+      } else setProblem('The measurement could not be saved. Nothing you typed is lost; please try again.');
+    }
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label={label}>
+      <p className="text-walnut-soft">
+        Target {sizeText(swap.unfinished)} ± {len(swap.tolerance)}. Type 9 1/2, 9½, 9.5 or 241 mm.
+      </p>
+      {problem && <Alert tone="error">{problem}</Alert>}
+      <div className="grid gap-3 sm:grid-cols-2">
+        <TextField label="Width" inputMode="decimal" autoComplete="off" error={e.width?.message} {...form.register('width')} />
+        <TextField label="Height" inputMode="decimal" autoComplete="off" error={e.height?.message} {...form.register('height')} />
+        <TextField label="Diagonal, corner to corner" hint="Optional; give both or neither." inputMode="decimal" autoComplete="off" error={e.diagonal1?.message} {...form.register('diagonal1')} />
+        <TextField label="Other diagonal" hint="Optional." inputMode="decimal" autoComplete="off" error={e.diagonal2?.message} {...form.register('diagonal2')} />
+      </div>
+      <div aria-live="polite" className="min-h-8">
+        {live && !saved && (
+          <p className="flex flex-wrap items-center gap-2">
+            <span>As typed:</span> <VerdictBadge verdict={live.verdict} />
+            <span className="text-walnut-soft">
+              width {formatDeviation(live.deviations.width, { denominator: 16 })}, height {formatDeviation(live.deviations.height, { denominator: 16 })}
+              {live.deviations.diagonal !== undefined && `, diagonals differ by ${formatDeviation(Math.abs(live.deviations.diagonal), { denominator: 16 })}`}
+            </span>
+          </p>
+        )}
+        {saved && (
+          <p className="flex flex-wrap items-center gap-2" role="status">
+            <span className="font-semibold">Saved:</span> <VerdictBadge verdict={saved.verdict} source={saved.source} />
+            <span className="text-walnut-soft">({sizeText(saved)})</span>
+          </p>
+        )}
+      </div>
+      <Button type="submit" pending={measure.isPending} pendingLabel="Saving…">
+        Save measurement
+      </Button>
+    </form>
+  );
+}

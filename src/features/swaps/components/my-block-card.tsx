@@ -1,0 +1,108 @@
+import { useState } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
+import type { BlockDto, SwapDto } from '@shared/swap-types';
+import { PhotoGallery, PhotoUploader, blockPhotosUrl } from '@/components/photos';
+import { Alert } from '@/components/ui/alert';
+import { Button } from '@/components/ui/button';
+import { SelectField, TextField } from '@/components/ui/fields';
+import { ApiError } from '@/lib/api-client';
+import { useHandIn } from '../api/hand-in';
+import { useMarkSewn } from '../api/mark-sewn';
+import { invalidateSwapData } from '../api/swap-keys';
+import { MeasureForm } from './measure-form';
+import { BlockStateText } from './state-badge';
+import { NoVerdict, VerdictBadge } from './verdict-badge';
+
+const BEFORE_RECEIVED = ['pledged', 'sewn', 'handed_in'];
+
+/** One of the member's own blocks: its state and verdicts, and the steps the maker can take. */
+export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto }) {
+  const queryClient = useQueryClient();
+  const sewn = useMarkSewn(swap.id);
+  const handIn = useHandIn(swap.id);
+  const [how, setHow] = useState<'in-person' | 'post'>(block.handIn?.how ?? 'in-person');
+  const [note, setNote] = useState(block.handIn?.note ?? '');
+  const [open, setOpen] = useState<'hand-in' | 'measure' | null>(null);
+  const [problem, setProblem] = useState('');
+  const active = ['signup', 'sewing', 'collecting'].includes(swap.state);
+  const report = (e: unknown) => setProblem(e instanceof ApiError ? e.message : 'That did not work. Please try again.');
+
+  return (
+    <li className="seam rounded-card bg-card p-5 ring-1 ring-walnut/10">
+      <div className="relative space-y-3">
+        <div className="flex flex-wrap items-center justify-between gap-2">
+          <h4 className="text-xl font-semibold">Block {block.sequence}</h4>
+          <BlockStateText state={block.state} />
+        </div>
+        <p className="flex flex-wrap items-center gap-2">
+          <span>Coordinator’s verdict:</span>
+          {block.verdict ? <VerdictBadge verdict={block.verdict} trimmed={block.trimmed} /> : <NoVerdict />}
+        </p>
+        {block.latest.maker && (
+          <p className="flex flex-wrap items-center gap-2">
+            <span>Your own measurement:</span> <VerdictBadge verdict={block.latest.maker.verdict} source="maker" />
+          </p>
+        )}
+        {block.handIn && (
+          <p>
+            Handed in {block.handIn.how === 'post' ? 'by post' : 'in person'}
+            {block.handIn.note && ` — ${block.handIn.note}`}
+          </p>
+        )}
+        {block.recipient && <p>Goes to <span className="font-semibold">{block.recipient.displayName}</span>.</p>}
+        {problem && <Alert tone="error">{problem}</Alert>}
+
+        {block.photos.length > 0 && <PhotoGallery photos={block.photos} subject={`Block ${block.sequence} by ${block.maker.displayName}`} />}
+
+        {active && BEFORE_RECEIVED.includes(block.state) && (
+          <div className="flex flex-wrap gap-2">
+            {block.state === 'pledged' && (
+              <Button variant="secondary" pending={sewn.isPending} onClick={() => { setProblem(''); sewn.mutate(block.id, { onError: report }); }}>
+                Mark sewn
+              </Button>
+            )}
+            {swap.state !== 'signup' && (
+              <Button variant="secondary" onClick={() => setOpen(open === 'hand-in' ? null : 'hand-in')} aria-expanded={open === 'hand-in'}>
+                {block.state === 'handed_in' ? 'Change hand-in' : 'Hand it in'}
+              </Button>
+            )}
+            <Button variant="quiet" onClick={() => setOpen(open === 'measure' ? null : 'measure')} aria-expanded={open === 'measure'}>
+              Enter my own measurement
+            </Button>
+          </div>
+        )}
+
+        {open === 'hand-in' && (
+          <form
+            className="space-y-3 rounded-lg bg-linen p-4"
+            onSubmit={(e) => {
+              e.preventDefault();
+              setProblem('');
+              handIn.mutate({ blockId: block.id, how, ...(note.trim() ? { note } : {}) }, { onError: report, onSuccess: () => setOpen(null) });
+            }}
+          >
+            <SelectField
+              label="How"
+              value={how}
+              onChange={(e) => setHow(e.target.value as 'in-person' | 'post')}
+              options={[{ value: 'in-person', label: 'In person, at a meeting' }, { value: 'post', label: 'By post' }]}
+            />
+            <TextField label={how === 'post' ? 'Tracking number or note' : 'Note'} hint="Optional" value={note} onChange={(e) => setNote(e.target.value)} maxLength={500} />
+            <Button type="submit" pending={handIn.isPending}>Save hand-in</Button>
+          </form>
+        )}
+        {open === 'measure' && (
+          <div className="rounded-lg bg-linen p-4">
+            <MeasureForm swap={swap} blockId={block.id} source="maker" label={`Your measurement of block ${block.sequence}`} />
+          </div>
+        )}
+        {active && BEFORE_RECEIVED.includes(block.state) && (
+          <details>
+            <summary className="min-h-11 cursor-pointer py-2 font-semibold text-indigo">Add photos of this block</summary>
+            <PhotoUploader uploadUrl={blockPhotosUrl(block.id)} label="Photos of the finished block" onUploaded={() => void invalidateSwapData(queryClient, swap.id)} />
+          </details>
+        )}
+      </div>
+    </li>
+  );
+}

@@ -1,0 +1,100 @@
+import { useState } from 'react';
+import type { RosterBlockDto, RosterRowDto, SwapDto } from '@shared/swap-types';
+import { PhotoGallery } from '@/components/photos';
+import { Alert } from '@/components/ui/alert';
+import { Button } from '@/components/ui/button';
+import { ApiError } from '@/lib/api-client';
+import { formatInZone } from '@/lib/dates';
+import { useMeasurements } from '../api/get-measurements';
+import { useReceiveBlock } from '../api/receive-block';
+import { useTrimBlock } from '../api/trim-block';
+import { MeasureForm } from './measure-form';
+import { sizeText } from './lengths';
+import { BlockStateText } from './state-badge';
+import { NoVerdict, VerdictBadge } from './verdict-badge';
+
+const MEASURABLE = ['received', 'measured'];
+const RECEIVABLE = ['pledged', 'sewn', 'handed_in'];
+
+function History({ swap, blockId }: { swap: SwapDto; blockId: number }) {
+  const history = useMeasurements(blockId);
+  if (history.isPending) return <p>Loading…</p>;
+  if (history.isError || history.data.length === 0) return <p className="text-walnut-soft">No measurements yet.</p>;
+  return (
+    <ol className="space-y-1">
+      {history.data.map((m) => (
+        <li key={m.id} className="flex flex-wrap items-center gap-2">
+          <time dateTime={m.at}>{formatInZone(m.at, swap.guild.timeZone)}</time> {sizeText(m)}
+          <VerdictBadge verdict={m.verdict} source={m.source} />
+          {m.measuredBy && <span className="text-walnut-soft">by {m.measuredBy.displayName}</span>}
+        </li>
+      ))}
+    </ol>
+  );
+}
+
+function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block: RosterBlockDto }) {
+  const receive = useReceiveBlock(swap.id);
+  const trim = useTrimBlock(swap.id);
+  const [panel, setPanel] = useState<'measure' | 'history' | null>(null);
+  const [problem, setProblem] = useState('');
+  const report = (e: unknown) => setProblem(e instanceof ApiError ? e.message : 'That did not work. Please try again.');
+  const intake = swap.canManage && ['sewing', 'collecting', 'sorting'].includes(swap.state) && !swap.distributionConfirmedAt;
+
+  return (
+    <li className="rounded-lg bg-card p-4 ring-1 ring-walnut/10">
+      <div className="flex flex-wrap items-center gap-3">
+        <span className="font-semibold">Block {block.sequence}</span>
+        <BlockStateText state={block.state} />
+        {block.verdict ? <VerdictBadge verdict={block.verdict} trimmed={block.trimmed} /> : <NoVerdict />}
+        {block.handIn && <span className="text-walnut-soft">{block.handIn.how === 'post' ? 'Posted' : 'Handed in in person'}{block.handIn.note && `: ${block.handIn.note}`}</span>}
+      </div>
+      {problem && <div className="mt-2"><Alert tone="error">{problem}</Alert></div>}
+      {block.photos.length > 0 && <div className="mt-3"><PhotoGallery photos={block.photos} subject={`Block ${block.sequence} by ${maker}`} /></div>}
+      {swap.canManage && (
+        <div className="mt-3 flex flex-wrap gap-2">
+          {intake && RECEIVABLE.includes(block.state) && swap.state !== 'sorting' && (
+            <Button variant="secondary" pending={receive.isPending} onClick={() => { setProblem(''); receive.mutate(block.id, { onError: report }); }}>
+              Mark received<span className="sr-only"> block {block.sequence} of {maker}</span>
+            </Button>
+          )}
+          {intake && MEASURABLE.includes(block.state) && (
+            <Button variant={block.state === 'received' ? 'primary' : 'secondary'} aria-expanded={panel === 'measure'} onClick={() => setPanel(panel === 'measure' ? null : 'measure')}>
+              {block.state === 'measured' ? 'Measure again' : 'Measure'}<span className="sr-only"> block {block.sequence} of {maker}</span>
+            </Button>
+          )}
+          {intake && block.verdict === 'trim' && !block.trimmed && block.state === 'measured' && (
+            <Button variant="secondary" pending={trim.isPending} onClick={() => { setProblem(''); trim.mutate(block.id, { onError: report }); }}>
+              Mark trimmed to size
+            </Button>
+          )}
+          <Button variant="quiet" aria-expanded={panel === 'history'} onClick={() => setPanel(panel === 'history' ? null : 'history')}>
+            Measurements
+          </Button>
+        </div>
+      )}
+      {panel === 'measure' && (
+        <div className="mt-3 rounded-lg bg-linen p-4">
+          <MeasureForm swap={swap} blockId={block.id} source="ruler" label={`Measure block ${block.sequence} of ${maker}`} />
+        </div>
+      )}
+      {panel === 'history' && <div className="mt-3"><History swap={swap} blockId={block.id} /></div>}
+    </li>
+  );
+}
+
+/** One member's blocks in the roster, with intake actions for officers. */
+export function RosterRowDetail({ swap, row }: { swap: SwapDto; row: RosterRowDto }) {
+  return (
+    <div className="space-y-3">
+      {row.mailingAddress !== undefined && (
+        <p>
+          <span className="font-semibold">Mailing address:</span> {row.mailingAddress || <span className="text-walnut-soft">not given</span>}
+        </p>
+      )}
+      <ul className="space-y-3">
+        {row.blocks.map((b) => <BlockLine key={b.id} swap={swap} maker={row.displayName} block={b} />)}
+      </ul>
+    </div>
+  );
+}
