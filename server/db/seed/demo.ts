@@ -7,6 +7,8 @@ import type { Config } from '../../config';
 import { Guild, Membership, User } from '../models';
 import { hashPassword } from '../../auth/passwords';
 import type { Role } from '@shared/schemas/guilds';
+import { seedDemoSwaps } from './swaps';
+import { seedDemoPhotos } from './photos';
 
 export const DEMO_SIGN_INS = {
   password: 'blockpost-demo',
@@ -38,7 +40,7 @@ export async function seedDemoIfEmpty(sequelize: Sequelize, config: Pick<Config,
   if (config.NODE_ENV === 'production') return null;
   if ((await User.count()) > 0) return null;
   const passwordHash = await hashPassword(DEMO_SIGN_INS.password);
-  return sequelize.transaction(async (transaction) => {
+  const seeded = await sequelize.transaction(async (transaction) => {
     const guild = await Guild.create({ name: 'Kestrel Hollow Quilters', timeZone: 'America/Chicago' }, { transaction });
     const users = new Map<string, User>();
     for (const person of demoPeople) {
@@ -50,6 +52,10 @@ export async function seedDemoIfEmpty(sequelize: Sequelize, config: Pick<Config,
       await Membership.create({ guildId: guild.id, userId: user.id, role: person.role }, { transaction });
     }
     // Demo swaps, photos and sew days are added by their features' seeders (see seed/index).
-    return { guild, users };
+    const photographed = await seedDemoSwaps(guild.id, users, transaction);
+    return { guild, users, photographed };
   });
+  // Photos go through the upload pipeline, which writes files and commits on its own.
+  await seedDemoPhotos(sequelize, config, seeded.photographed.map((b) => ({ id: b.id, guildId: seeded.guild.id, makerId: b.makerId })));
+  return { guild: seeded.guild, users: seeded.users };
 }
