@@ -1,4 +1,4 @@
-import { NavLink, Outlet, useParams } from 'react-router';
+import { NavLink, Outlet, useLocation, useParams } from 'react-router';
 import { roleLabels } from '@shared/schemas/guilds';
 import { useGuild } from '@/features/guilds/api/get-guild';
 import { Loading, QueryError } from '@/components/ui/page';
@@ -11,6 +11,9 @@ const tabClass = ({ isActive }: { isActive: boolean }) =>
 export function GuildLayout() {
   const guildId = Number(useParams().guildId);
   const guild = useGuild(guildId);
+  const { pathname } = useLocation();
+  // Swaps is the guild's index: it stays marked on the swap pages below it, not on the other tabs.
+  const onSwaps = pathname === paths.guild(guildId) || pathname.startsWith(`${paths.guild(guildId)}/swaps`);
   if (guild.isPending) return <Loading />;
   if (guild.isError) return <QueryError error={guild.error} what="the guild" />;
   return (
@@ -19,7 +22,8 @@ export function GuildLayout() {
         <p className="text-walnut-soft">{roleLabels[guild.data.myRole]}</p>
         <h1 className="text-3xl font-bold text-indigo-deep sm:text-4xl">{guild.data.name}</h1>
         <nav aria-label="Guild sections" className="mt-4 flex flex-wrap gap-1 border-b border-walnut/15">
-          <NavLink end to={paths.guild(guildId)} className={tabClass}>Overview</NavLink>
+          <NavLink end to={paths.guild(guildId)} className={() => tabClass({ isActive: onSwaps })}>Swaps</NavLink>
+          <NavLink to={paths.about(guildId)} className={tabClass}>About</NavLink>
           <NavLink to={paths.members(guildId)} className={tabClass}>Members</NavLink>
           <NavLink to={paths.sewDays(guildId)} className={tabClass}>Sew days</NavLink>
         </nav>

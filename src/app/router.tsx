@@ -39,7 +39,21 @@ export const routes: RouteObject[] = [
             path: paths.guild(),
             lazy: () => import('./guild-layout').then((m) => ({ Component: m.GuildLayout })),
             children: [
-              { index: true, lazy: () => import('@/features/guilds/components/guild-overview').then((m) => ({ Component: m.GuildOverview })) },
+              // Swaps are the guild's front page; the guild overview moved to "About".
+              { index: true, lazy: () => import('@/features/swaps/components/swap-list-page').then((m) => ({ Component: m.SwapListPage })) },
+              { path: 'about', lazy: () => import('@/features/guilds/components/guild-overview').then((m) => ({ Component: m.GuildOverview })) },
+              { path: 'swaps/new', lazy: () => import('@/features/swaps/components/setup/swap-setup-page').then((m) => ({ Component: m.NewSwapPage })) },
+              {
+                path: 'swaps/:swapId',
+                lazy: () => import('@/features/swaps/components/swap-layout').then((m) => ({ Component: m.SwapLayout })),
+                children: [
+                  { index: true, lazy: () => import('@/features/swaps/components/swap-overview-page').then((m) => ({ Component: m.SwapOverviewPage })) },
+                  { path: 'roster', lazy: () => import('@/features/swaps/components/roster-page').then((m) => ({ Component: m.RosterPage })) },
+                  { path: 'return', lazy: () => import('@/features/swaps/components/distribution-page').then((m) => ({ Component: m.DistributionPage })) },
+                  { path: 'sheet', lazy: () => import('@/features/swaps/components/swap-sheet-page').then((m) => ({ Component: m.SwapSheetPage })) },
+                  { path: 'edit', lazy: () => import('@/features/swaps/components/setup/swap-setup-page').then((m) => ({ Component: m.EditSwapPage })) },
+                ],
+              },
               { path: 'members', lazy: () => import('@/features/guilds/components/members-page').then((m) => ({ Component: m.MembersPage })) },
               { path: 'sew-days', lazy: () => import('@/features/sew-days/components/sew-days-page').then((m) => ({ Component: m.SewDaysPage })) },
               { path: 'sew-days/new', lazy: () => import('@/features/sew-days/components/new-sew-day-page').then((m) => ({ Component: m.NewSewDayPage })) },
