@@ -18,6 +18,8 @@ import { composeDistribution } from '../mail/compose/distribution';
 import { composeDigests } from '../mail/compose/digest';
 import { queues, startBoss } from './queue';
 
+const SEND_WORKERS = 4;
+
 export type ComposeJob =
   | { kind: 'announcement'; swapId: number }
   | { kind: 'signup-confirmation'; swapId: number; userId: number }
@@ -82,15 +84,18 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
 
   if (opts.workers ?? true) {
     const work = { batchSize: 1, pollingIntervalSeconds: config.JOBS_POLL_SECONDS };
-    await boss.work<{ messageId: number }>(queues.send, work, async ([job]) => {
-      try {
-        const outcome = await deliverMessage(delivery, job!.data.messageId);
-        logger.debug({ messageId: job!.data.messageId, outcome }, 'mail delivery');
-      } catch (error) {
-        if (error instanceof RetryableDeliveryError) logger.warn({ messageId: job!.data.messageId, reason: error.message }, 'mail delivery failed; will retry');
-        throw error;
-      }
-    });
+    // Several delivery workers per process, so a guild-wide announcement is not sent one by one.
+    for (let i = 0; i < SEND_WORKERS; i += 1) {
+      await boss.work<{ messageId: number }>(queues.send, work, async ([job]) => {
+        try {
+          const outcome = await deliverMessage(delivery, job!.data.messageId);
+          logger.debug({ messageId: job!.data.messageId, outcome }, 'mail delivery');
+        } catch (error) {
+          if (error instanceof RetryableDeliveryError) logger.warn({ messageId: job!.data.messageId, reason: error.message }, 'mail delivery failed; will retry');
+          throw error;
+        }
+      });
+    }
     await boss.work<ComposeJob>(queues.compose, work, async ([job]) => {
       const result = await compose(job!.data);
       logger.info({ job: job!.data, ...result }, 'mail composed');

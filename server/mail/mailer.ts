@@ -30,7 +30,8 @@ export function smtpOptions(smtpUrl: string) {
 }
 
 export function createMailer(config: Pick<Config, 'SMTP_URL' | 'MAIL_FROM'>): Mailer {
-  const transport: Transporter = nodemailer.createTransport(smtpOptions(config.SMTP_URL));
+  // A small pool of SMTP connections, reused between messages, for the job worker's bursts.
+  const transport: Transporter = nodemailer.createTransport({ ...smtpOptions(config.SMTP_URL), pool: true, maxConnections: 4 });
   return {
     async send(mail) {
       const info = await transport.sendMail({ from: config.MAIL_FROM, ...mail });

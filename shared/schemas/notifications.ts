@@ -53,6 +53,12 @@ export const updateMailPreferencesSchema = z
   .refine((v) => Object.keys(v).length > 0, 'Choose at least one kind of e-mail to change.');
 export type UpdateMailPreferencesInput = z.infer<typeof updateMailPreferencesSchema>;
 
+/** Every category at once, as the choices form holds them. */
+export const mailChoicesSchema = z.object(
+  Object.fromEntries(mailCategories.map((c) => [c, z.boolean({ error: 'Use true or false.' })])) as Record<MailCategory, z.ZodBoolean>,
+);
+export type MailChoices = z.infer<typeof mailChoicesSchema>;
+
 export const unsubscribeQuerySchema = z.object({
   token: z.string({ error: 'The unsubscribe link is incomplete.' }).min(10, 'The unsubscribe link is incomplete.').max(300),
 });
@@ -64,7 +70,13 @@ export const mailLogQuerySchema = z.object({
   q: z.string().trim().max(100, 'Keep the search under 100 characters.').optional(),
   page: z.coerce.number({ error: 'Expected a page number.' }).int().min(1).max(10_000).default(1),
 });
-export type MailLogQuery = z.input<typeof mailLogQuerySchema>;
+/** The history's filters as the client sends them. */
+export interface MailLogQuery {
+  status?: MailStatus;
+  category?: AnyMailCategory;
+  q?: string;
+  page?: number;
+}
 
 export const mailLogParamsSchema = z.object({ guildId: idParam });
 

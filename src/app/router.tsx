@@ -29,11 +29,13 @@ export const routes: RouteObject[] = [
       },
       { path: paths.resetPassword, lazy: () => import('@/features/auth/components/password-reset-pages').then((m) => ({ Component: m.ResetPasswordPage })) },
       { path: paths.invitation(), lazy: () => import('./invitation-route').then((m) => ({ Component: m.InvitationRoute })) },
+      { path: paths.unsubscribe, lazy: () => import('@/features/notifications/components/unsubscribe-page').then((m) => ({ Component: m.UnsubscribePage })) },
       {
         element: <RequireSignedIn />,
         children: [
           { path: paths.guilds, lazy: () => import('@/features/guilds/components/guild-list-page').then((m) => ({ Component: m.GuildListPage })) },
           { path: paths.settings, lazy: () => import('@/features/auth/components/settings-page').then((m) => ({ Component: m.SettingsPage })) },
+          { path: paths.mailPreferences, lazy: () => import('@/features/notifications/components/mail-preferences-page').then((m) => ({ Component: m.MailPreferencesPage })) },
           { path: paths.planner, lazy: () => import('./planner-route').then((m) => ({ Component: m.PlannerRoute })) },
           {
             path: paths.guild(),
@@ -55,6 +57,7 @@ export const routes: RouteObject[] = [
                 ],
               },
               { path: 'members', lazy: () => import('@/features/guilds/components/members-page').then((m) => ({ Component: m.MembersPage })) },
+              { path: 'mail', lazy: () => import('@/features/notifications/components/mail-log-page').then((m) => ({ Component: m.MailLogPage })) },
               { path: 'sew-days', lazy: () => import('@/features/sew-days/components/sew-days-page').then((m) => ({ Component: m.SewDaysPage })) },
               { path: 'sew-days/new', lazy: () => import('@/features/sew-days/components/new-sew-day-page').then((m) => ({ Component: m.NewSewDayPage })) },
               { path: 'sew-days/:sewDayId', lazy: sewDayWithChat },

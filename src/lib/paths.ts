@@ -26,6 +26,9 @@ export const paths = {
   swapIntake: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/intake`,
   swapLabels: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/labels`,
   settings: '/settings',
+  mailPreferences: '/settings/email',
+  unsubscribe: '/unsubscribe',
+  mailLog: (guildId: number | string = ':guildId') => `/guilds/${guildId}/mail`,
 } as const;
 
 /** Where to go after signing in: only same-site paths are followed. */

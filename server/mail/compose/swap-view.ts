@@ -50,6 +50,6 @@ export function swapView(swap: Swap, guild: Guild, units: Units, now = new Date(
     mode:
       swap.mode === 'gift'
         ? `Every block goes to ${giftName ?? swap.giftRecipientName ?? 'one recipient'} as a gift.`
-        : 'Makers get back as many blocks as they hand in that pass the size check, made by other members.',
+        : 'Each maker gets back, from other members, as many blocks as they handed in that passed the size check.',
   };
 }
