@@ -52,17 +52,23 @@ afterAll(async () => {
   await server?.close();
 });
 
-async function signIn(page: Page, email: string, next: string) {
-  await page.goto(`${server.url}/sign-in?next=${encodeURIComponent(next)}`);
-  await page.getByLabel('E-mail').fill(email);
+/** Opens a page as the coordinator, signing in on the way when the browser is not signed in yet. */
+async function openAs(page: Page, email: string, path: string) {
+  // The sign-in page sends a signed-in visitor straight on to `next`.
+  await page.goto(`${server.url}/sign-in?next=${encodeURIComponent(path)}`);
+  const form = page.getByLabel('E-mail');
+  await Promise.race([form.waitFor().catch(() => undefined), page.waitForURL((url) => url.pathname === path).catch(() => undefined)]);
+  if (new URL(page.url()).pathname === path) return;
+  await form.fill(email);
   await page.getByLabel('Password').fill(PASSWORD);
   await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((url) => url.pathname === path);
 }
 
 describe('intake', () => {
   it('measures three blocks offline with the keyboard alone, then syncs each exactly once', async () => {
     const page = await browser.newPage();
-    await signIn(page, coordinator.email, `/guilds/${guildId}/swaps/${swapId}/intake`);
+    await openAs(page, coordinator.email, `/guilds/${guildId}/swaps/${swapId}/intake`);
     await page.getByRole('heading', { name: 'Intake: Lantern Nine-Patch' }).waitFor();
     await page.getByText('All synced').waitFor();
     expect(await seriousViolations(page)).toEqual([]);
@@ -142,7 +148,7 @@ describe('intake', () => {
 
   it('online: takes a block in at once, and refuses an unknown code with the reason, keeping what was typed', async () => {
     const page = await browser.newPage();
-    await page.goto(`${server.url}/guilds/${guildId}/swaps/${swapId}/intake`);
+    await openAs(page, coordinator.email, `/guilds/${guildId}/swaps/${swapId}/intake`);
     const code = page.getByLabel('Short code from the label');
     const pack: IntakePackDto = (await coordinator.agent.get(`/api/swaps/${swapId}/intake`).expect(200)).body;
     const block = pack.blocks[12]!;
@@ -162,6 +168,32 @@ describe('intake', () => {
     await page.getByText('No block in this swap has the code ZZZZ-ZZZZ', { exact: false }).waitFor();
     await page.close();
   });
+
+  it('opens again without a network (service worker) and keeps taking blocks in', async () => {
+    const page = await browser.newPage();
+    await openAs(page, coordinator.email, `/guilds/${guildId}/swaps/${swapId}/intake`);
+    await page.getByText('All synced').waitFor();
+    await page.waitForFunction(() => navigator.serviceWorker.controller !== null);
+    await browser.setOffline(true);
+    await page.reload();
+    await page.getByRole('heading', { name: 'Intake: Lantern Nine-Patch' }).waitFor();
+    const pack: IntakePackDto = (await coordinator.agent.get(`/api/swaps/${swapId}/intake`).expect(200)).body;
+    const block = pack.blocks[21]!;
+    await page.getByLabel('Short code from the label').fill(block.shortCode);
+    await page.keyboard.press('Enter');
+    await page.getByLabel('Width').waitFor();
+    await page.keyboard.type('9 1/4');
+    await page.keyboard.press('Tab');
+    await page.keyboard.type('9 1/2');
+    await page.keyboard.press('Enter');
+    await page.getByTestId('verdict').getByText('Runs short').waitFor();
+    await page.getByText('Waiting to sync: 1').waitFor();
+    await browser.setOffline(false);
+    await page.getByText('All synced').waitFor({ timeout: 20_000 });
+    const stored = await coordinator.agent.get(`/api/blocks/${block.id}/measurements`).expect(200);
+    expect(stored.body.map((m: { verdict: string }) => m.verdict)).toEqual(['short']);
+    await page.close();
+  });
 });
 
 describe('label sheets', () => {
@@ -169,6 +201,7 @@ describe('label sheets', () => {
 
   it('puts 25 labels on two A4 sheets of 21, each 63.5 × 38.1 mm', async () => {
     const page = await browser.newPage();
+    await openAs(page, coordinator.email, `/guilds/${guildId}/swaps/${swapId}/labels`);
     await page.goto(`${server.url}/guilds/${guildId}/swaps/${swapId}/labels?maker=all&sheet=a4-21`);
     await page.getByRole('heading', { name: 'Labels: Lantern Nine-Patch' }).waitFor();
     await expect.poll(() => page.getByTestId('label').count()).toBe(25);
@@ -198,6 +231,7 @@ describe('label sheets', () => {
 
   it('puts the same 25 labels on one US Letter sheet of 30, each 2⅝ × 1 in', async () => {
     const page = await browser.newPage();
+    await openAs(page, coordinator.email, `/guilds/${guildId}/swaps/${swapId}/labels`);
     await page.goto(`${server.url}/guilds/${guildId}/swaps/${swapId}/labels?maker=all&sheet=letter-30`);
     await expect.poll(() => page.getByTestId('label').count()).toBe(25);
     expect(await page.getByTestId('label-sheet').count()).toBe(1);
@@ -217,6 +251,32 @@ describe('label sheets', () => {
     await expect.poll(() => page.getByTestId('label').count()).toBe(25);
     expect(await page.getByTestId('label-sheet').count()).toBe(2);
     expect(await page.getByTestId('label-sheet').first().getByTestId('label').count()).toBe(19);
+    await page.close();
+  });
+});
+
+describe('signing out', () => {
+  it('deletes the kept API answers and swap data from the device', async () => {
+    const page = await browser.newPage();
+    await openAs(page, coordinator.email, `/guilds/${guildId}/swaps/${swapId}/intake`);
+    await page.getByText('All synced').waitFor();
+    await page.waitForFunction(() => navigator.serviceWorker.controller !== null);
+    const kept = () =>
+      page.evaluate(async () => {
+        const api = await (await caches.open('blockpost-api-v1')).keys();
+        const packs = await new Promise<number>((resolve) => {
+          const open = indexedDB.open('blockpost-intake');
+          open.onsuccess = () => {
+            const request = open.result.transaction('packs').objectStore('packs').count();
+            request.onsuccess = () => resolve(request.result);
+          };
+        });
+        return { api: api.map((r) => new URL(r.url).pathname).sort(), packs };
+      });
+    expect(await kept()).toEqual({ api: ['/api/guilds/' + guildId, '/api/me', `/api/swaps/${swapId}/intake`].sort(), packs: 1 });
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL('**/sign-in');
+    await expect.poll(kept).toEqual({ api: [], packs: 0 });
     await page.close();
   });
 });

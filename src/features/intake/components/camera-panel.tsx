@@ -8,7 +8,7 @@ export function CameraPanel({ onCode }: { onCode: (text: string) => void }) {
   useEffect(preloadDecoder, []);
   const on = status !== 'off';
   return (
-    <section aria-label="Camera" className="rounded-card border border-walnut/15 bg-card p-4">
+    <section aria-label="Camera" className="rounded-card border border-walnut/15 bg-card px-4 py-3">
       <div className="flex flex-wrap items-center justify-between gap-3">
         <p className="font-semibold">
           {status === 'on' ? 'Hold a label’s QR code in view.' : status === 'starting' ? 'Starting the camera…' : 'Scan labels with the camera'}
@@ -27,7 +27,7 @@ export function CameraPanel({ onCode }: { onCode: (text: string) => void }) {
         muted
         playsInline
         aria-label="Camera view"
-        className={on ? 'mt-3 aspect-video w-full rounded-lg bg-walnut object-cover' : 'hidden'}
+        className={on ? 'mt-3 aspect-video max-h-56 w-full rounded-lg bg-walnut object-cover' : 'hidden'}
       />
       {status === 'on' && (
         <p className="mt-1 text-base text-walnut-soft">

@@ -70,6 +70,12 @@ function Station({ pack, userId, units }: { pack: IntakePack; userId: number; un
             onCode={station.submitCode}
             onTyping={station.clearError}
           />
+          <CameraPanel
+            onCode={(text) => {
+              if (station.current && pack.blocks.find((b) => b.id === station.current!.id)?.reference === text) return;
+              void station.submitCode(text);
+            }}
+          />
           {station.current && (
             <MeasuringCard
               key={station.current.id}
@@ -96,12 +102,6 @@ function Station({ pack, userId, units }: { pack: IntakePack; userId: number; un
         </div>
         <div className="space-y-4">
           <SyncStatus queue={queue} online={online} keptAt={pack.savedAt} fromDevice={pack.fromDevice} />
-          <CameraPanel
-            onCode={(text) => {
-              if (station.current && pack.blocks.find((b) => b.id === station.current!.id)?.reference === text) return;
-              void station.submitCode(text);
-            }}
-          />
           <RecentBlocks results={station.results.slice(1)} measured={measuredCount} total={pack.blocks.length} />
         </div>
       </div>
