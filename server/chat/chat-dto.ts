@@ -3,7 +3,7 @@ import { type ChatMessage, Photo, User } from '../db/models';
 
 export const authorInclude = [{ model: User, as: 'author', attributes: ['id', 'displayName'] }];
 
-function photoDto(photo: Photo): ChatPhotoDto {
+export function photoDto(photo: Photo): ChatPhotoDto {
   return { id: photo.id, url: `/api/photos/${photo.id}`, thumbnailUrl: `/api/photos/${photo.id}?size=thumb`, width: photo.width, height: photo.height };
 }
 

@@ -45,7 +45,7 @@ export function chatRouter(deps: AppDeps) {
     validate({ body: postMessageSchema }),
     async (req, res) => {
       const access = res.locals.roomAccess as RoomAccess;
-      res.status(201).json(await chat.postMessage(deps, access, currentUser(req).id, { body: req.body.body, files: receivedFiles(req) }));
+      res.status(201).json(await chat.postMessage(deps, access, currentUser(req), { body: req.body.body, files: receivedFiles(req) }));
     },
   );
 

@@ -8,7 +8,7 @@ import { storePhotos } from '../uploads/photo-store';
 import { deletePhotos } from '../uploads/photo-store';
 import type { IncomingPhotoFile } from '../uploads/photo-pipeline';
 import type { AppDeps } from '../deps';
-import { authorInclude, messageDto, messageDtos } from './chat-dto';
+import { authorInclude, messageDto, messageDtos, photoDto } from './chat-dto';
 import { authorizeRoom, type RoomAccess } from './chat.policy';
 
 type ChatDeps = Pick<AppDeps, 'events' | 'sequelize' | 'config'>;
@@ -45,9 +45,10 @@ export async function history(roomId: number, query: HistoryQuery): Promise<Chat
 export async function postMessage(
   deps: ChatDeps,
   access: RoomAccess,
-  authorId: number,
+  author: { id: number; displayName: string },
   input: { body: string; files?: readonly IncomingPhotoFile[] },
 ): Promise<ChatMessageDto> {
+  const authorId = author.id;
   const files = input.files ?? [];
   if (!access.canPost) throw new ForbiddenError('Your role in this guild does not allow posting here.');
   if (!input.body && files.length === 0) throw new ValidationError('Write a message or add a photo first.', { body: 'Write a message or add a photo first.' });
@@ -67,12 +68,22 @@ export async function postMessage(
       throw new RateLimitedError(Math.max(1, Math.ceil((freeAt - Date.now()) / 1000)));
     }
     const created = await ChatMessage.create({ roomId: room.id, authorId, body: input.body, deletedById: null }, { transaction });
-    if (files.length) {
-      await storePhotos(deps, { files, guildId: room.guildId, uploadedBy: authorId, owner: { chatMessageId: created.id }, transaction });
-    }
-    return created;
+    const photos = files.length
+      ? await storePhotos(deps, { files, guildId: room.guildId, uploadedBy: authorId, owner: { chatMessageId: created.id }, transaction })
+      : [];
+    return { created, photos };
   });
-  const dto = await messageDto(message);
+  // Built from what was just written: a new message needs no second read.
+  const dto: ChatMessageDto = {
+    id: message.created.id,
+    roomId: room.id,
+    author: { id: authorId, displayName: author.displayName },
+    body: message.created.body,
+    photos: message.photos.map(photoDto),
+    createdAt: message.created.createdAt.toISOString(),
+    editedAt: null,
+    removed: null,
+  };
   deps.events.emit('chat.posted', { guildId: room.guildId, roomId: room.id, actorId: authorId, message: dto });
   return dto;
 }

@@ -60,7 +60,7 @@ export const chatLive: LivePart = {
 
     handle(socket, logger, 'message:send', sendMessageSchema, async ({ roomId, body }) => {
       const roomAccess = await access({ roomId });
-      return postMessage(deps, roomAccess, user.userId, { body });
+      return postMessage(deps, roomAccess, { id: user.userId, displayName: user.displayName }, { body });
     });
 
     handle(socket, logger, 'typing:start', chatRoomRefSchema, async ({ roomId }) => {

@@ -8,6 +8,8 @@ import type { LiveServer } from './live-types';
 import { activitiesById, recordActivities, type SwapEvent } from './board-activity';
 import { boardRoom } from './rooms';
 
+const FOREIGN_KEY_VIOLATION = '23503';
+
 // Changes to the swap as a whole (its state, a redistribution) touch every row.
 const WHOLE_BOARD = new Set(['swap.created', 'swap.updated', 'swap.transitioned', 'distribution.confirmed']);
 
@@ -65,22 +67,26 @@ export class BoardFanout {
   }
 
   private async publish(swapId: number, batch: SwapEvent[]) {
-    const swap = await Swap.findByPk(swapId);
-    if (!swap) return; // deleted since: nobody's board shows it any more
     const { sequelize } = this.deps;
-    const { version, activityIds, roster } = await sequelize.transaction(async (transaction) => {
+    const result = await sequelize.transaction(async (transaction) => {
       const [row] = await sequelize.query<{ version: string }>(
         `INSERT INTO swap_versions (swap_id, version) VALUES ($swapId, 1)
          ON CONFLICT (swap_id) DO UPDATE SET version = swap_versions.version + 1 RETURNING version`,
         { bind: { swapId }, type: QueryTypes.SELECT, transaction },
-      );
+      ).catch((error: { parent?: { code?: string } }) => {
+        if (error.parent?.code === FOREIGN_KEY_VIOLATION) return [];
+        throw error;
+      });
+      if (!row) return null; // the swap was deleted since: nobody's board shows it any more
+      const swap = await Swap.findByPk(swapId, { transaction });
+      if (!swap) return null;
       const ids = await recordActivities(batch, transaction);
-      await swap.reload();
       // Read while the counter row is locked, so the next number cannot carry an older roster.
-      return { version: Number(row!.version), activityIds: ids, roster: await getRoster(swap, { withAddresses: false }) };
+      return { swap, version: Number(row.version), activityIds: ids, roster: await getRoster(swap, { withAddresses: false }) };
     });
-    const change: BoardChange = { swapId, version, activities: await activitiesById(activityIds), patch: patchFor(roster, batch) };
-    this.io.to(boardRoom(swap.guildId, swapId)).emit('board:changed', change);
+    if (!result) return;
+    const change: BoardChange = { swapId, version: result.version, activities: await activitiesById(result.activityIds), patch: patchFor(result.roster, batch) };
+    this.io.to(boardRoom(result.swap.guildId, swapId)).emit('board:changed', change);
   }
 }
 
