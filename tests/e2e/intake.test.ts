@@ -52,6 +52,15 @@ afterAll(async () => {
   await server?.close();
 });
 
+/** Collects the page's Content-Security-Policy refusals: the app must work under its own CSP. */
+function cspRefusals(page: Page): string[] {
+  const refusals: string[] = [];
+  page.on('console', (m) => {
+    if (m.type() === 'error' && /Content.Security.Policy|Refused to/i.test(m.text())) refusals.push(m.text());
+  });
+  return refusals;
+}
+
 /** Opens a page as the coordinator, signing in on the way when the browser is not signed in yet. */
 async function openAs(page: Page, email: string, path: string) {
   // The sign-in page sends a signed-in visitor straight on to `next`.
@@ -68,6 +77,7 @@ async function openAs(page: Page, email: string, path: string) {
 describe('intake', () => {
   it('measures three blocks offline with the keyboard alone, then syncs each exactly once', async () => {
     const page = await browser.newPage();
+    const refusals = cspRefusals(page);
     await openAs(page, coordinator.email, `/guilds/${guildId}/swaps/${swapId}/intake`);
     await page.getByRole('heading', { name: 'Intake: Lantern Nine-Patch' }).waitFor();
     await page.getByText('All synced').waitFor();
@@ -143,6 +153,7 @@ describe('intake', () => {
     await page.getByText('All synced').waitFor();
     const roster = await coordinator.agent.get(`/api/swaps/${swapId}/roster`).expect(200);
     expect(roster.body.totals).toMatchObject({ received: 3, measured: 3 });
+    expect(refusals).toEqual([]);
     await page.close();
   });
 
@@ -201,6 +212,7 @@ describe('label sheets', () => {
 
   it('puts 25 labels on two A4 sheets of 21, each 63.5 × 38.1 mm', async () => {
     const page = await browser.newPage();
+    const refusals = cspRefusals(page);
     await openAs(page, coordinator.email, `/guilds/${guildId}/swaps/${swapId}/labels`);
     await page.goto(`${server.url}/guilds/${guildId}/swaps/${swapId}/labels?maker=all&sheet=a4-21`);
     await page.getByRole('heading', { name: 'Labels: Lantern Nine-Patch' }).waitFor();
@@ -226,6 +238,7 @@ describe('label sheets', () => {
 
     const pdf = await page.pdf({ preferCSSPageSize: true, printBackground: true });
     expect(pdf.toString('latin1').match(/\/Type\s*\/Page\b/g)).toHaveLength(2);
+    expect(refusals).toEqual([]);
     await page.close();
   });
 
