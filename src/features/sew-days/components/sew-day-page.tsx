@@ -12,6 +12,7 @@ import { useCancelSewDay } from '../api/cancel-sew-day';
 import { RsvpPicker } from './rsvp-picker';
 import { SewDayCautions } from './sew-day-cautions';
 import { SewDayWhen } from './sew-day-when';
+import { SwapBoards } from './swap-boards';
 
 interface SewDayPageProps {
   /** The chat of the sew day, composed in by the app (features do not import each other). */
@@ -90,6 +91,7 @@ export function SewDayPage({ renderChat }: SewDayPageProps) {
       </Card>
 
       <SewDayCautions />
+      <SwapBoards guildId={guildId} />
       {s.chatRoomId && renderChat?.(s.chatRoomId)}
     </div>
   );

@@ -6,6 +6,7 @@ import { paths } from '@/lib/paths';
 import { useSewDays } from '../api/get-sew-days';
 import type { SewDayWhen } from '../api/sew-day-keys';
 import { SewDayWhen as When } from './sew-day-when';
+import { SwapBoards } from './swap-boards';
 
 const tabClass = (active: boolean) =>
   `inline-flex min-h-11 items-center rounded-lg px-4 font-semibold ${active ? 'bg-indigo text-white' : 'text-indigo hover:bg-linen-deep'}`;
@@ -73,6 +74,7 @@ export function SewDaysPage() {
           </ul>
         </>
       )}
+      <SwapBoards guildId={guildId} />
     </div>
   );
 }
