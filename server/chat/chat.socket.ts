@@ -4,6 +4,7 @@ import type { ChatJoined } from '@shared/live-events';
 import { AppError } from '../http/errors';
 import { chatRoom } from '../live/rooms';
 import { handle } from '../live/socket-handler';
+import { assertSessionLive } from '../live/live-auth';
 import type { LiveContext, LivePart } from '../live/live.startup';
 import type { LiveSocket } from '../live/live-types';
 import { authorizeRoom } from './chat.policy';
@@ -31,6 +32,7 @@ export const chatLive: LivePart = {
     const lastTyping = new Map<number, number>();
 
     const access = async ({ roomId }: ChatRoomRef) => {
+      await assertSessionLive(socket);
       try {
         return await authorizeRoom(user.userId, roomId);
       } catch (error) {

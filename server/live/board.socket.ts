@@ -6,6 +6,7 @@ import type { LivePart } from './live.startup';
 import { BoardFanout, boardVersion } from './board-fanout';
 import type { SwapEvent } from './board-activity';
 import { handle } from './socket-handler';
+import { assertSessionLive } from './live-auth';
 import { boardRoom } from './rooms';
 
 /** Live swap boards: committed swap events fan out to the swap's room; viewers join with their membership checked. */
@@ -25,6 +26,7 @@ export function boardLive(): LivePart {
       const joined = new Map<number, string>();
 
       handle(socket, logger, 'board:join', boardRefSchema, async ({ swapId }): Promise<BoardJoined> => {
+        await assertSessionLive(socket);
         const access = await canReadSwap(user.userId, swapId).catch((error: unknown) => {
           if (error instanceof AppError) logger.warn({ userId: user.userId, swapId, code: error.code }, 'socket join refused');
           throw error;

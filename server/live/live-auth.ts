@@ -2,7 +2,8 @@ import type { IncomingMessage, ServerResponse } from 'node:http';
 import type { RequestHandler } from 'express';
 import type { BuiltApp } from '../app';
 import type { AppDeps } from '../deps';
-import type { LiveServer } from './live-types';
+import { UnauthorizedError } from '../http/errors';
+import type { LiveServer, LiveSocket } from './live-types';
 
 type EngineRequest = IncomingMessage & { _query?: Record<string, string>; user?: Express.User };
 type EngineMiddleware = (req: EngineRequest, res: ServerResponse, next: (err?: unknown) => void) => void;
@@ -51,4 +52,27 @@ export function attachLiveAuth(io: LiveServer, deps: AppDeps, built: BuiltApp) {
     socket.data.user = { userId: user.id, displayName: user.displayName };
     next();
   });
+}
+
+type SessionRequest = EngineRequest & {
+  sessionID?: string;
+  sessionStore?: { get(sid: string, cb: (err: unknown, session?: { passport?: { user?: unknown } } | null) => void): void };
+};
+
+/**
+ * Checks that the session the socket was opened with still belongs to its user (not signed out,
+ * not expired). Run before anything that acts as the user; a socket that fails is closed, and the
+ * browser reconnects with whatever session it has now.
+ */
+export async function assertSessionLive(socket: LiveSocket): Promise<void> {
+  const req = socket.request as SessionRequest;
+  const { sessionID, sessionStore } = req;
+  const session = sessionID && sessionStore
+    ? await new Promise<{ passport?: { user?: unknown } } | null>((resolve, reject) =>
+        sessionStore.get(sessionID, (err, s) => (err ? reject(err) : resolve(s ?? null))),
+      )
+    : null;
+  if (session?.passport?.user === socket.data.user.userId) return;
+  setTimeout(() => socket.disconnect(true), 50); // after the acknowledgement has gone out
+  throw new UnauthorizedError('Your session has ended. Please sign in again.');
 }

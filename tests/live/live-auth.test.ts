@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { RunningServer } from '../../server/index';
-import { connect, connected, register, type ClientSocket } from './live-helpers';
-import { startNode } from './live-helpers';
+import { connect, connected, register, request, startNode, type ClientSocket } from './live-helpers';
+import type { SewDayDetailDto } from '../../shared/schemas/sewdays';
 
 let node: RunningServer;
 const sockets: ClientSocket[] = [];
@@ -55,5 +55,25 @@ describe('socket authentication', () => {
     sockets.push(polling);
     await connected(polling);
     expect(polling.connected).toBe(true);
+  });
+
+  it('stops acting for someone who signed out since the socket opened', async () => {
+    const person = await register(node.url, 'Olive Officer');
+    const guild = (await person.api<{ id: number }>('POST', '/guilds', { name: 'Signed-out Circle' })).body;
+    const year = new Date().getUTCFullYear() + 1;
+    const sewDay = (await person.api<SewDayDetailDto>('POST', `/guilds/${guild.id}/sew-days`, {
+      title: 'Cutting morning', startsAt: `${year}-02-06T09:00`, endsAt: `${year}-02-06T12:00`, place: 'Annex',
+    })).body;
+    const socket = connect(node.url, person);
+    sockets.push(socket);
+    await connected(socket);
+    expect(await request(socket, 'chat:join', { roomId: sewDay.chatRoomId })).toMatchObject({ data: { viewers: expect.any(Array) } });
+
+    expect((await person.api('POST', '/auth/logout')).status).toBe(204);
+    const closed = new Promise<string>((resolve) => socket.once('disconnect', resolve));
+    expect(await request(socket, 'message:send', { roomId: sewDay.chatRoomId, body: 'still me?' })).toEqual({
+      error: { code: 'unauthenticated', message: 'Your session has ended. Please sign in again.' },
+    });
+    expect(await closed).toBe('io server disconnect');
   });
 });
