@@ -31,7 +31,7 @@ export const mailCategoryInfo: Record<MailCategory, { label: string; description
     description: 'When the swap is shared out: how many blocks you will get and from how many makers.',
   },
   'coordinator-digest': {
-    label: 'Weekly digest for coordinators',
+    label: 'Weekly digests for coordinators',
     description: 'Each Monday, what changed that week in the swaps of guilds you coordinate.',
   },
 };

@@ -160,7 +160,8 @@ function MessageDetails({ guildId, message }: { guildId: number; message: MailMe
         {detail.isPending && <Loading label="Loading the e-mail…" />}
         {detail.isError && <QueryError error={detail.error} what="the e-mail" />}
         {detail.data && (
-          <pre className="max-h-96 overflow-auto whitespace-pre-wrap break-words rounded-lg border border-walnut/15 bg-card p-4 font-body text-base">
+          // Focusable, so the scrolling text can be read by keyboard too.
+          <pre tabIndex={0} aria-label={`Text of the e-mail to ${message.recipient.email}`} className="max-h-96 overflow-auto whitespace-pre-wrap break-words rounded-lg border border-walnut/15 bg-card p-4 font-body text-base">
             {detail.data.text}
           </pre>
         )}
