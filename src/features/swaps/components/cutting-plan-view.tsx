@@ -17,7 +17,7 @@ export function CuttingPlanView({ plan, showYardage = true }: { plan: CuttingPla
   }
   return (
     <div className="space-y-6">
-      <div className="overflow-x-auto">
+      <div className="relative overflow-x-auto">
         <table className="w-full min-w-[22rem] border-collapse">
           <caption className="mb-2 text-left font-semibold">
             Cut list for {plan.blocks} block{plan.blocks === 1 ? '' : 's'} (cut sizes, seam allowance included)

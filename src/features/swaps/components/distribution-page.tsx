@@ -73,7 +73,7 @@ function Planner({ swap }: { swap: SwapDto }) {
                 {data.shortfall.map((s) => `${s.displayName} would miss ${s.missing}`).join('; ')}. With so few makers nobody else has blocks to send them.
               </Alert>
             )}
-            <div className="overflow-x-auto">
+            <div className="relative overflow-x-auto">
               <table className="w-full min-w-[28rem] border-collapse text-left">
                 <caption className="sr-only">Proposed transfers; counts can be changed</caption>
                 <thead>

@@ -45,7 +45,7 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
         )}
         {block.handIn && (
           <p>
-            Handed in {block.handIn.how === 'post' ? 'by post' : 'in person'}
+            Handed in {block.handIn.how === 'post' ? 'by post' : 'at a meeting'}
             {block.handIn.note && ` — ${block.handIn.note}`}
           </p>
         )}

@@ -47,7 +47,7 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
         <span className="font-semibold">Block {block.sequence}</span>
         <BlockStateText state={block.state} />
         {block.verdict ? <VerdictBadge verdict={block.verdict} trimmed={block.trimmed} /> : <NoVerdict />}
-        {block.handIn && <span className="text-walnut-soft">{block.handIn.how === 'post' ? 'Posted' : 'Handed in in person'}{block.handIn.note && `: ${block.handIn.note}`}</span>}
+        {block.handIn && <span className="text-walnut-soft">{block.handIn.how === 'post' ? 'Posted' : 'Handed in at a meeting'}{block.handIn.note && `: ${block.handIn.note}`}</span>}
       </div>
       {problem && <div className="mt-2"><Alert tone="error">{problem}</Alert></div>}
       {block.photos.length > 0 && <div className="mt-3"><PhotoGallery photos={block.photos} subject={`Block ${block.sequence} by ${maker}`} /></div>}

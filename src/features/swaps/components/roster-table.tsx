@@ -82,6 +82,8 @@ const columns = helper.columns([
 ]);
 
 const sortMark = { asc: ' ▲', desc: ' ▼' } as const;
+// The member's name stays in view while the numbers scroll sideways on a phone.
+const STICKY = 'sticky left-0 z-[1] bg-card';
 
 /** The roster: sortable by every column, searchable by name, filtered by progress, in pages; each row opens its blocks. */
 export function RosterTable({ swap, rows }: { swap: SwapDto; rows: RosterRowDto[] }) {
@@ -124,7 +126,7 @@ export function RosterTable({ swap, rows }: { swap: SwapDto; rows: RosterRowDto[
         <p role="status" className="text-walnut-soft">{shown} of {rows.length} members</p>
       </div>
 
-      <div className="overflow-x-auto">
+      <div className="relative overflow-x-auto">
         <table className="w-full min-w-[48rem] border-collapse text-left">
           <caption className="sr-only">Roster of members, their block counts and verdicts. Column headers sort.</caption>
           <thead>
@@ -133,7 +135,7 @@ export function RosterTable({ swap, rows }: { swap: SwapDto; rows: RosterRowDto[
                 {group.headers.map((header) => {
                   const sorted = header.column.getIsSorted();
                   return (
-                    <th key={header.id} scope="col" className="py-2 pr-3" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}>
+                    <th key={header.id} scope="col" className={`py-2 pr-3 ${header.column.id === 'displayName' ? STICKY : ''}`} aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}>
                       <button type="button" className="min-h-11 text-left font-semibold text-indigo-deep" onClick={header.column.getToggleSortingHandler()}>
                         <table.FlexRender header={header} />
                         {sorted && <span aria-hidden="true">{sortMark[sorted]}</span>}
@@ -152,7 +154,7 @@ export function RosterTable({ swap, rows }: { swap: SwapDto; rows: RosterRowDto[
                 <Fragment key={row.id}>
                   <tr className="border-b border-walnut/10 align-top">
                     {row.getAllCells().map((cell) => (
-                      <td key={cell.id} className="py-3 pr-3">
+                      <td key={cell.id} className={`py-3 pr-3 ${cell.column.id === 'displayName' ? STICKY : ''}`}>
                         <table.FlexRender cell={cell} />
                       </td>
                     ))}
@@ -165,7 +167,10 @@ export function RosterTable({ swap, rows }: { swap: SwapDto; rows: RosterRowDto[
                   {expanded && (
                     <tr className="border-b border-walnut/10 bg-linen/60">
                       <td colSpan={columns.length + 1} className="p-3">
-                        <RosterRowDetail swap={swap} row={row.original} />
+                        {/* Kept in view on narrow screens, where the table itself scrolls sideways. */}
+                        <div className="sticky left-0 max-w-[calc(100vw-5.5rem)] sm:max-w-none">
+                          <RosterRowDetail swap={swap} row={row.original} />
+                        </div>
                       </td>
                     </tr>
                   )}

@@ -12,7 +12,7 @@ const tone: Record<Verdict, string> = {
 export function VerdictBadge({ verdict, trimmed, source, className = '' }: { verdict: Verdict; trimmed?: boolean; source?: 'ruler' | 'maker' | 'photo'; className?: string }) {
   const v = VERDICT_LABELS[verdict];
   return (
-    <span className={`inline-flex items-center gap-1.5 rounded-full px-3 py-0.5 font-semibold ring-1 ${tone[verdict]} ${className}`}>
+    <span className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded-full px-3 py-0.5 font-semibold ring-1 ${tone[verdict]} ${className}`}>
       <span aria-hidden="true">{v.glyph}</span>
       {v.label}
       {verdict === 'trim' && trimmed && <span className="font-normal">(trimmed)</span>}
