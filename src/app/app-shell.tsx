@@ -3,6 +3,7 @@ import { Link, NavLink, Outlet, useLocation, useNavigate } from 'react-router';
 import { useMe } from '@/features/auth/api/get-me';
 import { useLogout } from '@/features/auth/api/auth-mutations';
 import { paths } from '@/lib/paths';
+import { closeSocket } from '@/lib/socket';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
   `inline-flex min-h-11 items-center rounded-lg px-3 font-semibold ${isActive ? 'bg-indigo text-white' : 'text-indigo hover:bg-linen-deep'}`;
@@ -59,7 +60,14 @@ export function AppShell() {
                 <button
                   type="button"
                   className="inline-flex min-h-11 items-center rounded-lg px-3 font-semibold text-madder-deep hover:bg-linen-deep"
-                  onClick={() => logout.mutate(undefined, { onSuccess: () => navigate(paths.signIn) })}
+                  onClick={() =>
+                    logout.mutate(undefined, {
+                      onSuccess: () => {
+                        closeSocket(); // the live connection belonged to the session that just ended
+                        navigate(paths.signIn);
+                      },
+                    })
+                  }
                 >
                   Sign out
                 </button>
