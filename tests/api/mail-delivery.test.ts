@@ -1,8 +1,12 @@
 /**
  * The delivery machinery against real PostgreSQL (pg-boss) and the maildev started by the test run:
- * one message per idempotency key, delivery once across restarts and across two workers, and
- * failures recorded with their reason after the retries.
+ * one message per idempotency key, delivery once across restarts, across two workers and across two
+ * server processes, and failures recorded with their reason after the retries.
  */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { signedInUser } from '../helpers/factories';
@@ -146,6 +150,70 @@ describe('two workers on one database', () => {
     expect(results.reduce((s, r) => s + r.queued, 0)).toBe(1);
     expect(results.reduce((s, r) => s + r.existing, 0)).toBe(3);
     expect(await MailMessage.count({ where: { idempotencyKey: `test:race:${user.id}` } })).toBe(1);
+  });
+});
+
+/** A second node: the real server in its own process, with JOBS=true, on the same database. */
+async function startNode(): Promise<{ child: ChildProcess; stop(): Promise<void> }> {
+  const code = `const { startServer } = await import('./server/index.ts');
+    const { loadConfig } = await import('./server/config.ts');
+    const running = await startServer(loadConfig(process.env));
+    console.log('READY ' + running.url);
+    process.on('SIGTERM', () => running.close().then(() => process.exit(0)));`;
+  const child = spawn(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', code], {
+    env: {
+      ...process.env, NODE_ENV: 'test', DATABASE_URL: app.databaseUrl, SESSION_SECRET: 'test-secret-test-secret', SMTP_URL: inject('smtpUrl'),
+      PORT: '0', JOBS: 'true', JOBS_POLL_SECONDS: '0.5', LOG_LEVEL: 'silent', SERVE_CLIENT: 'false', PUBLIC_URL: 'http://127.0.0.1:3000',
+      UPLOAD_DIR: mkdtempSync(join(tmpdir(), 'blockpost-node-')),
+    },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  let output = '';
+  await new Promise<void>((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error(`second node did not start: ${output}`)), 30_000);
+    child.stdout!.on('data', (d) => {
+      output += String(d);
+      if (output.includes('READY ')) {
+        clearTimeout(timer);
+        resolve();
+      }
+    });
+    child.stderr!.on('data', (d) => (output += String(d)));
+    child.once('exit', (code) => reject(new Error(`second node exited with ${code}: ${output}`)));
+  });
+  return {
+    child,
+    stop: () =>
+      new Promise<void>((resolve) => {
+        if (child.exitCode !== null) return resolve();
+        child.once('exit', () => resolve());
+        child.kill('SIGTERM');
+      }),
+  };
+}
+
+describe('two server processes', () => {
+  it('a second node started with JOBS=true delivers, and with both working each message goes once', async () => {
+    const node = await startNode();
+    try {
+      const producer = await jobs({ workers: false });
+      const first = await Promise.all(Array.from({ length: 4 }, () => signedInUser(app)));
+      await recordAndQueue(app.deps.pool, producer.boss, first.map((u) => record(u, `test:node:${u.id}`)));
+      // Only the other process has workers, so these arrive through it.
+      for (const u of first) await waitForMail(u.email, undefined, 20_000);
+
+      await jobs();
+      const second = await Promise.all(Array.from({ length: 8 }, () => signedInUser(app)));
+      const records = second.map((u) => record(u, `test:both:${u.id}`));
+      await recordAndQueue(app.deps.pool, producer.boss, records);
+      const rows = await MailMessage.findAll({ where: { idempotencyKey: records.map((r) => r.key) } });
+      for (const row of rows) await producer.boss.send(queues.send, { messageId: row.id }, { singletonKey: `${row.idempotencyKey}:again` });
+      for (const u of second) await waitForMail(u.email, undefined, 20_000);
+      await pause(2000);
+      for (const u of [...first, ...second]) expect(await mailTo(u.email), u.email).toHaveLength(1);
+    } finally {
+      await node.stop();
+    }
   });
 });
 
