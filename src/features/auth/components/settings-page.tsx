@@ -1,7 +1,9 @@
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import { Link } from 'react-router';
 import { profileUpdateSchema, type ProfileUpdateInput } from '@shared/schemas/auth';
+import { paths } from '@/lib/paths';
 import { Card } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/fields';
@@ -18,6 +20,14 @@ export function SettingsPage() {
     <div className="space-y-6">
       <PageHeader title="Settings" lead="How Blockpost shows sizes to you, and what your guild sees." />
       <ProfileForm defaults={{ displayName: me.data.user.displayName, units: me.data.user.units }} />
+      <Card title="E-mail">
+        <p>Choose which messages Blockpost sends you: announcements, reminders, receipts and more.</p>
+        <p className="mt-3">
+          <Link className="font-semibold text-indigo underline" to={paths.mailPreferences}>
+            Your e-mail choices
+          </Link>
+        </p>
+      </Card>
     </div>
   );
 }
