@@ -159,7 +159,9 @@ describe('intake', () => {
 
   it('online: takes a block in at once, and refuses an unknown code with the reason, keeping what was typed', async () => {
     const page = await browser.newPage();
-    await openAs(page, coordinator.email, `/guilds/${guildId}/swaps/${swapId}/intake`);
+    await openAs(page, coordinator.email, `/guilds/${guildId}/swaps/${swapId}`);
+    await page.getByRole('navigation', { name: 'Swap sections' }).getByRole('link', { name: 'Intake' }).click();
+    await page.getByRole('heading', { name: 'Intake: Lantern Nine-Patch' }).waitFor();
     const code = page.getByLabel('Short code from the label');
     const pack: IntakePackDto = (await coordinator.agent.get(`/api/swaps/${swapId}/intake`).expect(200)).body;
     const block = pack.blocks[12]!;

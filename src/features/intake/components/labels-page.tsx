@@ -45,7 +45,7 @@ export function LabelsPage() {
     <div className={`min-h-screen ${outlines ? 'labels-outlines' : ''}`}>
       <header className="border-b border-walnut/15 bg-card print:hidden">
         <div className="mx-auto max-w-6xl px-4 py-4">
-          <Link to={`${paths.guild(guildId)}/swaps/${swapId}`} className="font-semibold text-indigo underline underline-offset-4">
+          <Link to={paths.swap(guildId, swapId)} className="font-semibold text-indigo underline underline-offset-4">
             ← Back to the swap
           </Link>
           <h1 className="mt-2 text-3xl font-bold text-indigo-deep">Labels{labels.data ? `: ${labels.data.swap.title}` : ''}</h1>

@@ -32,6 +32,12 @@ export function SwapLayout() {
             <NavLink to={paths.swapReturn(guildId, swapId)} className={tabClass}>Return of blocks</NavLink>
           )}
           <NavLink to={paths.swapSheet(guildId, swapId)} className={tabClass}>Swap sheet</NavLink>
+          {(s.myPledge > 0 || s.canManage) && ['signup', 'sewing', 'collecting'].includes(s.state) && (
+            <NavLink to={paths.swapLabels(guildId, swapId)} className={tabClass}>Labels</NavLink>
+          )}
+          {s.canManage && ['sewing', 'collecting', 'sorting'].includes(s.state) && (
+            <NavLink to={paths.swapIntake(guildId, swapId)} className={tabClass}>Intake</NavLink>
+          )}
           {s.canManage && s.state !== 'complete' && s.state !== 'cancelled' && (
             <NavLink to={paths.editSwap(guildId, swapId)} className={tabClass}>Edit</NavLink>
           )}
