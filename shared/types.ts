@@ -15,7 +15,7 @@ export interface MembershipDto {
 }
 
 export interface MeDto {
-  user: UserDto;
+  user: UserDto & { mailingAddress: string | null };
   memberships: MembershipDto[];
 }
 

@@ -34,7 +34,8 @@ export async function getMe(userId: number): Promise<MeDto | null> {
     order: [['createdAt', 'ASC']],
   });
   return {
-    user: toSessionUser(user),
+    // The mailing address is private: it goes to its owner here, and to coordinators of swaps they join.
+    user: { ...toSessionUser(user), mailingAddress: user.mailingAddress ?? null },
     memberships: memberships.map((m) => ({ guildId: m.guildId, guildName: m.guild!.name, role: m.role })),
   };
 }

@@ -116,6 +116,17 @@ describe('password reset', () => {
   });
 });
 
+describe('profile', () => {
+  it('updates the name, units and private mailing address, and refuses unknown fields', async () => {
+    const { agent } = await signedInUser(app);
+    const res = await agent.patch('/api/me').send({ displayName: 'Maud Ellery', units: 'mm', mailingAddress: '9 Tansy Court' }).expect(200);
+    expect(res.body.user).toMatchObject({ displayName: 'Maud Ellery', units: 'mm', mailingAddress: '9 Tansy Court' });
+    const bad = await agent.patch('/api/me').send({ units: 'cubits', isAdmin: true }).expect(400);
+    expect(Object.keys(bad.body.error.fields)).toEqual(expect.arrayContaining(['units']));
+    expect((await agent.get('/api/me')).body.user.units).toBe('mm');
+  });
+});
+
 describe('health', () => {
   it('reports the database up', async () => {
     const res = await app.agent().get('/api/health').expect(200);

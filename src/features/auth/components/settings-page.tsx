@@ -6,7 +6,7 @@ import { profileUpdateSchema, type ProfileUpdateInput } from '@shared/schemas/au
 import { paths } from '@/lib/paths';
 import { Card } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
-import { SelectField, TextField } from '@/components/ui/fields';
+import { SelectField, TextArea, TextField } from '@/components/ui/fields';
 import { Alert } from '@/components/ui/alert';
 import { Loading, PageHeader } from '@/components/ui/page';
 import { applyServerErrors } from '@/components/ui/form-errors';
@@ -19,7 +19,7 @@ export function SettingsPage() {
   return (
     <div className="space-y-6">
       <PageHeader title="Settings" lead="How Blockpost shows sizes to you, and what your guild sees." />
-      <ProfileForm defaults={{ displayName: me.data.user.displayName, units: me.data.user.units }} />
+      <ProfileForm defaults={{ displayName: me.data.user.displayName, units: me.data.user.units, mailingAddress: me.data.user.mailingAddress ?? '' }} />
       <Card title="E-mail">
         <p>Choose which messages Blockpost sends you: announcements, reminders, receipts and more.</p>
         <p className="mt-3">
@@ -55,6 +55,13 @@ function ProfileForm({ defaults }: { defaults: ProfileUpdateInput }) {
           options={[{ value: 'in', label: 'Inches and fractions (8½″)' }, { value: 'mm', label: 'Millimetres (215.9 mm)' }]}
           error={formState.errors.units?.message}
           {...register('units')}
+        />
+        <TextArea
+          label="Mailing address for posted blocks"
+          hint="Only the coordinators of swaps you join see it, so blocks can come back to you by post."
+          autoComplete="street-address"
+          error={formState.errors.mailingAddress?.message}
+          {...register('mailingAddress')}
         />
         <div>
           <Button type="submit" pending={update.isPending} pendingLabel="Saving…">Save</Button>
