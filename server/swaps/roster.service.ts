@@ -1,12 +1,12 @@
 /**
- * The roster: every member's progress and each of their blocks, built from three queries (sign-ups
- * with names, blocks, photos) whatever the size of the swap.
+ * The roster: every member's progress and each of their blocks, built from three queries run side by
+ * side (sign-ups with names, blocks, photos) whatever the size of the swap.
  */
 import { QueryTypes } from 'sequelize';
 import type { BlockState } from '@shared/schemas/swaps';
 import type { RosterBlockDto, RosterCounts, RosterDto, RosterRowDto, VerdictName } from '@shared/swap-types';
 import { Swap } from '../db/models';
-import { photosByBlock } from '../blocks/photo-refs';
+import { photosBySwap } from '../blocks/photo-refs';
 
 const ORDER: readonly BlockState[] = ['pledged', 'sewn', 'handed_in', 'received', 'measured', 'returned'];
 const reached = (state: BlockState, step: BlockState) => ORDER.indexOf(state) >= ORDER.indexOf(step);
@@ -54,7 +54,7 @@ export interface RosterData extends RosterDto {
 /** Rows for every member with an active sign-up, sorted by name; addresses only when `withAddresses`. */
 export async function buildRoster(swap: Swap, opts: { withAddresses: boolean }): Promise<RosterData> {
   const sequelize = Swap.sequelize!;
-  const [signups, blocks] = await Promise.all([
+  const [signups, blocks, photos] = await Promise.all([
     sequelize.query<SignupRow>(
       `SELECT s.user_id, u.display_name, u.email, s.blocks, u.mailing_address
          FROM signups s JOIN users u ON u.id = s.user_id
@@ -67,8 +67,8 @@ export async function buildRoster(swap: Swap, opts: { withAddresses: boolean }):
          FROM blocks WHERE swap_id = $swapId ORDER BY maker_id, sequence`,
       { bind: { swapId: swap.id }, type: QueryTypes.SELECT },
     ),
+    photosBySwap(sequelize, swap.id),
   ]);
-  const photos = await photosByBlock(sequelize, blocks.map((b) => b.id));
 
   const byMaker = new Map<number, BlockRow[]>();
   for (const b of blocks) byMaker.set(b.maker_id, [...(byMaker.get(b.maker_id) ?? []), b]);

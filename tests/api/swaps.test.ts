@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles } from '../helpers/factories';
-import { createSwap, move, myBlocks, swapBody, type Roles } from './swaps-support';
+import { createSwap, move, myBlocks, receiveAndMeasure, sewingSwap, swapBody, type Roles } from './swaps-support';
 
 let app: TestApp;
 let roles: Roles;
@@ -211,5 +211,36 @@ describe('sign-up', () => {
     const res = await roles.member.agent.delete(`/api/swaps/${swap.id}/signups/me`).expect(409);
     expect(res.body.error.message).toMatch(/closed/);
     expect(await myBlocks(roles.member.agent, swap.id)).toHaveLength(1);
+  });
+});
+
+describe('roster', () => {
+  /** SQL statements the app runs for one roster request. */
+  async function queriesFor(swapId: number) {
+    const options = app.deps.sequelize.options as { logging: unknown };
+    const before = options.logging;
+    let count = 0;
+    options.logging = () => void (count += 1);
+    try {
+      await roles.coordinator.agent.get(`/api/swaps/${swapId}/roster`).expect(200);
+    } finally {
+      options.logging = before;
+    }
+    return count;
+  }
+
+  it('costs the same number of queries for 2 makers or 8 (no query per member or block)', async () => {
+    const small = await sewingSwap(app, roles, { pledges: [1, 1] });
+    const large = await sewingSwap(app, roles, { pledges: [4, 4, 4, 4, 4, 4, 4, 4] });
+    await move(roles.coordinator.agent, large.swap.id, 'collecting');
+    for (const maker of large.makers.slice(0, 3)) {
+      for (const b of await myBlocks(maker.agent, large.swap.id)) await receiveAndMeasure(roles.coordinator.agent, b.id, { width: 9.5, height: 9.5 });
+    }
+    const roster = await roles.coordinator.agent.get(`/api/swaps/${large.swap.id}/roster`).expect(200);
+    expect(roster.body.rows).toHaveLength(8);
+    expect(roster.body.totals).toMatchObject({ pledged: 32, measured: 12, verdicts: { true: 12 } });
+    const [few, many] = [await queriesFor(small.swap.id), await queriesFor(large.swap.id)];
+    expect(few).toBeGreaterThan(2);
+    expect(many).toBe(few);
   });
 });

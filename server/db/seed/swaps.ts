@@ -10,7 +10,8 @@ import type { SwapState } from '@shared/schemas/swaps';
 import { Block, Measurement, Signup, Swap, SwapTransition, type User } from '../models';
 
 const DAY = 86_400_000;
-const daysFromNow = (d: number) => new Date(Date.now() + d * DAY);
+/** Midnight UTC `d` days from today: early evening in the demo guild's zone, a plausible deadline. */
+const daysFromNow = (d: number) => new Date(Math.floor(Date.now() / DAY) * DAY + Math.round(d * DAY));
 
 interface SwapSeed {
   title: string;

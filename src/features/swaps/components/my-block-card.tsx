@@ -50,6 +50,15 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
           </p>
         )}
         {block.recipient && <p>Goes to <span className="font-semibold">{block.recipient.displayName}</span>.</p>}
+        {block.state === 'measured' && !block.accepted && (
+          <p className="text-walnut-soft">
+            {block.verdict === 'trim'
+              ? 'It is a little big: once it is trimmed to size it counts for the return.'
+              : swap.distributionConfirmedAt
+                ? 'This block is not part of the return; the coordinator will talk to you about it.'
+                : 'This block does not count for the return as it is; the coordinator will talk to you about it.'}
+          </p>
+        )}
         {problem && <Alert tone="error">{problem}</Alert>}
 
         {block.photos.length > 0 && <PhotoGallery photos={block.photos} subject={`Block ${block.sequence} by ${block.maker.displayName}`} />}
