@@ -1,12 +1,14 @@
 import { useState } from 'react';
 import type { RosterBlockDto, RosterRowDto, SwapDto } from '@shared/swap-types';
-import { PhotoGallery } from '@/components/photos';
+import { useQueryClient } from '@tanstack/react-query';
+import { PhotoGallery, PhotoUploader, blockPhotosUrl } from '@/components/photos';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { ApiError } from '@/lib/api-client';
 import { formatInZone } from '@/lib/dates';
 import { useMeasurements } from '../api/get-measurements';
 import { useReceiveBlock } from '../api/receive-block';
+import { invalidateSwapData } from '../api/swap-keys';
 import { useTrimBlock } from '../api/trim-block';
 import { MeasureForm } from './measure-form';
 import { sizeText } from './lengths';
@@ -34,6 +36,7 @@ function History({ swap, blockId }: { swap: SwapDto; blockId: number }) {
 }
 
 function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block: RosterBlockDto }) {
+  const queryClient = useQueryClient();
   const receive = useReceiveBlock(swap.id);
   const trim = useTrimBlock(swap.id);
   const [panel, setPanel] = useState<'measure' | 'history' | null>(null);
@@ -79,6 +82,16 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
         </div>
       )}
       {panel === 'history' && <div className="mt-3"><History swap={swap} blockId={block.id} /></div>}
+      {swap.canManage && block.state !== 'returned' && (
+        <details className="mt-2">
+          <summary className="min-h-11 cursor-pointer py-2 font-semibold text-indigo">Add photos<span className="sr-only"> of block {block.sequence} of {maker}</span></summary>
+          <PhotoUploader
+            uploadUrl={blockPhotosUrl(block.id)}
+            label={`Photos of block ${block.sequence} by ${maker}`}
+            onUploaded={() => void invalidateSwapData(queryClient, swap.id)}
+          />
+        </details>
+      )}
     </li>
   );
 }
