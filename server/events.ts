@@ -24,6 +24,8 @@ export interface DomainEventMap {
   'block.measured': SwapRef &
     Actor & { blockId: number; makerId: number; measurementId: number; verdict: VerdictName; source: 'ruler' | 'maker' | 'photo' };
   'photo.added': SwapRef & Actor & { blockId: number; makerId: number; photoId: number };
+  /** A photo estimate of a block's size was saved; it never changes the block's ruler verdict. */
+  'block.estimated': SwapRef & Actor & { blockId: number; makerId: number; estimateId: number; photoId: number; verdict: VerdictName };
   'distribution.confirmed': SwapRef & Actor & { transfers: number };
   /** Sew days: scheduled, changed or cancelled by an officer; an RSVP given or changed. */
   'sewday.changed': { guildId: number; sewDayId: number; actorId: number; change: 'scheduled' | 'updated' | 'cancelled' };

@@ -17,6 +17,7 @@ import { notificationsRouter } from './notifications/notifications.routes';
 import { mailJobsFeature } from './jobs/startup';
 import { chatRouter } from './chat/chat.routes';
 import { boardRouter } from './live/board.routes';
+import { photoEstimatesRouter } from './photo-estimates/photo-estimates.routes';
 import { intakeRouter } from './intake/intake.routes';
 
 export type FeatureRouter = (deps: AppDeps) => Router;
@@ -35,6 +36,6 @@ export interface FeatureHandle {
 
 export type FeatureStartup = (ctx: FeatureContext) => Promise<FeatureHandle>;
 
-export const featureRouters: FeatureRouter[] = [sewDaysRouter, chatRouter, boardRouter, swapsRouter, blocksRouter, distributionRouter, photosRouter, notificationsRouter, intakeRouter];
+export const featureRouters: FeatureRouter[] = [sewDaysRouter, chatRouter, boardRouter, swapsRouter, blocksRouter, distributionRouter, photosRouter, notificationsRouter, intakeRouter, photoEstimatesRouter];
 
 export const featureStartups: FeatureStartup[] = [liveFeature, photoSweepFeature, mailJobsFeature];

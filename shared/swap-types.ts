@@ -2,6 +2,7 @@
 import type { BlockSpec } from './schemas/blocks';
 import type { BlockState, SwapMode, SwapState } from './schemas/swaps';
 import type { Role } from './schemas/guilds';
+import type { LatestPhotoEstimateDto } from './schemas/photo-estimates';
 
 export type VerdictName = 'true' | 'trim' | 'short' | 'skewed';
 export type MeasurementSource = 'ruler' | 'maker' | 'photo';
@@ -102,6 +103,8 @@ export interface BlockDto {
   times: { sewn: string | null; handedIn: string | null; received: string | null; measured: string | null; returned: string | null; trimmed: string | null };
   latest: { ruler: MeasurementDto | null; maker: MeasurementDto | null };
   photos: PhotoRefDto[];
+  /** the latest estimate from a photo, kept apart from the ruler verdict */
+  photoEstimate: LatestPhotoEstimateDto | null;
 }
 
 export interface RosterBlockDto {
@@ -113,6 +116,8 @@ export interface RosterBlockDto {
   recipientId: number | null;
   handIn: { how: 'in-person' | 'post'; note: string | null } | null;
   photos: PhotoRefDto[];
+  /** the latest estimate from a photo, kept apart from the ruler verdict */
+  photoEstimate: LatestPhotoEstimateDto | null;
 }
 
 export interface VerdictCounts {

@@ -3,6 +3,7 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import type { BlockDto, MeasurementDto } from '@shared/swap-types';
 import { Block, Measurement, type Swap, User } from '../db/models';
 import { photosByBlock } from './photo-refs';
+import { latestPhotoEstimates } from '../photo-estimates/estimate-dto';
 
 export function isAccepted(block: Pick<Block, 'verdict' | 'trimmed' | 'state'>): boolean {
   if (block.state !== 'measured' && block.state !== 'returned') return false;
@@ -59,6 +60,7 @@ export async function blockDtos(blocks: Block[], swap: Swap, transaction?: Trans
   const users = await User.findAll({ where: { id: userIds }, attributes: ['id', 'displayName'], transaction });
   const measurements = await latestMeasurements(ids, transaction);
   const photos = await photosByBlock(Block.sequelize!, ids, transaction);
+  const estimates = await latestPhotoEstimates(Block.sequelize!, ids, transaction);
   const names = new Map(users.map((u) => [u.id, u.displayName]));
   return blocks.map((b) => {
     const latest = measurements.get(b.id) ?? [];
@@ -91,6 +93,7 @@ export async function blockDtos(blocks: Block[], swap: Swap, transaction?: Trans
       },
       latest: { ruler: ruler ? measurementDto(ruler) : null, maker: maker ? measurementDto(maker) : null },
       photos: photos.get(b.id) ?? [],
+      photoEstimate: estimates.get(b.id) ?? null,
     };
   });
 }

@@ -1,12 +1,13 @@
 /**
- * The roster: every member's progress and each of their blocks, built from three queries run side by
- * side (sign-ups with names, blocks, photos) whatever the size of the swap.
+ * The roster: every member's progress and each of their blocks, built from four queries run side by
+ * side (sign-ups with names, blocks, photos, latest photo estimates) whatever the size of the swap.
  */
 import { QueryTypes } from 'sequelize';
 import type { BlockState } from '@shared/schemas/swaps';
 import type { RosterBlockDto, RosterCounts, RosterDto, RosterRowDto, VerdictName } from '@shared/swap-types';
 import { Swap } from '../db/models';
 import { photosBySwap } from '../blocks/photo-refs';
+import { latestPhotoEstimatesBySwap } from '../photo-estimates/estimate-dto';
 
 const ORDER: readonly BlockState[] = ['pledged', 'sewn', 'handed_in', 'received', 'measured', 'returned'];
 const reached = (state: BlockState, step: BlockState) => ORDER.indexOf(state) >= ORDER.indexOf(step);
@@ -54,7 +55,7 @@ export interface RosterData extends RosterDto {
 /** Rows for every member with an active sign-up, sorted by name; addresses only when `withAddresses`. */
 export async function buildRoster(swap: Swap, opts: { withAddresses: boolean }): Promise<RosterData> {
   const sequelize = Swap.sequelize!;
-  const [signups, blocks, photos] = await Promise.all([
+  const [signups, blocks, photos, estimates] = await Promise.all([
     sequelize.query<SignupRow>(
       `SELECT s.user_id, u.display_name, u.email, s.blocks, u.mailing_address
          FROM signups s JOIN users u ON u.id = s.user_id
@@ -68,6 +69,7 @@ export async function buildRoster(swap: Swap, opts: { withAddresses: boolean }):
       { bind: { swapId: swap.id }, type: QueryTypes.SELECT },
     ),
     photosBySwap(sequelize, swap.id),
+    latestPhotoEstimatesBySwap(sequelize, swap.id),
   ]);
 
   const byMaker = new Map<number, BlockRow[]>();
@@ -90,6 +92,8 @@ export async function buildRoster(swap: Swap, opts: { withAddresses: boolean }):
       recipientId: b.recipient_id,
       handIn: b.hand_in_how ? { how: b.hand_in_how, note: b.hand_in_note } : null,
       photos: photos.get(b.id) ?? [],
+      // Beside the ruler verdict, never in it: an estimate from a photo decides nothing.
+      photoEstimate: estimates.get(b.id) ?? null,
     }));
     return {
       userId: s.user_id,

@@ -18,12 +18,14 @@ import { Rsvp } from './rsvp';
 import { ChatRoom } from './chat-room';
 import { ChatMessage } from './chat-message';
 import { Activity } from './activity';
+import { PhotoEstimate } from './photo-estimate';
 
 export { User, Guild, Membership, Invitation, PasswordReset };
 export { Photo };
 export { Swap, SwapTransition, Signup, Block, Measurement, BlockRequest };
 export { MailMessage, MailPreference };
 export { SewDay, Rsvp, ChatRoom, ChatMessage, Activity };
+export { PhotoEstimate };
 
 let initialised: Sequelize | null = null;
 
@@ -65,6 +67,9 @@ export function initModels(sequelize: Sequelize) {
 
   Photo.initModel(sequelize);
   Photo.belongsTo(User, { foreignKey: 'uploadedById', as: 'uploadedBy' });
+
+  PhotoEstimate.initModel(sequelize);
+  PhotoEstimate.belongsTo(User, { foreignKey: 'measuredById', as: 'measuredBy' });
 
   for (const model of [SewDay, Rsvp, ChatRoom, ChatMessage, Activity]) model.initModel(sequelize);
   SewDay.belongsTo(Guild, { foreignKey: 'guildId', as: 'guild' });

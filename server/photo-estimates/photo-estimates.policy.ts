@@ -1,0 +1,23 @@
+/**
+ * Who may measure a block from its photo (deny by default): the block's maker for their own block,
+ * and the coordinators and admins of its guild for any block. The same people see the estimates'
+ * history; other members see only the latest estimate, on the roster, beside the ruler verdict.
+ */
+import { ForbiddenError } from '../http/errors';
+import { canReadBlock, type BlockAccess } from '../swaps/swaps.policy';
+
+async function makerOrOfficer(userId: number, blockId: number, refusal: string): Promise<BlockAccess> {
+  const access = await canReadBlock(userId, blockId);
+  if (!access.isMaker && !access.canManage) throw new ForbiddenError(refusal);
+  return access;
+}
+
+/** The maker, or a coordinator or admin of the block's guild. */
+export function canEstimateBlock(userId: number, blockId: number): Promise<BlockAccess> {
+  return makerOrOfficer(userId, blockId, 'Only the maker of this block or a coordinator can measure it from a photo.');
+}
+
+/** The same people may read the estimates with their marked corners. */
+export function canSeeEstimates(userId: number, blockId: number): Promise<BlockAccess> {
+  return makerOrOfficer(userId, blockId, 'Only the maker of this block and the guild’s coordinators see its photo estimates.');
+}
