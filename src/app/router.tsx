@@ -3,6 +3,7 @@ import { AppShell } from './app-shell';
 import { RedirectIfSignedIn, RequireSignedIn } from './guards';
 import { RouteError } from './route-error';
 import { paths } from '@/lib/paths';
+import { useMe } from '@/features/auth/api/get-me';
 
 /** The sew-day page with the sew day's chat composed in (features do not import each other). */
 async function sewDayWithChat() {
@@ -11,6 +12,12 @@ async function sewDayWithChat() {
     import('@/features/chat/components/chat-panel'),
   ]);
   return { Component: () => <SewDayPage renderChat={(roomId) => <ChatPanel roomId={roomId} title="Sew-day chat" />} /> };
+}
+
+/** The measuring view in the person's chosen units. */
+async function photoMeasureInUnits() {
+  const { PhotoMeasurePage } = await import('@/features/photo-measure/components/photo-measure-page');
+  return { Component: () => <PhotoMeasurePage units={useMe().data?.user.units ?? 'in'} /> };
 }
 
 export const routes: RouteObject[] = [
@@ -65,6 +72,7 @@ export const routes: RouteObject[] = [
               { path: 'swaps/:swapId/board', lazy: () => import('@/features/live-board/components/live-board-page').then((m) => ({ Component: m.LiveBoardPage })) },
               { path: 'swaps/:swapId/chat', lazy: () => import('@/features/chat/components/swap-chat-page').then((m) => ({ Component: m.SwapChatPage })) },
               { path: 'swaps/:swapId/intake', lazy: () => import('@/features/intake/components/intake-page').then((m) => ({ Component: m.IntakePage })) },
+              { path: 'swaps/:swapId/blocks/:blockId/photos/:photoId/measure', lazy: photoMeasureInUnits },
             ],
           },
         ],

@@ -25,6 +25,8 @@ export const paths = {
   swapChat: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/chat`,
   swapIntake: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/intake`,
   swapLabels: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/labels`,
+  photoMeasure: (guildId: number | string = ':guildId', swapId: number | string = ':swapId', blockId: number | string = ':blockId', photoId: number | string = ':photoId') =>
+    `/guilds/${guildId}/swaps/${swapId}/blocks/${blockId}/photos/${photoId}/measure`,
   settings: '/settings',
   mailPreferences: '/settings/email',
   unsubscribe: '/unsubscribe',

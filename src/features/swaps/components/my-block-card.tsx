@@ -1,11 +1,13 @@
 import { useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
+import { Link } from 'react-router';
 import type { BlockDto, SwapDto } from '@shared/swap-types';
 import { PhotoGallery, PhotoUploader, blockPhotosUrl } from '@/components/photos';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/fields';
 import { ApiError } from '@/lib/api-client';
+import { paths } from '@/lib/paths';
 import { useHandIn } from '../api/hand-in';
 import { useMarkSewn } from '../api/mark-sewn';
 import { invalidateSwapData } from '../api/swap-keys';
@@ -14,6 +16,8 @@ import { BlockStateText } from './state-badge';
 import { NoVerdict, VerdictBadge } from './verdict-badge';
 
 const BEFORE_RECEIVED = ['pledged', 'sewn', 'handed_in'];
+// Photo estimates are taken from sign-up until the return is confirmed.
+const ESTIMATING = ['signup', 'sewing', 'collecting', 'sorting'];
 
 /** One of the member's own blocks: its state and verdicts, and the steps the maker can take. */
 export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto }) {
@@ -43,6 +47,11 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
             <span>Your own measurement:</span> <VerdictBadge verdict={block.latest.maker.verdict} source="maker" />
           </p>
         )}
+        {block.photoEstimate && (
+          <p className="flex flex-wrap items-center gap-2">
+            <span>From your photo:</span> <VerdictBadge verdict={block.photoEstimate.verdict} source="photo" />
+          </p>
+        )}
         {block.handIn && (
           <p>
             Handed in {block.handIn.how === 'post' ? 'by post' : 'at a meeting'}
@@ -62,6 +71,15 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
         {problem && <Alert tone="error">{problem}</Alert>}
 
         {block.photos.length > 0 && <PhotoGallery photos={block.photos} subject={`Block ${block.sequence} by ${block.maker.displayName}`} />}
+        {block.photos.length > 0 && ESTIMATING.includes(swap.state) && !swap.distributionConfirmedAt && (
+          <p className="flex flex-wrap gap-x-4">
+            {block.photos.map((p, i) => (
+              <Link key={p.id} className="inline-flex min-h-11 items-center font-semibold text-indigo underline underline-offset-4" to={paths.photoMeasure(swap.guildId, swap.id, block.id, p.id)}>
+                <span aria-hidden="true">📷&nbsp;</span>Measure from {block.photos.length > 1 ? `photo ${i + 1}` : 'this photo'}
+              </Link>
+            ))}
+          </p>
+        )}
 
         {active && BEFORE_RECEIVED.includes(block.state) && (
           <div className="flex flex-wrap gap-2">

@@ -1,11 +1,13 @@
 import { useState } from 'react';
 import type { RosterBlockDto, RosterRowDto, SwapDto } from '@shared/swap-types';
 import { useQueryClient } from '@tanstack/react-query';
+import { Link } from 'react-router';
 import { PhotoGallery, PhotoUploader, blockPhotosUrl } from '@/components/photos';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { ApiError } from '@/lib/api-client';
 import { formatInZone } from '@/lib/dates';
+import { paths } from '@/lib/paths';
 import { useMeasurements } from '../api/get-measurements';
 import { useReceiveBlock } from '../api/receive-block';
 import { invalidateSwapData } from '../api/swap-keys';
@@ -50,10 +52,20 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
         <span className="font-semibold">Block {block.sequence}</span>
         <BlockStateText state={block.state} />
         {block.verdict ? <VerdictBadge verdict={block.verdict} trimmed={block.trimmed} /> : <NoVerdict />}
+        {block.photoEstimate && <VerdictBadge verdict={block.photoEstimate.verdict} source="photo" />}
         {block.handIn && <span className="text-walnut-soft">{block.handIn.how === 'post' ? 'Posted' : 'Handed in at a meeting'}{block.handIn.note && `: ${block.handIn.note}`}</span>}
       </div>
       {problem && <div className="mt-2"><Alert tone="error">{problem}</Alert></div>}
       {block.photos.length > 0 && <div className="mt-3"><PhotoGallery photos={block.photos} subject={`Block ${block.sequence} by ${maker}`} /></div>}
+      {block.photos.length > 0 && swap.canManage && ['signup', 'sewing', 'collecting', 'sorting'].includes(swap.state) && !swap.distributionConfirmedAt && (
+        <p className="mt-2 flex flex-wrap gap-x-4">
+          {block.photos.map((p, i) => (
+            <Link key={p.id} className="inline-flex min-h-11 items-center font-semibold text-indigo underline underline-offset-4" to={paths.photoMeasure(swap.guildId, swap.id, block.id, p.id)}>
+              <span aria-hidden="true">📷&nbsp;</span>Measure from {block.photos.length > 1 ? `photo ${i + 1}` : 'this photo'}<span className="sr-only"> (block {block.sequence} of {maker})</span>
+            </Link>
+          ))}
+        </p>
+      )}
       {swap.canManage && (
         <div className="mt-3 flex flex-wrap gap-2">
           {intake && RECEIVABLE.includes(block.state) && swap.state !== 'sorting' && (
