@@ -137,12 +137,14 @@ export function CornerCanvas({ src, alt, width, height, marks }: { src: string; 
           const mark = MARKS[i]!;
           const look = groupClass[mark.group];
           const chosen = marks.selected === i;
+          // The short name drawn beside the mark (R1 … B4) starts its spoken name too.
+          const short = `${mark.group === 'reference' ? 'R' : 'B'}${(i % 4) + 1}`;
           return (
             <g
               key={i}
               role="button"
               tabIndex={0}
-              aria-label={`${mark.label}, at ${Math.round(p[0])}, ${Math.round(p[1])}. Arrow keys move it; Shift moves 10 pixels.`}
+              aria-label={`${short}: ${mark.label}, at ${Math.round(p[0])}, ${Math.round(p[1])}. Arrow keys move it; Shift moves 10 pixels.`}
               aria-pressed={chosen}
               className="cursor-grab outline-none"
               onPointerDown={startDrag(i)}
@@ -154,8 +156,7 @@ export function CornerCanvas({ src, alt, width, height, marks }: { src: string; 
               {chosen && <circle cx={p[0]} cy={p[1]} r={r * 0.75} className="fill-none stroke-weld" strokeWidth={3} vectorEffect="non-scaling-stroke" />}
               <circle cx={p[0]} cy={p[1]} r={5 * scale} className={look.dot} strokeWidth={1.5} vectorEffect="non-scaling-stroke" />
               <text x={p[0] + 9 * scale} y={p[1] - 9 * scale} fontSize={14 * scale} fontWeight={700} className={`${look.text} pointer-events-none stroke-white`} strokeWidth={3} paintOrder="stroke" vectorEffect="non-scaling-stroke">
-                {mark.group === 'reference' ? 'R' : 'B'}
-                {(i % 4) + 1}
+                {short}
               </text>
             </g>
           );
