@@ -125,6 +125,9 @@ const cases: Record<string, Case> = {
   'POST /api/swaps/:swapId/distribution/confirm': { access: 'officer', path: () => `/api/swaps/${ids.swap}/distribution/confirm`, body: () => ({ transfers: [{ from: g.member.id, to: g.coordinator.id, count: 1 }] }) },
   'GET /api/blocks/:blockId/photos': { access: 'member', path: () => `/api/blocks/${ids.block}/photos` },
   'POST /api/blocks/:blockId/photos': { access: ['member', 'coordinator', 'admin'], path: () => `/api/blocks/${ids.block}/photos` },
+  // ids.block is the member's own block: its maker and the officers may measure it from a photo.
+  'GET /api/blocks/:blockId/photo-estimates': { access: ['member', 'coordinator', 'admin'], path: () => `/api/blocks/${ids.block}/photo-estimates` },
+  'POST /api/blocks/:blockId/photo-estimates': { access: ['member', 'coordinator', 'admin'], path: () => `/api/blocks/${ids.block}/photo-estimates`, body: () => ({}) },
   'GET /api/photos/:photoId': { access: 'member', path: () => `/api/photos/${ids.photo}?size=thumb` },
   'DELETE /api/photos/:photoId': { access: ['member', 'coordinator', 'admin'], path: () => `/api/photos/${ids.photoToDelete}` },
   'GET /api/me/mail-preferences': { access: 'user', path: () => '/api/me/mail-preferences' },
