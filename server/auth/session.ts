@@ -10,11 +10,13 @@ export function createSessionMiddleware(config: Config, pool: pg.Pool) {
   const PgStore = connectPgSimple(session);
   return session({
     name: SESSION_COOKIE,
-    store: new PgStore({ pool, tableName: 'session', pruneSessionInterval: config.NODE_ENV === 'test' ? false : 15 * 60 }),
+    // No touch: a rolling expiry would write the session row on every request (one UPDATE per page
+    // load and per API call); a session instead lasts 30 days from sign-in.
+    store: new PgStore({ pool, tableName: 'session', disableTouch: true, pruneSessionInterval: config.NODE_ENV === 'test' ? false : 15 * 60 }),
     secret: config.SESSION_SECRET,
     resave: false,
     saveUninitialized: false,
-    rolling: true,
+    rolling: false,
     cookie: {
       httpOnly: true,
       sameSite: 'lax',
