@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import supertest from 'supertest';
+import type supertest from 'supertest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles, signedInUser, uniqueEmail, PASSWORD } from '../helpers/factories';
 import { linkIn, waitForMail } from '../helpers/maildev';

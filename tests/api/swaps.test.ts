@@ -217,7 +217,7 @@ describe('sign-up', () => {
 describe('roster', () => {
   /** SQL statements the app runs for one roster request. */
   async function queriesFor(swapId: number) {
-    const options = app.deps.sequelize.options as { logging: unknown };
+    const options = (app.deps.sequelize as unknown as { options: { logging: unknown } }).options;
     const before = options.logging;
     let count = 0;
     options.logging = () => void (count += 1);
