@@ -13,11 +13,17 @@ import { seedDemoIfEmpty, DEMO_SIGN_INS } from '../../server/db/seed/demo';
 let server: RunningServer;
 let browser: BrowserContext;
 let guildId: number;
+let swapId: number;
+let sewDayId: number;
 
 beforeAll(async () => {
   server = await startE2eServer();
   const demo = await seedDemoIfEmpty(server.deps.sequelize, { ...server.deps.config, NODE_ENV: 'development' });
   guildId = demo!.guild.id;
+  const [swaps] = await server.deps.sequelize.query(`SELECT id FROM swaps WHERE state = 'collecting' LIMIT 1`);
+  const [days] = await server.deps.sequelize.query(`SELECT id FROM sew_days ORDER BY starts_at LIMIT 1`);
+  swapId = (swaps[0] as { id: number }).id;
+  sewDayId = (days[0] as { id: number }).id;
   browser = await launchBrowser();
 });
 afterAll(async () => {
@@ -49,7 +55,16 @@ async function signIn(page: Page, email: string) {
 }
 
 const signedOutPages = ['/', '/sign-in', '/register', '/forgot-password', '/reset-password?token=not-a-real-token-but-long-enough'];
-const memberPages = () => ['/guilds', `/guilds/${guildId}`, `/guilds/${guildId}/members`, '/planner', '/settings'];
+const memberPages = () => {
+  const swap = `/guilds/${guildId}/swaps/${swapId}`;
+  return ['/guilds', `/guilds/${guildId}`, `/guilds/${guildId}/about`, `/guilds/${guildId}/members`, '/planner', '/settings', '/settings/email',
+    swap, `${swap}/roster`, `${swap}/board`, `${swap}/chat`, `${swap}/sheet`, `/guilds/${guildId}/sew-days`, `/guilds/${guildId}/sew-days/${sewDayId}`];
+};
+const officerPages: Record<string, () => string[]> = {
+  'member@demo.test': () => [],
+  'coordinator@demo.test': () => [`/guilds/${guildId}/swaps/new`, `/guilds/${guildId}/swaps/${swapId}/return`, `/guilds/${guildId}/swaps/${swapId}/intake`, `/guilds/${guildId}/sew-days/new`],
+  'admin@demo.test': () => [`/guilds/${guildId}/mail`],
+};
 
 describe('signed out', () => {
   for (const path of signedOutPages) {
@@ -70,7 +85,7 @@ for (const who of ['member@demo.test', 'coordinator@demo.test', 'admin@demo.test
       await browser.clearCookies();
       await signIn(page, who);
       const problems: Record<string, unknown> = {};
-      for (const path of memberPages()) {
+      for (const path of [...memberPages(), ...officerPages[who]!()]) {
         const { violations, cspErrors } = await audit(page, path);
         if (violations.length || cspErrors.length) problems[path] = { violations, cspErrors };
       }

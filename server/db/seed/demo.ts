@@ -9,6 +9,7 @@ import { hashPassword } from '../../auth/passwords';
 import type { Role } from '@shared/schemas/guilds';
 import { seedDemoSwaps } from './swaps';
 import { seedDemoPhotos } from './photos';
+import { seedDemoSewDays } from './sew-days';
 
 export const DEMO_SIGN_INS = {
   password: 'blockpost-demo',
@@ -51,8 +52,8 @@ export async function seedDemoIfEmpty(sequelize: Sequelize, config: Pick<Config,
       users.set(person.email, user);
       await Membership.create({ guildId: guild.id, userId: user.id, role: person.role }, { transaction });
     }
-    // Demo swaps, photos and sew days are added by their features' seeders (see seed/index).
     const photographed = await seedDemoSwaps(guild.id, users, transaction);
+    await seedDemoSewDays(guild.id, users, transaction);
     return { guild, users, photographed };
   });
   // Photos go through the upload pipeline, which writes files and commits on its own.
