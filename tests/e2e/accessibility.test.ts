@@ -113,3 +113,33 @@ it('can be walked through by keyboard alone: sign in with Tab and Enter', async 
   await page.keyboard.press('Enter');
   await page.getByRole('heading', { name: 'Kestrel Hollow Quilters' }).waitFor();
 });
+
+it('lets a member sign up for a swap with the keyboard alone', async () => {
+  const [rows] = await server.deps.sequelize.query(
+    `SELECT s.id AS swap_id, u.email FROM swaps s JOIN memberships m ON m.guild_id = s.guild_id AND m.role = 'member' JOIN users u ON u.id = m.user_id
+      WHERE s.state = 'signup' AND NOT EXISTS (SELECT 1 FROM signups x WHERE x.swap_id = s.id AND x.user_id = u.id) ORDER BY u.id LIMIT 1`,
+  );
+  const { swap_id: signupSwap, email } = rows[0] as { swap_id: number; email: string };
+  const page = await browser.newPage();
+  await browser.clearCookies();
+  await page.goto(`${server.url}/sign-in`);
+  await page.getByLabel('E-mail').focus();
+  await page.keyboard.type(email);
+  await page.keyboard.press('Tab');
+  await page.keyboard.type(DEMO_SIGN_INS.password);
+  await page.keyboard.press('Enter');
+  await page.waitForURL('**/guilds');
+  await page.goto(`${server.url}/guilds/${guildId}/swaps/${signupSwap}`);
+  await page.getByLabel('Blocks I will make').waitFor();
+  // Tab from the top of the page until the pledge field has focus, as a keyboard user would.
+  let reached = false;
+  for (let i = 0; i < 120 && !reached; i++) {
+    await page.keyboard.press('Tab');
+    reached = await page.getByLabel('Blocks I will make').evaluate((el) => el === document.activeElement);
+  }
+  expect(reached).toBe(true);
+  await page.keyboard.press('Control+A');
+  await page.keyboard.type('4');
+  await page.keyboard.press('Enter');
+  await page.getByRole('heading', { name: 'Cutting plan for your 4 blocks' }).waitFor();
+});
