@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
-import { launchBrowser } from '../helpers/browser';
+import { launchBrowser, pageWithSession } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
 import type { RunningServer } from '../../server/index';
 import type { SewDayDetailDto } from '../../shared/schemas/sewdays';
@@ -10,11 +10,7 @@ let server: RunningServer;
 let memberBrowser: BrowserContext;
 let adminBrowser: BrowserContext;
 
-async function signedInPage(context: BrowserContext, person: Person): Promise<Page> {
-  const [name, value] = person.cookie.split('=') as [string, string];
-  await context.addCookies([{ name, value, url: server.url }]);
-  return context.newPage();
-}
+const signedInPage = (context: BrowserContext, person: Person): Promise<Page> => pageWithSession(context, person.cookie, server.url);
 
 beforeAll(async () => {
   server = await startE2eServer();

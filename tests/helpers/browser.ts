@@ -15,3 +15,10 @@ export async function launchBrowser(opts: { viewport?: { width: number; height: 
     args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
   });
 }
+
+/** A new page in `context` carrying a session cookie ("name=value") for `url`. */
+export async function pageWithSession(context: BrowserContext, cookie: string, url: string) {
+  const [name, value] = cookie.split('=') as [string, string];
+  await context.addCookies([{ name, value, url }]);
+  return context.newPage();
+}
