@@ -1,9 +1,8 @@
 import { useEffect, useRef } from 'react';
-import { Link, NavLink, Outlet, useLocation, useNavigate } from 'react-router';
+import { Link, NavLink, Outlet, useLocation } from 'react-router';
 import { useMe } from '@/features/auth/api/get-me';
 import { useLogout } from '@/features/auth/api/auth-mutations';
 import { paths } from '@/lib/paths';
-import { closeSocket } from '@/lib/socket';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
   `inline-flex min-h-11 items-center rounded-lg px-3 font-semibold ${isActive ? 'bg-indigo text-white' : 'text-indigo hover:bg-linen-deep'}`;
@@ -39,7 +38,6 @@ export function AppShell() {
   const me = useMe();
   const mainRef = useFocusMainOnNavigation();
   const logout = useLogout();
-  const navigate = useNavigate();
   const signedIn = Boolean(me.data);
   return (
     <div className="min-h-screen">
@@ -60,17 +58,16 @@ export function AppShell() {
                 <button
                   type="button"
                   className="inline-flex min-h-11 items-center rounded-lg px-3 font-semibold text-madder-deep hover:bg-linen-deep"
-                  onClick={() =>
-                    logout.mutate(undefined, {
-                      onSuccess: () => {
-                        closeSocket(); // the live connection belonged to the session that just ended
-                        navigate(paths.signIn);
-                      },
-                    })
-                  }
+                  disabled={logout.isPending}
+                  onClick={() => logout.mutate()}
                 >
                   Sign out
                 </button>
+                {logout.isError && (
+                  <p role="alert" className="w-full text-sm text-madder-deep">
+                    Could not sign out: {logout.error.message}
+                  </p>
+                )}
               </>
             ) : (
               <>

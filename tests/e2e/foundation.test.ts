@@ -61,6 +61,22 @@ it('registers, creates a guild, invites a member who accepts in another browser,
   expect(await row.getByRole('combobox').inputValue()).toBe('member');
 });
 
+it('signs out to the sign-in page, and the guild pages then ask to sign in again', async () => {
+  const page = await officer.newPage();
+  await page.goto(`${server.url}/guilds`);
+  await page.getByRole('link', { name: 'Fernbrook Patchwork Circle' }).click();
+  await page.getByRole('heading', { name: 'Fernbrook Patchwork Circle' }).waitFor();
+
+  await page.getByRole('button', { name: 'Sign out' }).click();
+  await page.waitForURL((url) => url.pathname === '/sign-in' && url.search === '');
+  await page.getByRole('link', { name: 'Sign in' }).waitFor(); // the header is the signed-out one
+
+  // Sign-out replaced the guild page in the history, so Back goes to the guild list, which is shut.
+  await page.goBack();
+  await page.waitForURL((url) => url.pathname === '/sign-in' && url.searchParams.get('next') === '/guilds');
+  expect(await page.getByText('Fernbrook Patchwork Circle').count()).toBe(0);
+});
+
 it('keeps what was typed when sign-in fails, and shows the reason beside the form', async () => {
   const page = await officer.newPage();
   await officer.clearCookies();

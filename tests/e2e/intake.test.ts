@@ -283,14 +283,18 @@ describe('signing out', () => {
           const open = indexedDB.open('blockpost-intake');
           open.onsuccess = () => {
             const request = open.result.transaction('packs').objectStore('packs').count();
-            request.onsuccess = () => resolve(request.result);
+            request.onsuccess = () => {
+              open.result.close(); // an open connection would hold up the sign-out's delete
+              resolve(request.result);
+            };
           };
         });
         return { api: api.map((r) => new URL(r.url).pathname).sort(), packs };
       });
     expect(await kept()).toEqual({ api: ['/api/guilds/' + guildId, '/api/me', `/api/swaps/${swapId}/intake`].sort(), packs: 1 });
     await page.getByRole('button', { name: 'Sign out' }).click();
-    await page.waitForURL('**/sign-in');
+    await page.waitForURL((url) => url.pathname === '/sign-in');
+    await page.getByRole('heading', { name: /sign in/i }).waitFor();
     await expect.poll(kept).toEqual({ api: [], packs: 0 });
     await page.close();
   });

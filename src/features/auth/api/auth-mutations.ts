@@ -2,6 +2,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { LoginInput, ProfileUpdateInput, RegisterInput, ResetInput, ResetRequestInput } from '@shared/schemas/auth';
 import type { MeDto } from '@shared/types';
 import { api } from '@/lib/api-client';
+import { paths } from '@/lib/paths';
+import { closeSocket } from '@/lib/socket';
 import { authKeys } from './auth-keys';
 
 export const login = (input: LoginInput) => api.post<MeDto>('/auth/login', input);
@@ -25,7 +27,19 @@ function useSessionChange<I>(fn: (input: I) => Promise<MeDto | void>) {
 
 export const useLogin = () => useSessionChange(login);
 export const useRegister = () => useSessionChange(register);
-export const useLogout = () => useSessionChange(() => logout());
+/**
+ * Signing out ends with a full page load of the sign-in page: nothing the last person saw stays in
+ * memory, and the page guards never see a half-cleared cache (which used to race them to a
+ * "sign in to come back here" redirect).
+ */
+export const useLogout = () =>
+  useMutation({
+    mutationFn: () => logout(),
+    onSuccess: () => {
+      closeSocket(); // the live connection belonged to the session that just ended
+      window.location.replace(paths.signIn);
+    },
+  });
 export const useRequestReset = () => useMutation({ mutationFn: requestReset });
 export const useResetPassword = () => useMutation({ mutationFn: resetPassword });
 
