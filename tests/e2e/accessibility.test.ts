@@ -106,6 +106,7 @@ it('can be walked through by keyboard alone: sign in with Tab and Enter', async 
   await page.keyboard.press('Enter');
   await page.waitForURL('**/guilds');
   await page.getByRole('heading', { name: 'Your guilds' }).waitFor();
+  await page.getByRole('link', { name: /^Kestrel Hollow Quilters/ }).waitFor(); // the list loads after the heading
   // Focus moved to the new page's content, so the next Tab reaches the first guild, not the header.
   expect(await page.evaluate(() => document.activeElement?.id)).toBe('main');
   await page.keyboard.press('Tab');
