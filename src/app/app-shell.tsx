@@ -2,6 +2,7 @@ import { useEffect, useRef } from 'react';
 import { Link, NavLink, Outlet, useLocation } from 'react-router';
 import { useMe } from '@/features/auth/api/get-me';
 import { useLogout } from '@/features/auth/api/auth-mutations';
+import { useQueuedIntakeSync } from '@/features/intake/offline/use-queued-intake-sync';
 import { paths } from '@/lib/paths';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
@@ -39,6 +40,7 @@ export function AppShell() {
   const mainRef = useFocusMainOnNavigation();
   const logout = useLogout();
   const signedIn = Boolean(me.data);
+  useQueuedIntakeSync(me.data?.user.id);
   return (
     <div className="min-h-screen">
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-10 focus:bg-card focus:p-3">

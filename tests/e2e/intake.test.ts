@@ -207,6 +207,34 @@ describe('intake', () => {
     expect(stored.body.map((m: { verdict: string }) => m.verdict)).toEqual(['short']);
     await page.close();
   });
+
+  it('sends what was measured offline from any page later, without opening the intake view again', async () => {
+    const page = await browser.newPage();
+    await openAs(page, coordinator.email, `/guilds/${guildId}/swaps/${swapId}/intake`);
+    await page.getByText('All synced').waitFor();
+    const pack: IntakePackDto = (await coordinator.agent.get(`/api/swaps/${swapId}/intake`).expect(200)).body;
+    const block = pack.blocks[23]!;
+    await browser.setOffline(true);
+    await page.getByLabel('Short code from the label').fill(block.shortCode);
+    await page.keyboard.press('Enter');
+    await page.getByLabel('Width').waitFor();
+    await page.keyboard.type('9 1/2');
+    await page.keyboard.press('Tab');
+    await page.keyboard.type('9 1/2');
+    await page.keyboard.press('Enter');
+    await page.getByText('Waiting to sync: 1').waitFor();
+    await page.close(); // the hall closes; the queue stays on the device
+
+    await browser.setOffline(false);
+    const later = await browser.newPage();
+    await later.goto(`${server.url}/guilds`);
+    await later.getByRole('heading', { name: 'Your guilds' }).waitFor();
+    await expect
+      .poll(async () => (await coordinator.agent.get(`/api/blocks/${block.id}/measurements`).expect(200)).body.map((m: { verdict: string }) => m.verdict), { timeout: 20_000 })
+      .toEqual(['true']);
+    expect((await coordinator.agent.get(`/api/blocks/${block.id}`).expect(200)).body).toMatchObject({ state: 'measured', verdict: 'true' });
+    await later.close();
+  });
 });
 
 describe('label sheets', () => {

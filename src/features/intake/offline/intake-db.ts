@@ -6,6 +6,7 @@ import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
 import type { IntakePackDto } from '@shared/schemas/intake';
 import type { VerdictName } from '@shared/swap-types';
 import type { MeasurementSend } from '../api/post-measurement';
+import { INTAKE_DB_NAME } from './db-name';
 
 export interface QueueItem {
   /** position in the queue, given by IndexedDB */
@@ -34,11 +35,10 @@ interface IntakeSchema extends DBSchema {
   queue: { key: number; value: QueueItem; indexes: { swap: number } };
 }
 
-export const DB_NAME = 'blockpost-intake';
 let opening: Promise<IDBPDatabase<IntakeSchema>> | null = null;
 
 export function intakeDb(): Promise<IDBPDatabase<IntakeSchema>> {
-  opening ??= openDB<IntakeSchema>(DB_NAME, 1, {
+  opening ??= openDB<IntakeSchema>(INTAKE_DB_NAME, 1, {
     upgrade(db) {
       db.createObjectStore('packs', { keyPath: 'swap.id' });
       db.createObjectStore('queue', { keyPath: 'seq', autoIncrement: true }).createIndex('swap', 'swapId');

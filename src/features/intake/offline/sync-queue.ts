@@ -131,21 +131,40 @@ export async function flushQueue(): Promise<void> {
   }
 }
 
-/** Starts syncing for this person: now, whenever the browser comes back online, and on retries. */
+let holders = 0;
+let stopListening: (() => void) | null = null;
+
+/**
+ * Starts syncing for this person: now, whenever the browser comes back online, and on retries.
+ * Both the app shell (so a queue left from a hall without Wi-Fi goes out from any page) and the
+ * intake view hold it; syncing stops when the last of them lets go.
+ */
 export function startSync(forUserId: number): () => void {
   userId = forUserId;
-  const online = () => {
-    failures = 0;
-    void flushQueue();
-  };
-  const offline = () => setState({ pause: 'offline', retryAt: null });
-  window.addEventListener('online', online);
-  window.addEventListener('offline', offline);
+  holders += 1;
+  if (!stopListening) {
+    const online = () => {
+      failures = 0;
+      void flushQueue();
+    };
+    const offline = () => setState({ pause: 'offline', retryAt: null });
+    window.addEventListener('online', online);
+    window.addEventListener('offline', offline);
+    stopListening = () => {
+      window.removeEventListener('online', online);
+      window.removeEventListener('offline', offline);
+      clearTimeout(timer);
+      stopListening = null;
+    };
+  }
   void flushQueue();
+  let released = false;
   return () => {
-    window.removeEventListener('online', online);
-    window.removeEventListener('offline', offline);
-    clearTimeout(timer);
+    if (released) return;
+    released = true;
+    holders -= 1;
+    if (holders > 0) return;
+    stopListening?.();
     userId = null;
   };
 }
