@@ -18,8 +18,10 @@ function pgTool(name: 'pg_dump' | 'pg_restore') {
   return join(ensurePostgresBinaries(), name);
 }
 
+/** Files anywhere under `dir` (photos live in subfolders), leaving out dotfiles such as .gitkeep. */
 function countFiles(dir: string) {
-  return existsSync(dir) ? readdirSync(dir).filter((f) => !f.startsWith('.')).length : 0;
+  if (!existsSync(dir)) return 0;
+  return readdirSync(dir, { recursive: true, withFileTypes: true }).filter((e) => e.isFile() && !e.name.startsWith('.')).length;
 }
 
 /** Writes `<target>/database.dump`, `<target>/uploads.tar` and `<target>/manifest.json`. */

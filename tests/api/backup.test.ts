@@ -1,4 +1,4 @@
-import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, expect, it } from 'vitest';
@@ -25,9 +25,11 @@ it('round-trips the database and the uploads through backup and restore', async 
   const kept = await signedInUser(app, { displayName: 'Kept Before Backup' });
   const uploadDir = app.deps.config.UPLOAD_DIR;
   writeFileSync(join(uploadDir, 'photo-kept.jpg'), 'pretend image bytes');
+  mkdirSync(join(uploadDir, 'photos'), { recursive: true }); // where the app keeps block photos
+  writeFileSync(join(uploadDir, 'photos', 'block-kept.jpg'), 'nested image bytes');
   const target = join(mkdtempSync(join(tmpdir(), 'blockpost-backup-')), 'snapshot');
 
-  expect(runScript('backup', target, uploadDir)).toMatch(/and 1 uploaded files/);
+  expect(runScript('backup', target, uploadDir)).toMatch(/and 2 uploaded files/);
 
   // Things change after the backup: a new account, a deleted file, a new file.
   const later = await signedInUser(app, { displayName: 'Added After Backup' });
@@ -41,8 +43,9 @@ it('round-trips the database and the uploads through backup and restore', async 
   const emails = rows.map((r: { email: string }) => r.email);
   expect(emails).toContain(kept.email);
   expect(emails).not.toContain(later.email);
-  expect(readdirSync(uploadDir).filter((f) => !f.startsWith('.'))).toEqual(['photo-kept.jpg']);
+  expect(readdirSync(uploadDir).filter((f) => !f.startsWith('.')).sort()).toEqual(['photo-kept.jpg', 'photos']);
   expect(readFileSync(join(uploadDir, 'photo-kept.jpg'), 'utf8')).toBe('pretend image bytes');
+  expect(readFileSync(join(uploadDir, 'photos', 'block-kept.jpg'), 'utf8')).toBe('nested image bytes');
 });
 
 it('refuses a folder that is not a backup', () => {
