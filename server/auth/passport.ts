@@ -1,5 +1,6 @@
 import passport from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
+import { QueryTypes } from 'sequelize';
 import { User } from '../db/models';
 import { decoyVerify, verifyPassword } from './passwords';
 
@@ -33,9 +34,13 @@ export function configurePassport() {
     }),
   );
   passport.serializeUser((user, done) => done(null, user.id));
+  // Runs on every signed-in request: a plain query, since a model instance would only be copied out.
   passport.deserializeUser((id: number, done) => {
-    User.findByPk(id, { attributes: ['id', 'email', 'displayName', 'units'] })
-      .then((user) => done(null, user ? toSessionUser(user) : false))
+    User.sequelize!.query<Express.User>(
+      'SELECT id, email, display_name AS "displayName", units FROM users WHERE id = $id',
+      { bind: { id }, type: QueryTypes.SELECT },
+    )
+      .then(([user]) => done(null, user ? { id: user.id, email: user.email, displayName: user.displayName, units: user.units } : false))
       .catch(done);
   });
   return passport;

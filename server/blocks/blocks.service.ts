@@ -14,8 +14,13 @@ type Deps = Pick<AppDeps, 'events'>;
 const ORDER: readonly BlockState[] = ['pledged', 'sewn', 'handed_in', 'received', 'measured', 'returned'];
 const before = (a: BlockState, b: BlockState) => ORDER.indexOf(a) < ORDER.indexOf(b);
 
+/**
+ * The block, locked for a change of its state, and its swap. NO KEY UPDATE, the lock an UPDATE takes
+ * anyway, still serialises changes to the block but lets rows that merely reference it (a measurement,
+ * an activity line, a photo) be inserted meanwhile.
+ */
 export async function lockedBlock(blockId: number, transaction: Transaction): Promise<{ block: Block; swap: Swap }> {
-  const block = await Block.findByPk(blockId, { transaction, lock: transaction.LOCK.UPDATE });
+  const block = await Block.findByPk(blockId, { transaction, lock: transaction.LOCK.NO_KEY_UPDATE });
   if (!block) throw new NotFoundError('That block does not exist.');
   const swap = await Swap.findByPk(block.swapId, { transaction });
   return { block, swap: swap! };

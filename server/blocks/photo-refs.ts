@@ -38,13 +38,13 @@ export async function photosByBlock(sequelize: Sequelize, blockIds: number[], tr
 }
 
 /** Photos of every block of a swap, in one query that needs no block ids first (for the roster). */
-export async function photosBySwap(sequelize: Sequelize, swapId: number): Promise<Map<number, PhotoRefDto[]>> {
+export async function photosBySwap(sequelize: Sequelize, swapId: number, transaction?: Transaction): Promise<Map<number, PhotoRefDto[]>> {
   const byBlock = new Map<number, PhotoRefDto[]>();
-  if (!(await hasPhotosTable(sequelize))) return byBlock;
+  if (!(await hasPhotosTable(sequelize, transaction))) return byBlock;
   const rows = await sequelize.query<{ id: number; block_id: number }>(
     `SELECT p.id, p.block_id FROM photos p JOIN blocks b ON b.id = p.block_id
       WHERE b.swap_id = $swapId ORDER BY p.created_at, p.id`,
-    { bind: { swapId }, type: QueryTypes.SELECT },
+    { bind: { swapId }, type: QueryTypes.SELECT, transaction },
   );
   for (const row of rows) byBlock.set(row.block_id, [...(byBlock.get(row.block_id) ?? []), photoRef(row.id)]);
   return byBlock;

@@ -81,8 +81,9 @@ export class BoardFanout {
       const swap = await Swap.findByPk(swapId, { transaction });
       if (!swap) return null;
       const ids = await recordActivities(batch, transaction);
-      // Read while the counter row is locked, so the next number cannot carry an older roster.
-      return { swap, version: Number(row.version), activityIds: ids, roster: await getRoster(swap, { withAddresses: false }) };
+      // Read while the counter row is locked, so the next number cannot carry an older roster; on the
+      // transaction's own connection, so a busy pool cannot leave the lock held while it waits.
+      return { swap, version: Number(row.version), activityIds: ids, roster: await getRoster(swap, { withAddresses: false, transaction }) };
     });
     if (!result) return;
     const change: BoardChange = { swapId, version: result.version, activities: await activitiesById(result.activityIds), patch: patchFor(result.roster, batch) };

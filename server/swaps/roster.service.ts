@@ -2,7 +2,7 @@
  * The roster: every member's progress and each of their blocks, built from four queries run side by
  * side (sign-ups with names, blocks, photos, latest photo estimates) whatever the size of the swap.
  */
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import type { BlockState } from '@shared/schemas/swaps';
 import type { RosterBlockDto, RosterCounts, RosterDto, RosterRowDto, VerdictName } from '@shared/swap-types';
 import { Swap } from '../db/models';
@@ -52,25 +52,33 @@ export interface RosterData extends RosterDto {
   rows: (RosterRowDto & { email: string })[];
 }
 
-/** Rows for every member with an active sign-up, sorted by name; addresses only when `withAddresses`. */
-export async function buildRoster(swap: Swap, opts: { withAddresses: boolean }): Promise<RosterData> {
+/**
+ * Rows for every member with an active sign-up, sorted by name; addresses only when `withAddresses`.
+ * Inside a transaction the queries run one after another on its connection: taking more connections
+ * from the pool while the transaction holds locks could starve the pool.
+ */
+export async function buildRoster(swap: Swap, opts: { withAddresses: boolean; transaction?: Transaction }): Promise<RosterData> {
   const sequelize = Swap.sequelize!;
-  const [signups, blocks, photos, estimates] = await Promise.all([
-    sequelize.query<SignupRow>(
+  const { transaction } = opts;
+  const readers = [
+    () => sequelize.query<SignupRow>(
       `SELECT s.user_id, u.display_name, u.email, s.blocks, u.mailing_address
          FROM signups s JOIN users u ON u.id = s.user_id
         WHERE s.swap_id = $swapId AND s.status = 'active'
         ORDER BY lower(u.display_name), u.id`,
-      { bind: { swapId: swap.id }, type: QueryTypes.SELECT },
+      { bind: { swapId: swap.id }, type: QueryTypes.SELECT, transaction },
     ),
-    sequelize.query<BlockRow>(
+    () => sequelize.query<BlockRow>(
       `SELECT id, maker_id, sequence, state, verdict, trimmed, recipient_id, hand_in_how, hand_in_note
          FROM blocks WHERE swap_id = $swapId ORDER BY maker_id, sequence`,
-      { bind: { swapId: swap.id }, type: QueryTypes.SELECT },
+      { bind: { swapId: swap.id }, type: QueryTypes.SELECT, transaction },
     ),
-    photosBySwap(sequelize, swap.id),
-    latestPhotoEstimatesBySwap(sequelize, swap.id),
-  ]);
+    () => photosBySwap(sequelize, swap.id, transaction),
+    () => latestPhotoEstimatesBySwap(sequelize, swap.id, transaction),
+  ] as const;
+  const [signups, blocks, photos, estimates] = transaction
+    ? [await readers[0](), await readers[1](), await readers[2](), await readers[3]()]
+    : await Promise.all([readers[0](), readers[1](), readers[2](), readers[3]()]);
 
   const byMaker = new Map<number, BlockRow[]>();
   for (const b of blocks) byMaker.set(b.maker_id, [...(byMaker.get(b.maker_id) ?? []), b]);
@@ -113,7 +121,7 @@ export async function buildRoster(swap: Swap, opts: { withAddresses: boolean }):
 }
 
 /** The roster as the API answers it: e-mail addresses stay out of it. */
-export async function getRoster(swap: Swap, opts: { withAddresses: boolean }): Promise<RosterDto> {
+export async function getRoster(swap: Swap, opts: { withAddresses: boolean; transaction?: Transaction }): Promise<RosterDto> {
   const data = await buildRoster(swap, opts);
   return { ...data, rows: data.rows.map(({ email: _email, ...row }) => row) };
 }
