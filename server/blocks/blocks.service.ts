@@ -8,6 +8,7 @@ import { ConflictError, ForbiddenError, NotFoundError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { blockDto, blockDtos } from './block-dto';
 import { idempotent, type Answer } from './idempotency';
+import { findBlockWithSwap } from './block-with-swap';
 
 type Deps = Pick<AppDeps, 'events'>;
 
@@ -15,15 +16,14 @@ const ORDER: readonly BlockState[] = ['pledged', 'sewn', 'handed_in', 'received'
 const before = (a: BlockState, b: BlockState) => ORDER.indexOf(a) < ORDER.indexOf(b);
 
 /**
- * The block, locked for a change of its state, and its swap. NO KEY UPDATE, the lock an UPDATE takes
+ * The block, locked for a change of its state, and its swap, in one query. NO KEY UPDATE, the lock an UPDATE takes
  * anyway, still serialises changes to the block but lets rows that merely reference it (a measurement,
  * an activity line, a photo) be inserted meanwhile.
  */
 export async function lockedBlock(blockId: number, transaction: Transaction): Promise<{ block: Block; swap: Swap }> {
-  const block = await Block.findByPk(blockId, { transaction, lock: transaction.LOCK.NO_KEY_UPDATE });
-  if (!block) throw new NotFoundError('That block does not exist.');
-  const swap = await Swap.findByPk(block.swapId, { transaction });
-  return { block, swap: swap! };
+  const found = await findBlockWithSwap(blockId, { transaction, lock: { level: transaction.LOCK.NO_KEY_UPDATE, of: Block } });
+  if (!found) throw new NotFoundError('That block does not exist.');
+  return found;
 }
 
 export function assertSwapIn(swap: Swap, states: readonly SwapState[], doing: string) {
@@ -112,7 +112,8 @@ export async function markTrimmed(deps: Deps, blockId: number, actorId: number):
 }
 
 export async function getBlock(block: Block): Promise<BlockDto> {
-  const swap = await Swap.findByPk(block.swapId);
+  // The policy loads the swap with the block; anyone else passes the block alone.
+  const swap = block.swap ?? (await Swap.findByPk(block.swapId));
   return blockDto(block, swap!);
 }
 

@@ -31,10 +31,16 @@ export function can(role: Role | null | undefined, action: GuildAction): boolean
   return (guildPermissions[action] as readonly Role[]).includes(role);
 }
 
+/** Checks an action against the caller's role in the guild (null: no active membership); throws 403 otherwise. */
+export function assertGuildRole(role: Role | null | undefined, action: GuildAction): Role {
+  if (!role) throw new ForbiddenError('You are not a member of this guild.');
+  if (!can(role, action)) throw new ForbiddenError();
+  return role;
+}
+
 /** Loads the caller's active membership and checks the action; throws 403 otherwise. */
 export async function authorizeGuild(userId: number, guildId: number, action: GuildAction): Promise<Membership> {
   const membership = await Membership.findOne({ where: { userId, guildId, status: 'active' } });
-  if (!membership) throw new ForbiddenError('You are not a member of this guild.');
-  if (!can(membership.role, action)) throw new ForbiddenError();
-  return membership;
+  assertGuildRole(membership?.role, action);
+  return membership!;
 }

@@ -3,9 +3,11 @@
  * members read their guilds' swaps and act on their own sign-up and blocks; coordinators and
  * admins manage the swap, take blocks in, measure them, plan the return and export.
  */
+import { literal } from 'sequelize';
 import type { Role } from '@shared/schemas/guilds';
-import { Block, Swap } from '../db/models';
-import { authorizeGuild, can } from '../guilds/guilds.policy';
+import { type Block, Swap } from '../db/models';
+import { findBlockWithSwap } from '../blocks/block-with-swap';
+import { assertGuildRole, can } from '../guilds/guilds.policy';
 import { ForbiddenError, NotFoundError } from '../http/errors';
 
 export interface SwapAccess {
@@ -19,26 +21,50 @@ export interface BlockAccess extends SwapAccess {
   isMaker: boolean;
 }
 
-async function loadSwap(swapId: number): Promise<Swap> {
-  const swap = await Swap.findByPk(swapId);
+/**
+ * The caller's role in the guild of the swap aliased `swapAlias`, read in the same query as the swap:
+ * memberships hold one row per guild and user, and the subquery gives null without an active one.
+ */
+function viewerRole(userId: number, swapAlias: string) {
+  const sequelize = Swap.sequelize!;
+  return literal(
+    `(SELECT m.role FROM memberships m WHERE m.guild_id = "${swapAlias}"."guild_id"
+       AND m.user_id = ${sequelize.escape(userId)} AND m.status = 'active')`,
+  );
+}
+
+/** Takes the role read by viewerRole off the swap, so the instance holds only its own columns. */
+function takeViewerRole(swap: Swap): Role | null {
+  const values = swap.dataValues as unknown as Record<string, unknown>;
+  const role = (values.viewerRole ?? null) as Role | null;
+  delete values.viewerRole;
+  return role;
+}
+
+async function loadSwap(userId: number, swapId: number): Promise<{ swap: Swap; role: Role | null }> {
+  const swap = await Swap.findByPk(swapId, { attributes: { include: [[viewerRole(userId, 'Swap'), 'viewerRole']] } });
   if (!swap) throw new NotFoundError('That swap does not exist.');
-  return swap;
+  return { swap, role: takeViewerRole(swap) };
+}
+
+/** Active members of the guild; drafts only for coordinators and admins. */
+function readAccess(swap: Swap, role: Role | null): SwapAccess {
+  const allowed = assertGuildRole(role, 'swaps:read');
+  const canManage = can(allowed, 'swaps:manage');
+  if (swap.state === 'draft' && !canManage) throw new NotFoundError('That swap does not exist.');
+  return { swap, role: allowed, canManage };
 }
 
 /** Any active member of the swap's guild; drafts are visible only to coordinators and admins. */
 export async function canReadSwap(userId: number, swapId: number): Promise<SwapAccess> {
-  const swap = await loadSwap(swapId);
-  const membership = await authorizeGuild(userId, swap.guildId, 'swaps:read');
-  const canManage = can(membership.role, 'swaps:manage');
-  if (swap.state === 'draft' && !canManage) throw new NotFoundError('That swap does not exist.');
-  return { swap, role: membership.role, canManage };
+  const { swap, role } = await loadSwap(userId, swapId);
+  return readAccess(swap, role);
 }
 
 /** Coordinators and admins of the swap's guild. */
 export async function canManageSwap(userId: number, swapId: number): Promise<SwapAccess> {
-  const swap = await loadSwap(swapId);
-  const membership = await authorizeGuild(userId, swap.guildId, 'swaps:manage');
-  return { swap, role: membership.role, canManage: true };
+  const { swap, role } = await loadSwap(userId, swapId);
+  return { swap, role: assertGuildRole(role, 'swaps:manage'), canManage: true };
 }
 
 /** Members of the guild may sign up for its swaps. */
@@ -48,17 +74,17 @@ export async function canJoinSwap(userId: number, swapId: number): Promise<SwapA
   return access;
 }
 
-async function loadBlock(blockId: number): Promise<Block> {
-  const block = await Block.findByPk(blockId);
-  if (!block) throw new NotFoundError('That block does not exist.');
-  return block;
+/** The block with its swap and the caller's role in the swap's guild, in one query. */
+async function loadBlock(userId: number, blockId: number): Promise<{ block: Block; swap: Swap; role: Role | null }> {
+  const found = await findBlockWithSwap(blockId, { swapAttributes: { include: [[viewerRole(userId, 'swap'), 'viewerRole']] } });
+  if (!found) throw new NotFoundError('That block does not exist.');
+  return { ...found, role: takeViewerRole(found.swap) };
 }
 
 /** The block's maker or an officer of its guild may read it. */
 export async function canReadBlock(userId: number, blockId: number): Promise<BlockAccess> {
-  const block = await loadBlock(blockId);
-  const access = await canReadSwap(userId, block.swapId);
-  return { ...access, block, isMaker: block.makerId === userId };
+  const { block, swap, role } = await loadBlock(userId, blockId);
+  return { ...readAccess(swap, role), block, isMaker: block.makerId === userId };
 }
 
 /** Sewn, handed in and the maker's own measurement: only the maker. */
@@ -70,7 +96,6 @@ export async function canActAsMaker(userId: number, blockId: number): Promise<Bl
 
 /** Received, ruler measurements and trimming: coordinators and admins. */
 export async function canManageBlock(userId: number, blockId: number): Promise<BlockAccess> {
-  const block = await loadBlock(blockId);
-  const access = await canManageSwap(userId, block.swapId);
-  return { ...access, block, isMaker: block.makerId === userId };
+  const { block, swap, role } = await loadBlock(userId, blockId);
+  return { swap, role: assertGuildRole(role, 'swaps:manage'), canManage: true, block, isMaker: block.makerId === userId };
 }
