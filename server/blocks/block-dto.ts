@@ -1,16 +1,22 @@
 /** Turns block and measurement rows into the API's answers, loading related rows in batches. */
 import { QueryTypes, type Transaction } from 'sequelize';
-import type { BlockDto, MeasurementDto } from '@shared/swap-types';
-import { Block, Measurement, type Swap, User } from '../db/models';
-import { photosByBlock } from './photo-refs';
-import { latestPhotoEstimates } from '../photo-estimates/estimate-dto';
+import type { BlockDto, MeasurementDto, PhotoRefDto } from '@shared/swap-types';
+import { Block, type Measurement, type Swap } from '../db/models';
+import { hasPhotosTable, photoRef } from './photo-refs';
+import { LATEST_ESTIMATES, NEWEST_ESTIMATE_FIRST, latestEstimateDtos, type LatestEstimateRow } from '../photo-estimates/estimate-dto';
 
 export function isAccepted(block: Pick<Block, 'verdict' | 'trimmed' | 'state'>): boolean {
   if (block.state !== 'measured' && block.state !== 'returned') return false;
   return block.verdict === 'true' || (block.verdict === 'trim' && block.trimmed);
 }
 
-export function measurementDto(m: Measurement): MeasurementDto {
+/** What a measurement answer is made of: a Measurement row, or the same fields read as JSON. */
+export type MeasurementFields = Pick<
+  Measurement,
+  'id' | 'blockId' | 'source' | 'width' | 'height' | 'diagonal1' | 'diagonal2' | 'verdict' | 'deviationWidth' | 'deviationHeight' | 'deviationDiagonal' | 'note' | 'createdAt'
+> & { measuredBy?: { id: number; displayName: string } | null };
+
+export function measurementDto(m: MeasurementFields): MeasurementDto {
   const diagonals: [number, number] | null = m.diagonal1 != null && m.diagonal2 != null ? [m.diagonal1, m.diagonal2] : null;
   return {
     id: m.id,
@@ -31,41 +37,70 @@ export function measurementDto(m: Measurement): MeasurementDto {
   };
 }
 
-/** The latest measurement of each source for each block, in one query. */
-async function latestMeasurements(blockIds: number[], transaction?: Transaction): Promise<Map<number, Measurement[]>> {
-  const byBlock = new Map<number, Measurement[]>();
-  if (blockIds.length === 0) return byBlock;
-  const ids = await Measurement.sequelize!.query<{ id: number }>(
-    `SELECT DISTINCT ON (block_id, source) id FROM measurements
-      WHERE block_id = ANY($ids::int[]) ORDER BY block_id, source, created_at DESC, id DESC`,
-    { bind: { ids: blockIds }, type: QueryTypes.SELECT, transaction },
-  );
-  if (ids.length === 0) return byBlock;
-  const rows = await Measurement.findAll({
-    where: { id: ids.map((r) => r.id) },
-    include: [{ model: User, as: 'measuredBy', attributes: ['id', 'displayName'] }],
-    transaction,
-  });
-  for (const m of rows) byBlock.set(m.blockId, [...(byBlock.get(m.blockId) ?? []), m]);
-  return byBlock;
+/** A latest measurement as json_build_object writes it: NUMERIC as JSON numbers, times as ISO strings. */
+type MeasurementJson = Omit<MeasurementFields, 'createdAt' | 'measuredBy'> & { measuredById: number | null; measuredByName: string | null; createdAt: string };
+
+interface RelatedJson {
+  users: { id: number; displayName: string }[];
+  measurements: MeasurementJson[];
+  photos: { id: number; blockId: number }[];
+  estimates: LatestEstimateRow[];
+}
+
+/**
+ * Everything a block answer shows besides the block row, for many blocks, in one round trip: the
+ * makers' and recipients' names, the latest measurement of each source (with who took it), the
+ * photos and the latest photo estimate. Each part is one aggregate, so the count of rows read does
+ * not grow with the number of blocks asked for.
+ */
+function relatedSql(withPhotos: boolean) {
+  return `SELECT
+    (SELECT coalesce(json_agg(json_build_object('id', u.id, 'displayName', u.display_name)), '[]')
+       FROM users u WHERE u.id = ANY($userIds::int[])) AS users,
+    (SELECT coalesce(json_agg(latest), '[]') FROM (
+       SELECT DISTINCT ON (m.block_id, m.source)
+              m.id, m.block_id AS "blockId", m.source, mu.id AS "measuredById", mu.display_name AS "measuredByName",
+              m.width, m.height, m.diagonal1, m.diagonal2, m.verdict, m.deviation_width AS "deviationWidth",
+              m.deviation_height AS "deviationHeight", m.deviation_diagonal AS "deviationDiagonal", m.note, m.created_at AS "createdAt"
+         FROM measurements m LEFT JOIN users mu ON mu.id = m.measured_by_id
+        WHERE m.block_id = ANY($ids::int[])
+        ORDER BY m.block_id, m.source, m.created_at DESC, m.id DESC) latest) AS measurements,
+    ${withPhotos
+      ? `(SELECT coalesce(json_agg(json_build_object('id', p.id, 'blockId', p.block_id) ORDER BY p.created_at, p.id), '[]')
+            FROM photos p WHERE p.block_id = ANY($ids::int[]))`
+      : `'[]'::json`} AS photos,
+    (SELECT coalesce(json_agg(estimate), '[]') FROM (${LATEST_ESTIMATES} WHERE e.block_id = ANY($ids::int[]) ${NEWEST_ESTIMATE_FIRST}) estimate) AS estimates`;
+}
+
+async function relatedRows(blocks: Block[], transaction?: Transaction): Promise<RelatedJson> {
+  const sequelize = Block.sequelize!;
+  const ids = blocks.map((b) => b.id);
+  const userIds = [...new Set(blocks.flatMap((b) => [b.makerId, b.recipientId].filter((x): x is number => x != null)))];
+  const withPhotos = await hasPhotosTable(sequelize, transaction);
+  const [row] = await sequelize.query<RelatedJson>(relatedSql(withPhotos), { bind: { ids, userIds }, type: QueryTypes.SELECT, transaction });
+  return row!;
 }
 
 const iso = (d: Date | null | undefined) => d?.toISOString() ?? null;
 
 /** Full block answers for a list of blocks, with a fixed number of queries whatever the count. */
 export async function blockDtos(blocks: Block[], swap: Swap, transaction?: Transaction): Promise<BlockDto[]> {
-  const ids = blocks.map((b) => b.id);
-  const userIds = [...new Set(blocks.flatMap((b) => [b.makerId, b.recipientId].filter((x): x is number => x != null)))];
-  // One after another: queries inside a transaction share its single connection.
-  const users = await User.findAll({ where: { id: userIds }, attributes: ['id', 'displayName'], transaction });
-  const measurements = await latestMeasurements(ids, transaction);
-  const photos = await photosByBlock(Block.sequelize!, ids, transaction);
-  const estimates = await latestPhotoEstimates(Block.sequelize!, ids, transaction);
-  const names = new Map(users.map((u) => [u.id, u.displayName]));
+  if (blocks.length === 0) return [];
+  const related = await relatedRows(blocks, transaction);
+  const names = new Map(related.users.map((u) => [u.id, u.displayName]));
+  const measurements = new Map<number, MeasurementDto[]>();
+  for (const { measuredById, measuredByName, createdAt, ...m } of related.measurements) {
+    const measuredBy = measuredById != null && measuredByName != null ? { id: measuredById, displayName: measuredByName } : null;
+    const dto = measurementDto({ ...m, measuredBy, createdAt: new Date(createdAt) });
+    measurements.set(m.blockId, [...(measurements.get(m.blockId) ?? []), dto]);
+  }
+  const photos = new Map<number, PhotoRefDto[]>();
+  for (const p of related.photos) photos.set(p.blockId, [...(photos.get(p.blockId) ?? []), photoRef(p.id)]);
+  const estimates = latestEstimateDtos(related.estimates);
   return blocks.map((b) => {
     const latest = measurements.get(b.id) ?? [];
-    const ruler = latest.find((m) => m.source === 'ruler');
-    const maker = latest.find((m) => m.source === 'maker');
+    const ruler = latest.find((m) => m.source === 'ruler') ?? null;
+    const maker = latest.find((m) => m.source === 'maker') ?? null;
     let recipient: BlockDto['recipient'] = null;
     if (b.state === 'returned') {
       recipient = b.recipientId
@@ -91,7 +126,7 @@ export async function blockDtos(blocks: Block[], swap: Swap, transaction?: Trans
         returned: iso(b.returnedAt),
         trimmed: iso(b.trimmedAt),
       },
-      latest: { ruler: ruler ? measurementDto(ruler) : null, maker: maker ? measurementDto(maker) : null },
+      latest: { ruler, maker },
       photos: photos.get(b.id) ?? [],
       photoEstimate: estimates.get(b.id) ?? null,
     };

@@ -55,9 +55,9 @@ export function blocksRouter(deps: AppDeps) {
   });
 
   router.post('/blocks/:blockId/measurements', requireUser, validate({ params: blockParamsSchema, body: measurementBodySchema }), async (req, res) => {
-    const userId = currentUser(req).id;
+    const { id: userId, displayName } = currentUser(req);
     const { canManage, isMaker } = await canReadBlock(userId, blockId(req));
-    reply(res, await recordMeasurement(deps, blockId(req), { userId, canManage, isMaker }, req.body));
+    reply(res, await recordMeasurement(deps, blockId(req), { userId, displayName, canManage, isMaker }, req.body));
   });
 
   return router;

@@ -37,7 +37,7 @@ export function verdictFor(swap: Swap, m: { width: number; height: number; diago
 export function recordMeasurement(
   deps: Deps,
   blockId: number,
-  actor: { userId: number; canManage: boolean; isMaker: boolean },
+  actor: { userId: number; displayName: string; canManage: boolean; isMaker: boolean },
   body: MeasurementBody,
 ): Promise<Answer<MeasurementAnswer>> {
   const source = body.source ?? (actor.canManage ? 'ruler' : 'maker');
@@ -83,8 +83,9 @@ export function recordMeasurement(
       // A new ruler measurement replaces the verdict; an earlier trim no longer applies to it.
       await block.update({ state: 'measured', verdict, measuredAt: row.createdAt, trimmed: false, trimmedAt: null }, { transaction });
     }
-    await row.reload({ include: [{ model: User, as: 'measuredBy', attributes: ['id', 'displayName'] }], transaction });
-    const body_ = { ...measurementDto(row), block: await blockDto(block, swap, transaction) };
+    // The INSERT returned every column as stored, and the one who measured is the signed-in actor.
+    const measuredBy = { id: actor.userId, displayName: actor.displayName };
+    const body_ = { ...measurementDto({ ...row.get(), measuredBy }), block: await blockDto(block, swap, transaction) };
     return {
       status: 201,
       body: body_,

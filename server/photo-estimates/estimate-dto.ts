@@ -1,5 +1,4 @@
-/** Photo-estimate rows as the API answers them, and the latest estimate of many blocks at once. */
-import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+/** Photo-estimate rows as the API answers them, and the latest estimate of a block as the block answers show it. */
 import type { Verdict } from '@shared/quilt';
 import type { LatestPhotoEstimateDto, PhotoEstimateDto } from '@shared/schemas/photo-estimates';
 import type { PhotoEstimate } from '../db/models';
@@ -28,50 +27,34 @@ export function estimateDto(row: PhotoEstimate): PhotoEstimateDto {
   };
 }
 
-interface LatestRow {
+/** A latest-estimate row: NUMERIC and times as pg gives them, or as numbers and ISO strings from JSON. */
+export interface LatestEstimateRow {
   id: number;
   block_id: number;
   verdict: Verdict;
-  width: string;
-  height: string;
-  expected_error: string;
+  width: string | number;
+  height: string | number;
+  expected_error: string | number;
   borderline: boolean;
-  created_at: Date;
+  created_at: Date | string;
 }
 
-function toLatest(rows: LatestRow[]): Map<number, LatestPhotoEstimateDto> {
-  const byBlock = new Map<number, LatestPhotoEstimateDto>();
-  for (const r of rows) {
-    byBlock.set(r.block_id, {
-      id: r.id,
-      verdict: r.verdict,
-      width: Number(r.width),
-      height: Number(r.height),
-      expectedError: Number(r.expected_error),
-      borderline: r.borderline,
-      at: new Date(r.created_at).toISOString(),
-    });
-  }
-  return byBlock;
+export function latestEstimateDto(r: LatestEstimateRow): LatestPhotoEstimateDto {
+  return {
+    id: r.id,
+    verdict: r.verdict,
+    width: Number(r.width),
+    height: Number(r.height),
+    expectedError: Number(r.expected_error),
+    borderline: r.borderline,
+    at: new Date(r.created_at).toISOString(),
+  };
 }
 
-const LATEST = `SELECT DISTINCT ON (e.block_id) e.id, e.block_id, e.verdict, e.width, e.height, e.expected_error, e.borderline, e.created_at
+export function latestEstimateDtos(rows: LatestEstimateRow[]): Map<number, LatestPhotoEstimateDto> {
+  return new Map(rows.map((r) => [r.block_id, latestEstimateDto(r)]));
+}
+
+export const LATEST_ESTIMATES = `SELECT DISTINCT ON (e.block_id) e.id, e.block_id, e.verdict, e.width, e.height, e.expected_error, e.borderline, e.created_at
                   FROM photo_estimates e`;
-const NEWEST_FIRST = 'ORDER BY e.block_id, e.created_at DESC, e.id DESC';
-
-/** The latest photo estimate of each block, in one query; blocks without one are absent. */
-export async function latestPhotoEstimates(sequelize: Sequelize, blockIds: number[], transaction?: Transaction): Promise<Map<number, LatestPhotoEstimateDto>> {
-  if (blockIds.length === 0) return new Map();
-  const rows = await sequelize.query<LatestRow>(`${LATEST} WHERE e.block_id = ANY($ids::int[]) ${NEWEST_FIRST}`, {
-    bind: { ids: blockIds }, type: QueryTypes.SELECT, transaction,
-  });
-  return toLatest(rows);
-}
-
-/** The latest photo estimate of every block of a swap, in one query. */
-export async function latestPhotoEstimatesBySwap(sequelize: Sequelize, swapId: number, transaction?: Transaction): Promise<Map<number, LatestPhotoEstimateDto>> {
-  const rows = await sequelize.query<LatestRow>(`${LATEST} JOIN blocks b ON b.id = e.block_id WHERE b.swap_id = $swapId ${NEWEST_FIRST}`, {
-    bind: { swapId }, type: QueryTypes.SELECT, transaction,
-  });
-  return toLatest(rows);
-}
+export const NEWEST_ESTIMATE_FIRST = 'ORDER BY e.block_id, e.created_at DESC, e.id DESC';

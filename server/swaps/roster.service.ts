@@ -1,16 +1,29 @@
 /**
- * The roster: every member's progress and each of their blocks, built from four queries run side by
- * side (sign-ups with names, blocks, photos, latest photo estimates) whatever the size of the swap.
+ * The roster: every member's progress and each of their blocks (with photos and the latest photo
+ * estimate), read in a single query whatever the size of the swap.
  */
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { BlockState } from '@shared/schemas/swaps';
 import type { RosterBlockDto, RosterCounts, RosterDto, RosterRowDto, VerdictName } from '@shared/swap-types';
 import { Swap } from '../db/models';
-import { photosBySwap } from '../blocks/photo-refs';
-import { latestPhotoEstimatesBySwap } from '../photo-estimates/estimate-dto';
+import { hasPhotosTable, photoRef } from '../blocks/photo-refs';
+import { latestEstimateDto, type LatestEstimateRow } from '../photo-estimates/estimate-dto';
 
 const ORDER: readonly BlockState[] = ['pledged', 'sewn', 'handed_in', 'received', 'measured', 'returned'];
 const reached = (state: BlockState, step: BlockState) => ORDER.indexOf(state) >= ORDER.indexOf(step);
+
+interface BlockJson {
+  id: number;
+  sequence: number;
+  state: BlockState;
+  verdict: VerdictName | null;
+  trimmed: boolean;
+  recipientId: number | null;
+  handInHow: 'in-person' | 'post' | null;
+  handInNote: string | null;
+  photoIds: number[];
+  estimate: LatestEstimateRow | null;
+}
 
 interface SignupRow {
   user_id: number;
@@ -18,18 +31,31 @@ interface SignupRow {
   email: string;
   blocks: number;
   mailing_address: string | null;
+  /** the member's blocks by sequence, each with its photos and latest photo estimate */
+  own: BlockJson[];
 }
 
-interface BlockRow {
-  id: number;
-  maker_id: number;
-  sequence: number;
-  state: BlockState;
-  verdict: VerdictName | null;
-  trimmed: boolean;
-  recipient_id: number | null;
-  hand_in_how: 'in-person' | 'post' | null;
-  hand_in_note: string | null;
+/**
+ * One row per active sign-up, sorted by name, carrying the member's blocks as a JSON array: one query
+ * and one connection whatever the size of the swap, and JSON is quicker to read than a row per block.
+ */
+function rosterSql(withPhotos: boolean) {
+  const photoIds = withPhotos ? 'ARRAY(SELECT p.id FROM photos p WHERE p.block_id = b.id ORDER BY p.created_at, p.id)' : "'{}'::int[]";
+  return `SELECT s.user_id, u.display_name, u.email, s.blocks, u.mailing_address,
+         coalesce((
+           SELECT json_agg(json_build_object(
+                    'id', b.id, 'sequence', b.sequence, 'state', b.state, 'verdict', b.verdict, 'trimmed', b.trimmed,
+                    'recipientId', b.recipient_id, 'handInHow', b.hand_in_how, 'handInNote', b.hand_in_note,
+                    'photoIds', ${photoIds},
+                    'estimate', (SELECT row_to_json(latest) FROM (
+                                   SELECT e.id, e.block_id, e.verdict, e.width, e.height, e.expected_error, e.borderline, e.created_at
+                                     FROM photo_estimates e WHERE e.block_id = b.id
+                                    ORDER BY e.created_at DESC, e.id DESC LIMIT 1) latest)
+                  ) ORDER BY b.sequence)
+             FROM blocks b WHERE b.swap_id = s.swap_id AND b.maker_id = s.user_id), '[]') AS own
+    FROM signups s JOIN users u ON u.id = s.user_id
+   WHERE s.swap_id = $swapId AND s.status = 'active'
+   ORDER BY lower(u.display_name), u.id`;
 }
 
 const emptyCounts = (): RosterCounts => ({
@@ -37,7 +63,7 @@ const emptyCounts = (): RosterCounts => ({
   verdicts: { true: 0, trim: 0, short: 0, skewed: 0 },
 });
 
-function count(into: RosterCounts & { accepted: number }, b: BlockRow) {
+function count(into: RosterCounts & { accepted: number }, b: Pick<BlockJson, 'state' | 'verdict' | 'trimmed'>) {
   into.pledged += 1;
   if (reached(b.state, 'sewn')) into.sewn += 1;
   if (reached(b.state, 'handed_in')) into.handedIn += 1;
@@ -52,56 +78,31 @@ export interface RosterData extends RosterDto {
   rows: (RosterRowDto & { email: string })[];
 }
 
-/**
- * Rows for every member with an active sign-up, sorted by name; addresses only when `withAddresses`.
- * Inside a transaction the queries run one after another on its connection: taking more connections
- * from the pool while the transaction holds locks could starve the pool.
- */
+/** Rows for every member with an active sign-up, sorted by name; addresses only when `withAddresses`. */
 export async function buildRoster(swap: Swap, opts: { withAddresses: boolean; transaction?: Transaction }): Promise<RosterData> {
   const sequelize = Swap.sequelize!;
   const { transaction } = opts;
-  const readers = [
-    () => sequelize.query<SignupRow>(
-      `SELECT s.user_id, u.display_name, u.email, s.blocks, u.mailing_address
-         FROM signups s JOIN users u ON u.id = s.user_id
-        WHERE s.swap_id = $swapId AND s.status = 'active'
-        ORDER BY lower(u.display_name), u.id`,
-      { bind: { swapId: swap.id }, type: QueryTypes.SELECT, transaction },
-    ),
-    () => sequelize.query<BlockRow>(
-      `SELECT id, maker_id, sequence, state, verdict, trimmed, recipient_id, hand_in_how, hand_in_note
-         FROM blocks WHERE swap_id = $swapId ORDER BY maker_id, sequence`,
-      { bind: { swapId: swap.id }, type: QueryTypes.SELECT, transaction },
-    ),
-    () => photosBySwap(sequelize, swap.id, transaction),
-    () => latestPhotoEstimatesBySwap(sequelize, swap.id, transaction),
-  ] as const;
-  const [signups, blocks, photos, estimates] = transaction
-    ? [await readers[0](), await readers[1](), await readers[2](), await readers[3]()]
-    : await Promise.all([readers[0](), readers[1](), readers[2](), readers[3]()]);
-
-  const byMaker = new Map<number, BlockRow[]>();
-  for (const b of blocks) byMaker.set(b.maker_id, [...(byMaker.get(b.maker_id) ?? []), b]);
+  const withPhotos = await hasPhotosTable(sequelize, transaction);
+  const signups = await sequelize.query<SignupRow>(rosterSql(withPhotos), { bind: { swapId: swap.id }, type: QueryTypes.SELECT, transaction });
 
   const totals = { ...emptyCounts(), accepted: 0, members: signups.length };
   const rows = signups.map((s) => {
-    const own = byMaker.get(s.user_id) ?? [];
     const counts = { ...emptyCounts(), accepted: 0 };
-    for (const b of own) {
+    for (const b of s.own) {
       count(counts, b);
       count(totals, b);
     }
-    const rosterBlocks: RosterBlockDto[] = own.map((b) => ({
+    const rosterBlocks: RosterBlockDto[] = s.own.map((b) => ({
       id: b.id,
       sequence: b.sequence,
       state: b.state,
       verdict: reached(b.state, 'measured') ? b.verdict : null,
       trimmed: b.trimmed,
-      recipientId: b.recipient_id,
-      handIn: b.hand_in_how ? { how: b.hand_in_how, note: b.hand_in_note } : null,
-      photos: photos.get(b.id) ?? [],
+      recipientId: b.recipientId,
+      handIn: b.handInHow ? { how: b.handInHow, note: b.handInNote } : null,
+      photos: b.photoIds.map((id) => photoRef(id)),
       // Beside the ruler verdict, never in it: an estimate from a photo decides nothing.
-      photoEstimate: estimates.get(b.id) ?? null,
+      photoEstimate: b.estimate ? latestEstimateDto(b.estimate) : null,
     }));
     return {
       userId: s.user_id,
