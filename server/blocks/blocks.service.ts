@@ -21,7 +21,7 @@ const before = (a: BlockState, b: BlockState) => ORDER.indexOf(a) < ORDER.indexO
  * an activity line, a photo) be inserted meanwhile.
  */
 export async function lockedBlock(blockId: number, transaction: Transaction): Promise<{ block: Block; swap: Swap }> {
-  const found = await findBlockWithSwap(blockId, { transaction, lock: { level: transaction.LOCK.NO_KEY_UPDATE, of: Block } });
+  const found = await findBlockWithSwap(blockId, { transaction, lockForChange: true });
   if (!found) throw new NotFoundError('That block does not exist.');
   return found;
 }

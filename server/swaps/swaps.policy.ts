@@ -25,12 +25,9 @@ export interface BlockAccess extends SwapAccess {
  * The caller's role in the guild of the swap aliased `swapAlias`, read in the same query as the swap:
  * memberships hold one row per guild and user, and the subquery gives null without an active one.
  */
-function viewerRole(userId: number, swapAlias: string) {
-  const sequelize = Swap.sequelize!;
-  return literal(
-    `(SELECT m.role FROM memberships m WHERE m.guild_id = "${swapAlias}"."guild_id"
-       AND m.user_id = ${sequelize.escape(userId)} AND m.status = 'active')`,
-  );
+function viewerRoleSql(userId: number, swapAlias: string) {
+  return `(SELECT m.role FROM memberships m WHERE m.guild_id = "${swapAlias}"."guild_id"
+             AND m.user_id = ${Swap.sequelize!.escape(userId)} AND m.status = 'active')`;
 }
 
 /** Takes the role read by viewerRole off the swap, so the instance holds only its own columns. */
@@ -42,7 +39,7 @@ function takeViewerRole(swap: Swap): Role | null {
 }
 
 async function loadSwap(userId: number, swapId: number): Promise<{ swap: Swap; role: Role | null }> {
-  const swap = await Swap.findByPk(swapId, { attributes: { include: [[viewerRole(userId, 'Swap'), 'viewerRole']] } });
+  const swap = await Swap.findByPk(swapId, { attributes: { include: [[literal(viewerRoleSql(userId, 'Swap')), 'viewerRole']] } });
   if (!swap) throw new NotFoundError('That swap does not exist.');
   return { swap, role: takeViewerRole(swap) };
 }
@@ -76,7 +73,7 @@ export async function canJoinSwap(userId: number, swapId: number): Promise<SwapA
 
 /** The block with its swap and the caller's role in the swap's guild, in one query. */
 async function loadBlock(userId: number, blockId: number): Promise<{ block: Block; swap: Swap; role: Role | null }> {
-  const found = await findBlockWithSwap(blockId, { swapAttributes: { include: [[viewerRole(userId, 'swap'), 'viewerRole']] } });
+  const found = await findBlockWithSwap(blockId, { extraSwapColumns: `${viewerRoleSql(userId, 's')} AS "swap.viewerRole"` });
   if (!found) throw new NotFoundError('That block does not exist.');
   return { ...found, role: takeViewerRole(found.swap) };
 }
