@@ -10,7 +10,9 @@ import { hasPhotosTable, photoRef } from '../blocks/photo-refs';
 import { latestEstimateDto, type LatestEstimateRow } from '../photo-estimates/estimate-dto';
 
 const ORDER: readonly BlockState[] = ['pledged', 'sewn', 'handed_in', 'received', 'measured', 'returned'];
-const reached = (state: BlockState, step: BlockState) => ORDER.indexOf(state) >= ORDER.indexOf(step);
+// Asked a dozen times per block: a lookup rather than two searches of ORDER.
+const RANK = Object.fromEntries(ORDER.map((state, i) => [state, i])) as Record<BlockState, number>;
+const reached = (state: BlockState, step: BlockState) => RANK[state] >= RANK[step];
 
 interface BlockJson {
   id: number;
