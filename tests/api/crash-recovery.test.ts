@@ -25,7 +25,9 @@ let child: ChildProcess | null = null;
 let db: pg.Client;
 
 async function startChild() {
-  child = spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'server/index.ts'], {
+  // Node itself runs the server (tsx as a loader): tsx's command-line wrapper would take the SIGKILL
+  // and leave the real server running.
+  child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     env: {
       ...process.env, NODE_ENV: 'test', DATABASE_URL: databaseUrl, SESSION_SECRET: 'crash-test-secret-123', PORT: String(port),
       UPLOAD_DIR: uploadDir, LOG_LEVEL: 'silent', JOBS: 'false', SERVE_CLIENT: 'false', SMTP_URL: inject('smtpUrl'), LOGIN_RATE_LIMIT: '1000',
@@ -118,6 +120,8 @@ it('keeps every acknowledged measurement and photo across a SIGKILL, with nothin
 
   const dead = child!;
   if (dead.exitCode === null && dead.signalCode === null) await new Promise((r) => dead.once('exit', r));
+  // The server is really gone: nothing answers on its port until the restart.
+  expect(await fetch(`${url()}/api/health`).then(() => 'answered', () => 'refused')).toBe('refused');
   await startChild();
 
   // Every acknowledged write is there.
