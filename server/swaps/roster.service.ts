@@ -4,7 +4,7 @@
  */
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { BlockState } from '@shared/schemas/swaps';
-import type { RosterBlockDto, RosterCounts, RosterDto, RosterRowDto, VerdictName } from '@shared/swap-types';
+import type { RosterBlockDto, RosterCounts, RosterDto, RosterRowDto } from '@shared/swap-types';
 import { Swap } from '../db/models';
 import { hasPhotosTable, photoRef } from '../blocks/photo-refs';
 import { latestEstimateDto, type LatestEstimateRow } from '../photo-estimates/estimate-dto';
@@ -14,13 +14,8 @@ const ORDER: readonly BlockState[] = ['pledged', 'sewn', 'handed_in', 'received'
 const RANK = Object.fromEntries(ORDER.map((state, i) => [state, i])) as Record<BlockState, number>;
 const reached = (state: BlockState, step: BlockState) => RANK[state] >= RANK[step];
 
-interface BlockJson {
-  id: number;
-  sequence: number;
-  state: BlockState;
-  verdict: VerdictName | null;
-  trimmed: boolean;
-  recipientId: number | null;
+/** A block as the roster query returns it: the answer's plain fields, the rest still to shape. */
+interface BlockJson extends Pick<RosterBlockDto, 'id' | 'sequence' | 'state' | 'verdict' | 'trimmed' | 'recipientId'> {
   handInHow: 'in-person' | 'post' | null;
   handInNote: string | null;
   photoIds: number[];

@@ -74,6 +74,21 @@ async function openAs(page: Page, email: string, path: string) {
   await page.waitForURL((url) => url.pathname === path);
 }
 
+/** Types a label's short code, then width, Tab, height, Enter on the measuring card. */
+async function takeInAndMeasure(page: Page, shortCode: string, width: string, height: string) {
+  await page.getByLabel('Short code from the label').fill(shortCode);
+  await page.keyboard.press('Enter');
+  await page.getByLabel('Width').waitFor();
+  await page.keyboard.type(width);
+  await page.keyboard.press('Tab');
+  await page.keyboard.type(height);
+  await page.keyboard.press('Enter');
+}
+
+/** The verdicts the server holds for a block, newest first. */
+const storedVerdicts = async (blockId: number): Promise<string[]> =>
+  (await coordinator.agent.get(`/api/blocks/${blockId}/measurements`).expect(200)).body.map((m: { verdict: string }) => m.verdict);
+
 describe('intake', () => {
   it('measures three blocks offline with the keyboard alone, then syncs each exactly once', async () => {
     const page = await browser.newPage();
@@ -192,19 +207,12 @@ describe('intake', () => {
     await page.getByRole('heading', { name: 'Intake: Lantern Nine-Patch' }).waitFor();
     const pack: IntakePackDto = (await coordinator.agent.get(`/api/swaps/${swapId}/intake`).expect(200)).body;
     const block = pack.blocks[21]!;
-    await page.getByLabel('Short code from the label').fill(block.shortCode);
-    await page.keyboard.press('Enter');
-    await page.getByLabel('Width').waitFor();
-    await page.keyboard.type('9 1/4');
-    await page.keyboard.press('Tab');
-    await page.keyboard.type('9 1/2');
-    await page.keyboard.press('Enter');
+    await takeInAndMeasure(page, block.shortCode, '9 1/4', '9 1/2');
     await page.getByTestId('verdict').getByText('Runs short').waitFor();
     await page.getByText('Waiting to sync: 1').waitFor();
     await browser.setOffline(false);
     await page.getByText('All synced').waitFor({ timeout: 20_000 });
-    const stored = await coordinator.agent.get(`/api/blocks/${block.id}/measurements`).expect(200);
-    expect(stored.body.map((m: { verdict: string }) => m.verdict)).toEqual(['short']);
+    expect(await storedVerdicts(block.id)).toEqual(['short']);
     await page.close();
   });
 
@@ -215,13 +223,7 @@ describe('intake', () => {
     const pack: IntakePackDto = (await coordinator.agent.get(`/api/swaps/${swapId}/intake`).expect(200)).body;
     const block = pack.blocks[23]!;
     await browser.setOffline(true);
-    await page.getByLabel('Short code from the label').fill(block.shortCode);
-    await page.keyboard.press('Enter');
-    await page.getByLabel('Width').waitFor();
-    await page.keyboard.type('9 1/2');
-    await page.keyboard.press('Tab');
-    await page.keyboard.type('9 1/2');
-    await page.keyboard.press('Enter');
+    await takeInAndMeasure(page, block.shortCode, '9 1/2', '9 1/2');
     await page.getByText('Waiting to sync: 1').waitFor();
     await page.close(); // the hall closes; the queue stays on the device
 
@@ -230,7 +232,7 @@ describe('intake', () => {
     await later.goto(`${server.url}/guilds`);
     await later.getByRole('heading', { name: 'Your guilds' }).waitFor();
     await expect
-      .poll(async () => (await coordinator.agent.get(`/api/blocks/${block.id}/measurements`).expect(200)).body.map((m: { verdict: string }) => m.verdict), { timeout: 20_000 })
+      .poll(() => storedVerdicts(block.id), { timeout: 20_000 })
       .toEqual(['true']);
     expect((await coordinator.agent.get(`/api/blocks/${block.id}`).expect(200)).body).toMatchObject({ state: 'measured', verdict: 'true' });
     await later.close();
