@@ -79,12 +79,13 @@ export function createApp(deps: AppDeps): BuiltApp {
   api.use(apiNotFound);
   app.use('/api', api);
 
-  if (config.SERVE_CLIENT && existsSync(clientDist)) {
-    app.use(express.static(clientDist, { index: false, maxAge: '1h', setHeaders: cacheHashedAssets }));
+  const clientDir = config.CLIENT_DIR ?? clientDist;
+  if (config.SERVE_CLIENT && existsSync(clientDir)) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h', setHeaders: cacheHashedAssets }));
     // Client-side routes: every other GET gets the app shell.
     app.get('/{*splat}', (req, res, next) => {
       if (req.path.startsWith('/socket.io')) return next();
-      res.set('Cache-Control', 'no-cache').sendFile('index.html', { root: clientDist });
+      res.set('Cache-Control', 'no-cache').sendFile('index.html', { root: clientDir });
     });
   }
 

@@ -17,6 +17,8 @@ const configSchema = z.object({
     .enum(['true', 'false'])
     .default('false')
     .transform((v) => v === 'true'),
+  /** Folder of the built client (defaults to dist/); lets parallel test runs each use their own build. */
+  CLIENT_DIR: z.string().max(4096).optional(),
   /** Serve the built client from dist/ (off in dev, where Vite serves it). */
   SERVE_CLIENT: z
     .enum(['true', 'false'])

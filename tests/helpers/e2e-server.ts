@@ -6,13 +6,16 @@ import { freePort } from '../../scripts/lib/ports';
 import { createTestDatabase, testConfig } from './test-app';
 
 export async function startE2eServer(overrides: Partial<Record<string, string>> = {}): Promise<RunningServer> {
-  if (!existsSync(`${clientDist}/index.html`)) throw new Error('Build the client first: npx vite build (npm test does it).');
+  // CLIENT_DIR (optional) points at a build of one's own, so two developers' runs never share dist/.
+  const clientDir = process.env.CLIENT_DIR ?? clientDist;
+  if (!existsSync(`${clientDir}/index.html`)) throw new Error('Build the client first: npx vite build (npm test does it).');
   const port = await freePort();
   return startServer(
     testConfig(await createTestDatabase(), {
       PORT: String(port),
       PUBLIC_URL: `http://127.0.0.1:${port}`,
       SERVE_CLIENT: 'true',
+      CLIENT_DIR: clientDir,
       ...overrides,
     }),
   );
