@@ -7,7 +7,7 @@ import { loadConfig } from '../server/config';
 import { createSequelize } from '../server/db/sequelize';
 import { initModels } from '../server/db/models';
 import { migrateUp } from '../server/db/migrator';
-import { seedDemoIfEmpty } from '../server/db/seed/demo';
+import { seedDemoIfEmpty } from '../server/seed/demo';
 import { repoRoot, startLocalServices } from './lib/local-services';
 
 const services = await startLocalServices((m) => console.log(`[dev] ${m}`));

@@ -7,7 +7,7 @@ import { loadConfig } from '../server/config';
 import { createSequelize } from '../server/db/sequelize';
 import { initModels } from '../server/db/models';
 import { migrateUp } from '../server/db/migrator';
-import { seedDemoIfEmpty, DEMO_SIGN_INS } from '../server/db/seed/demo';
+import { seedDemoIfEmpty, DEMO_SIGN_INS } from '../server/seed/demo';
 import { startServer } from '../server/index';
 import { repoRoot, startLocalServices } from './lib/local-services';
 

@@ -6,7 +6,9 @@ import type { Server } from 'node:http';
 import type { Router } from 'express';
 import type { AppDeps } from './deps';
 import type { BuiltApp } from './app';
-import { liveFeature } from './live';
+import { liveStartup } from './live/live.startup';
+import { boardLive } from './board/board.socket';
+import { chatLive } from './chat/chat.socket';
 import { photosRouter } from './uploads/photos.routes';
 import { photoSweepFeature } from './uploads/photos.startup';
 import { swapsRouter } from './swaps/swaps.routes';
@@ -16,7 +18,7 @@ import { sewDaysRouter } from './sewdays/sewdays.routes';
 import { notificationsRouter } from './notifications/notifications.routes';
 import { mailJobsFeature } from './jobs/startup';
 import { chatRouter } from './chat/chat.routes';
-import { boardRouter } from './live/board.routes';
+import { boardRouter } from './board/board.routes';
 import { photoEstimatesRouter } from './photo-estimates/photo-estimates.routes';
 import { intakeRouter } from './intake/intake.routes';
 
@@ -36,6 +38,20 @@ export interface FeatureHandle {
 
 export type FeatureStartup = (ctx: FeatureContext) => Promise<FeatureHandle>;
 
-export const featureRouters: FeatureRouter[] = [sewDaysRouter, chatRouter, boardRouter, swapsRouter, blocksRouter, distributionRouter, photosRouter, notificationsRouter, intakeRouter, photoEstimatesRouter];
+export const featureRouters: FeatureRouter[] = [
+  sewDaysRouter,
+  chatRouter,
+  boardRouter,
+  swapsRouter,
+  blocksRouter,
+  distributionRouter,
+  photosRouter,
+  notificationsRouter,
+  intakeRouter,
+  photoEstimatesRouter,
+];
+
+/** The socket.io server with every live part: swap boards, sew-day and swap chat. */
+const liveFeature = liveStartup([boardLive(), chatLive]);
 
 export const featureStartups: FeatureStartup[] = [liveFeature, photoSweepFeature, mailJobsFeature];

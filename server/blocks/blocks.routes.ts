@@ -3,7 +3,7 @@ import { Router, type Request, type Response } from 'express';
 import { blockParamsSchema, handInSchema, measurementBodySchema, receiveSchema } from '@shared/schemas/blocks';
 import { validate } from '../http/validate';
 import { currentUser, requireUser } from '../auth/require-user';
-import { canActAsMaker, canManageBlock, canReadBlock } from '../swaps/swaps.policy';
+import { canActAsMaker, canManageBlock, canReadBlock } from './blocks.policy';
 import type { AppDeps } from '../deps';
 import * as blocks from './blocks.service';
 import { listMeasurements, recordMeasurement } from './measurements.service';

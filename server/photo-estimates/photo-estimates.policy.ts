@@ -4,7 +4,7 @@
  * history; other members see only the latest estimate, on the roster, beside the ruler verdict.
  */
 import { ForbiddenError } from '../http/errors';
-import { canReadBlock, type BlockAccess } from '../swaps/swaps.policy';
+import { canReadBlock, type BlockAccess } from '../blocks/blocks.policy';
 
 async function makerOrOfficer(userId: number, blockId: number, refusal: string): Promise<BlockAccess> {
   const access = await canReadBlock(userId, blockId);

@@ -9,7 +9,7 @@ import { estimateFromCorners, outsidePhoto, type PhotoEstimateBody, type PhotoEs
 import { Photo, PhotoEstimate, User } from '../db/models';
 import { ConflictError, ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
-import type { BlockAccess } from '../swaps/swaps.policy';
+import type { BlockAccess } from '../blocks/blocks.policy';
 import { estimateDto } from './estimate-dto';
 
 type Deps = Pick<AppDeps, 'events'>;

@@ -6,7 +6,7 @@
 import { Photo } from '../db/models';
 import { authorizeGuild, can } from '../guilds/guilds.policy';
 import { ForbiddenError, NotFoundError } from '../http/errors';
-import { canReadBlock, type BlockAccess } from '../swaps/swaps.policy';
+import { canReadBlock, type BlockAccess } from '../blocks/blocks.policy';
 
 /** The block's maker, or a coordinator or admin of its guild. */
 export async function canAddBlockPhotos(userId: number, blockId: number): Promise<BlockAccess> {

@@ -6,7 +6,7 @@ import type { BlockPhotosUploadDto, PhotoDto, PhotoSize } from '@shared/schemas/
 import type { AppDeps } from '../deps';
 import { Photo, User } from '../db/models';
 import { lockedBlock, markBlockSewn } from '../blocks/blocks.service';
-import type { BlockAccess } from '../swaps/swaps.policy';
+import type { BlockAccess } from '../blocks/blocks.policy';
 import { preparePhotos, type IncomingPhotoFile } from './photo-pipeline';
 import { deletePhotos, storePreparedPhotos } from './photo-store';
 import { storedPath } from './photo-files';

@@ -3,7 +3,7 @@ import sharp from 'sharp';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles } from '../helpers/factories';
 import { Photo } from '../../server/db/models';
-import { demoBlockSvg, demoDesigns, seedDemoPhotos } from '../../server/db/seed/photos';
+import { demoBlockSvg, demoDesigns, seedDemoPhotos } from '../../server/seed/photos';
 import { addBlock, filesUnder, swapWithBlock } from '../fixtures/photo-blocks';
 
 let app: TestApp;

@@ -8,7 +8,7 @@ import { launchBrowser } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
 import { seriousViolations } from '../helpers/axe';
 import type { RunningServer } from '../../server/index';
-import { seedDemoIfEmpty, DEMO_SIGN_INS } from '../../server/db/seed/demo';
+import { seedDemoIfEmpty, DEMO_SIGN_INS } from '../../server/seed/demo';
 
 let server: RunningServer;
 let browser: BrowserContext;

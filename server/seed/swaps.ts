@@ -7,7 +7,7 @@ import type { Transaction } from 'sequelize';
 import { checkBlock, planDistribution } from '@shared/quilt';
 import { blockSizes, type BlockSpec } from '@shared/schemas/blocks';
 import type { SwapState } from '@shared/schemas/swaps';
-import { Block, Measurement, Signup, Swap, SwapTransition, type User } from '../models';
+import { Block, Measurement, Signup, Swap, SwapTransition, type User } from '../db/models';
 
 const DAY = 86_400_000;
 /** Midnight UTC `d` days from today: early evening in the demo guild's zone, a plausible deadline. */

@@ -1,6 +1,6 @@
 /** Demo sew days for Kestrel Hollow Quilters: one in the library hall, one on video, with replies and chat. */
 import type { Transaction } from 'sequelize';
-import { ChatMessage, ChatRoom, Rsvp, SewDay, type User } from '../models';
+import { ChatMessage, ChatRoom, Rsvp, SewDay, type User } from '../db/models';
 
 const DAY = 86_400_000;
 

@@ -2,12 +2,12 @@ import { boardRefSchema } from '@shared/schemas/live';
 import type { BoardJoined } from '@shared/live-events';
 import { AppError } from '../http/errors';
 import { canReadSwap } from '../swaps/swaps.policy';
-import type { LivePart } from './live.startup';
+import type { LivePart } from '../live/live.startup';
 import { BoardFanout, boardVersion } from './board-fanout';
 import type { SwapEvent } from './board-activity';
-import { handle } from './socket-handler';
-import { assertSessionLive } from './live-auth';
-import { boardRoom } from './rooms';
+import { handle } from '../live/socket-handler';
+import { assertSessionLive } from '../live/live-auth';
+import { boardRoom } from '../live/rooms';
 
 /** Live swap boards: committed swap events fan out to the swap's room; viewers join with their membership checked. */
 export function boardLive(): LivePart {

@@ -3,9 +3,9 @@
  * Kestrel Hollow Quilters meet in a library community room; a dozen people across the roles.
  */
 import type { Sequelize } from 'sequelize';
-import type { Config } from '../../config';
-import { Guild, Membership, User } from '../models';
-import { hashPassword } from '../../auth/passwords';
+import type { Config } from '../config';
+import { Guild, Membership, User } from '../db/models';
+import { hashPassword } from '../auth/passwords';
 import type { Role } from '@shared/schemas/guilds';
 import { seedDemoSwaps } from './swaps';
 import { seedDemoPhotos } from './photos';

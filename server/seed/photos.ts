@@ -5,8 +5,8 @@
  */
 import sharp from 'sharp';
 import type { Sequelize } from 'sequelize';
-import type { Config } from '../../config';
-import { storePhotos } from '../../uploads/photo-store';
+import type { Config } from '../config';
+import { storePhotos } from '../uploads/photo-store';
 
 export const demoDesigns = ['nine-patch', 'pinwheel', 'flying-geese', 'square-in-a-square'] as const;
 export type DemoDesign = (typeof demoDesigns)[number];

@@ -4,9 +4,9 @@ import type { RosterDto } from '@shared/swap-types';
 import { Swap } from '../db/models';
 import { getRoster } from '../swaps/roster.service';
 import type { AppDeps } from '../deps';
-import type { LiveServer } from './live-types';
+import type { LiveServer } from '../live/live-types';
 import { activitiesById, recordActivities, type SwapEvent } from './board-activity';
-import { boardRoom } from './rooms';
+import { boardRoom } from '../live/rooms';
 
 const FOREIGN_KEY_VIOLATION = '23503';
 

@@ -1,0 +1,42 @@
+/**
+ * Who may do what with one block, on top of the swap's rules (deny by default): the maker marks it
+ * sewn, hands it in and measures it; coordinators and admins of the guild take it in, measure it
+ * with the ruler and trim it; both may read it.
+ */
+import type { Role } from '@shared/schemas/guilds';
+import type { Block, Swap } from '../db/models';
+import { assertGuildRole } from '../guilds/guilds.policy';
+import { ForbiddenError, NotFoundError } from '../http/errors';
+import { readAccess, takeViewerRole, viewerRoleSql, type SwapAccess } from '../swaps/swaps.policy';
+import { findBlockWithSwap } from './block-with-swap';
+
+export interface BlockAccess extends SwapAccess {
+  block: Block;
+  isMaker: boolean;
+}
+
+/** The block with its swap and the caller's role in the swap's guild, in one query. */
+async function loadBlock(userId: number, blockId: number): Promise<{ block: Block; swap: Swap; role: Role | null }> {
+  const found = await findBlockWithSwap(blockId, { extraSwapColumns: `${viewerRoleSql(userId, 's')} AS "swap.viewerRole"` });
+  if (!found) throw new NotFoundError('That block does not exist.');
+  return { ...found, role: takeViewerRole(found.swap) };
+}
+
+/** The block's maker or an officer of its guild may read it. */
+export async function canReadBlock(userId: number, blockId: number): Promise<BlockAccess> {
+  const { block, swap, role } = await loadBlock(userId, blockId);
+  return { ...readAccess(swap, role), block, isMaker: block.makerId === userId };
+}
+
+/** Sewn, handed in and the maker's own measurement: only the maker. */
+export async function canActAsMaker(userId: number, blockId: number): Promise<BlockAccess> {
+  const access = await canReadBlock(userId, blockId);
+  if (!access.isMaker) throw new ForbiddenError('This block belongs to another maker; only they can change it.');
+  return access;
+}
+
+/** Received, ruler measurements and trimming: coordinators and admins. */
+export async function canManageBlock(userId: number, blockId: number): Promise<BlockAccess> {
+  const { block, swap, role } = await loadBlock(userId, blockId);
+  return { swap, role: assertGuildRole(role, 'swaps:manage'), canManage: true, block, isMaker: block.makerId === userId };
+}
