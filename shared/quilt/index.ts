@@ -11,7 +11,7 @@ export {
   parseLength,
   parseLengthExact,
 } from './lengths';
-export type { FormatOptions } from './lengths';
+export type { FormatOptions, ParseOptions } from './lengths';
 export { DEFAULT_SEAM, finishedSize, gridBlock, stripSetWidth, unfinishedSize } from './blocks';
 export type { GridBlock, GridPatch, GridSpec, Size } from './blocks';
 export { gridCutList, gridRecipe, gridStripSets, packFirstFitDecreasing } from './grid-recipe';

@@ -98,8 +98,13 @@ function readNumber(raw: string, input: string): Fraction {
   return part.add(BigInt(whole));
 }
 
+export interface ParseOptions {
+  /** What a number typed with no unit means: inches (the default) or millimetres. Numbers passed as numbers are always inches. */
+  bareUnit?: 'in' | 'mm';
+}
+
 /** Exact version of parseLength: the length in inches as a Fraction. */
-export function parseLengthExact(text: string | number): Fraction {
+export function parseLengthExact(text: string | number, opts: ParseOptions = {}): Fraction {
   if (typeof text === 'number') {
     if (!Number.isFinite(text)) throw new LengthParseError(String(text), 'A length must be a finite number.');
     if (text < 0) throw new LengthParseError(String(text), `${text} is negative; a length must be zero or more.`);
@@ -114,7 +119,7 @@ export function parseLengthExact(text: string | number): Fraction {
   const shape = SHAPE.exec(s);
   if (!shape) throw new LengthParseError(text, `“${text.trim()}” is not a length we can read; ${EXAMPLES}.`);
   const [, numberPart = '', unitWord = ''] = shape;
-  const unit = UNIT_WORDS[unitWord];
+  const unit = unitWord === '' ? (opts.bareUnit ?? 'in') : UNIT_WORDS[unitWord];
   if (!unit) {
     throw new LengthParseError(text, `“${unitWord}” is not a unit we know; use in, mm, cm or yd.`);
   }
@@ -128,8 +133,8 @@ export function parseLengthExact(text: string | number): Fraction {
  * `21.6 cm`, `0.25 yd`, `12.5 inches`. Throws LengthParseError for anything else, including
  * negative lengths and a zero denominator. Zero is accepted (a tolerance may be 0).
  */
-export function parseLength(text: string): number {
-  return parseLengthExact(text).valueOf();
+export function parseLength(text: string, opts: ParseOptions = {}): number {
+  return parseLengthExact(text, opts).valueOf();
 }
 
 export interface FormatOptions {
