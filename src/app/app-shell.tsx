@@ -1,6 +1,6 @@
 import { useEffect, useRef } from 'react';
 import { Link, NavLink, Outlet, useLocation } from 'react-router';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/entities/me/api/get-me';
 import { useLogout } from '@/features/auth/api/auth-mutations';
 import { useQueuedIntakeSync } from '@/features/intake/offline/use-queued-intake-sync';
 import { paths } from '@/lib/paths';

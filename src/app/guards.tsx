@@ -1,5 +1,5 @@
 import { Navigate, Outlet, useLocation, useSearchParams } from 'react-router';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/entities/me/api/get-me';
 import { Loading, QueryError } from '@/components/ui/page';
 import { paths, safeNext } from '@/lib/paths';
 

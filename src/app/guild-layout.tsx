@@ -1,6 +1,6 @@
 import { NavLink, Outlet, useLocation, useParams } from 'react-router';
 import { roleLabels } from '@shared/schemas/guilds';
-import { useGuild } from '@/features/guilds/api/get-guild';
+import { useGuild } from '@/entities/guild/api/get-guild';
 import { Loading, QueryError } from '@/components/ui/page';
 import { paths } from '@/lib/paths';
 

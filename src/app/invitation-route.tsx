@@ -1,5 +1,5 @@
 import { AcceptInvitationPage } from '@/features/guilds/components/accept-invitation-page';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/entities/me/api/get-me';
 import { Loading } from '@/components/ui/page';
 
 export function InvitationRoute() {

@@ -1,5 +1,5 @@
 import { PlannerPage } from '@/features/planner/components/planner-page';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/entities/me/api/get-me';
 
 /** The planner starts in the units the person chose in their settings. */
 export function PlannerRoute() {

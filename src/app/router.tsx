@@ -3,7 +3,7 @@ import { AppShell } from './app-shell';
 import { RedirectIfSignedIn, RequireSignedIn } from './guards';
 import { RouteError } from './route-error';
 import { paths } from '@/lib/paths';
-import { useMe } from '@/features/auth/api/get-me';
+import { useMe } from '@/entities/me/api/get-me';
 
 /** The sew-day page with the sew day's chat composed in (features do not import each other). */
 async function sewDayWithChat() {

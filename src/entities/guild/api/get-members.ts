@@ -1,10 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { MemberDto } from '@shared/types';
 import { api } from '@/lib/api-client';
-import { swapKeys } from './swap-keys';
+import { guildKeys } from './guild-keys';
 
-/** The guild's members, to choose a gift recipient from. */
-export const getGuildMembers = (guildId: number) => api.get<MemberDto[]>(`/guilds/${guildId}/members`);
-export const guildMembersQueryOptions = (guildId: number) =>
-  queryOptions({ queryKey: swapKeys.members(guildId), queryFn: () => getGuildMembers(guildId) });
-export const useGuildMembers = (guildId: number) => useQuery(guildMembersQueryOptions(guildId));
+/** The guild's members with their roles (the members page; the gift-recipient picker). */
+export const getMembers = (guildId: number) => api.get<MemberDto[]>(`/guilds/${guildId}/members`);
+export const membersQueryOptions = (guildId: number) =>
+  queryOptions({ queryKey: guildKeys.members(guildId), queryFn: () => getMembers(guildId) });
+export const useMembers = (guildId: number) => useQuery(membersQueryOptions(guildId));

@@ -1,3 +1,4 @@
+/** Query keys of guilds: all → lists / detail → members / invitations. A guild's swaps are under `swapKeys.list`. */
 export const guildKeys = {
   all: ['guilds'] as const,
   lists: () => [...guildKeys.all, 'list'] as const,

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { MeDto } from '@shared/types';
 import { api, ApiError } from '@/lib/api-client';
-import { authKeys } from './auth-keys';
+import { meKeys } from './me-keys';
 
 /** The signed-in person, or null when signed out. */
 export async function getMe(): Promise<MeDto | null> {
@@ -13,7 +13,7 @@ export async function getMe(): Promise<MeDto | null> {
   }
 }
 
-export const meQueryOptions = () => queryOptions({ queryKey: authKeys.me(), queryFn: getMe, staleTime: 60_000 });
+export const meQueryOptions = () => queryOptions({ queryKey: meKeys.me(), queryFn: getMe, staleTime: 60_000 });
 
 export function useMe() {
   return useQuery(meQueryOptions());

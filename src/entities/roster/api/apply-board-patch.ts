@@ -1,4 +1,4 @@
-import type { ActivityDto, BoardPatch } from '@shared/live-events';
+import type { BoardPatch } from '@shared/live-events';
 import type { RosterDto } from '@shared/swap-types';
 
 /** The cached roster with a board change applied: changed rows replaced or added, gone rows dropped, order by name kept. */
@@ -10,10 +10,4 @@ export function applyBoardPatch(roster: RosterDto, patch: BoardPatch): RosterDto
   for (const row of patch.rows) if (!roster.rows.some((r) => r.userId === row.userId)) rows.push(row);
   rows.sort((a, b) => a.displayName.localeCompare(b.displayName, undefined, { sensitivity: 'base' }) || a.userId - b.userId);
   return { swap: { ...roster.swap, ...patch.swap }, totals: patch.totals, rows };
-}
-
-/** New activity lines on top, without repeats, keeping at most `keep`. */
-export function prependActivities(list: ActivityDto[], fresh: ActivityDto[], keep: number): ActivityDto[] {
-  const seen = new Set(list.map((a) => a.id));
-  return [...fresh.filter((a) => !seen.has(a.id)), ...list].sort((a, b) => b.id - a.id).slice(0, keep);
 }

@@ -4,7 +4,7 @@ import type { MeDto } from '@shared/types';
 import { api } from '@/lib/api-client';
 import { paths } from '@/lib/paths';
 import { closeSocket } from '@/lib/socket';
-import { authKeys } from './auth-keys';
+import { meKeys } from '@/entities/me/api/me-keys';
 
 export const login = (input: LoginInput) => api.post<MeDto>('/auth/login', input);
 export const register = (input: RegisterInput) => api.post<MeDto>('/auth/register', input);
@@ -19,8 +19,8 @@ function useSessionChange<I>(fn: (input: I) => Promise<MeDto | void>) {
   return useMutation({
     mutationFn: fn,
     onSuccess: (me) => {
-      queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== authKeys.all[0] });
-      queryClient.setQueryData(authKeys.me(), me ?? null);
+      queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== meKeys.all[0] });
+      queryClient.setQueryData(meKeys.me(), me ?? null);
     },
   });
 }
@@ -45,5 +45,5 @@ export const useResetPassword = () => useMutation({ mutationFn: resetPassword })
 
 export function useUpdateProfile() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: updateProfile, onSuccess: (me) => queryClient.setQueryData(authKeys.me(), me) });
+  return useMutation({ mutationFn: updateProfile, onSuccess: (me) => queryClient.setQueryData(meKeys.me(), me) });
 }

@@ -10,7 +10,7 @@ import { SelectField, TextArea, TextField } from '@/components/ui/fields';
 import { Alert } from '@/components/ui/alert';
 import { Loading, PageHeader } from '@/components/ui/page';
 import { applyServerErrors } from '@/components/ui/form-errors';
-import { useMe } from '../api/get-me';
+import { useMe } from '@/entities/me/api/get-me';
 import { useUpdateProfile } from '../api/auth-mutations';
 
 export function SettingsPage() {
@@ -19,7 +19,13 @@ export function SettingsPage() {
   return (
     <div className="space-y-6">
       <PageHeader title="Settings" lead="How Blockpost shows sizes to you, and what your guild sees." />
-      <ProfileForm defaults={{ displayName: me.data.user.displayName, units: me.data.user.units, mailingAddress: me.data.user.mailingAddress ?? '' }} />
+      <ProfileForm
+        defaults={{
+          displayName: me.data.user.displayName,
+          units: me.data.user.units,
+          mailingAddress: me.data.user.mailingAddress ?? '',
+        }}
+      />
       <Card title="E-mail">
         <p>Choose which messages Blockpost sends you: announcements, reminders, receipts and more.</p>
         <p className="mt-3">
@@ -35,7 +41,10 @@ export function SettingsPage() {
 function ProfileForm({ defaults }: { defaults: ProfileUpdateInput }) {
   const update = useUpdateProfile();
   const [formError, setFormError] = useState('');
-  const { register, handleSubmit, setError, formState } = useForm<ProfileUpdateInput>({ resolver: zodResolver(profileUpdateSchema), defaultValues: defaults });
+  const { register, handleSubmit, setError, formState } = useForm<ProfileUpdateInput>({
+    resolver: zodResolver(profileUpdateSchema),
+    defaultValues: defaults,
+  });
   const onSubmit = handleSubmit(async (values) => {
     setFormError('');
     try {
@@ -52,7 +61,10 @@ function ProfileForm({ defaults }: { defaults: ProfileUpdateInput }) {
         <TextField label="Your name" error={formState.errors.displayName?.message} {...register('displayName')} />
         <SelectField
           label="Show lengths in"
-          options={[{ value: 'in', label: 'Inches and fractions (8½″)' }, { value: 'mm', label: 'Millimetres (215.9 mm)' }]}
+          options={[
+            { value: 'in', label: 'Inches and fractions (8½″)' },
+            { value: 'mm', label: 'Millimetres (215.9 mm)' },
+          ]}
           error={formState.errors.units?.message}
           {...register('units')}
         />
@@ -64,7 +76,9 @@ function ProfileForm({ defaults }: { defaults: ProfileUpdateInput }) {
           {...register('mailingAddress')}
         />
         <div>
-          <Button type="submit" pending={update.isPending} pendingLabel="Saving…">Save</Button>
+          <Button type="submit" pending={update.isPending} pendingLabel="Saving…">
+            Save
+          </Button>
         </div>
       </form>
     </Card>

@@ -2,7 +2,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { CreateGuildInput } from '@shared/schemas/guilds';
 import type { GuildDto } from '@shared/types';
 import { api } from '@/lib/api-client';
-import { guildKeys } from './guild-keys';
+import { meKeys } from '@/entities/me/api/me-keys';
+import { guildKeys } from '@/entities/guild/api/guild-keys';
 
 export const createGuild = (input: CreateGuildInput) => api.post<GuildDto>('/guilds', input);
 
@@ -15,6 +16,6 @@ export function useCreateGuild() {
       return queryClient.invalidateQueries({ queryKey: guildKeys.lists() });
     },
     // The session's list of memberships changes too.
-    onSettled: () => queryClient.invalidateQueries({ queryKey: ['auth'] }),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: meKeys.all }),
   });
 }

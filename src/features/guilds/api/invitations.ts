@@ -2,7 +2,8 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import type { CreateInvitationInput } from '@shared/schemas/guilds';
 import type { InvitationDto, InvitationPreviewDto } from '@shared/types';
 import { api } from '@/lib/api-client';
-import { guildKeys } from './guild-keys';
+import { meKeys } from '@/entities/me/api/me-keys';
+import { guildKeys } from '@/entities/guild/api/guild-keys';
 
 export const getInvitations = (guildId: number) => api.get<InvitationDto[]>(`/guilds/${guildId}/invitations`);
 export const invitationsQueryOptions = (guildId: number) =>
@@ -33,7 +34,12 @@ export const useInvitationPreview = (token: string) =>
 export function useAcceptInvitation() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (token: string) => api.post<{ guildId: number; guildName: string; role: string }>(`/invitations/${encodeURIComponent(token)}/accept`),
-    onSuccess: () => Promise.all([queryClient.invalidateQueries({ queryKey: guildKeys.all }), queryClient.invalidateQueries({ queryKey: ['auth'] })]),
+    mutationFn: (token: string) =>
+      api.post<{ guildId: number; guildName: string; role: string }>(`/invitations/${encodeURIComponent(token)}/accept`),
+    onSuccess: () =>
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: guildKeys.all }),
+        queryClient.invalidateQueries({ queryKey: meKeys.all }),
+      ]),
   });
 }

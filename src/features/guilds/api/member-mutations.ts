@@ -1,17 +1,14 @@
-import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { Role } from '@shared/schemas/guilds';
 import type { MemberDto } from '@shared/types';
 import { api } from '@/lib/api-client';
-import { guildKeys } from './guild-keys';
-
-export const getMembers = (guildId: number) => api.get<MemberDto[]>(`/guilds/${guildId}/members`);
-export const membersQueryOptions = (guildId: number) => queryOptions({ queryKey: guildKeys.members(guildId), queryFn: () => getMembers(guildId) });
-export const useMembers = (guildId: number) => useQuery(membersQueryOptions(guildId));
+import { guildKeys } from '@/entities/guild/api/guild-keys';
 
 export function useChangeRole(guildId: number) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ userId, role }: { userId: number; role: Role }) => api.patch<MemberDto>(`/guilds/${guildId}/members/${userId}`, { role }),
+    mutationFn: ({ userId, role }: { userId: number; role: Role }) =>
+      api.patch<MemberDto>(`/guilds/${guildId}/members/${userId}`, { role }),
     onSettled: () => queryClient.invalidateQueries({ queryKey: guildKeys.detail(guildId) }),
   });
 }

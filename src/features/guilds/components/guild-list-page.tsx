@@ -10,7 +10,7 @@ import { Alert } from '@/components/ui/alert';
 import { EmptyState, Loading, PageHeader, QueryError } from '@/components/ui/page';
 import { applyServerErrors } from '@/components/ui/form-errors';
 import { paths } from '@/lib/paths';
-import { useGuilds } from '../api/get-guilds';
+import { useGuilds } from '@/entities/guild/api/get-guilds';
 import { useCreateGuild } from '../api/create-guild';
 
 export function GuildListPage() {
@@ -23,12 +23,17 @@ export function GuildListPage() {
       ) : guilds.isError ? (
         <QueryError error={guilds.error} what="your guilds" />
       ) : guilds.data.length === 0 ? (
-        <EmptyState title="You are not in a guild yet">Open the invitation link your guild sent you, or start a guild below.</EmptyState>
+        <EmptyState title="You are not in a guild yet">
+          Open the invitation link your guild sent you, or start a guild below.
+        </EmptyState>
       ) : (
         <ul className="grid gap-4 sm:grid-cols-2">
           {guilds.data.map((g) => (
             <li key={g.id}>
-              <Link to={paths.guild(g.id)} className="seam block rounded-card bg-card p-6 shadow-sm ring-1 ring-walnut/10 hover:ring-indigo">
+              <Link
+                to={paths.guild(g.id)}
+                className="seam block rounded-card bg-card p-6 shadow-sm ring-1 ring-walnut/10 hover:ring-indigo"
+              >
                 <span className="relative block font-display text-2xl font-semibold text-indigo-deep">{g.name}</span>
                 <span className="relative mt-1 block text-walnut-soft">
                   {roleLabels[g.myRole]} · {g.memberCount} {g.memberCount === 1 ? 'member' : 'members'}
@@ -65,11 +70,22 @@ function CreateGuildCard() {
     <Card title="Start a guild">
       <p className="mb-4 text-walnut-soft">You become its admin and can invite members, coordinators and other admins.</p>
       <form onSubmit={onSubmit} noValidate className="grid gap-4 sm:grid-cols-2">
-        {formError && <div className="sm:col-span-2"><Alert tone="error">{formError}</Alert></div>}
+        {formError && (
+          <div className="sm:col-span-2">
+            <Alert tone="error">{formError}</Alert>
+          </div>
+        )}
         <TextField label="Guild name" error={formState.errors.name?.message} {...register('name')} />
-        <TextField label="Time zone" hint="Deadlines are shown in this zone." error={formState.errors.timeZone?.message} {...register('timeZone')} />
+        <TextField
+          label="Time zone"
+          hint="Deadlines are shown in this zone."
+          error={formState.errors.timeZone?.message}
+          {...register('timeZone')}
+        />
         <div className="sm:col-span-2">
-          <Button type="submit" pending={create.isPending} pendingLabel="Creating…">Create guild</Button>
+          <Button type="submit" pending={create.isPending} pendingLabel="Creating…">
+            Create guild
+          </Button>
         </div>
       </form>
     </Card>

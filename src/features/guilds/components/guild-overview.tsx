@@ -3,7 +3,7 @@ import { roleLabels } from '@shared/schemas/guilds';
 import { Card } from '@/components/ui/card';
 import { Loading, QueryError } from '@/components/ui/page';
 import { paths } from '@/lib/paths';
-import { useGuild } from '../api/get-guild';
+import { useGuild } from '@/entities/guild/api/get-guild';
 
 /** The guild's front page until other sections fill it. */
 export function GuildOverview() {
@@ -18,7 +18,9 @@ export function GuildOverview() {
         {guild.data.timeZone}.
       </p>
       <p className="mt-3">
-        <Link className="font-semibold text-indigo underline" to={paths.members(guildId)}>See the members</Link>
+        <Link className="font-semibold text-indigo underline" to={paths.members(guildId)}>
+          See the members
+        </Link>
       </p>
     </Card>
   );

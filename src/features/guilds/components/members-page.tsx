@@ -6,8 +6,9 @@ import { Button } from '@/components/ui/button';
 import { Alert } from '@/components/ui/alert';
 import { Loading, QueryError } from '@/components/ui/page';
 import { ApiError } from '@/lib/api-client';
-import { useGuild } from '../api/get-guild';
-import { useChangeRole, useMembers, useRemoveMember } from '../api/members';
+import { useGuild } from '@/entities/guild/api/get-guild';
+import { useMembers } from '@/entities/guild/api/get-members';
+import { useChangeRole, useRemoveMember } from '../api/member-mutations';
 import { InviteCard } from './invite-card';
 
 export function MembersPage() {
@@ -20,7 +21,8 @@ export function MembersPage() {
   const isAdmin = guild.data?.myRole === 'admin';
   const canInvite = guild.data?.myRole === 'admin' || guild.data?.myRole === 'coordinator';
 
-  const report = (error: unknown) => setProblem(error instanceof ApiError ? error.message : 'That did not work. Please try again.');
+  const report = (error: unknown) =>
+    setProblem(error instanceof ApiError ? error.message : 'That did not work. Please try again.');
 
   if (members.isPending || guild.isPending) return <Loading label="Loading members…" />;
   if (members.isError) return <QueryError error={members.error} what="the members" />;
@@ -28,16 +30,30 @@ export function MembersPage() {
   return (
     <div className="space-y-8">
       <Card title={`Members (${members.data.length})`}>
-        {problem && <div className="mb-4"><Alert tone="error">{problem}</Alert></div>}
+        {problem && (
+          <div className="mb-4">
+            <Alert tone="error">{problem}</Alert>
+          </div>
+        )}
         <div className="overflow-x-auto">
           <table className="w-full min-w-[36rem] border-collapse text-left">
             <caption className="sr-only">Guild members and their roles</caption>
             <thead>
               <tr className="border-b-2 border-walnut/20">
-                <th scope="col" className="py-2 pr-4">Name</th>
-                <th scope="col" className="py-2 pr-4">E-mail</th>
-                <th scope="col" className="py-2 pr-4">Role</th>
-                {isAdmin && <th scope="col" className="py-2"><span className="sr-only">Actions</span></th>}
+                <th scope="col" className="py-2 pr-4">
+                  Name
+                </th>
+                <th scope="col" className="py-2 pr-4">
+                  E-mail
+                </th>
+                <th scope="col" className="py-2 pr-4">
+                  Role
+                </th>
+                {isAdmin && (
+                  <th scope="col" className="py-2">
+                    <span className="sr-only">Actions</span>
+                  </th>
+                )}
               </tr>
             </thead>
             <tbody>
@@ -57,7 +73,9 @@ export function MembersPage() {
                         }}
                       >
                         {roles.map((r) => (
-                          <option key={r} value={r}>{roleLabels[r]}</option>
+                          <option key={r} value={r}>
+                            {roleLabels[r]}
+                          </option>
                         ))}
                       </select>
                     ) : (

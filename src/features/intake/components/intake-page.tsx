@@ -6,7 +6,7 @@ import { buttonClass } from '@/components/ui/button';
 import { EmptyState, Loading, PageHeader, QueryError } from '@/components/ui/page';
 import { paths } from '@/lib/paths';
 import { useIntakePack, type IntakePack } from '../api/get-intake-pack';
-import { useViewer } from '../api/get-viewer';
+import { useMe } from '@/entities/me/api/get-me';
 import { useIntakeQueue } from '../hooks/use-intake-queue';
 import { useIntakeStation } from '../hooks/use-intake-station';
 import { useOnline } from '../hooks/use-online';
@@ -21,10 +21,11 @@ import { VerdictPanel } from './verdict-panel';
 /** The coordinator's intake view for one swap: scan or type, measure, next — with or without a network. */
 export function IntakePage() {
   const swapId = Number(useParams().swapId);
-  const viewer = useViewer();
+  const viewer = useMe();
   const pack = useIntakePack(swapId);
   if (viewer.isPending || pack.isPending) return <Loading label="Getting the swap ready for intake…" />;
   if (viewer.isError) return <QueryError error={viewer.error} what="your account" />;
+  if (!viewer.data) return <Loading label="Getting the swap ready for intake…" />; // signed out: the page guard sends them to sign in
   if (pack.isError) return <QueryError error={pack.error} what="this swap’s intake" />;
   return <Station pack={pack.data} userId={viewer.data.user.id} units={viewer.data.user.units} />;
 }
@@ -57,7 +58,8 @@ function Station({ pack, userId, units }: { pack: IntakePack; userId: number; un
       {!RECEIVING.includes(pack.swap.state) && (
         <div className="mb-4">
           <Alert tone="warning" title={`This swap is ${swapStateShort[pack.swap.state].toLowerCase()}.`}>
-            Blocks are received while a swap is sewing or collecting, and measured until it is sorted. Actions taken now will be refused and kept in the list below.
+            Blocks are received while a swap is sewing or collecting, and measured until it is sorted. Actions taken now will be
+            refused and kept in the list below.
           </Alert>
         </div>
       )}

@@ -5,13 +5,14 @@ import { SelectField, TextField } from '@/components/ui/fields';
 import { EmptyState, Loading, QueryError } from '@/components/ui/page';
 import { paths } from '@/lib/paths';
 import { useLabels } from '../api/get-labels';
-import { useViewer } from '../api/get-viewer';
+import { useMe } from '@/entities/me/api/get-me';
 import { LABEL_SHEETS, defaultSheet, paginate, perSheet, sheetById } from './label-sheets';
 import { LabelSheets } from './label-sheet';
 import { SingleLabel } from './single-label';
 import './labels.css';
 
-const sheetCount = (labels: number, sheets: number) => `${labels} label${labels === 1 ? '' : 's'} on ${sheets} sheet${sheets === 1 ? '' : 's'}`;
+const sheetCount = (labels: number, sheets: number) =>
+  `${labels} label${labels === 1 ? '' : 's'} on ${sheets} sheet${sheets === 1 ? '' : 's'}`;
 
 /**
  * Labels for a swap's blocks: real-size sheets to print (A4 or US Letter, common label sizes) or one
@@ -26,7 +27,7 @@ export function LabelsPage() {
   const maker = params.get('maker') ?? 'me';
   const skip = Math.max(0, Math.trunc(Number(params.get('skip')) || 0));
   const outlines = params.get('outlines') === '1';
-  const viewer = useViewer();
+  const viewer = useMe();
   const labels = useLabels(swapId, maker);
   const sheet = sheetById(sheetId);
   const officer = viewer.data?.memberships.some((m) => m.guildId === guildId && m.role !== 'member') ?? false;
@@ -50,7 +51,8 @@ export function LabelsPage() {
           </Link>
           <h1 className="mt-2 text-3xl font-bold text-indigo-deep">Labels{labels.data ? `: ${labels.data.swap.title}` : ''}</h1>
           <p className="max-w-3xl text-walnut-soft">
-            Pin a label to each block before you hand it in. The coordinator scans the QR code, or types the short code under it, to match the block to you.
+            Pin a label to each block before you hand it in. The coordinator scans the QR code, or types the short code under it,
+            to match the block to you.
           </p>
           <div className="mt-4 flex flex-wrap items-end gap-4">
             <SelectField
@@ -92,11 +94,17 @@ export function LabelsPage() {
           {sheet.page && (
             <div className="mt-3 space-y-1 text-base text-walnut-soft">
               <label className="flex min-h-11 items-center gap-2">
-                <input type="checkbox" className="h-5 w-5" checked={outlines} onChange={(e) => set('outlines', e.target.checked ? '1' : null)} />
+                <input
+                  type="checkbox"
+                  className="h-5 w-5"
+                  checked={outlines}
+                  onChange={(e) => set('outlines', e.target.checked ? '1' : null)}
+                />
                 Draw the label outlines (for a test print on plain paper, held up to the light against a label sheet)
               </label>
               <p>
-                In the print dialog choose {sheet.page}, scale 100 % (“actual size”) and no headers or footers; this page already sets no margins.
+                In the print dialog choose {sheet.page}, scale 100 % (“actual size”) and no headers or footers; this page already
+                sets no margins.
               </p>
             </div>
           )}
@@ -111,12 +119,15 @@ export function LabelsPage() {
           </div>
         ) : labels.data.labels.length === 0 ? (
           <div className="mx-auto max-w-3xl">
-            <EmptyState title="No blocks to label yet">Sign up for the swap first; each pledged block gets its own label.</EmptyState>
+            <EmptyState title="No blocks to label yet">
+              Sign up for the swap first; each pledged block gets its own label.
+            </EmptyState>
           </div>
         ) : sheet.page ? (
           <>
             <p className="mb-3 text-center text-walnut-soft print:hidden" role="status">
-              {sheetCount(labels.data.labels.length, paginate(labels.data.labels, sheet, skip).length)} of {perSheet(sheet)}, {sheet.size} each.
+              {sheetCount(labels.data.labels.length, paginate(labels.data.labels, sheet, skip).length)} of {perSheet(sheet)},{' '}
+              {sheet.size} each.
             </p>
             <LabelSheets data={labels.data} sheet={sheet} skip={skip} />
           </>

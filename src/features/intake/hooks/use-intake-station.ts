@@ -11,11 +11,11 @@ import { checkBlock } from '@shared/quilt';
 import type { IntakeBlockDto } from '@shared/schemas/intake';
 import type { VerdictName } from '@shared/swap-types';
 import { ApiError } from '@/lib/api-client';
-import { newClientId } from './client-id';
+import { newClientId } from '@/lib/client-id';
 import { resolveBlock } from '../api/resolve-block';
 import { intakeKeys } from '../api/intake-keys';
 import type { IntakePack } from '../api/get-intake-pack';
-import type { MeasurementSend } from '../api/post-measurement';
+import type { MeasurementSend } from '@/entities/block/api/measure-block';
 import { enqueue, savePack } from '../offline/intake-db';
 import { flushQueue, notifyQueueChanged, onSent } from '../offline/sync-queue';
 
@@ -79,10 +79,18 @@ export function useIntakeStation(pack: IntakePack, userId: number) {
       if (input.parsed.swapId !== swapId) return { error: 'This label is for another swap; it cannot be taken in here.' };
       // The pack holds every reference the server signed for this swap: an exact match is a verified one.
       const block = blocks.find((b) => b.reference === input.reference);
-      return block ? { block } : { error: 'This label does not match any block of this swap: it may be damaged or made up. Type its short code instead.' };
+      return block
+        ? { block }
+        : {
+            error: 'This label does not match any block of this swap: it may be damaged or made up. Type its short code instead.',
+          };
     }
     const block = blocks.find((b) => b.shortCode === input.code);
-    return block ? { block } : { error: `No block of this swap has the code ${formatShortCode(input.code)}. Check the letters (there is no 0, O, 1 or I).` };
+    return block
+      ? { block }
+      : {
+          error: `No block of this swap has the code ${formatShortCode(input.code)}. Check the letters (there is no 0, O, 1 or I).`,
+        };
   };
 
   /** Matches a scanned reference or typed short code and takes the block in. True when a block is open. */
@@ -98,7 +106,10 @@ export function useIntakeStation(pack: IntakePack, userId: number) {
       try {
         const body = input.kind === 'reference' ? { swapId, reference: input.reference } : { swapId, shortCode: input.code };
         const answer = await resolveBlock(body, abort.signal);
-        block = { ...answer.block, ...(local.block && local.block.id === answer.block.id ? pickNewer(local.block, answer.block) : {}) };
+        block = {
+          ...answer.block,
+          ...(local.block && local.block.id === answer.block.id ? pickNewer(local.block, answer.block) : {}),
+        };
       } catch (error) {
         // The server's refusal is the better message; no answer at all falls back to the kept copy.
         if (error instanceof ApiError && error.status > 0 && error.status < 500) {
@@ -136,7 +147,16 @@ export function useIntakeStation(pack: IntakePack, userId: number) {
     const { swap } = packRef.current;
     const local = checkBlock({ target: swap.unfinished, tolerance: swap.tolerance, squareness: swap.squareness, measured });
     const clientId = newClientId();
-    await enqueue({ clientId, kind: 'measure', swapId, blockId: block.id, userId, body: measured, label: blockLabel(block), localVerdict: local.verdict });
+    await enqueue({
+      clientId,
+      kind: 'measure',
+      swapId,
+      blockId: block.id,
+      userId,
+      body: measured,
+      label: blockLabel(block),
+      localVerdict: local.verdict,
+    });
     const result: StationResult = { clientId, block, measured, local, confirmed: null };
     setResults((rs) => [result, ...rs].slice(0, RECENT));
     setCurrent(null);
@@ -146,7 +166,16 @@ export function useIntakeStation(pack: IntakePack, userId: number) {
     return result;
   };
 
-  return { current, results, codeError, resolving, submitCode, submitMeasurement, cancel: () => setCurrent(null), clearError: () => setCodeError(null) };
+  return {
+    current,
+    results,
+    codeError,
+    resolving,
+    submitCode,
+    submitMeasurement,
+    cancel: () => setCurrent(null),
+    clearError: () => setCodeError(null),
+  };
 }
 
 const ORDER = ['pledged', 'sewn', 'handed_in', 'received', 'measured', 'returned'] as const;

@@ -5,7 +5,7 @@
 import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
 import type { IntakePackDto } from '@shared/schemas/intake';
 import type { VerdictName } from '@shared/swap-types';
-import type { MeasurementSend } from '../api/post-measurement';
+import type { MeasurementSend } from '@/entities/block/api/measure-block';
 import { INTAKE_DB_NAME } from './db-name';
 
 export interface QueueItem {

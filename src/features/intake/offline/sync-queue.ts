@@ -6,13 +6,12 @@
  */
 import { ApiError } from '@/lib/api-client';
 import type { BlockDto } from '@shared/swap-types';
-import { postMeasurement, type MeasurementAnswer } from '../api/post-measurement';
-import { postReceived } from '../api/post-received';
+import { measureBlock, type MeasurementAnswer } from '@/entities/block/api/measure-block';
+import { receiveBlock } from '@/entities/block/api/receive-block';
 import { queuedItems, removeItem, updateItem, type QueueItem } from './intake-db';
 
 export type SentEvent =
-  | { item: QueueItem; kind: 'receive'; answer: BlockDto | null }
-  | { item: QueueItem; kind: 'measure'; answer: MeasurementAnswer };
+  { item: QueueItem; kind: 'receive'; answer: BlockDto | null } | { item: QueueItem; kind: 'measure'; answer: MeasurementAnswer };
 
 export type SyncPause = null | 'offline' | 'retrying' | 'signed-out';
 
@@ -54,14 +53,26 @@ export const notifyQueueChanged = () => events.dispatchEvent(new Event('change')
 
 type Outcome = { ok: true; event: SentEvent } | { ok: false; retry: boolean; signedOut?: boolean; code: string; message: string };
 
+// A lapsed session is reported to the queue instead of leaving the page.
+const fromQueue = { allowUnauthenticated: true };
+
 async function send(item: QueueItem): Promise<Outcome> {
   try {
-    if (item.kind === 'receive') return { ok: true, event: { item, kind: 'receive', answer: await postReceived(item.blockId, item.clientId) } };
-    return { ok: true, event: { item, kind: 'measure', answer: await postMeasurement(item.blockId, item.body!, item.clientId) } };
+    if (item.kind === 'receive')
+      return { ok: true, event: { item, kind: 'receive', answer: await receiveBlock(item.blockId, item.clientId, fromQueue) } };
+    return {
+      ok: true,
+      event: {
+        item,
+        kind: 'measure',
+        answer: await measureBlock(item.blockId, { ...item.body!, source: 'ruler', clientId: item.clientId }, fromQueue),
+      },
+    };
   } catch (error) {
     if (!(error instanceof ApiError)) return { ok: false, retry: true, code: 'client', message: String(error) };
     // Already past "received" (measured before, perhaps on another device): nothing left to do.
-    if (item.kind === 'receive' && error.code === 'already_received') return { ok: true, event: { item, kind: 'receive', answer: null } };
+    if (item.kind === 'receive' && error.code === 'already_received')
+      return { ok: true, event: { item, kind: 'receive', answer: null } };
     if (error.status === 401) return { ok: false, retry: true, signedOut: true, code: error.code, message: error.message };
     const transient = error.status === 0 || error.status === 408 || error.status === 429 || error.status >= 500;
     return { ok: false, retry: transient, code: error.code, message: error.message };

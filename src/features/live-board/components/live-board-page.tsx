@@ -6,7 +6,7 @@ import { Loading, QueryError } from '@/components/ui/page';
 import { useLiveStatus } from '@/lib/socket';
 import { paths } from '@/lib/paths';
 import { useActivity } from '../api/get-activity';
-import { useRoster } from '../api/get-roster';
+import { useRoster } from '@/entities/roster/api/get-roster';
 import { useBoardLive } from '../hooks/use-board-live';
 import { ActivityList } from './activity-list';
 import { BoardRows } from './board-rows';
@@ -41,13 +41,19 @@ export function LiveBoardPage() {
           <p className="text-walnut-soft">Live board · {swapStateLabels[swap.state] ?? swap.state}</p>
           <h2 className="text-2xl font-semibold text-indigo-deep sm:text-3xl">{swap.title}</h2>
         </div>
-        <Link className="inline-flex min-h-11 items-center font-semibold text-indigo underline" to={paths.swapChat(guildId, swapId)}>
+        <Link
+          className="inline-flex min-h-11 items-center font-semibold text-indigo underline"
+          to={paths.swapChat(guildId, swapId)}
+        >
           Swap chat
         </Link>
       </div>
       <p className="flex flex-wrap items-center gap-x-4 gap-y-1" role="status">
         <span>
-          <span aria-hidden="true" className={`mr-1 inline-block h-3 w-3 rounded-full ${status === 'connected' ? 'bg-lichen' : 'bg-weld'}`} />
+          <span
+            aria-hidden="true"
+            className={`mr-1 inline-block h-3 w-3 rounded-full ${status === 'connected' ? 'bg-lichen' : 'bg-weld'}`}
+          />
           {statusWords[status]}
         </span>
         <span>Viewing now: {watching.length ? watching.join(', ') : 'just you'}</span>
@@ -60,7 +66,13 @@ export function LiveBoardPage() {
         <BoardRows rows={rows} />
       </Card>
       <Card title="Recent activity">
-        {activity.isPending ? <Loading /> : activity.isError ? <QueryError error={activity.error} what="the activity" /> : <ActivityList activities={activity.data} />}
+        {activity.isPending ? (
+          <Loading />
+        ) : activity.isError ? (
+          <QueryError error={activity.error} what="the activity" />
+        ) : (
+          <ActivityList activities={activity.data} />
+        )}
       </Card>
     </div>
   );

@@ -5,5 +5,4 @@ export const sewDayKeys = {
   lists: (guildId: number) => [...sewDayKeys.all, 'list', guildId] as const,
   list: (guildId: number, when: SewDayWhen) => [...sewDayKeys.lists(guildId), when] as const,
   detail: (sewDayId: number) => [...sewDayKeys.all, 'detail', sewDayId] as const,
-  swaps: (guildId: number) => [...sewDayKeys.all, 'swaps', guildId] as const,
 };

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { SwapTransitionDto } from '@shared/swap-types';
 import { api } from '@/lib/api-client';
-import { swapKeys } from './swap-keys';
+import { swapKeys } from '@/entities/swap/api/swap-keys';
 
 export const getTransitions = (swapId: number) => api.get<SwapTransitionDto[]>(`/swaps/${swapId}/transitions`);
 export const transitionsQueryOptions = (swapId: number) =>

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { HandInInput } from '@shared/schemas/blocks';
 import type { BlockDto } from '@shared/swap-types';
 import { api } from '@/lib/api-client';
-import { invalidateSwapData } from './swap-keys';
+import { invalidateSwapData } from '@/entities/block/api/block-keys';
 
 export const handIn = (blockId: number, body: HandInInput) => api.post<BlockDto>(`/blocks/${blockId}/handed-in`, body);
 

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { SignupDto } from '@shared/swap-types';
 import { api } from '@/lib/api-client';
-import { swapKeys } from './swap-keys';
+import { swapKeys } from '@/entities/swap/api/swap-keys';
 
 export const pledge = (swapId: number, blocks: number) => api.post<SignupDto>(`/swaps/${swapId}/signups`, { blocks });
 
@@ -11,6 +11,9 @@ export function usePledge(swapId: number) {
   return useMutation({
     mutationFn: (blocks: number) => pledge(swapId, blocks),
     onSettled: () =>
-      Promise.all([queryClient.invalidateQueries({ queryKey: swapKeys.detail(swapId) }), queryClient.invalidateQueries({ queryKey: swapKeys.lists() })]),
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: swapKeys.detail(swapId) }),
+        queryClient.invalidateQueries({ queryKey: swapKeys.lists() }),
+      ]),
   });
 }

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { TransitionInput } from '@shared/schemas/swaps';
 import type { SwapDto } from '@shared/swap-types';
 import { api } from '@/lib/api-client';
-import { swapKeys } from './swap-keys';
+import { swapKeys } from '@/entities/swap/api/swap-keys';
 
 export const transitionSwap = (swapId: number, body: TransitionInput) => api.post<SwapDto>(`/swaps/${swapId}/transitions`, body);
 

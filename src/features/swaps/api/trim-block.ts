@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { BlockDto } from '@shared/swap-types';
 import { api } from '@/lib/api-client';
-import { invalidateSwapData } from './swap-keys';
+import { invalidateSwapData } from '@/entities/block/api/block-keys';
 
 export const trimBlock = (blockId: number) => api.post<BlockDto>(`/blocks/${blockId}/trimmed`);
 

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { UpdateSwapInput } from '@shared/schemas/swaps';
 import type { SwapDto } from '@shared/swap-types';
 import { api } from '@/lib/api-client';
-import { swapKeys } from './swap-keys';
+import { swapKeys } from '@/entities/swap/api/swap-keys';
 
 export const updateSwap = (swapId: number, body: UpdateSwapInput) => api.patch<SwapDto>(`/swaps/${swapId}`, body);
 

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import { swapKeys } from './swap-keys';
+import { swapKeys } from '@/entities/swap/api/swap-keys';
 
 export const withdraw = (swapId: number) => api.delete<void>(`/swaps/${swapId}/signups/me`);
 
@@ -9,6 +9,9 @@ export function useWithdraw(swapId: number) {
   return useMutation({
     mutationFn: () => withdraw(swapId),
     onSettled: () =>
-      Promise.all([queryClient.invalidateQueries({ queryKey: swapKeys.detail(swapId) }), queryClient.invalidateQueries({ queryKey: swapKeys.lists() })]),
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: swapKeys.detail(swapId) }),
+        queryClient.invalidateQueries({ queryKey: swapKeys.lists() }),
+      ]),
   });
 }

@@ -9,8 +9,8 @@ import { ApiError } from '@/lib/api-client';
 import { formatInZone } from '@/lib/dates';
 import { useConfirmDistribution } from '../api/confirm-distribution';
 import { distributionCsvUrl } from '../api/export-urls';
-import { useBlocks } from '../api/get-blocks';
-import { useSwap } from '../api/get-swap';
+import { useBlocks } from '@/entities/block/api/get-blocks';
+import { useSwap } from '@/entities/swap/api/get-swap';
 import { usePlanDistribution } from '../api/plan-distribution';
 
 /** What is wrong with edited transfers, in words; the server checks the same again. */
@@ -21,7 +21,8 @@ function problems(plan: DistributionPlanDto, counts: number[]): string[] {
   });
   for (const m of plan.makers) {
     const sent = plan.transfers.reduce((s, t, i) => s + (t.from === m.id ? (counts[i] ?? 0) : 0), 0);
-    if (sent !== m.accepted) out.push(`${m.displayName} has ${m.accepted} accepted block${m.accepted === 1 ? '' : 's'} but sends ${sent}.`);
+    if (sent !== m.accepted)
+      out.push(`${m.displayName} has ${m.accepted} accepted block${m.accepted === 1 ? '' : 's'} but sends ${sent}.`);
     if (plan.mode === 'return') {
       const got = plan.transfers.reduce((s, t, i) => s + (t.to === m.id ? (counts[i] ?? 0) : 0), 0);
       if (got !== m.accepted) out.push(`${m.displayName} should receive ${m.accepted} but gets ${got}.`);
@@ -50,27 +51,37 @@ function Planner({ swap }: { swap: SwapDto }) {
     if (!data) return;
     setProblem('');
     const transfers = data.transfers.map((t, i) => ({ from: t.from, to: t.to, count: counts[i] ?? t.count }));
-    confirm.mutate({ transfers }, { onError: (e) => setProblem(e instanceof ApiError ? e.message : 'The return could not be confirmed.') });
+    confirm.mutate(
+      { transfers },
+      { onError: (e) => setProblem(e instanceof ApiError ? e.message : 'The return could not be confirmed.') },
+    );
   };
 
   return (
     <Card title="Plan the return of blocks">
       <div className="space-y-4">
         <p>
-          Only accepted blocks take part: true to size, or trimmed to size. {swap.mode === 'gift' ? 'This is a gift swap: every accepted block goes to the recipient.' : 'Each maker gets back as many as they had accepted, never their own, from as many different makers as possible.'}
+          Only accepted blocks take part: true to size, or trimmed to size.{' '}
+          {swap.mode === 'gift'
+            ? 'This is a gift swap: every accepted block goes to the recipient.'
+            : 'Each maker gets back as many as they had accepted, never their own, from as many different makers as possible.'}
         </p>
         {!canConfirm && <Alert tone="info">You can look at a plan now; confirming needs the swap to be in sorting.</Alert>}
         {problem && <Alert tone="error">{problem}</Alert>}
-        <Button onClick={makePlan} pending={plan.isPending} pendingLabel="Planning…">{data ? 'Plan again' : 'Make a plan'}</Button>
+        <Button onClick={makePlan} pending={plan.isPending} pendingLabel="Planning…">
+          {data ? 'Plan again' : 'Make a plan'}
+        </Button>
         {data && (
           <>
             <p>
-              {data.acceptedTotal} accepted block{data.acceptedTotal === 1 ? '' : 's'} from {data.makers.length} maker{data.makers.length === 1 ? '' : 's'}. Left out:{' '}
-              {data.leftOut.pending} not measured, {data.leftOut.rejected} short or out of square, {data.leftOut.untrimmed} waiting to be trimmed.
+              {data.acceptedTotal} accepted block{data.acceptedTotal === 1 ? '' : 's'} from {data.makers.length} maker
+              {data.makers.length === 1 ? '' : 's'}. Left out: {data.leftOut.pending} not measured, {data.leftOut.rejected} short
+              or out of square, {data.leftOut.untrimmed} waiting to be trimmed.
             </p>
             {data.shortfall.length > 0 && (
               <Alert tone="warning" title="Not everyone can be paired">
-                {data.shortfall.map((s) => `${s.displayName} would miss ${s.missing}`).join('; ')}. With so few makers nobody else has blocks to send them.
+                {data.shortfall.map((s) => `${s.displayName} would miss ${s.missing}`).join('; ')}. With so few makers nobody else
+                has blocks to send them.
               </Alert>
             )}
             <div className="relative overflow-x-auto">
@@ -78,9 +89,15 @@ function Planner({ swap }: { swap: SwapDto }) {
                 <caption className="sr-only">Proposed transfers; counts can be changed</caption>
                 <thead>
                   <tr className="border-b-2 border-walnut/20">
-                    <th scope="col" className="py-2 pr-3">From (maker)</th>
-                    <th scope="col" className="py-2 pr-3">To</th>
-                    <th scope="col" className="py-2">Blocks</th>
+                    <th scope="col" className="py-2 pr-3">
+                      From (maker)
+                    </th>
+                    <th scope="col" className="py-2 pr-3">
+                      To
+                    </th>
+                    <th scope="col" className="py-2">
+                      Blocks
+                    </th>
                   </tr>
                 </thead>
                 <tbody>
@@ -105,10 +122,19 @@ function Planner({ swap }: { swap: SwapDto }) {
             </div>
             {issues.length > 0 && (
               <Alert tone="warning" title="The counts do not add up">
-                <ul className="list-disc pl-5">{issues.map((m) => <li key={m}>{m}</li>)}</ul>
+                <ul className="list-disc pl-5">
+                  {issues.map((m) => (
+                    <li key={m}>{m}</li>
+                  ))}
+                </ul>
               </Alert>
             )}
-            <Button onClick={doConfirm} disabled={!canConfirm || issues.length > 0 || data.transfers.length === 0} pending={confirm.isPending} pendingLabel="Confirming…">
+            <Button
+              onClick={doConfirm}
+              disabled={!canConfirm || issues.length > 0 || data.transfers.length === 0}
+              pending={confirm.isPending}
+              pendingLabel="Confirming…"
+            >
               Confirm the return
             </Button>
           </>
@@ -127,7 +153,14 @@ function Confirmed({ swap, blocks }: { swap: SwapDto; blocks: BlockDto[] }) {
     pairs.set(key, p);
   }
   return (
-    <Card title="The return is confirmed" actions={<a className={buttonClass('secondary')} href={distributionCsvUrl(swap.id)} download>Download the return (CSV)</a>}>
+    <Card
+      title="The return is confirmed"
+      actions={
+        <a className={buttonClass('secondary')} href={distributionCsvUrl(swap.id)} download>
+          Download the return (CSV)
+        </a>
+      }
+    >
       <p>Confirmed {formatInZone(swap.distributionConfirmedAt!, swap.guild.timeZone)}.</p>
       <ul className="mt-3 list-disc space-y-1 pl-6">
         {[...pairs.values()].map((p) => (

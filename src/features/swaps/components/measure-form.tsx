@@ -8,8 +8,8 @@ import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
 import { ApiError } from '@/lib/api-client';
-import { useMeasureBlock, type MeasurementAnswer } from '../api/measure-block';
-import { newClientId } from '../hooks/client-id';
+import { useMeasureBlock, type MeasurementAnswer } from '@/entities/block/api/measure-block';
+import { newClientId } from '@/lib/client-id';
 import { len, sizeText } from './lengths';
 import { VerdictBadge } from './verdict-badge';
 
@@ -22,14 +22,18 @@ interface Values {
 type Field = keyof Values;
 
 function body(v: Values) {
-  const diagonals: [string, string] | undefined = v.diagonal1.trim() || v.diagonal2.trim() ? [v.diagonal1, v.diagonal2] : undefined;
+  const diagonals: [string, string] | undefined =
+    v.diagonal1.trim() || v.diagonal2.trim() ? [v.diagonal1, v.diagonal2] : undefined;
   return { width: v.width, height: v.height, ...(diagonals ? { diagonals } : {}) };
 }
 
 /** The verdict as the engine sees what is typed so far, or null while it cannot be read. */
 function preview(swap: SwapDto, v: Values): CheckBlockResult | null {
   try {
-    const d = v.diagonal1.trim() && v.diagonal2.trim() ? ([parseLength(v.diagonal1), parseLength(v.diagonal2)] as [number, number]) : undefined;
+    const d =
+      v.diagonal1.trim() && v.diagonal2.trim()
+        ? ([parseLength(v.diagonal1), parseLength(v.diagonal2)] as [number, number])
+        : undefined;
     return checkBlock({
       target: swap.unfinished,
       tolerance: swap.tolerance,
@@ -41,13 +45,26 @@ function preview(swap: SwapDto, v: Values): CheckBlockResult | null {
   }
 }
 
-const fieldOf = (path: string): Field => (path.startsWith('diagonals') ? (path.endsWith('1') ? 'diagonal2' : 'diagonal1') : (path as Field));
+const fieldOf = (path: string): Field =>
+  path.startsWith('diagonals') ? (path.endsWith('1') ? 'diagonal2' : 'diagonal1') : (path as Field);
 
 /**
  * Width, height and optional diagonals in any format parseLength reads. The verdict shows as soon
  * as the numbers can be read; on saving, the server's own verdict replaces it.
  */
-export function MeasureForm({ swap, blockId, source, label, onSaved }: { swap: SwapDto; blockId: number; source: 'ruler' | 'maker'; label: string; onSaved?: (m: MeasurementAnswer) => void }) {
+export function MeasureForm({
+  swap,
+  blockId,
+  source,
+  label,
+  onSaved,
+}: {
+  swap: SwapDto;
+  blockId: number;
+  source: 'ruler' | 'maker';
+  label: string;
+  onSaved?: (m: MeasurementAnswer) => void;
+}) {
   const measure = useMeasureBlock(swap.id);
   const form = useForm<Values>({ defaultValues: { width: '', height: '', diagonal1: '', diagonal2: '' } });
   const values = useWatch({ control: form.control }) as Values;
@@ -89,16 +106,32 @@ export function MeasureForm({ swap, blockId, source, label, onSaved }: { swap: S
       <div className="grid gap-3 sm:grid-cols-2">
         <TextField label="Width" inputMode="decimal" autoComplete="off" error={e.width?.message} {...form.register('width')} />
         <TextField label="Height" inputMode="decimal" autoComplete="off" error={e.height?.message} {...form.register('height')} />
-        <TextField label="Diagonal, corner to corner" hint="Optional; give both or neither." inputMode="decimal" autoComplete="off" error={e.diagonal1?.message} {...form.register('diagonal1')} />
-        <TextField label="Other diagonal" hint="Optional." inputMode="decimal" autoComplete="off" error={e.diagonal2?.message} {...form.register('diagonal2')} />
+        <TextField
+          label="Diagonal, corner to corner"
+          hint="Optional; give both or neither."
+          inputMode="decimal"
+          autoComplete="off"
+          error={e.diagonal1?.message}
+          {...form.register('diagonal1')}
+        />
+        <TextField
+          label="Other diagonal"
+          hint="Optional."
+          inputMode="decimal"
+          autoComplete="off"
+          error={e.diagonal2?.message}
+          {...form.register('diagonal2')}
+        />
       </div>
       <div aria-live="polite" className="min-h-8">
         {live && !saved && (
           <p className="flex flex-wrap items-center gap-2">
             <span>As typed:</span> <VerdictBadge verdict={live.verdict} />
             <span className="text-walnut-soft">
-              width {formatDeviation(live.deviations.width, { denominator: 16 })}, height {formatDeviation(live.deviations.height, { denominator: 16 })}
-              {live.deviations.diagonal !== undefined && `, diagonals differ by ${formatDeviation(Math.abs(live.deviations.diagonal), { denominator: 16 })}`}
+              width {formatDeviation(live.deviations.width, { denominator: 16 })}, height{' '}
+              {formatDeviation(live.deviations.height, { denominator: 16 })}
+              {live.deviations.diagonal !== undefined &&
+                `, diagonals differ by ${formatDeviation(Math.abs(live.deviations.diagonal), { denominator: 16 })}`}
             </span>
           </p>
         )}

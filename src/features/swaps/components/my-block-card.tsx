@@ -10,7 +10,7 @@ import { ApiError } from '@/lib/api-client';
 import { paths } from '@/lib/paths';
 import { useHandIn } from '../api/hand-in';
 import { useMarkSewn } from '../api/mark-sewn';
-import { invalidateSwapData } from '../api/swap-keys';
+import { invalidateSwapData } from '@/entities/block/api/block-keys';
 import { MeasureForm } from './measure-form';
 import { BlockStateText } from './state-badge';
 import { NoVerdict, VerdictBadge } from './verdict-badge';
@@ -58,7 +58,11 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
             {block.handIn.note && ` — ${block.handIn.note}`}
           </p>
         )}
-        {block.recipient && <p>Goes to <span className="font-semibold">{block.recipient.displayName}</span>.</p>}
+        {block.recipient && (
+          <p>
+            Goes to <span className="font-semibold">{block.recipient.displayName}</span>.
+          </p>
+        )}
         {block.state === 'measured' && !block.accepted && (
           <p className="text-walnut-soft">
             {block.verdict === 'trim'
@@ -70,11 +74,17 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
         )}
         {problem && <Alert tone="error">{problem}</Alert>}
 
-        {block.photos.length > 0 && <PhotoGallery photos={block.photos} subject={`Block ${block.sequence} by ${block.maker.displayName}`} />}
+        {block.photos.length > 0 && (
+          <PhotoGallery photos={block.photos} subject={`Block ${block.sequence} by ${block.maker.displayName}`} />
+        )}
         {block.photos.length > 0 && ESTIMATING.includes(swap.state) && !swap.distributionConfirmedAt && (
           <p className="flex flex-wrap gap-x-4">
             {block.photos.map((p, i) => (
-              <Link key={p.id} className="inline-flex min-h-11 items-center font-semibold text-indigo underline underline-offset-4" to={paths.photoMeasure(swap.guildId, swap.id, block.id, p.id)}>
+              <Link
+                key={p.id}
+                className="inline-flex min-h-11 items-center font-semibold text-indigo underline underline-offset-4"
+                to={paths.photoMeasure(swap.guildId, swap.id, block.id, p.id)}
+              >
                 <span aria-hidden="true">📷&nbsp;</span>Measure from {block.photos.length > 1 ? `photo ${i + 1}` : 'this photo'}
               </Link>
             ))}
@@ -84,16 +94,31 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
         {active && BEFORE_RECEIVED.includes(block.state) && (
           <div className="flex flex-wrap gap-2">
             {block.state === 'pledged' && (
-              <Button variant="secondary" pending={sewn.isPending} onClick={() => { setProblem(''); sewn.mutate(block.id, { onError: report }); }}>
+              <Button
+                variant="secondary"
+                pending={sewn.isPending}
+                onClick={() => {
+                  setProblem('');
+                  sewn.mutate(block.id, { onError: report });
+                }}
+              >
                 Mark sewn
               </Button>
             )}
             {swap.state !== 'signup' && (
-              <Button variant="secondary" onClick={() => setOpen(open === 'hand-in' ? null : 'hand-in')} aria-expanded={open === 'hand-in'}>
+              <Button
+                variant="secondary"
+                onClick={() => setOpen(open === 'hand-in' ? null : 'hand-in')}
+                aria-expanded={open === 'hand-in'}
+              >
                 {block.state === 'handed_in' ? 'Change hand-in' : 'Hand it in'}
               </Button>
             )}
-            <Button variant="quiet" onClick={() => setOpen(open === 'measure' ? null : 'measure')} aria-expanded={open === 'measure'}>
+            <Button
+              variant="quiet"
+              onClick={() => setOpen(open === 'measure' ? null : 'measure')}
+              aria-expanded={open === 'measure'}
+            >
               Enter my own measurement
             </Button>
           </div>
@@ -105,17 +130,31 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
             onSubmit={(e) => {
               e.preventDefault();
               setProblem('');
-              handIn.mutate({ blockId: block.id, how, ...(note.trim() ? { note } : {}) }, { onError: report, onSuccess: () => setOpen(null) });
+              handIn.mutate(
+                { blockId: block.id, how, ...(note.trim() ? { note } : {}) },
+                { onError: report, onSuccess: () => setOpen(null) },
+              );
             }}
           >
             <SelectField
               label="How"
               value={how}
               onChange={(e) => setHow(e.target.value as 'in-person' | 'post')}
-              options={[{ value: 'in-person', label: 'In person, at a meeting' }, { value: 'post', label: 'By post' }]}
+              options={[
+                { value: 'in-person', label: 'In person, at a meeting' },
+                { value: 'post', label: 'By post' },
+              ]}
             />
-            <TextField label={how === 'post' ? 'Tracking number or note' : 'Note'} hint="Optional" value={note} onChange={(e) => setNote(e.target.value)} maxLength={500} />
-            <Button type="submit" pending={handIn.isPending}>Save hand-in</Button>
+            <TextField
+              label={how === 'post' ? 'Tracking number or note' : 'Note'}
+              hint="Optional"
+              value={note}
+              onChange={(e) => setNote(e.target.value)}
+              maxLength={500}
+            />
+            <Button type="submit" pending={handIn.isPending}>
+              Save hand-in
+            </Button>
           </form>
         )}
         {open === 'measure' && (
@@ -126,7 +165,11 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
         {active && BEFORE_RECEIVED.includes(block.state) && (
           <details>
             <summary className="min-h-11 cursor-pointer py-2 font-semibold text-indigo">Add photos of this block</summary>
-            <PhotoUploader uploadUrl={blockPhotosUrl(block.id)} label="Photos of the finished block" onUploaded={() => void invalidateSwapData(queryClient, swap.id)} />
+            <PhotoUploader
+              uploadUrl={blockPhotosUrl(block.id)}
+              label="Photos of the finished block"
+              onUploaded={() => void invalidateSwapData(queryClient, swap.id)}
+            />
           </details>
         )}
       </div>

@@ -6,7 +6,7 @@ import { Card } from '@/components/ui/card';
 import { TextField } from '@/components/ui/fields';
 import { SafetyCautions } from '@/components/ui/safety-cautions';
 import { ApiError } from '@/lib/api-client';
-import { useBlocks } from '../api/get-blocks';
+import { useBlocks } from '@/entities/block/api/get-blocks';
 import { usePledge } from '../api/pledge';
 import { useWithdraw } from '../api/withdraw';
 import { useCuttingPlan } from '../hooks/use-cutting-plan';
@@ -59,7 +59,8 @@ function PledgeForm({ swap }: { swap: SwapDto }) {
             variant="quiet"
             pending={withdraw.isPending}
             onClick={() => {
-              if (window.confirm('Withdraw from this swap? Your pledged blocks are removed.')) withdraw.mutate(undefined, { onError: report });
+              if (window.confirm('Withdraw from this swap? Your pledged blocks are removed.'))
+                withdraw.mutate(undefined, { onError: report });
             }}
           >
             Withdraw
@@ -72,11 +73,13 @@ function PledgeForm({ swap }: { swap: SwapDto }) {
 
 function WhatComesBack({ swap, acceptedOfMine }: { swap: SwapDto; acceptedOfMine: number }) {
   const incoming = useBlocks(swap.id, 'incoming', Boolean(swap.distributionConfirmedAt));
-  if (swap.mode === 'gift') return <p>Every accepted block goes to {swap.giftRecipient?.name ?? 'the recipient'}; thank you for sewing.</p>;
+  if (swap.mode === 'gift')
+    return <p>Every accepted block goes to {swap.giftRecipient?.name ?? 'the recipient'}; thank you for sewing.</p>;
   if (!swap.distributionConfirmedAt) {
     return (
       <p>
-        When the coordinator has measured every block, you get back as many blocks as were accepted of yours, made by other members.
+        When the coordinator has measured every block, you get back as many blocks as were accepted of yours, made by other
+        members.
         {acceptedOfMine > 0 && ` So far ${acceptedOfMine} of yours ${acceptedOfMine === 1 ? 'is' : 'are'} accepted.`}
       </p>
     );
@@ -86,7 +89,9 @@ function WhatComesBack({ swap, acceptedOfMine }: { swap: SwapDto; acceptedOfMine
   for (const b of list) byMaker.set(b.maker.displayName, [...(byMaker.get(b.maker.displayName) ?? []), b.sequence]);
   return (
     <div>
-      <p className="font-semibold">You receive {list.length} block{list.length === 1 ? '' : 's'}:</p>
+      <p className="font-semibold">
+        You receive {list.length} block{list.length === 1 ? '' : 's'}:
+      </p>
       <ul className="list-disc pl-6">
         {[...byMaker].map(([name, seqs]) => (
           <li key={name}>
@@ -113,7 +118,12 @@ export function MySwapPanel({ swap }: { swap: SwapDto }) {
         {swap.signupOpen ? (
           <PledgeForm swap={swap} />
         ) : (
-          pledged === 0 && <p>Sign-up is closed{swap.state === 'signup' ? ' (its date has passed)' : ''}, and you did not pledge blocks for this swap.</p>
+          pledged === 0 && (
+            <p>
+              Sign-up is closed{swap.state === 'signup' ? ' (its date has passed)' : ''}, and you did not pledge blocks for this
+              swap.
+            </p>
+          )
         )}
         {pledged > 0 && (
           <>
@@ -128,7 +138,9 @@ export function MySwapPanel({ swap }: { swap: SwapDto }) {
               <h3 className="text-xl font-semibold text-indigo-deep">Your blocks</h3>
               {blocks.isError && <Alert tone="error">Your blocks could not be loaded.</Alert>}
               <ul className="mt-3 grid gap-4 lg:grid-cols-2">
-                {mine.map((b) => <MyBlockCard key={b.id} swap={swap} block={b} />)}
+                {mine.map((b) => (
+                  <MyBlockCard key={b.id} swap={swap} block={b} />
+                ))}
               </ul>
             </section>
             <section>

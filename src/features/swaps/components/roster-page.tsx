@@ -3,8 +3,9 @@ import { buttonClass } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { EmptyState, Loading, QueryError } from '@/components/ui/page';
 import { rosterCsvUrl } from '../api/export-urls';
-import { useRoster } from '../api/get-roster';
-import { useSwap } from '../api/get-swap';
+import { useRoster } from '@/entities/roster/api/get-roster';
+import { useRosterLive } from '@/entities/roster/api/use-roster-live';
+import { useSwap } from '@/entities/swap/api/get-swap';
 import { RosterTable } from './roster-table';
 import { VerdictBadge } from './verdict-badge';
 
@@ -22,6 +23,7 @@ export function RosterPage() {
   const swapId = Number(useParams().swapId);
   const swap = useSwap(swapId);
   const roster = useRoster(swapId);
+  useRosterLive(swapId); // a block measured elsewhere shows here as it happens
   if (swap.isPending || roster.isPending) return <Loading label="Loading the roster…" />;
   if (swap.isError) return <QueryError error={swap.error} what="the swap" />;
   if (roster.isError) return <QueryError error={roster.error} what="the roster" />;
@@ -30,7 +32,13 @@ export function RosterPage() {
     <div className="space-y-6">
       <Card
         title="Roster"
-        actions={swap.data.canManage && <a className={buttonClass('secondary')} href={rosterCsvUrl(swapId)} download>Download roster (CSV)</a>}
+        actions={
+          swap.data.canManage && (
+            <a className={buttonClass('secondary')} href={rosterCsvUrl(swapId)} download>
+              Download roster (CSV)
+            </a>
+          )
+        }
       >
         <dl className="grid grid-cols-2 gap-3 sm:grid-cols-4 lg:grid-cols-7">
           <Stat label="Members" value={t.members} />
@@ -50,7 +58,11 @@ export function RosterPage() {
         </p>
       </Card>
       <Card title="Members">
-        {roster.data.rows.length === 0 ? <EmptyState title="Nobody has signed up yet" /> : <RosterTable swap={swap.data} rows={roster.data.rows} />}
+        {roster.data.rows.length === 0 ? (
+          <EmptyState title="Nobody has signed up yet" />
+        ) : (
+          <RosterTable swap={swap.data} rows={roster.data.rows} />
+        )}
       </Card>
     </div>
   );

@@ -8,9 +8,9 @@ import { Button } from '@/components/ui/button';
 import { ApiError } from '@/lib/api-client';
 import { formatInZone } from '@/lib/dates';
 import { paths } from '@/lib/paths';
-import { useMeasurements } from '../api/get-measurements';
-import { useReceiveBlock } from '../api/receive-block';
-import { invalidateSwapData } from '../api/swap-keys';
+import { useMeasurements } from '@/entities/block/api/get-measurements';
+import { useReceiveBlock } from '@/entities/block/api/receive-block';
+import { invalidateSwapData } from '@/entities/block/api/block-keys';
 import { useTrimBlock } from '../api/trim-block';
 import { MeasureForm } from './measure-form';
 import { sizeText } from './lengths';
@@ -53,37 +53,91 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
         <BlockStateText state={block.state} />
         {block.verdict ? <VerdictBadge verdict={block.verdict} trimmed={block.trimmed} /> : <NoVerdict />}
         {block.photoEstimate && <VerdictBadge verdict={block.photoEstimate.verdict} source="photo" />}
-        {block.handIn && <span className="text-walnut-soft">{block.handIn.how === 'post' ? 'Posted' : 'Handed in at a meeting'}{block.handIn.note && `: ${block.handIn.note}`}</span>}
+        {block.handIn && (
+          <span className="text-walnut-soft">
+            {block.handIn.how === 'post' ? 'Posted' : 'Handed in at a meeting'}
+            {block.handIn.note && `: ${block.handIn.note}`}
+          </span>
+        )}
       </div>
-      {problem && <div className="mt-2"><Alert tone="error">{problem}</Alert></div>}
-      {block.photos.length > 0 && <div className="mt-3"><PhotoGallery photos={block.photos} subject={`Block ${block.sequence} by ${maker}`} /></div>}
-      {block.photos.length > 0 && swap.canManage && ['signup', 'sewing', 'collecting', 'sorting'].includes(swap.state) && !swap.distributionConfirmedAt && (
-        <p className="mt-2 flex flex-wrap gap-x-4">
-          {block.photos.map((p, i) => (
-            <Link key={p.id} className="inline-flex min-h-11 items-center font-semibold text-indigo underline underline-offset-4" to={paths.photoMeasure(swap.guildId, swap.id, block.id, p.id)}>
-              <span aria-hidden="true">📷&nbsp;</span>Measure from {block.photos.length > 1 ? `photo ${i + 1}` : 'this photo'}<span className="sr-only"> (block {block.sequence} of {maker})</span>
-            </Link>
-          ))}
-        </p>
+      {problem && (
+        <div className="mt-2">
+          <Alert tone="error">{problem}</Alert>
+        </div>
       )}
+      {block.photos.length > 0 && (
+        <div className="mt-3">
+          <PhotoGallery photos={block.photos} subject={`Block ${block.sequence} by ${maker}`} />
+        </div>
+      )}
+      {block.photos.length > 0 &&
+        swap.canManage &&
+        ['signup', 'sewing', 'collecting', 'sorting'].includes(swap.state) &&
+        !swap.distributionConfirmedAt && (
+          <p className="mt-2 flex flex-wrap gap-x-4">
+            {block.photos.map((p, i) => (
+              <Link
+                key={p.id}
+                className="inline-flex min-h-11 items-center font-semibold text-indigo underline underline-offset-4"
+                to={paths.photoMeasure(swap.guildId, swap.id, block.id, p.id)}
+              >
+                <span aria-hidden="true">📷&nbsp;</span>Measure from {block.photos.length > 1 ? `photo ${i + 1}` : 'this photo'}
+                <span className="sr-only">
+                  {' '}
+                  (block {block.sequence} of {maker})
+                </span>
+              </Link>
+            ))}
+          </p>
+        )}
       {swap.canManage && (
         <div className="mt-3 flex flex-wrap gap-2">
           {intake && RECEIVABLE.includes(block.state) && swap.state !== 'sorting' && (
-            <Button variant="secondary" pending={receive.isPending} onClick={() => { setProblem(''); receive.mutate(block.id, { onError: report }); }}>
-              Mark received<span className="sr-only"> block {block.sequence} of {maker}</span>
+            <Button
+              variant="secondary"
+              pending={receive.isPending}
+              onClick={() => {
+                setProblem('');
+                receive.mutate(block.id, { onError: report });
+              }}
+            >
+              Mark received
+              <span className="sr-only">
+                {' '}
+                block {block.sequence} of {maker}
+              </span>
             </Button>
           )}
           {intake && MEASURABLE.includes(block.state) && (
-            <Button variant={block.state === 'received' ? 'primary' : 'secondary'} aria-expanded={panel === 'measure'} onClick={() => setPanel(panel === 'measure' ? null : 'measure')}>
-              {block.state === 'measured' ? 'Measure again' : 'Measure'}<span className="sr-only"> block {block.sequence} of {maker}</span>
+            <Button
+              variant={block.state === 'received' ? 'primary' : 'secondary'}
+              aria-expanded={panel === 'measure'}
+              onClick={() => setPanel(panel === 'measure' ? null : 'measure')}
+            >
+              {block.state === 'measured' ? 'Measure again' : 'Measure'}
+              <span className="sr-only">
+                {' '}
+                block {block.sequence} of {maker}
+              </span>
             </Button>
           )}
           {intake && block.verdict === 'trim' && !block.trimmed && block.state === 'measured' && (
-            <Button variant="secondary" pending={trim.isPending} onClick={() => { setProblem(''); trim.mutate(block.id, { onError: report }); }}>
+            <Button
+              variant="secondary"
+              pending={trim.isPending}
+              onClick={() => {
+                setProblem('');
+                trim.mutate(block.id, { onError: report });
+              }}
+            >
               Mark trimmed to size
             </Button>
           )}
-          <Button variant="quiet" aria-expanded={panel === 'history'} onClick={() => setPanel(panel === 'history' ? null : 'history')}>
+          <Button
+            variant="quiet"
+            aria-expanded={panel === 'history'}
+            onClick={() => setPanel(panel === 'history' ? null : 'history')}
+          >
             Measurements
           </Button>
         </div>
@@ -93,10 +147,20 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
           <MeasureForm swap={swap} blockId={block.id} source="ruler" label={`Measure block ${block.sequence} of ${maker}`} />
         </div>
       )}
-      {panel === 'history' && <div className="mt-3"><History swap={swap} blockId={block.id} /></div>}
+      {panel === 'history' && (
+        <div className="mt-3">
+          <History swap={swap} blockId={block.id} />
+        </div>
+      )}
       {swap.canManage && block.state !== 'returned' && (
         <details className="mt-2">
-          <summary className="min-h-11 cursor-pointer py-2 font-semibold text-indigo">Add photos<span className="sr-only"> of block {block.sequence} of {maker}</span></summary>
+          <summary className="min-h-11 cursor-pointer py-2 font-semibold text-indigo">
+            Add photos
+            <span className="sr-only">
+              {' '}
+              of block {block.sequence} of {maker}
+            </span>
+          </summary>
           <PhotoUploader
             uploadUrl={blockPhotosUrl(block.id)}
             label={`Photos of block ${block.sequence} by ${maker}`}
@@ -114,11 +178,14 @@ export function RosterRowDetail({ swap, row }: { swap: SwapDto; row: RosterRowDt
     <div className="space-y-3">
       {row.mailingAddress !== undefined && (
         <p>
-          <span className="font-semibold">Mailing address:</span> {row.mailingAddress || <span className="text-walnut-soft">not given</span>}
+          <span className="font-semibold">Mailing address:</span>{' '}
+          {row.mailingAddress || <span className="text-walnut-soft">not given</span>}
         </p>
       )}
       <ul className="space-y-3">
-        {row.blocks.map((b) => <BlockLine key={b.id} swap={swap} maker={row.displayName} block={b} />)}
+        {row.blocks.map((b) => (
+          <BlockLine key={b.id} swap={swap} maker={row.displayName} block={b} />
+        ))}
       </ul>
     </div>
   );

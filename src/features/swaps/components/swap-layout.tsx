@@ -2,7 +2,7 @@ import { NavLink, Outlet, useParams } from 'react-router';
 import { swapStateLabels } from '@shared/schemas/swaps';
 import { Loading, QueryError } from '@/components/ui/page';
 import { paths } from '@/lib/paths';
-import { useSwap } from '../api/get-swap';
+import { useSwap } from '@/entities/swap/api/get-swap';
 import { SwapStateBadge } from './state-badge';
 
 const tabClass = ({ isActive }: { isActive: boolean }) =>
@@ -26,20 +26,36 @@ export function SwapLayout() {
         </div>
         <p className="text-walnut-soft">{swapStateLabels[s.state]}</p>
         <nav aria-label="Swap sections" className="mt-3 flex flex-wrap gap-1">
-          <NavLink end to={paths.swap(guildId, swapId)} className={tabClass}>Overview</NavLink>
-          {s.state !== 'draft' && <NavLink to={paths.swapRoster(guildId, swapId)} className={tabClass}>Roster</NavLink>}
-          {s.canManage && ['collecting', 'sorting', 'complete'].includes(s.state) && (
-            <NavLink to={paths.swapReturn(guildId, swapId)} className={tabClass}>Return of blocks</NavLink>
+          <NavLink end to={paths.swap(guildId, swapId)} className={tabClass}>
+            Overview
+          </NavLink>
+          {s.state !== 'draft' && (
+            <NavLink to={paths.swapRoster(guildId, swapId)} className={tabClass}>
+              Roster
+            </NavLink>
           )}
-          <NavLink to={paths.swapSheet(guildId, swapId)} className={tabClass}>Swap sheet</NavLink>
+          {s.canManage && ['collecting', 'sorting', 'complete'].includes(s.state) && (
+            <NavLink to={paths.swapReturn(guildId, swapId)} className={tabClass}>
+              Return of blocks
+            </NavLink>
+          )}
+          <NavLink to={paths.swapSheet(guildId, swapId)} className={tabClass}>
+            Swap sheet
+          </NavLink>
           {(s.myPledge > 0 || s.canManage) && ['signup', 'sewing', 'collecting'].includes(s.state) && (
-            <NavLink to={paths.swapLabels(guildId, swapId)} className={tabClass}>Labels</NavLink>
+            <NavLink to={paths.swapLabels(guildId, swapId)} className={tabClass}>
+              Labels
+            </NavLink>
           )}
           {s.canManage && ['sewing', 'collecting', 'sorting'].includes(s.state) && (
-            <NavLink to={paths.swapIntake(guildId, swapId)} className={tabClass}>Intake</NavLink>
+            <NavLink to={paths.swapIntake(guildId, swapId)} className={tabClass}>
+              Intake
+            </NavLink>
           )}
           {s.canManage && s.state !== 'complete' && s.state !== 'cancelled' && (
-            <NavLink to={paths.editSwap(guildId, swapId)} className={tabClass}>Edit</NavLink>
+            <NavLink to={paths.editSwap(guildId, swapId)} className={tabClass}>
+              Edit
+            </NavLink>
           )}
         </nav>
       </header>

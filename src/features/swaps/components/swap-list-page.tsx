@@ -2,9 +2,9 @@ import { Link, useParams } from 'react-router';
 import { buttonClass } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { EmptyState, Loading, QueryError } from '@/components/ui/page';
-import { useGuild } from '@/features/guilds/api/get-guild';
+import { useGuild } from '@/entities/guild/api/get-guild';
 import { paths } from '@/lib/paths';
-import { useSwaps } from '../api/get-swaps';
+import { useSwaps } from '@/entities/swap/api/get-swaps';
 import { Deadline } from './deadline';
 import { sizeText } from './lengths';
 import { SwapStateBadge } from './state-badge';
@@ -33,7 +33,9 @@ export function SwapListPage() {
         )}
       </div>
       {list.length === 0 ? (
-        <EmptyState title="No swaps yet">{canManage ? 'Set one up: it stays a draft until you open sign-up.' : 'When an officer opens a swap, it appears here.'}</EmptyState>
+        <EmptyState title="No swaps yet">
+          {canManage ? 'Set one up: it stays a draft until you open sign-up.' : 'When an officer opens a swap, it appears here.'}
+        </EmptyState>
       ) : (
         <ul className="grid gap-5 md:grid-cols-2">
           {list.map((s) => (
@@ -48,16 +50,22 @@ export function SwapListPage() {
                   <SwapStateBadge state={s.state} />
                 </div>
                 <p className="mt-3">
-                  {sizeText(s.unfinished)} unfinished · {s.quota.min === s.quota.max ? s.quota.min : `${s.quota.min}–${s.quota.max}`} blocks each ·{' '}
+                  {sizeText(s.unfinished)} unfinished ·{' '}
+                  {s.quota.min === s.quota.max ? s.quota.min : `${s.quota.min}–${s.quota.max}`} blocks each ·{' '}
                   {s.mode === 'gift' ? 'gift swap' : 'blocks come back to the makers'}
                 </p>
                 <p>
-                  {s.signups} {s.signups === 1 ? 'member has' : 'members have'} pledged {s.pledged} block{s.pledged === 1 ? '' : 's'}
+                  {s.signups} {s.signups === 1 ? 'member has' : 'members have'} pledged {s.pledged} block
+                  {s.pledged === 1 ? '' : 's'}
                   {s.myPledge > 0 && <span className="font-semibold"> · you pledged {s.myPledge}</span>}
                 </p>
                 <div className="mt-3 space-y-1">
-                  {(s.state === 'draft' || s.state === 'signup') && <Deadline label="Sign-up closes" iso={s.signupClosesAt} timeZone={tz} />}
-                  {s.state !== 'complete' && s.state !== 'cancelled' && <Deadline label="Blocks due" iso={s.dueAt} timeZone={tz} />}
+                  {(s.state === 'draft' || s.state === 'signup') && (
+                    <Deadline label="Sign-up closes" iso={s.signupClosesAt} timeZone={tz} />
+                  )}
+                  {s.state !== 'complete' && s.state !== 'cancelled' && (
+                    <Deadline label="Blocks due" iso={s.dueAt} timeZone={tz} />
+                  )}
                 </div>
               </Card>
             </li>

@@ -1,6 +1,6 @@
 import { useParams } from 'react-router';
 import { Loading, QueryError } from '@/components/ui/page';
-import { useSwap } from '../api/get-swap';
+import { useSwap } from '@/entities/swap/api/get-swap';
 import { MySwapPanel } from './my-swap-panel';
 import { SpecCard } from './spec-card';
 import { StateTimeline } from './state-timeline';

@@ -5,7 +5,7 @@ import { Button } from '@/components/ui/button';
 import { Loading, QueryError } from '@/components/ui/page';
 import { SafetyCautions } from '@/components/ui/safety-cautions';
 import { formatInZone } from '@/lib/dates';
-import { useSwap } from '../api/get-swap';
+import { useSwap } from '@/entities/swap/api/get-swap';
 import { cuttingPlan, useCuttingPlan } from '../hooks/use-cutting-plan';
 import { BlockPreview } from './block-preview';
 import { CuttingPlanView } from './cutting-plan-view';
@@ -33,15 +33,27 @@ function YardageTable({ swap }: { swap: SwapDto }) {
       <caption className="mb-2 text-left text-xl font-semibold text-indigo-deep">Yardage by number of blocks</caption>
       <thead>
         <tr className="border-b-2 border-walnut/30">
-          <th scope="col" className="py-1 pr-3">Fabric</th>
-          {columns.map((n) => <th key={n} scope="col" className="py-1 pr-3 text-right">{n} block{n === 1 ? '' : 's'}</th>)}
+          <th scope="col" className="py-1 pr-3">
+            Fabric
+          </th>
+          {columns.map((n) => (
+            <th key={n} scope="col" className="py-1 pr-3 text-right">
+              {n} block{n === 1 ? '' : 's'}
+            </th>
+          ))}
         </tr>
       </thead>
       <tbody>
         {fabrics.map((f) => (
           <tr key={f} className="border-b border-walnut/15">
-            <th scope="row" className="py-1 pr-3 font-semibold">{f}</th>
-            {plans.map((p, i) => <td key={columns[i]} className="py-1 pr-3 text-right">{yards(p.fabrics.find((x) => x.fabric === f)?.yards ?? 0)}</td>)}
+            <th scope="row" className="py-1 pr-3 font-semibold">
+              {f}
+            </th>
+            {plans.map((p, i) => (
+              <td key={columns[i]} className="py-1 pr-3 text-right">
+                {yards(p.fabrics.find((x) => x.fabric === f)?.yards ?? 0)}
+              </td>
+            ))}
           </tr>
         ))}
       </tbody>
@@ -65,7 +77,9 @@ export function SwapSheetPage() {
           <p className="text-walnut-soft">{s.guild.name} · block swap</p>
           <h2 className="text-3xl font-bold text-indigo-deep">{s.title}</h2>
         </div>
-        <Button className="print:hidden" onClick={() => window.print()}>Print this sheet</Button>
+        <Button className="print:hidden" onClick={() => window.print()}>
+          Print this sheet
+        </Button>
       </div>
       {s.description && <p className="whitespace-pre-line">{s.description}</p>}
       <div className="grid gap-6 sm:grid-cols-[14rem_1fr] print:grid-cols-[12rem_1fr]">
@@ -76,9 +90,13 @@ export function SwapSheetPage() {
           <dt className="font-semibold">Unfinished size</dt>
           <dd>{sizeText(s.unfinished)}</dd>
           <dt className="font-semibold">Finished size</dt>
-          <dd>{sizeText(s.finished)} ({len(s.seam)} seams)</dd>
+          <dd>
+            {sizeText(s.finished)} ({len(s.seam)} seams)
+          </dd>
           <dt className="font-semibold">Tolerance</dt>
-          <dd>± {len(s.tolerance)} each side; diagonals within {len(s.squareness)}</dd>
+          <dd>
+            ± {len(s.tolerance)} each side; diagonals within {len(s.squareness)}
+          </dd>
           <dt className="font-semibold">Blocks each</dt>
           <dd>{s.quota.min === s.quota.max ? s.quota.min : `${s.quota.min} to ${s.quota.max}`}</dd>
           <dt className="font-semibold">Sign-up closes</dt>
@@ -96,7 +114,9 @@ export function SwapSheetPage() {
       {plan && <CuttingPlanView plan={plan} showYardage={false} />}
       <YardageTable swap={s} />
       <SafetyCautions topics={['cutting', 'pressing']} className="print:break-inside-avoid" />
-      <p className="text-base text-walnut-soft">Times are {tz} time. Measure your block before handing it in: {sizeText(s.unfinished)} from cut edge to cut edge.</p>
+      <p className="text-base text-walnut-soft">
+        Times are {tz} time. Measure your block before handing it in: {sizeText(s.unfinished)} from cut edge to cut edge.
+      </p>
     </article>
   );
 }

@@ -5,19 +5,28 @@ import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { Loading, PageHeader, QueryError } from '@/components/ui/page';
-import { useGuild } from '@/features/guilds/api/get-guild';
+import { useGuild } from '@/entities/guild/api/get-guild';
 import { ApiError } from '@/lib/api-client';
 import { paths } from '@/lib/paths';
 import type { SwapDto } from '@shared/swap-types';
 import { useCreateSwap } from '../../api/create-swap';
-import { useSwap } from '../../api/get-swap';
+import { useSwap } from '@/entities/swap/api/get-swap';
 import { useUpdateSwap } from '../../api/update-swap';
 import { StepBasics } from './step-basics';
 import { StepBlock } from './step-block';
 import { StepFabric } from './step-fabric';
 import { StepReview } from './step-review';
 import { StepSchedule } from './step-schedule';
-import { defaultValues, fieldName, scheduleBody, stepOf, toBody, validateValues, valuesFromSwap, type SetupValues } from './setup-values';
+import {
+  defaultValues,
+  fieldName,
+  scheduleBody,
+  stepOf,
+  toBody,
+  validateValues,
+  valuesFromSwap,
+  type SetupValues,
+} from './setup-values';
 
 const STEPS = ['Basics', 'Block', 'Fabric and colour', 'Quota, dates and mode', 'Review'] as const;
 
@@ -36,13 +45,25 @@ export function EditSwapPage() {
   const swap = useSwap(Number(useParams().swapId));
   if (swap.isPending) return <Loading />;
   if (swap.isError) return <QueryError error={swap.error} what="the swap" />;
-  return <SwapSetupForm guildId={guildId} timeZone={swap.data.guild.timeZone} initial={valuesFromSwap(swap.data)} swap={swap.data} />;
+  return (
+    <SwapSetupForm guildId={guildId} timeZone={swap.data.guild.timeZone} initial={valuesFromSwap(swap.data)} swap={swap.data} />
+  );
 }
 
 /** Which steps a swap can still change: the spec only in draft or sign-up. */
 const stepsFor = (swap?: SwapDto) => (swap && swap.state !== 'draft' && swap.state !== 'signup' ? [0, 3] : [0, 1, 2, 3, 4]);
 
-function SwapSetupForm({ guildId, timeZone, initial, swap }: { guildId: number; timeZone: string; initial: SetupValues; swap?: SwapDto }) {
+function SwapSetupForm({
+  guildId,
+  timeZone,
+  initial,
+  swap,
+}: {
+  guildId: number;
+  timeZone: string;
+  initial: SetupValues;
+  swap?: SwapDto;
+}) {
   const navigate = useNavigate();
   const create = useCreateSwap(guildId);
   const update = useUpdateSwap(swap?.id ?? 0);
@@ -57,7 +78,9 @@ function SwapSetupForm({ guildId, timeZone, initial, swap }: { guildId: number; 
   /** Puts the schema's messages beside the fields of the given steps; true when they are clean. */
   function check(onlySteps: number[]) {
     form.clearErrors();
-    const problems = Object.entries(validateValues(form.getValues(), timeZone)).filter(([f]) => onlySteps.includes(stepOf(f)) && (!scheduleOnly || stepOf(f) !== 1));
+    const problems = Object.entries(validateValues(form.getValues(), timeZone)).filter(
+      ([f]) => onlySteps.includes(stepOf(f)) && (!scheduleOnly || stepOf(f) !== 1),
+    );
     for (const [field, message] of problems) form.setError(field as Path<SetupValues>, { type: 'schema', message });
     return problems;
   }
@@ -79,7 +102,9 @@ function SwapSetupForm({ guildId, timeZone, initial, swap }: { guildId: number; 
     } catch (error) {
       // Nothing is cleared: the values stay in the form, with the server's messages beside them.
       if (!(error instanceof ApiError)) return setFormError('The swap could not be saved. Please try again.');
-      const fields = Object.entries(error.fields).map(([path, message]) => [fieldName(path, values.block.kind), message] as const);
+      const fields = Object.entries(error.fields).map(
+        ([path, message]) => [fieldName(path, values.block.kind), message] as const,
+      );
       for (const [field, message] of fields) form.setError(field as Path<SetupValues>, { type: 'server', message });
       if (fields[0]) setAt(Math.max(0, steps.indexOf(stepOf(fields[0][0]))));
       setFormError(error.message);
@@ -95,7 +120,13 @@ function SwapSetupForm({ guildId, timeZone, initial, swap }: { guildId: number; 
     <div className="space-y-6">
       <PageHeader
         title={swap ? `Edit “${swap.title}”` : 'Set up a block swap'}
-        lead={swap ? (scheduleOnly ? 'Sewing has started, so only the title, description and dates can change.' : 'Changes are saved when you press Save.') : 'It is saved as a draft: only officers see it until you open sign-up.'}
+        lead={
+          swap
+            ? scheduleOnly
+              ? 'Sewing has started, so only the title, description and dates can change.'
+              : 'Changes are saved when you press Save.'
+            : 'It is saved as a draft: only officers see it until you open sign-up.'
+        }
       />
       <ol aria-label="Steps" className="flex flex-wrap gap-2">
         {steps.map((s, i) => (
@@ -120,14 +151,29 @@ function SwapSetupForm({ guildId, timeZone, initial, swap }: { guildId: number; 
         }}
       >
         <Card title={`Step ${at + 1} of ${steps.length}: ${STEPS[step]}`}>
-          {formError && <div className="mb-4"><Alert tone="error">{formError}</Alert></div>}
+          {formError && (
+            <div className="mb-4">
+              <Alert tone="error">{formError}</Alert>
+            </div>
+          )}
           {step === 0 && <StepBasics form={form} />}
           {step === 1 && <StepBlock form={form} />}
           {step === 2 && <StepFabric form={form} />}
           {step === 3 && <StepSchedule form={form} guildId={guildId} timeZone={timeZone} scheduleOnly={scheduleOnly} />}
           {step === 4 && <StepReview form={form} timeZone={timeZone} />}
           <div className="mt-8 flex flex-wrap justify-between gap-3">
-            {at > 0 ? <Button variant="secondary" onClick={() => setAt(at - 1)}>Back</Button> : <Link className="inline-flex min-h-11 items-center font-semibold text-indigo underline" to={swap ? paths.swap(guildId, swap.id) : paths.guild(guildId)}>Cancel</Link>}
+            {at > 0 ? (
+              <Button variant="secondary" onClick={() => setAt(at - 1)}>
+                Back
+              </Button>
+            ) : (
+              <Link
+                className="inline-flex min-h-11 items-center font-semibold text-indigo underline"
+                to={swap ? paths.swap(guildId, swap.id) : paths.guild(guildId)}
+              >
+                Cancel
+              </Link>
+            )}
             <Button type="submit" pending={create.isPending || update.isPending} pendingLabel="Saving…">
               {last ? (swap ? 'Save changes' : 'Save as draft') : 'Next'}
             </Button>

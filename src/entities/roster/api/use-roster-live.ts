@@ -1,0 +1,90 @@
+import { useEffect, useRef, useState } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
+import type { BoardChange, BoardJoined } from '@shared/live-events';
+import type { RosterDto } from '@shared/swap-types';
+import { ApiError } from '@/lib/api-client';
+import { emitWithAck, getSocket } from '@/lib/socket';
+import { blockKeys } from '@/entities/block/api/block-keys';
+import { swapKeys } from '@/entities/swap/api/swap-keys';
+import { applyBoardPatch } from './apply-board-patch';
+import { rosterKeys } from './roster-keys';
+
+export interface RosterLiveHandlers {
+  /** The board room was joined (again): its viewers. */
+  onJoined?: (joined: BoardJoined) => void;
+  /** A change came in line and was patched into the roster. */
+  onPatched?: (change: BoardChange) => void;
+  /** Something was missed and the roster is fetched again: refetch whatever else follows the board. */
+  onResync?: () => unknown;
+}
+
+// Views of one swap that follow its board in this tab; the room is left when the last one closes.
+const following = new Map<number, number>();
+
+/**
+ * Keeps every cached view of a swap's roster current from the board's live changes. Each change
+ * carries the swap's next number: the next one in line is patched in with setQueryData (and the
+ * swap's block queries marked stale, so an open block refetches); an older one is ignored; a gap (or
+ * a reconnect) means something was missed, so the roster is fetched again.
+ */
+export function useRosterLive(swapId: number, handlers: RosterLiveHandlers = {}) {
+  const queryClient = useQueryClient();
+  const version = useRef<number | null>(null);
+  const latest = useRef(handlers);
+  const [joinError, setJoinError] = useState('');
+
+  useEffect(() => {
+    latest.current = handlers;
+  });
+
+  useEffect(() => {
+    const socket = getSocket();
+    following.set(swapId, (following.get(swapId) ?? 0) + 1);
+    const refetch = () =>
+      Promise.all([queryClient.invalidateQueries({ queryKey: rosterKeys.detail(swapId) }), latest.current.onResync?.()]);
+    const join = () => {
+      emitWithAck<BoardJoined>('board:join', { swapId })
+        .then((joined) => {
+          setJoinError('');
+          const missed = version.current !== null && joined.version !== version.current;
+          const first = version.current === null;
+          version.current = joined.version;
+          latest.current.onJoined?.(joined);
+          // The first load may have raced a change made while joining; a rejoin may have missed some.
+          if (missed || first) void refetch();
+        })
+        .catch((e: unknown) => setJoinError(e instanceof ApiError ? e.message : 'The live board could not connect.'));
+    };
+    const onChange = (change: BoardChange) => {
+      if (change.swapId !== swapId || version.current === null || change.version <= version.current) return;
+      const inLine = change.version === version.current + 1;
+      version.current = change.version;
+      void queryClient.invalidateQueries({ queryKey: swapKeys.detail(swapId), exact: true });
+      void queryClient.invalidateQueries({ queryKey: blockKeys.lists(swapId) });
+      void queryClient.invalidateQueries({ queryKey: blockKeys.all });
+      const cached = queryClient.getQueryData<RosterDto>(rosterKeys.detail(swapId));
+      if (!inLine || !change.patch || !cached) {
+        void refetch();
+        return;
+      }
+      queryClient.setQueryData<RosterDto>(rosterKeys.detail(swapId), applyBoardPatch(cached, change.patch));
+      latest.current.onPatched?.(change);
+    };
+    socket.on('connect', join);
+    socket.on('board:changed', onChange);
+    if (socket.connected) join();
+    return () => {
+      socket.off('connect', join);
+      socket.off('board:changed', onChange);
+      const left = (following.get(swapId) ?? 1) - 1;
+      if (left > 0) following.set(swapId, left);
+      else {
+        following.delete(swapId);
+        if (socket.connected) socket.emit('board:leave', { swapId });
+      }
+      version.current = null;
+    };
+  }, [swapId, queryClient]);
+
+  return { joinError };
+}
