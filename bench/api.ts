@@ -1,235 +1,243 @@
 /**
- * API throughput and latency, side by side with a bare reference on the same machine and database:
- * GET of a swap roster (60 members × 4 blocks) and a measurement POST, through the whole app (session,
- * CSRF check, role check, validation, the verdict recomputed) versus plain Express + pg doing one
- * equivalent query with none of that. autocannon drives both over loopback.
+ * API throughput and latency beside two bare references on the same machine and database. Every
+ * server is its own Node process: the app started as production starts it (server/index.ts,
+ * NODE_ENV=production), bare Express + pg, and bare node:http + pg (one equivalent query each, no
+ * session, no checks). Each load run is a separate autocannon process (bench/load.ts). Runs alternate
+ * app / Express / node:http and repeat; medians are reported with their spread (min–max).
+ * Run alone with `npx tsx bench/api.ts`; BENCH_SECONDS, BENCH_RUNS and BENCH_PROFILE_DIR (a folder
+ * for the app's `node --cpu-prof` profile) adjust it.
  */
-import type { Server } from 'node:http';
-import express from 'express';
-import pg from 'pg';
-import autocannon from 'autocannon';
-import supertest from 'supertest';
-import { loadConfig } from '../server/config';
-import { startServer } from '../server/index';
-import { Membership } from '../server/db/models';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
 import { freePort } from '../scripts/lib/ports';
+import type { LoadOptions, LoadResult } from './load';
+import { runNodeScript, startNodeServer, type NodeProcess } from './lib/processes';
+import { median, round, withSpread } from './lib/stats';
+import { seedSwap, signIn, type SeededSwap } from './lib/seed';
 
-export interface ApiRow {
+type Row = Record<string, string | number>;
+type ServerKey = 'app' | 'express' | 'http';
+const SERVERS: ServerKey[] = ['app', 'express', 'http'];
+const LABEL: Record<ServerKey, string> = { app: 'app', express: 'bare Express + pg', http: 'bare node:http + pg' };
+
+interface Scenario {
   name: string;
   connections: number;
   rate?: number;
-  rps: number;
-  p50_ms: number;
-  p95_ms: number;
-  p99_ms: number;
-  errors: number;
-  ratio?: string;
+  request: (server: ServerKey) => Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers'>;
 }
 
-const MEMBERS = 60;
-const BLOCKS = 4;
-const DAY = 86_400_000;
-
-async function seedSwap(url: string) {
-  const agent = () => supertest.agent(url).set('X-Requested-With', 'blockpost');
-  const coordinator = agent();
-  await coordinator.post('/api/auth/register').send({ email: 'bench-coordinator@example.test', password: 'bench-password-1', displayName: 'Bench Coordinator' }).expect(201);
-  const guild = await coordinator.post('/api/guilds').send({ name: 'Benchmark Bee' }).expect(201);
-  const guildId = guild.body.id as number;
-  const swap = await coordinator
-    .post(`/api/guilds/${guildId}/swaps`)
-    .send({
-      title: 'Bench Nine-Patch',
-      block: { kind: 'grid', columns: [3.5, 3.5, 3.5], rows: [3.5, 3.5, 3.5], seam: 0.25 },
-      tolerance: '1/8',
-      squareness: '1/4',
-      colourRules: [{ role: 'light', note: 'any cream' }],
-      quota: { min: 1, max: 6 },
-      signupClosesAt: new Date(Date.now() + 10 * DAY).toISOString(),
-      dueAt: new Date(Date.now() + 40 * DAY).toISOString(),
-      mode: 'return',
-    })
-    .expect(201);
-  const swapId = swap.body.id as number;
-  await coordinator.post(`/api/swaps/${swapId}/transitions`).send({ to: 'signup' }).expect(200);
-  for (let i = 0; i < MEMBERS; i++) {
-    const member = agent();
-    const res = await member
-      .post('/api/auth/register')
-      .send({ email: `bench-member-${i}@example.test`, password: 'bench-password-1', displayName: `Bench Maker ${String(i).padStart(2, '0')}` })
-      .expect(201);
-    await Membership.create({ guildId, userId: res.body.user.id, role: 'member' });
-    await member.post(`/api/swaps/${swapId}/signups`).send({ blocks: BLOCKS }).expect(200);
-  }
-  await coordinator.post(`/api/swaps/${swapId}/transitions`).send({ to: 'sewing' }).expect(200);
-  await coordinator.post(`/api/swaps/${swapId}/transitions`).send({ to: 'collecting' }).expect(200);
-  const roster = await coordinator.get(`/api/swaps/${swapId}/roster`).expect(200);
-  const blockIds: number[] = roster.body.rows.flatMap((r: { blocks: { id: number }[] }) => r.blocks.map((b) => b.id));
-  // Half the blocks received and measured, so the roster carries verdicts.
-  for (const id of blockIds.slice(0, blockIds.length / 2)) {
-    await coordinator.post(`/api/blocks/${id}/received`).send({}).expect(200);
-    await coordinator.post(`/api/blocks/${id}/measurements`).send({ width: '9 1/2', height: '9 7/16' }).expect(201);
-  }
-  const login = await supertest(url).post('/api/auth/login').set('X-Requested-With', 'blockpost')
-    .send({ email: 'bench-coordinator@example.test', password: 'bench-password-1' }).expect(200);
-  const cookie = (login.headers['set-cookie'] as unknown as string[]).map((c) => c.split(';')[0]).join('; ');
-  return { swapId, blockIds, cookie };
+export interface ApiBenchResult {
+  rows: Row[];
+  goals: Row[];
+  memory: Row[];
 }
 
-/** The reference: plain Express and pg, one query each, no session, no checks. */
-async function startBareReference(databaseUrl: string) {
-  const pool = new pg.Pool({ connectionString: databaseUrl, max: 10 });
-  const app = express();
-  app.use(express.json());
-  app.get('/roster/:swapId', async (req, res) => {
-    const { rows } = await pool.query(
-      `SELECT s.user_id, u.display_name, s.blocks, b.id, b.sequence, b.state, b.verdict, b.trimmed, b.recipient_id
-         FROM signups s JOIN users u ON u.id = s.user_id LEFT JOIN blocks b ON b.swap_id = s.swap_id AND b.maker_id = s.user_id
-        WHERE s.swap_id = $1 AND s.status = 'active' ORDER BY lower(u.display_name), b.sequence`,
-      [Number(req.params.swapId)],
-    );
-    res.json(rows);
-  });
-  app.post('/measure/:blockId', async (req, res) => {
-    const { rows } = await pool.query(
-      `INSERT INTO measurements (block_id, source, width, height, verdict, deviation_width, deviation_height, created_at, updated_at)
-       VALUES ($1, 'ruler', $2, $3, 'true', 0, 0, now(), now()) RETURNING id`,
-      [Number(req.params.blockId), req.body.width, req.body.height],
-    );
-    res.status(201).json(rows[0]);
-  });
-  const port = await freePort();
-  const server: Server = await new Promise((resolve) => {
-    const s = app.listen(port, '127.0.0.1', () => resolve(s));
-  });
-  return { url: `http://127.0.0.1:${port}`, close: async () => { server.close(); await pool.end(); } };
-}
+const SIZES = [
+  { members: 60, blocksEach: 4, tag: '60x4' },
+  { members: 300, blocksEach: 4, tag: '300x4' },
+  { members: 600, blocksEach: 6, tag: '600x6' },
+];
 
-const percentile = (sorted: number[], p: number) => sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))] ?? 0;
-
-/** One autocannon run; latencies recorded per response so p95 is exact. */
-async function cannon(opts: { name: string; url: string; connections: number; duration: number; rate?: number; method?: 'GET' | 'POST'; headers?: Record<string, string>; paths?: string[]; body?: string }): Promise<ApiRow> {
-  const latencies: number[] = [];
-  let next = 0;
-  let finish!: (r: autocannon.Result) => void;
-  let fail!: (e: unknown) => void;
-  const done = new Promise<autocannon.Result>((resolve, reject) => ((finish = resolve), (fail = reject)));
-  const instance = autocannon({
-    url: opts.url,
-    connections: opts.connections,
-    duration: opts.duration,
-    overallRate: opts.rate,
-    headers: { 'content-type': 'application/json', ...opts.headers },
-    requests: [
-      {
-        method: opts.method ?? 'GET',
-        body: opts.body,
-        setupRequest: (req) => (opts.paths ? { ...req, path: opts.paths[next++ % opts.paths.length] } : req),
-      },
-    ],
-  }, (err, result) => (err ? fail(err) : finish(result)));
-  instance.on('response', (_client, _status, _bytes, responseTime) => latencies.push(responseTime));
-  const result = await done;
-  latencies.sort((a, b) => a - b);
-  return {
-    name: opts.name,
-    connections: opts.connections,
-    ...(opts.rate ? { rate: opts.rate } : {}),
-    rps: Math.round(result.requests.average),
-    p50_ms: round(percentile(latencies, 50)),
-    p95_ms: round(percentile(latencies, 95)),
-    p99_ms: round(percentile(latencies, 99)),
-    errors: result.errors + result.non2xx,
-  };
-}
-
-const round = (n: number) => Math.round(n * 100) / 100;
-
-/**
- * An open-model load at a steady rate: one request every 1/rate s whatever the answers do, so
- * latency is measured without the bursts autocannon's per-second rate limit produces.
- */
-async function paced(opts: { name: string; url: string; rate: number; duration: number; headers: Record<string, string> }): Promise<ApiRow> {
-  const latencies: number[] = [];
-  let errors = 0;
-  const inflight: Promise<void>[] = [];
-  const start = performance.now();
-  const total = opts.rate * opts.duration;
-  for (let i = 0; i < total; i++) {
-    const due = start + (i * 1000) / opts.rate;
-    const wait = due - performance.now();
-    if (wait > 0) await new Promise((r) => setTimeout(r, wait));
-    const sent = performance.now();
-    inflight.push(
-      fetch(opts.url, { headers: opts.headers })
-        .then(async (res) => {
-          await res.arrayBuffer();
-          if (!res.ok) errors += 1;
-          latencies.push(performance.now() - sent);
-        })
-        .catch(() => void (errors += 1)),
-    );
-  }
-  await Promise.all(inflight);
-  const elapsed = (performance.now() - start) / 1000;
-  latencies.sort((a, b) => a - b);
-  return {
-    name: opts.name, connections: 0, rate: opts.rate, rps: Math.round(latencies.length / elapsed),
-    p50_ms: round(percentile(latencies, 50)), p95_ms: round(percentile(latencies, 95)), p99_ms: round(percentile(latencies, 99)), errors,
-  };
-}
-
-export async function runApiBench(opts: { duration?: number } = {}): Promise<ApiRow[]> {
-  const duration = opts.duration ?? 8;
+export async function runApiBench(opts: { duration?: number; runs?: number; profileDir?: string } = {}): Promise<ApiBenchResult> {
+  const duration = opts.duration ?? 5;
+  const runs = opts.runs ?? 3;
   const cluster = await startThrowawayCluster('blockpost-bench-');
-  const databaseUrl = await cluster.database('bench');
-  const port = await freePort();
-  const server = await startServer(
-    loadConfig({
-      NODE_ENV: 'production', DATABASE_URL: databaseUrl, SESSION_SECRET: 'bench-secret-bench-secret', PORT: String(port),
-      LOG_LEVEL: 'silent', SERVE_CLIENT: 'false', JOBS: 'false', SMTP_URL: 'smtp://127.0.0.1:9', LOGIN_RATE_LIMIT: '1000',
-    }),
-  );
-  const bare = await startBareReference(databaseUrl);
-  const rows: ApiRow[] = [];
+  const servers: Partial<Record<ServerKey, NodeProcess>> = {};
   try {
-    const { swapId, blockIds, cookie } = await seedSwap(server.url);
-    const measured = blockIds.slice(0, blockIds.length / 2).map((id) => `/api/blocks/${id}/measurements`);
-    const app = { Cookie: cookie, 'X-Requested-With': 'blockpost' };
-    const body = JSON.stringify({ width: '9 1/2', height: '9 1/2' });
-    // Steady-rate runs first, on a rested machine, after a short warm-up of both servers.
-    await paced({ name: 'warm-up', url: `${server.url}/api/swaps/${swapId}/roster`, rate: 50, duration: 1, headers: app });
-    await paced({ name: 'warm-up', url: `${bare.url}/roster/${swapId}`, rate: 50, duration: 1, headers: {} });
-    for (const rate of [50, 100, 200]) {
-      const mine = await paced({ name: 'GET roster (app), steady rate', url: `${server.url}/api/swaps/${swapId}/roster`, rate, duration, headers: app });
-      const ref = await paced({ name: 'GET roster (bare), steady rate', url: `${bare.url}/roster/${swapId}`, rate, duration, headers: {} });
-      rows.push({ ...mine, ratio: 'goal p95 < 20 ms at 200 req/s' }, ref);
+    const databaseUrl = await cluster.database('bench');
+    servers.app = await startNodeServer({
+      name: 'app',
+      script: 'server/index.ts',
+      port: await freePort(),
+      readyPath: '/api/health',
+      nodeArgs: opts.profileDir ? ['--cpu-prof', `--cpu-prof-dir=${opts.profileDir}`] : [],
+      env: {
+        NODE_ENV: 'production',
+        DATABASE_URL: databaseUrl,
+        SESSION_SECRET: 'bench-secret-bench-secret',
+        HOST: '127.0.0.1',
+        LOG_LEVEL: 'warn',
+        SERVE_CLIENT: 'false',
+        JOBS: 'false',
+        SMTP_URL: 'smtp://127.0.0.1:9',
+        LOGIN_RATE_LIMIT: '1000',
+      },
+    });
+    const bareEnv = { DATABASE_URL: databaseUrl, NODE_ENV: 'production' };
+    servers.express = await startNodeServer({
+      name: 'bare Express',
+      script: 'bench/servers/bare-express.ts',
+      port: await freePort(),
+      readyPath: '/health',
+      env: bareEnv,
+    });
+    servers.http = await startNodeServer({
+      name: 'bare node:http',
+      script: 'bench/servers/bare-http.ts',
+      port: await freePort(),
+      readyPath: '/health',
+      env: bareEnv,
+    });
+    const url = (s: ServerKey) => servers[s]!.url;
+
+    const coordinator = await signIn(url('app'), 'bench-coordinator@example.test', 'Bench Coordinator');
+    const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Benchmark Bee' });
+    const swaps: SeededSwap[] = [];
+    for (const size of SIZES) swaps.push(await seedSwap(databaseUrl, coordinator, guild.id, size));
+    const [small] = swaps as [SeededSwap];
+    const appHeaders = { cookie: coordinator.cookie, 'x-requested-with': 'blockpost' };
+
+    const roster = (swap: SeededSwap) => (s: ServerKey) =>
+      s === 'app' ? { paths: [`/api/swaps/${swap.swapId}/roster`], headers: appHeaders } : { paths: [`/roster/${swap.swapId}`] };
+    // The app parses "9 1/2" and works out the verdict; the references store plain numbers.
+    const measure = (s: ServerKey) =>
+      s === 'app'
+        ? {
+            method: 'POST' as const,
+            paths: small.measuredBlockIds.map((id) => `/api/blocks/${id}/measurements`),
+            headers: appHeaders,
+            body: JSON.stringify({ width: '9 1/2', height: '9 1/2' }),
+          }
+        : {
+            method: 'POST' as const,
+            paths: small.measuredBlockIds.map((id) => `/measure/${id}`),
+            body: JSON.stringify({ width: 9.5, height: 9.5 }),
+          };
+    const sizeName = (swap: SeededSwap) => `${swap.members} × ${swap.blocksEach}`;
+    const scenarios: Scenario[] = [
+      { name: `GET roster ${sizeName(small)}, 10 connections`, connections: 10, request: roster(small) },
+      { name: `GET roster ${sizeName(small)}, 50 connections`, connections: 50, request: roster(small) },
+      {
+        name: `GET roster ${sizeName(small)}, fixed 200 req/s, 20 connections`,
+        connections: 20,
+        rate: 200,
+        request: roster(small),
+      },
+      { name: 'POST measurement, 10 connections', connections: 10, request: measure },
+      { name: 'POST measurement, 50 connections', connections: 50, request: measure },
+      ...swaps
+        .slice(1)
+        .map((swap) => ({ name: `GET roster ${sizeName(swap)}, 10 connections`, connections: 10, request: roster(swap) })),
+    ];
+
+    const load = (s: ServerKey, scenario: Scenario, seconds: number) =>
+      runNodeScript<LoadResult>('bench/load.ts', {
+        url: url(s),
+        connections: scenario.connections,
+        duration: seconds,
+        rate: scenario.rate,
+        ...scenario.request(s),
+      } satisfies LoadOptions);
+
+    // A short untimed run of each server first, so every JIT has settled before the first figure.
+    for (const s of SERVERS) await load(s, scenarios[0]!, 2);
+
+    const rows: Row[] = [];
+    const goals: Row[] = [];
+    const medians = new Map<string, Record<ServerKey, { rps: number; p99: number }>>();
+    for (const scenario of scenarios) {
+      const results: Record<ServerKey, LoadResult[]> = { app: [], express: [], http: [] };
+      for (let run = 0; run < runs; run++) for (const s of SERVERS) results[s].push(await load(s, scenario, duration));
+      const bytes = Object.fromEntries(
+        await Promise.all(SERVERS.map(async (s) => [s, await bytesPerResponse(url(s), scenario.request(s))])),
+      ) as Record<ServerKey, number>;
+      const expressRps = median(results.express.map((r) => r.rps));
+      const summary = {} as Record<ServerKey, { rps: number; p99: number }>;
+      for (const s of SERVERS) {
+        const rs = results[s];
+        const rps = median(rs.map((r) => r.rps));
+        summary[s] = { rps, p99: median(rs.map((r) => r.p99)) };
+        rows.push({
+          scenario: scenario.name,
+          server: LABEL[s],
+          rps: withSpread(rs.map((r) => r.rps)),
+          p50_ms: withSpread(rs.map((r) => r.p50)),
+          'p97.5_ms': withSpread(rs.map((r) => r.p97_5)),
+          p99_ms: withSpread(rs.map((r) => r.p99)),
+          bytes: bytes[s],
+          errors: rs.reduce((n, r) => n + r.errors + r.non2xx, 0),
+          'of Express': s === 'express' ? '100 %' : `${Math.round((rps / expressRps) * 100)} %`,
+        });
+      }
+      medians.set(scenario.name, summary);
+      console.log(
+        `  ${scenario.name}: app ${round(summary.app.rps)} rps, Express ${round(expressRps)} rps, node:http ${round(summary.http.rps)} rps`,
+      );
     }
-    for (const connections of [50, 200]) {
-      const mine = await cannon({ name: 'GET roster (app)', url: `${server.url}/api/swaps/${swapId}/roster`, connections, duration, headers: app });
-      const ref = await cannon({ name: 'GET roster (bare Express + pg)', url: `${bare.url}/roster/${swapId}`, connections, duration });
-      rows.push({ ...mine, ratio: `${Math.round((mine.rps / ref.rps) * 100)} % of bare` }, ref);
+
+    const pct = (a: number, b: number) => Math.round((a / b) * 100);
+    const at = (name: string) => medians.get(name)!;
+    for (const c of [10, 50]) {
+      const m = at(`GET roster ${sizeName(small)}, ${c} connections`);
+      goals.push(
+        goal(
+          `GET roster, ${c} connections: app ≥ 50 % of Express`,
+          `${pct(m.app.rps, m.express.rps)} %`,
+          m.app.rps >= 0.5 * m.express.rps,
+        ),
+      );
     }
-    // The bare reference takes plain numbers; the app parses "9 1/2" and recomputes the verdict itself.
-    const bareBody = JSON.stringify({ width: 9.5, height: 9.5 });
-    const probe = await fetch(`${bare.url}${measured[0]!.replace('/api/blocks/', '/measure/').replace('/measurements', '')}`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: bareBody });
-    if (probe.status !== 201) throw new Error(`the bare reference refused a measurement: ${probe.status} ${await probe.text()}`);
-    for (const connections of [50, 200]) {
-      const mine = await cannon({ name: 'POST measurement (app)', url: server.url, connections, duration, method: 'POST', headers: app, paths: measured, body });
-      const refPaths = measured.map((p) => p.replace('/api/blocks/', '/measure/').replace('/measurements', ''));
-      const ref = await cannon({ name: 'POST measurement (bare)', url: bare.url, connections, duration, method: 'POST', paths: refPaths, body: bareBody });
-      rows.push({ ...mine, ratio: `${Math.round((mine.rps / ref.rps) * 100)} % of bare` }, ref);
+    const paced = at(`GET roster ${sizeName(small)}, fixed 200 req/s, 20 connections`);
+    goals.push(goal('GET roster at 200 req/s: rate kept (≥ 195/s)', `${round(paced.app.rps)} req/s`, paced.app.rps >= 195));
+    goals.push(
+      goal(
+        'GET roster at 200 req/s: app p99 ≤ 2 × Express p99',
+        `${paced.app.p99} ms vs ${paced.express.p99} ms`,
+        paced.app.p99 <= 2 * paced.express.p99,
+      ),
+    );
+    for (const c of [10, 50]) {
+      const m = at(`POST measurement, ${c} connections`);
+      goals.push(
+        goal(
+          `POST measurement, ${c} connections: app ≥ 25 % of Express`,
+          `${pct(m.app.rps, m.express.rps)} %`,
+          m.app.rps >= 0.25 * m.express.rps,
+        ),
+      );
     }
+    const ratios = swaps.map((swap) => {
+      const m = at(`GET roster ${sizeName(swap)}, 10 connections`);
+      return pct(m.app.rps, m.express.rps);
+    });
+    goals.push(
+      goal(
+        `roster ratio across ${swaps.map(sizeName).join(', ')} within 10 points`,
+        ratios.map((r) => `${r} %`).join(', '),
+        Math.max(...ratios) - Math.min(...ratios) <= 10,
+      ),
+    );
+
+    const memory: Row[] = SERVERS.map((s) => {
+      const m = servers[s]!.memory();
+      return { server: LABEL[s], rss_MiB: m?.rssMiB ?? 'n/a', peak_rss_MiB: m?.peakMiB ?? 'n/a' };
+    });
+    return { rows, goals, memory };
   } finally {
-    await bare.close();
-    await server.close();
+    for (const s of SERVERS) await servers[s]?.stop().catch(() => undefined);
     cluster.stop();
   }
-  return rows;
+}
+
+const goal = (name: string, measured: string, met: boolean): Row => ({ goal: name, measured, met: met ? 'yes' : 'NO' });
+
+async function bytesPerResponse(base: string, req: Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers'>): Promise<number> {
+  const res = await fetch(base + req.paths[0], {
+    method: req.method ?? 'GET',
+    headers: { 'content-type': 'application/json', ...req.headers },
+    body: req.body,
+  });
+  return (await res.arrayBuffer()).byteLength;
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
-  console.table(await runApiBench({ duration: Number(process.env.BENCH_SECONDS ?? 8) }));
+  const result = await runApiBench({
+    duration: Number(process.env.BENCH_SECONDS ?? 5),
+    runs: Number(process.env.BENCH_RUNS ?? 3),
+    profileDir: process.env.BENCH_PROFILE_DIR,
+  });
+  console.table(result.rows);
+  console.table(result.goals);
+  console.table(result.memory);
   process.exit(0);
 }
