@@ -14,9 +14,10 @@ import { photoSweepFeature } from './uploads/photos.startup';
 import { swapsRouter } from './swaps/swaps.routes';
 import { blocksRouter } from './blocks/blocks.routes';
 import { distributionRouter } from './distribution/distribution.routes';
+import { exportsRouter } from './exports/exports.routes';
 import { sewDaysRouter } from './sewdays/sewdays.routes';
 import { notificationsRouter } from './notifications/notifications.routes';
-import { mailJobsFeature } from './jobs/startup';
+import { mailJobsFeature } from './mail/mail.startup';
 import { chatRouter } from './chat/chat.routes';
 import { boardRouter } from './board/board.routes';
 import { photoEstimatesRouter } from './photo-estimates/photo-estimates.routes';
@@ -45,6 +46,7 @@ export const featureRouters: FeatureRouter[] = [
   swapsRouter,
   blocksRouter,
   distributionRouter,
+  exportsRouter,
   photosRouter,
   notificationsRouter,
   intakeRouter,

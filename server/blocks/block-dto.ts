@@ -3,7 +3,7 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import type { BlockDto, MeasurementDto, PhotoRefDto } from '@shared/swap-types';
 import { Block, type Measurement, type Swap } from '../db/models';
 import { hasPhotosTable, photoRef } from './photo-refs';
-import { LATEST_ESTIMATES, NEWEST_ESTIMATE_FIRST, latestEstimateDtos, type LatestEstimateRow } from '../photo-estimates/estimate-dto';
+import { LATEST_ESTIMATES, NEWEST_ESTIMATE_FIRST, latestEstimateDtos, type LatestEstimateRow } from './latest-estimate';
 
 export function isAccepted(block: Pick<Block, 'verdict' | 'trimmed' | 'state'>): boolean {
   if (block.state !== 'measured' && block.state !== 'returned') return false;

@@ -1,8 +1,10 @@
-/** Block routes: the maker's steps, the coordinator's intake and measuring. */
+/** Block routes: a swap's block list, the maker's steps, the coordinator's intake and measuring. */
 import { Router, type Request, type Response } from 'express';
 import { blockParamsSchema, handInSchema, measurementBodySchema, receiveSchema } from '@shared/schemas/blocks';
+import { blocksQuerySchema, swapParamsSchema, type BlocksQuery } from '@shared/schemas/swaps';
 import { validate } from '../http/validate';
 import { currentUser, requireUser } from '../auth/require-user';
+import { canReadSwap } from '../swaps/swaps.policy';
 import { canActAsMaker, canManageBlock, canReadBlock } from './blocks.policy';
 import type { AppDeps } from '../deps';
 import * as blocks from './blocks.service';
@@ -19,6 +21,12 @@ function reply<T>(res: Response, answer: Answer<T>) {
 
 export function blocksRouter(deps: AppDeps) {
   const router = Router();
+
+  router.get('/swaps/:swapId/blocks', requireUser, validate({ params: swapParamsSchema, query: blocksQuerySchema }), async (req, res) => {
+    const userId = currentUser(req).id;
+    const { swap, canManage } = await canReadSwap(userId, (req.params as unknown as { swapId: number }).swapId);
+    res.json(await blocks.listBlocks(swap, { userId, canManage }, req.query as unknown as BlocksQuery));
+  });
 
   router.get('/blocks/:blockId', requireUser, params, async (req, res) => {
     const { block } = await canReadBlock(currentUser(req).id, blockId(req));

@@ -2,7 +2,7 @@ import { QueryTypes } from 'sequelize';
 import type { BoardChange, BoardPatch } from '@shared/live-events';
 import type { RosterDto } from '@shared/swap-types';
 import { Swap } from '../db/models';
-import { getRoster } from '../swaps/roster.service';
+import { getRoster } from './roster.service';
 import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
 import { activitiesById, recordActivities, type SwapEvent } from './board-activity';

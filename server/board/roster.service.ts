@@ -7,7 +7,7 @@ import type { BlockState } from '@shared/schemas/swaps';
 import type { RosterBlockDto, RosterCounts, RosterDto, RosterRowDto } from '@shared/swap-types';
 import { Swap } from '../db/models';
 import { hasPhotosTable, photoRef } from '../blocks/photo-refs';
-import { latestEstimateDto, type LatestEstimateRow } from '../photo-estimates/estimate-dto';
+import { latestEstimateDto, type LatestEstimateRow } from '../blocks/latest-estimate';
 
 const ORDER: readonly BlockState[] = ['pledged', 'sewn', 'handed_in', 'received', 'measured', 'returned'];
 // Asked a dozen times per block: a lookup rather than two searches of ORDER.

@@ -4,7 +4,7 @@ import { blockStateLabels } from '@shared/schemas/swaps';
 import type { Swap } from '../db/models';
 import { ConflictError } from '../http/errors';
 import { confirmedTransfers } from '../distribution/distribution.service';
-import { buildRoster } from './roster.service';
+import { buildRoster } from '../board/roster.service';
 
 // A cell starting with = + - @ (or tab/CR) runs as a formula in spreadsheets; a leading ' keeps it text.
 function safeCell(value: unknown): string | number {
@@ -20,7 +20,7 @@ function csv(header: string[], rows: (string | number | null | undefined)[][]): 
 
 /** "Harvest Stripes" → "harvest-stripes", for file names. */
 export function slug(title: string): string {
-  const s = title.normalize('NFKD').replace(/[\u0300-\u036f]/g, '').toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '');
+  const s = title.normalize('NFKD').replace(/[\u0300-\u036f]/g, '').toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, ''); // runs are single hyphens by now
   return s.slice(0, 60) || 'swap';
 }
 

@@ -7,7 +7,7 @@ import type pg from 'pg';
 import type { AnyMailCategory, MailCategory } from '@shared/schemas/notifications';
 import type { Config } from '../config';
 import type { Mailer } from './mailer';
-import { optedOut, optedOutReason } from '../notifications/preferences';
+import { optedOut, optedOutReason } from './preferences';
 import { unsubscribeHeaders, unsubscribeToken } from './unsubscribe-token';
 
 /** How long a claim holds; a worker that dies mid-send lets the message go after this. */

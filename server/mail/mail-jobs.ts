@@ -6,17 +6,17 @@
  */
 import type PgBoss from 'pg-boss';
 import type { AppDeps } from '../deps';
-import type { Mailer } from '../mail/mailer';
-import { deliverMessage, RetryableDeliveryError } from '../mail/deliver';
-import { requeueStalled, type RecordResult } from '../mail/outbox';
-import type { ComposeDeps } from '../mail/compose/context';
-import { composeAnnouncement } from '../mail/compose/announcement';
-import { composeSignupConfirmation } from '../mail/compose/signup-confirmation';
-import { composeReminders } from '../mail/compose/reminders';
-import { composeReceipt } from '../mail/compose/receipt';
-import { composeDistribution } from '../mail/compose/distribution';
-import { composeDigests } from '../mail/compose/digest';
-import { queues, startBoss } from './queue';
+import type { Mailer } from './mailer';
+import { deliverMessage, RetryableDeliveryError } from './deliver';
+import { requeueStalled, type RecordResult } from './outbox';
+import type { ComposeDeps } from './compose/context';
+import { composeAnnouncement } from './compose/announcement';
+import { composeSignupConfirmation } from './compose/signup-confirmation';
+import { composeReminders } from './compose/reminders';
+import { composeReceipt } from './compose/receipt';
+import { composeDistribution } from './compose/distribution';
+import { composeDigests } from './compose/digest';
+import { queues, startBoss } from '../jobs/queue';
 
 const SEND_WORKERS = 4;
 

@@ -8,7 +8,7 @@ import type { z } from 'zod';
 import { MailMessage, User } from '../db/models';
 import { NotFoundError, ValidationError } from '../http/errors';
 import { verifyUnsubscribeToken } from '../mail/unsubscribe-token';
-import { preferencesOf, setPreferences } from './preferences';
+import { preferencesOf, setPreferences } from '../mail/preferences';
 
 export const LOG_PAGE_SIZE = 50;
 

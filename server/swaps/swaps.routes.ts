@@ -1,10 +1,7 @@
-/** Swap routes: set-up, states, sign-ups, roster, block lists and exports. */
-import { Router, type Request, type Response } from 'express';
+/** Swap routes: set-up, states and sign-ups. */
+import { Router, type Request } from 'express';
 import { guildParamsSchema } from '@shared/schemas/guilds';
-import {
-  blocksQuerySchema, createSwapSchema, signupSchema, swapParamsSchema, transitionSchema, updateSwapSchema,
-  type BlocksQuery,
-} from '@shared/schemas/swaps';
+import { createSwapSchema, signupSchema, swapParamsSchema, transitionSchema, updateSwapSchema } from '@shared/schemas/swaps';
 import { validate } from '../http/validate';
 import { currentUser, requireUser } from '../auth/require-user';
 import { authorizeGuild, can } from '../guilds/guilds.policy';
@@ -12,9 +9,6 @@ import type { AppDeps } from '../deps';
 import { canJoinSwap, canManageSwap, canReadSwap } from './swaps.policy';
 import * as swaps from './swaps.service';
 import * as signups from './signups.service';
-import { getRoster } from './roster.service';
-import { distributionCsv, rosterCsv } from './exports';
-import { listBlocks } from '../blocks/blocks.service';
 
 const swapId = (req: Request) => (req.params as unknown as { swapId: number }).swapId;
 const params = validate({ params: swapParamsSchema });
@@ -78,35 +72,5 @@ export function swapsRouter(deps: AppDeps) {
     res.status(204).end();
   });
 
-  router.get('/swaps/:swapId/roster', requireUser, params, async (req, res) => {
-    const { swap, canManage } = await canReadSwap(currentUser(req).id, swapId(req));
-    res.json(await getRoster(swap, { withAddresses: canManage }));
-  });
-
-  router.get('/swaps/:swapId/blocks', requireUser, validate({ params: swapParamsSchema, query: blocksQuerySchema }), async (req, res) => {
-    const userId = currentUser(req).id;
-    const { swap, canManage } = await canReadSwap(userId, swapId(req));
-    res.json(await listBlocks(swap, { userId, canManage }, req.query as unknown as BlocksQuery));
-  });
-
-  router.get('/swaps/:swapId/export/roster.csv', requireUser, params, async (req, res) => {
-    const { swap } = await canManageSwap(currentUser(req).id, swapId(req));
-    sendCsv(res, await rosterCsv(swap));
-  });
-
-  router.get('/swaps/:swapId/export/distribution.csv', requireUser, params, async (req, res) => {
-    const { swap } = await canManageSwap(currentUser(req).id, swapId(req));
-    sendCsv(res, await distributionCsv(swap));
-  });
-
   return router;
-}
-
-function sendCsv(res: Response, file: { fileName: string; body: string }) {
-  res
-    .status(200)
-    .set('Content-Type', 'text/csv; charset=utf-8')
-    .set('Content-Disposition', `attachment; filename="${file.fileName}"`)
-    .set('Cache-Control', 'no-store')
-    .send(file.body);
 }

@@ -12,7 +12,7 @@ import { createTestApp, type TestApp } from '../helpers/test-app';
 import { signedInUser } from '../helpers/factories';
 import { inject } from 'vitest';
 import { mailTo, waitForMail, type CaughtMail } from '../helpers/maildev';
-import { startMailJobs, type MailJobs } from '../../server/jobs/mail-jobs';
+import { startMailJobs, type MailJobs } from '../../server/mail/mail-jobs';
 import { queues } from '../../server/jobs/queue';
 import { recordAndQueue, type OutgoingRecord } from '../../server/mail/outbox';
 import { createMailer } from '../../server/mail/mailer';

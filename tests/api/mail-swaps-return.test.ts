@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles, joinGuild } from '../helpers/factories';
 import { mailTo, waitForMail, type CaughtMail } from '../helpers/maildev';
-import { startMailJobs, type MailJobs } from '../../server/jobs/mail-jobs';
+import { startMailJobs, type MailJobs } from '../../server/mail/mail-jobs';
 
 type Roles = Awaited<ReturnType<typeof guildWithRoles>>;
 type Person = Roles['member'];

@@ -10,7 +10,7 @@ import supertest from 'supertest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles, joinGuild } from '../helpers/factories';
 import { mailTo, waitForMail, type CaughtMail } from '../helpers/maildev';
-import { startMailJobs, type MailJobs } from '../../server/jobs/mail-jobs';
+import { startMailJobs, type MailJobs } from '../../server/mail/mail-jobs';
 import { MailMessage } from '../../server/db/models';
 
 type Roles = Awaited<ReturnType<typeof guildWithRoles>>;

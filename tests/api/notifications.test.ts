@@ -8,7 +8,7 @@ import supertest from 'supertest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles, signedInUser } from '../helpers/factories';
 import { mailTo } from '../helpers/maildev';
-import { startMailJobs } from '../../server/jobs/mail-jobs';
+import { startMailJobs } from '../../server/mail/mail-jobs';
 import { recordAndQueue } from '../../server/mail/outbox';
 import { unsubscribeToken } from '../../server/mail/unsubscribe-token';
 import { MailMessage } from '../../server/db/models';

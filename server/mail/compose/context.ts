@@ -8,7 +8,7 @@ import type { Role } from '@shared/schemas/guilds';
 import { Guild, Membership, Swap, User } from '../../db/models';
 import type { Config } from '../../config';
 import type { Logger } from '../../logger';
-import { optedOut, optedOutReason } from '../../notifications/preferences';
+import { optedOut, optedOutReason } from '../preferences';
 import type { OutgoingRecord } from '../outbox';
 import type { MailFrame, RenderedMail, TemplateName } from '../render';
 import { unsubscribePageUrl, unsubscribeToken } from '../unsubscribe-token';
