@@ -2,6 +2,7 @@ import js from '@eslint/js';
 import tseslint from 'typescript-eslint';
 import reactHooks from 'eslint-plugin-react-hooks';
 import globals from 'globals';
+import regexp from 'eslint-plugin-regexp';
 
 export default tseslint.config(
   { ignores: ['dist/', 'node_modules/', '.data/', 'uploads/', 'coverage/', 'backups/'] },
@@ -14,6 +15,15 @@ export default tseslint.config(
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
       '@typescript-eslint/consistent-type-imports': ['error', { fixStyle: 'inline-type-imports' }],
       'no-console': 'off',
+    },
+  },
+  // Every pattern must run in linear time on whatever a person sends: a backtracking pattern lets one
+  // request hold the event loop for seconds.
+  regexp.configs['flat/recommended'],
+  {
+    rules: {
+      'regexp/no-super-linear-backtracking': 'error',
+      'regexp/no-super-linear-move': 'error',
     },
   },
   {

@@ -102,7 +102,7 @@ export function fromMulterError(error: unknown): unknown {
     }
   }
   // The person stopped the upload or lost the connection: their mistake to retry, not our failure.
-  if (error instanceof Error && /^Request (aborted|closed|error)$/.test(error.message)) {
+  if (error instanceof Error && /^Request (?:aborted|closed|error)$/.test(error.message)) {
     return new PhotoRejectedError(400, 'upload_interrupted', 'The upload stopped before it finished. Nothing was saved; please send the photos again.');
   }
   // busboy's own complaints (a malformed multipart body) carry no status.

@@ -16,18 +16,56 @@ const UNIT_FACTORS: Record<string, Fraction> = {
 
 /** Every spelling of a unit we accept, mapped to its canonical name. */
 const UNIT_WORDS: Record<string, string> = {
-  '': 'in', '"': 'in', "''": 'in', in: 'in', 'in.': 'in', inch: 'in', inches: 'in',
-  mm: 'mm', millimetre: 'mm', millimetres: 'mm', millimeter: 'mm', millimeters: 'mm',
-  cm: 'cm', centimetre: 'cm', centimetres: 'cm', centimeter: 'cm', centimeters: 'cm',
-  m: 'm', metre: 'm', metres: 'm', meter: 'm', meters: 'm',
-  yd: 'yd', yds: 'yd', yard: 'yd', yards: 'yd',
-  ft: 'ft', foot: 'ft', feet: 'ft',
+  '': 'in',
+  '"': 'in',
+  "''": 'in',
+  in: 'in',
+  'in.': 'in',
+  inch: 'in',
+  inches: 'in',
+  mm: 'mm',
+  millimetre: 'mm',
+  millimetres: 'mm',
+  millimeter: 'mm',
+  millimeters: 'mm',
+  cm: 'cm',
+  centimetre: 'cm',
+  centimetres: 'cm',
+  centimeter: 'cm',
+  centimeters: 'cm',
+  m: 'm',
+  metre: 'm',
+  metres: 'm',
+  meter: 'm',
+  meters: 'm',
+  yd: 'yd',
+  yds: 'yd',
+  yard: 'yd',
+  yards: 'yd',
+  ft: 'ft',
+  foot: 'ft',
+  feet: 'ft',
 };
 
 const VULGAR: Record<string, [number, number]> = {
-  '½': [1, 2], '⅓': [1, 3], '⅔': [2, 3], '¼': [1, 4], '¾': [3, 4], '⅕': [1, 5], '⅖': [2, 5],
-  '⅗': [3, 5], '⅘': [4, 5], '⅙': [1, 6], '⅚': [5, 6], '⅐': [1, 7], '⅛': [1, 8], '⅜': [3, 8],
-  '⅝': [5, 8], '⅞': [7, 8], '⅑': [1, 9], '⅒': [1, 10],
+  '½': [1, 2],
+  '⅓': [1, 3],
+  '⅔': [2, 3],
+  '¼': [1, 4],
+  '¾': [3, 4],
+  '⅕': [1, 5],
+  '⅖': [2, 5],
+  '⅗': [3, 5],
+  '⅘': [4, 5],
+  '⅙': [1, 6],
+  '⅚': [5, 6],
+  '⅐': [1, 7],
+  '⅛': [1, 8],
+  '⅜': [3, 8],
+  '⅝': [5, 8],
+  '⅞': [7, 8],
+  '⅑': [1, 9],
+  '⅒': [1, 10],
 };
 const SUPERSCRIPT = '⁰¹²³⁴⁵⁶⁷⁸⁹';
 const SUBSCRIPT = '₀₁₂₃₄₅₆₇₈₉';
@@ -65,8 +103,28 @@ function normalise(text: string): string {
   return out.trim().replace(/\s+/g, ' ').toLowerCase();
 }
 
-const NUMBER_PART = String.raw`[\d.,/ -]*[\d.]`;
-const SHAPE = new RegExp(String.raw`^(${NUMBER_PART})\s*([a-z"'.]*)$`);
+/** Longest text parseLength reads; a length needs far fewer characters, and long input is refused unread. */
+export const MAX_LENGTH_TEXT = 40;
+
+const NUMBER_CHARS = new Set('0123456789.,/ -');
+const UNIT_TAIL = /^[a-z"'.]*$/;
+
+/**
+ * Splits normalised text (lower case, single spaces) into its number and its unit word in one pass,
+ * or null when it has no such shape. A dot may belong to either (`8.` and `in.`): the number takes
+ * every dot it can, as a greedy pattern would, but nothing is ever tried twice.
+ */
+export function splitLengthText(s: string): [string, string] | null {
+  let end = 0;
+  while (end < s.length && NUMBER_CHARS.has(s[end]!)) end += 1;
+  const unit = s.slice(end);
+  if (!UNIT_TAIL.test(unit)) return null;
+  let last = end;
+  while (last > 0 && s[last - 1] === ' ') last -= 1;
+  const tail = s[last - 1];
+  if (tail === undefined || !(tail === '.' || (tail >= '0' && tail <= '9'))) return null;
+  return [s.slice(0, last), unit];
+}
 const INTEGER = /^\d+$/;
 const DECIMAL = /^(\d*)[.,](\d*)$/;
 const FRACTION = /^(\d+)\/(\d+)$/;
@@ -78,7 +136,10 @@ function readNumber(raw: string, input: string): Fraction {
   const dec = DECIMAL.exec(s);
   if (dec && (dec[1] || dec[2])) {
     if (s.includes(',') && dec[2]?.length === 3) {
-      throw new LengthParseError(input, `“${input}” is ambiguous: write ${dec[1]}${dec[2]} or ${dec[1]}.${dec[2]} without the comma.`);
+      throw new LengthParseError(
+        input,
+        `“${input}” is ambiguous: write ${dec[1]}${dec[2]} or ${dec[1]}.${dec[2]} without the comma.`,
+      );
     }
     return fromDecimalString(`${dec[1]}.${dec[2]}`);
   }
@@ -111,14 +172,20 @@ export function parseLengthExact(text: string | number, opts: ParseOptions = {})
     return fromNumber(text);
   }
   if (typeof text !== 'string') throw new LengthParseError(String(text), `Enter a length, ${EXAMPLES}.`);
+  if (text.length > MAX_LENGTH_TEXT) {
+    throw new LengthParseError(
+      text.slice(0, MAX_LENGTH_TEXT),
+      `A length needs at most ${MAX_LENGTH_TEXT} characters; ${EXAMPLES}.`,
+    );
+  }
   const s = normalise(text);
   if (s === '') throw new LengthParseError(text, `Enter a length, ${EXAMPLES}.`);
   if (/^-\s*[\d.]/.test(s)) {
     throw new LengthParseError(text, `“${text.trim()}” is negative; a length must be zero or more.`);
   }
-  const shape = SHAPE.exec(s);
+  const shape = splitLengthText(s);
   if (!shape) throw new LengthParseError(text, `“${text.trim()}” is not a length we can read; ${EXAMPLES}.`);
-  const [, numberPart = '', unitWord = ''] = shape;
+  const [numberPart, unitWord] = shape;
   const unit = unitWord === '' ? (opts.bareUnit ?? 'in') : UNIT_WORDS[unitWord];
   if (!unit) {
     throw new LengthParseError(text, `“${unitWord}” is not a unit we know; use in, mm, cm or yd.`);
@@ -143,7 +210,13 @@ export interface FormatOptions {
 }
 
 const VULGAR_OUT: Record<string, string> = {
-  '1/2': '½', '1/4': '¼', '3/4': '¾', '1/8': '⅛', '3/8': '⅜', '5/8': '⅝', '7/8': '⅞',
+  '1/2': '½',
+  '1/4': '¼',
+  '3/4': '¾',
+  '1/8': '⅛',
+  '3/8': '⅜',
+  '5/8': '⅝',
+  '7/8': '⅞',
 };
 
 /** Exact version of formatLength. */
@@ -172,7 +245,8 @@ export function formatLengthExact(inches: Fraction, opts: FormatOptions = {}): s
  * or millimetres to one decimal (`215.9 mm`). parseLength reads back everything written here.
  */
 export function formatLength(inches: number, opts: FormatOptions = {}): string {
-  if (typeof inches !== 'number' || !Number.isFinite(inches)) throw new RangeError(`Cannot format ${String(inches)} as a length.`);
+  if (typeof inches !== 'number' || !Number.isFinite(inches))
+    throw new RangeError(`Cannot format ${String(inches)} as a length.`);
   return formatLengthExact(fromNumber(inches), opts);
 }
 
@@ -180,7 +254,7 @@ export function formatLength(inches: number, opts: FormatOptions = {}): string {
 export function formatDeviation(inches: number, opts: FormatOptions = {}): string {
   const x = fromNumber(inches);
   const text = formatLengthExact(x.abs(), opts);
-  if (/^0(\.0)?[″ ]/.test(text)) return text;
+  if (/^0(?:\.0)?[″ ]/.test(text)) return text;
   return `${x.s < 0n ? '−' : '+'}${text}`;
 }
 

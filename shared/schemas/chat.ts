@@ -9,7 +9,7 @@ export const CHAT_PHOTOS_MAX = 4;
 
 // Control characters other than line breaks and tabs carry no meaning in a chat line.
 // eslint-disable-next-line no-control-regex
-const controlChars = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F]/g;
+const controlChars = /[\u0000-\u0008\v\f\u000E-\u001F\u007F]/g;
 
 /** A message's text: trimmed, control characters dropped, 1 to 2,000 characters. */
 export const messageBodySchema = z

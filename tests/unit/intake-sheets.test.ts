@@ -10,9 +10,9 @@ function sheetRule(id: string): Record<string, number | string> {
   const body = new RegExp(`\\.sheet-${id}\\s*\\{([^}]*)\\}`).exec(css)?.[1];
   if (!body) throw new Error(`labels.css has no .sheet-${id} rule`);
   const props: Record<string, number | string> = {};
-  for (const [, name, value] of body.matchAll(/--([\w-]+):\s*([^;]+);/g)) {
+  for (const [, name, value] of body.matchAll(/(?<![\w-])--([\w-]+):([^;]+);/g)) {
     const length = /^([\d.]+)(mm|in)$/.exec(value!.trim());
-    props[name!] = length ? unit(Number(length[1]), length[2]!).toNumber('mm') : /^\d+$/.test(value!) ? Number(value) : value!.trim();
+    props[name!] = length ? unit(Number(length[1]), length[2]!).toNumber('mm') : /^\d+$/.test(value!.trim()) ? Number(value) : value!.trim();
   }
   const page = /page:\s*([\w-]+);/.exec(body)?.[1];
   if (page) props.page = page;

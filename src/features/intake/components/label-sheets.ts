@@ -29,7 +29,7 @@ export const perSheet = (sheet: LabelSheet) => sheet.columns * sheet.rows;
 
 /** US and Canadian readers get Letter by default, everyone else A4. */
 export function defaultSheet(language: string): LabelSheetId {
-  return /-(US|CA)\b/i.test(language) ? 'letter-30' : 'a4-21';
+  return /-(?:US|CA)\b/i.test(language) ? 'letter-30' : 'a4-21';
 }
 
 export type SheetCell<T> = { kind: 'label'; label: T } | { kind: 'skipped' };
