@@ -2,18 +2,11 @@
  * Tolerance verdict for a measured block. All comparisons are exact rationals, so a block at
  * exactly target − tolerance (8⅜″ against 8½″ ± ⅛″) is within tolerance.
  */
+import type { Verdict } from '../vocabulary';
 import { type Fraction, QuiltInputError, lengthArg } from './rational';
 
-export type Verdict = 'true' | 'trim' | 'short' | 'skewed';
-export const VERDICTS: readonly Verdict[] = ['true', 'trim', 'short', 'skewed'];
-
-/** How a verdict is shown to people: always words and a glyph, the colour is only a token name. */
-export const VERDICT_LABELS: Readonly<Record<Verdict, { label: string; glyph: string; colour: string }>> = {
-  true: { label: 'True to size', glyph: '✓', colour: 'lichen' },
-  trim: { label: 'Trim to size', glyph: '✂', colour: 'weld' },
-  short: { label: 'Runs short', glyph: '↓', colour: 'madder' },
-  skewed: { label: 'Out of square', glyph: '◇', colour: 'plum' },
-};
+// The verdict's words, glyph and colour live with the rest of the shown vocabulary.
+export { VERDICTS, VERDICT_LABELS, type Verdict } from '../vocabulary';
 
 export const DEFAULT_SQUARENESS = 0.25;
 
@@ -32,7 +25,13 @@ export interface CheckBlockResult {
   deviations: { width: number; height: number; diagonal?: number };
 }
 
-function verdictOf(target: [Fraction, Fraction], measured: [Fraction, Fraction], tol: Fraction, diagonalGap: Fraction | undefined, squareness: Fraction): Verdict {
+function verdictOf(
+  target: [Fraction, Fraction],
+  measured: [Fraction, Fraction],
+  tol: Fraction,
+  diagonalGap: Fraction | undefined,
+  squareness: Fraction,
+): Verdict {
   const [tw, th] = target;
   const [mw, mh] = measured;
   if (mw.lt(tw.sub(tol)) || mh.lt(th.sub(tol))) return 'short';

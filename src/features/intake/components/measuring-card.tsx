@@ -1,10 +1,15 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { formatLength } from '@shared/quilt';
-import { measuringFormSchema, type IntakeBlockDto, type MeasuringFormInput, type MeasuringFormOutput } from '@shared/schemas/intake';
+import {
+  measuringFormSchema,
+  type IntakeBlockDto,
+  type MeasuringFormInput,
+  type MeasuringFormOutput,
+} from '@shared/schemas/intake';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
-import { VerdictBadge } from './verdict-panel';
+import { VerdictBadge } from '@/entities/block/components/verdict-badge';
 
 interface Props {
   block: IntakeBlockDto;
@@ -57,13 +62,33 @@ export function MeasuringCard({ block, target, tolerance, units, onMeasured, onC
             error={errors.width?.message}
             {...form.register('width')}
           />
-          <TextField label="Height" inputMode="decimal" autoComplete="off" enterKeyHint="done" className="text-2xl" error={errors.height?.message} {...form.register('height')} />
+          <TextField
+            label="Height"
+            inputMode="decimal"
+            autoComplete="off"
+            enterKeyHint="done"
+            className="text-2xl"
+            error={errors.height?.message}
+            {...form.register('height')}
+          />
         </div>
         <fieldset className="mt-3">
           <legend className="font-semibold">Diagonals (optional, for squareness)</legend>
           <div className="grid grid-cols-2 gap-3">
-            <TextField label="Diagonal 1" inputMode="decimal" autoComplete="off" error={errors.diagonal1?.message} {...form.register('diagonal1')} />
-            <TextField label="Diagonal 2" inputMode="decimal" autoComplete="off" error={errors.diagonal2?.message} {...form.register('diagonal2')} />
+            <TextField
+              label="Diagonal 1"
+              inputMode="decimal"
+              autoComplete="off"
+              error={errors.diagonal1?.message}
+              {...form.register('diagonal1')}
+            />
+            <TextField
+              label="Diagonal 2"
+              inputMode="decimal"
+              autoComplete="off"
+              error={errors.diagonal2?.message}
+              {...form.register('diagonal2')}
+            />
           </div>
         </fieldset>
         <div className="mt-4 flex flex-wrap items-center gap-3">

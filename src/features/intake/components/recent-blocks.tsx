@@ -1,5 +1,5 @@
 import type { StationResult } from '../hooks/use-intake-station';
-import { VerdictBadge } from './verdict-panel';
+import { VerdictBadge } from '@/entities/block/components/verdict-badge';
 
 /** The blocks measured before the last one at this station, newest first, and the swap's progress. */
 export function RecentBlocks({ results, measured, total }: { results: StationResult[]; measured: number; total: number }) {

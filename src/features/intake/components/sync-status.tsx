@@ -1,4 +1,4 @@
-import { VERDICT_LABELS } from '@shared/quilt';
+import { VERDICT_LABELS } from '@shared/vocabulary';
 import { Button } from '@/components/ui/button';
 import type { QueueView } from '../hooks/use-intake-queue';
 import { discardItem, flushQueue, retryItem } from '../offline/sync-queue';
@@ -8,8 +8,12 @@ const LISTED = 6;
 const clock = (iso: string) => new Date(iso).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' });
 
 function stateLine(queue: QueueView, online: boolean): string {
-  if (queue.waiting.length === 0) return online ? 'Everything taken in so far has reached Blockpost.' : 'Nothing waiting. New scans and measurements are kept on this device.';
-  if (!online || queue.state.pause === 'offline') return 'No connection: kept on this device, sent in order when the connection returns.';
+  if (queue.waiting.length === 0)
+    return online
+      ? 'Everything taken in so far has reached Blockpost.'
+      : 'Nothing waiting. New scans and measurements are kept on this device.';
+  if (!online || queue.state.pause === 'offline')
+    return 'No connection: kept on this device, sent in order when the connection returns.';
   if (queue.state.pause === 'signed-out') return 'Your sign-in has lapsed. Sign in again in another tab; nothing here is lost.';
   if (queue.state.running) return 'Sending…';
   if (queue.state.pause === 'retrying') return 'Blockpost did not answer; trying again shortly.';
@@ -17,10 +21,23 @@ function stateLine(queue: QueueView, online: boolean): string {
 }
 
 /** How many blocks wait to reach the server, why, and what the server refused. */
-export function SyncStatus({ queue, online, keptAt, fromDevice }: { queue: QueueView; online: boolean; keptAt: string; fromDevice: boolean }) {
+export function SyncStatus({
+  queue,
+  online,
+  keptAt,
+  fromDevice,
+}: {
+  queue: QueueView;
+  online: boolean;
+  keptAt: string;
+  fromDevice: boolean;
+}) {
   const waiting = queue.waitingBlocks;
   return (
-    <section aria-label="Sync" className={`rounded-card border-2 p-4 ${waiting > 0 ? 'border-weld bg-weld/8' : 'border-lichen bg-lichen/8'}`}>
+    <section
+      aria-label="Sync"
+      className={`rounded-card border-2 p-4 ${waiting > 0 ? 'border-weld bg-weld/8' : 'border-lichen bg-lichen/8'}`}
+    >
       <div className="flex flex-wrap items-center justify-between gap-3">
         <div>
           <p className="text-xl font-bold" role="status" data-testid="sync-count">
@@ -52,7 +69,8 @@ export function SyncStatus({ queue, online, keptAt, fromDevice }: { queue: Queue
         <ul className="mt-2 space-y-0.5 text-base" aria-label="Waiting to sync">
           {queue.waiting.slice(0, LISTED).map((item) => (
             <li key={item.seq}>
-              {item.label}: {item.kind === 'receive' ? 'received' : `measured (${VERDICT_LABELS[item.localVerdict!].label} on this device)`}
+              {item.label}:{' '}
+              {item.kind === 'receive' ? 'received' : `measured (${VERDICT_LABELS[item.localVerdict!].label} on this device)`}
             </li>
           ))}
           {queue.waiting.length > LISTED && <li>… and {queue.waiting.length - LISTED} more, in the order taken</li>}
@@ -60,7 +78,9 @@ export function SyncStatus({ queue, online, keptAt, fromDevice }: { queue: Queue
       )}
       {queue.failed.length > 0 && (
         <div role="alert" className="mt-3 rounded-lg border-l-4 border-madder bg-madder/8 p-3">
-          <p className="font-semibold text-madder-deep">Blockpost refused {queue.failed.length === 1 ? 'one action' : `${queue.failed.length} actions`}:</p>
+          <p className="font-semibold text-madder-deep">
+            Blockpost refused {queue.failed.length === 1 ? 'one action' : `${queue.failed.length} actions`}:
+          </p>
           <ul className="mt-1 space-y-2">
             {queue.failed.map((item) => (
               <li key={item.seq} className="flex flex-wrap items-center gap-2">

@@ -1,23 +1,7 @@
-import { VERDICT_LABELS, formatDeviation, formatLength, type Verdict } from '@shared/quilt';
+import { VERDICT_LABELS } from '@shared/vocabulary';
+import { formatDeviation, formatLength } from '@shared/quilt';
+import { verdictTone } from '@/entities/block/components/verdict-badge';
 import type { StationResult } from '../hooks/use-intake-station';
-
-// Never colour alone: every verdict carries its word and glyph.
-const tone: Record<Verdict, { panel: string; badge: string }> = {
-  true: { panel: 'border-lichen bg-lichen/12 text-lichen-deep', badge: 'bg-lichen/15 text-lichen-deep ring-lichen' },
-  trim: { panel: 'border-weld bg-weld/12 text-weld-deep', badge: 'bg-weld/15 text-weld-deep ring-weld' },
-  short: { panel: 'border-madder bg-madder/10 text-madder-deep', badge: 'bg-madder/10 text-madder-deep ring-madder' },
-  skewed: { panel: 'border-plum bg-plum/10 text-plum', badge: 'bg-plum/10 text-plum ring-plum' },
-};
-
-export function VerdictBadge({ verdict }: { verdict: Verdict }) {
-  const v = VERDICT_LABELS[verdict];
-  return (
-    <span className={`inline-flex items-center gap-1.5 rounded-full px-3 py-0.5 font-semibold ring-1 ${tone[verdict].badge}`}>
-      <span aria-hidden="true">{v.glyph}</span>
-      {v.label}
-    </span>
-  );
-}
 
 /** The last block's verdict, large: worked out here at once, then confirmed by the server. */
 export function VerdictPanel({ result, units }: { result: StationResult; units: 'in' | 'mm' }) {
@@ -27,7 +11,12 @@ export function VerdictPanel({ result, units }: { result: StationResult; units: 
   const f = (x: number) => formatDeviation(x, { unit: units });
   const disagrees = result.confirmed !== null && result.confirmed !== result.local.verdict;
   return (
-    <section aria-label="Last verdict" aria-live="polite" data-testid="verdict" className={`rounded-card border-4 p-5 ${tone[verdict].panel}`}>
+    <section
+      aria-label="Last verdict"
+      aria-live="polite"
+      data-testid="verdict"
+      className={`rounded-card border-4 p-5 ${verdictTone(verdict).panel}`}
+    >
       <p className="text-walnut">
         Block {result.block.ordinal} of {result.block.of} · {result.block.maker.displayName}
       </p>
@@ -36,12 +25,18 @@ export function VerdictPanel({ result, units }: { result: StationResult; units: 
         <span>{v.label}</span>
       </p>
       <p className="mt-2 text-walnut">
-        {formatLength(result.measured.width, { unit: units })} × {formatLength(result.measured.height, { unit: units })} · width {f(deviations.width)}, height{' '}
-        {f(deviations.height)}
-        {deviations.diagonal !== undefined && <>, diagonals differ by {formatLength(Math.abs(deviations.diagonal), { unit: units })}</>}
+        {formatLength(result.measured.width, { unit: units })} × {formatLength(result.measured.height, { unit: units })} · width{' '}
+        {f(deviations.width)}, height {f(deviations.height)}
+        {deviations.diagonal !== undefined && (
+          <>, diagonals differ by {formatLength(Math.abs(deviations.diagonal), { unit: units })}</>
+        )}
       </p>
       <p className="mt-1 font-semibold text-walnut" data-testid="verdict-status">
-        {result.confirmed === null ? 'Worked out on this device · waiting for Blockpost to confirm' : disagrees ? 'Blockpost’s verdict differs from this device’s; Blockpost’s counts' : 'Confirmed by Blockpost'}
+        {result.confirmed === null
+          ? 'Worked out on this device · waiting for Blockpost to confirm'
+          : disagrees
+            ? 'Blockpost’s verdict differs from this device’s; Blockpost’s counts'
+            : 'Confirmed by Blockpost'}
       </p>
     </section>
   );

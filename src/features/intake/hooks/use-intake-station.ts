@@ -10,6 +10,7 @@ import { classifyIntakeInput, formatShortCode } from '@shared/block-reference';
 import { checkBlock } from '@shared/quilt';
 import type { IntakeBlockDto } from '@shared/schemas/intake';
 import type { VerdictName } from '@shared/swap-types';
+import { isBlockStateBefore } from '@shared/vocabulary';
 import { ApiError } from '@/lib/api-client';
 import { newClientId } from '@/lib/client-id';
 import { resolveBlock } from '../api/resolve-block';
@@ -178,9 +179,7 @@ export function useIntakeStation(pack: IntakePack, userId: number) {
   };
 }
 
-const ORDER = ['pledged', 'sewn', 'handed_in', 'received', 'measured', 'returned'] as const;
-
 /** Our own queued changes may be ahead of the server's answer; keep whichever state is further along. */
 function pickNewer(local: IntakeBlockDto, server: IntakeBlockDto): Partial<IntakeBlockDto> {
-  return ORDER.indexOf(local.state) > ORDER.indexOf(server.state) ? { state: local.state, verdict: local.verdict } : {};
+  return isBlockStateBefore(server.state, local.state) ? { state: local.state, verdict: local.verdict } : {};
 }

@@ -3,7 +3,7 @@ import type { ActivityDto } from '@shared/live-events';
 import { swapStateShort, type SwapState } from '@shared/schemas/swaps';
 import type { VerdictName } from '@shared/swap-types';
 import { relativeTime } from '@/lib/dates';
-import { VerdictBadge } from './verdict-badge';
+import { VerdictBadge } from '@/entities/block/components/verdict-badge';
 
 const who = (p: ActivityDto['actor']) => p?.displayName ?? 'Someone';
 const whose = (a: ActivityDto) => (a.subject && a.actor?.userId === a.subject.userId ? 'their' : `${who(a.subject)}’s`);
@@ -31,7 +31,8 @@ export function describeActivity(a: ActivityDto): ReactNode {
     case 'block.measured':
       return (
         <>
-          {who(a.actor)} measured {whose(a)} {block}: <VerdictBadge verdict={d.verdict as VerdictName} estimated={d.source === 'photo'} />
+          {who(a.actor)} measured {whose(a)} {block}:{' '}
+          <VerdictBadge verdict={d.verdict as VerdictName} source={d.source === 'photo' ? 'photo' : undefined} />
         </>
       );
     case 'block.changed':
@@ -54,7 +55,9 @@ export function ActivityList({ activities }: { activities: ActivityDto[] }) {
         <li key={a.id} className="break-inside-avoid border-b border-walnut/10 py-2">
           <p>{describeActivity(a)}</p>
           <p className="text-base text-walnut-soft">
-            <time dateTime={a.at} title={new Date(a.at).toLocaleString()}>{relativeTime(a.at)}</time>
+            <time dateTime={a.at} title={new Date(a.at).toLocaleString()}>
+              {relativeTime(a.at)}
+            </time>
           </p>
         </li>
       ))}

@@ -1,15 +1,9 @@
-import { blockStateLabels } from '@shared/schemas/swaps';
-import type { RosterBlockDto, VerdictName } from '@shared/swap-types';
-import { verdictLook } from './verdict-badge';
+import type { RosterBlockDto } from '@shared/swap-types';
+import { VERDICT_LABELS, blockStateLabels, likelyVerdict } from '@shared/vocabulary';
+import { verdictTone } from '@/entities/block/components/verdict-badge';
 
 // A photo estimate is an early warning: shown with its own camera mark until a ruler verdict exists.
 const estimateOf = (block: RosterBlockDto) => (block.verdict ? null : block.photoEstimate);
-const likely: Record<VerdictName, { words: string; text: string }> = {
-  true: { words: 'likely true', text: 'text-lichen-deep' },
-  trim: { words: 'likely trim', text: 'text-weld-deep' },
-  short: { words: 'likely short', text: 'text-madder-deep' },
-  skewed: { words: 'likely out of square', text: 'text-plum' },
-};
 
 /** One small mark per block: its number, and its verdict (or state while not measured). */
 export function BlockMarkers({ blocks }: { blocks: RosterBlockDto[] }) {
@@ -17,9 +11,9 @@ export function BlockMarkers({ blocks }: { blocks: RosterBlockDto[] }) {
   return (
     <ul className="mt-1 flex flex-wrap gap-1" aria-label="Blocks">
       {blocks.map((b) => {
-        const look = b.verdict ? verdictLook[b.verdict] : null;
+        const look = b.verdict ? { ...VERDICT_LABELS[b.verdict], chip: verdictTone(b.verdict).panel } : null;
         const estimate = estimateOf(b);
-        const label = `Block ${b.sequence}: ${blockStateLabels[b.state]}${look ? `, ${look.word}` : ''}${b.trimmed ? ', trimmed' : ''}${estimate ? `, photo estimate ${likely[estimate.verdict].words}` : ''}`;
+        const label = `Block ${b.sequence}: ${blockStateLabels[b.state]}${look ? `, ${look.label}` : ''}${b.trimmed ? ', trimmed' : ''}${estimate ? `, photo estimate ${likelyVerdict(estimate.verdict, true)}` : ''}`;
         return (
           <li
             key={b.id}
@@ -32,8 +26,11 @@ export function BlockMarkers({ blocks }: { blocks: RosterBlockDto[] }) {
               {look ? look.glyph : b.state === 'pledged' ? '' : '•'}
             </span>
             {estimate && (
-              <span aria-hidden="true" className={`ml-0.5 border-l border-walnut/25 pl-1 font-semibold ${likely[estimate.verdict].text}`}>
-                📷 {likely[estimate.verdict].words}
+              <span
+                aria-hidden="true"
+                className={`ml-0.5 border-l border-walnut/25 pl-1 font-semibold ${verdictTone(estimate.verdict).text}`}
+              >
+                📷 {likelyVerdict(estimate.verdict, true)}
               </span>
             )}
           </li>

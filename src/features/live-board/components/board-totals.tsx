@@ -1,5 +1,5 @@
 import type { RosterDto } from '@shared/swap-types';
-import { VerdictCounts } from './verdict-badge';
+import { VerdictCounts } from '@/entities/block/components/verdict-badge';
 
 function Stat({ label, value, strong }: { label: string; value: number; strong?: boolean }) {
   return (

@@ -1,7 +1,8 @@
 import type { PhotoEstimateDto } from '@shared/schemas/photo-estimates';
 import { Button } from '@/components/ui/button';
 import { relativeTime } from '@/lib/dates';
-import { EstimateBadge, expectedErrorText, lengthIn, type Units } from './estimate-look';
+import { expectedErrorText, lengthIn, type Units } from './estimate-look';
+import { VerdictBadge } from '@/entities/block/components/verdict-badge';
 
 interface Props {
   estimates: PhotoEstimateDto[];
@@ -20,16 +21,22 @@ export function EstimateHistory({ estimates, photoId, units, onShow }: Props) {
       {estimates.map((e) => (
         <li key={e.id} className="rounded-lg bg-linen p-3 ring-1 ring-walnut/10">
           <div className="flex flex-wrap items-center gap-2">
-            <EstimateBadge verdict={e.verdict} />
+            <VerdictBadge variant="estimate" verdict={e.verdict} />
             <span>
               {len(e.width)} × {len(e.height)}
             </span>
             <span className="text-walnut-soft">error {expectedErrorText(e.expectedError, units)}</span>
           </div>
           <p className="mt-1 text-walnut-soft">
-            <time dateTime={e.at} title={new Date(e.at).toLocaleString()}>{relativeTime(e.at)}</time>
+            <time dateTime={e.at} title={new Date(e.at).toLocaleString()}>
+              {relativeTime(e.at)}
+            </time>
             {e.measuredBy && ` by ${e.measuredBy.displayName}`}, against a {len(e.reference.size)} reference square
-            {e.photoId === null ? ' (its photo was removed)' : e.photoId !== photoId ? ` on photo ${e.photoId}` : ' on this photo'}
+            {e.photoId === null
+              ? ' (its photo was removed)'
+              : e.photoId !== photoId
+                ? ` on photo ${e.photoId}`
+                : ' on this photo'}
           </p>
           {e.photoId === photoId && (
             <Button variant="quiet" onClick={() => onShow(e)}>

@@ -11,7 +11,7 @@ import { ApiError } from '@/lib/api-client';
 import { useMeasureBlock, type MeasurementAnswer } from '@/entities/block/api/measure-block';
 import { newClientId } from '@/lib/client-id';
 import { len, sizeText } from './lengths';
-import { VerdictBadge } from './verdict-badge';
+import { VerdictBadge } from '@/entities/block/components/verdict-badge';
 
 interface Values {
   width: string;

@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
 import { Link } from 'react-router';
 import type { BlockDto, SwapDto } from '@shared/swap-types';
+import { isBlockStateBefore } from '@shared/vocabulary';
 import { PhotoGallery, PhotoUploader, blockPhotosUrl } from '@/components/photos';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
@@ -13,9 +14,8 @@ import { useMarkSewn } from '../api/mark-sewn';
 import { invalidateSwapData } from '@/entities/block/api/block-keys';
 import { MeasureForm } from './measure-form';
 import { BlockStateText } from './state-badge';
-import { NoVerdict, VerdictBadge } from './verdict-badge';
+import { NoVerdict, VerdictBadge } from '@/entities/block/components/verdict-badge';
 
-const BEFORE_RECEIVED = ['pledged', 'sewn', 'handed_in'];
 // Photo estimates are taken from sign-up until the return is confirmed.
 const ESTIMATING = ['signup', 'sewing', 'collecting', 'sorting'];
 
@@ -91,7 +91,7 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
           </p>
         )}
 
-        {active && BEFORE_RECEIVED.includes(block.state) && (
+        {active && isBlockStateBefore(block.state, 'received') && (
           <div className="flex flex-wrap gap-2">
             {block.state === 'pledged' && (
               <Button
@@ -162,7 +162,7 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
             <MeasureForm swap={swap} blockId={block.id} source="maker" label={`Your measurement of block ${block.sequence}`} />
           </div>
         )}
-        {active && BEFORE_RECEIVED.includes(block.state) && (
+        {active && isBlockStateBefore(block.state, 'received') && (
           <details>
             <summary className="min-h-11 cursor-pointer py-2 font-semibold text-indigo">Add photos of this block</summary>
             <PhotoUploader

@@ -7,7 +7,8 @@ import { useRoster } from '@/entities/roster/api/get-roster';
 import { useRosterLive } from '@/entities/roster/api/use-roster-live';
 import { useSwap } from '@/entities/swap/api/get-swap';
 import { RosterTable } from './roster-table';
-import { VerdictBadge } from './verdict-badge';
+import { VERDICTS } from '@shared/vocabulary';
+import { VerdictBadge } from '@/entities/block/components/verdict-badge';
 
 function Stat({ label, value }: { label: string; value: number }) {
   return (
@@ -50,7 +51,7 @@ export function RosterPage() {
           <Stat label="Accepted" value={t.accepted} />
         </dl>
         <p className="mt-4 flex flex-wrap items-center gap-3">
-          {(['true', 'trim', 'short', 'skewed'] as const).map((k) => (
+          {VERDICTS.map((k) => (
             <span key={k} className="inline-flex items-center gap-1">
               <VerdictBadge verdict={k} /> <span className="tabular-nums">{t.verdicts[k]}</span>
             </span>

@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import type { RosterBlockDto, RosterRowDto, SwapDto } from '@shared/swap-types';
+import { isBlockStateBefore } from '@shared/vocabulary';
 import { useQueryClient } from '@tanstack/react-query';
 import { Link } from 'react-router';
 import { PhotoGallery, PhotoUploader, blockPhotosUrl } from '@/components/photos';
@@ -15,10 +16,9 @@ import { useTrimBlock } from '../api/trim-block';
 import { MeasureForm } from './measure-form';
 import { sizeText } from './lengths';
 import { BlockStateText } from './state-badge';
-import { NoVerdict, VerdictBadge } from './verdict-badge';
+import { NoVerdict, VerdictBadge } from '@/entities/block/components/verdict-badge';
 
 const MEASURABLE = ['received', 'measured'];
-const RECEIVABLE = ['pledged', 'sewn', 'handed_in'];
 
 function History({ swap, blockId }: { swap: SwapDto; blockId: number }) {
   const history = useMeasurements(blockId);
@@ -92,7 +92,7 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
         )}
       {swap.canManage && (
         <div className="mt-3 flex flex-wrap gap-2">
-          {intake && RECEIVABLE.includes(block.state) && swap.state !== 'sorting' && (
+          {intake && isBlockStateBefore(block.state, 'received') && swap.state !== 'sorting' && (
             <Button
               variant="secondary"
               pending={receive.isPending}

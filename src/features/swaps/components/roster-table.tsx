@@ -1,13 +1,24 @@
 import { Fragment, useState } from 'react';
 import {
-  columnFilteringFeature, createColumnHelper, createFilteredRowModel, createPaginatedRowModel, createSortedRowModel,
-  globalFilteringFeature, rowPaginationFeature, rowSortingFeature, sortFn_alphanumeric, sortFn_basic, tableFeatures, useTable,
+  columnFilteringFeature,
+  createColumnHelper,
+  createFilteredRowModel,
+  createPaginatedRowModel,
+  createSortedRowModel,
+  globalFilteringFeature,
+  rowPaginationFeature,
+  rowSortingFeature,
+  sortFn_alphanumeric,
+  sortFn_basic,
+  tableFeatures,
+  useTable,
   type Row,
 } from '@tanstack/react-table';
 import type { RosterRowDto, SwapDto } from '@shared/swap-types';
 import { Button } from '@/components/ui/button';
 import { RosterRowDetail } from './roster-row-detail';
-import { VerdictBadge } from './verdict-badge';
+import { VERDICTS } from '@shared/vocabulary';
+import { VerdictBadge } from '@/entities/block/components/verdict-badge';
 
 const features = tableFeatures({
   rowSortingFeature,
@@ -41,17 +52,30 @@ function matchesProgress(r: RosterRowDto, f: ProgressFilter): boolean {
     case 'waiting':
       return r.received > r.measured;
     case 'problems':
-      return r.verdicts.short + r.verdicts.skewed + (r.verdicts.trim - r.blocks.filter((b) => b.verdict === 'trim' && b.trimmed).length) > 0;
+      return (
+        r.verdicts.short +
+          r.verdicts.skewed +
+          (r.verdicts.trim - r.blocks.filter((b) => b.verdict === 'trim' && b.trimmed).length) >
+        0
+      );
     case 'accepted':
       return r.pledged > 0 && r.accepted === r.pledged;
   }
 }
 
 const helper = createColumnHelper<Features, RosterRowDto>();
-const num = (header: string) => ({ header, sortFn: 'basic' as const, cell: (info: { getValue: () => unknown }) => <span className="tabular-nums">{String(info.getValue())}</span> });
+const num = (header: string) => ({
+  header,
+  sortFn: 'basic' as const,
+  cell: (info: { getValue: () => unknown }) => <span className="tabular-nums">{String(info.getValue())}</span>,
+});
 
 const columns = helper.columns([
-  helper.accessor('displayName', { header: 'Member', sortFn: 'alphanumeric', cell: (info) => <span className="font-semibold">{info.getValue()}</span> }),
+  helper.accessor('displayName', {
+    header: 'Member',
+    sortFn: 'alphanumeric',
+    cell: (info) => <span className="font-semibold">{info.getValue()}</span>,
+  }),
   helper.accessor('pledged', num('Pledged')),
   helper.accessor('sewn', num('Sewn')),
   helper.accessor('handedIn', num('Handed in')),
@@ -65,7 +89,7 @@ const columns = helper.columns([
     filterFn: (row, _id, value: ProgressFilter) => matchesProgress(row.original, value),
     cell: (info) => {
       const v = info.row.original.verdicts;
-      const shown = (['true', 'trim', 'short', 'skewed'] as const).filter((k) => v[k] > 0);
+      const shown = VERDICTS.filter((k) => v[k] > 0);
       return shown.length ? (
         <span className="flex flex-wrap gap-1">
           {shown.map((k) => (
@@ -93,7 +117,8 @@ export function RosterTable({ swap, rows }: { swap: SwapDto; rows: RosterRowDto[
     columns,
     data: rows,
     getRowId: (r) => String(r.userId),
-    globalFilterFn: (row: RosterRow, _id: string, value: string) => row.original.displayName.toLowerCase().includes(String(value).trim().toLowerCase()),
+    globalFilterFn: (row: RosterRow, _id: string, value: string) =>
+      row.original.displayName.toLowerCase().includes(String(value).trim().toLowerCase()),
     initialState: { sorting: [{ id: 'displayName', desc: false }], pagination: { pageIndex: 0, pageSize: 10 } },
   });
   const toggle = (id: number) => setOpen((s) => (s.has(id) ? new Set([...s].filter((x) => x !== id)) : new Set([...s, id])));
@@ -120,10 +145,16 @@ export function RosterTable({ swap, rows }: { swap: SwapDto; rows: RosterRowDto[
             value={progress}
             onChange={(e) => table.getColumn('accepted')?.setFilterValue(e.target.value === 'all' ? undefined : e.target.value)}
           >
-            {progressFilters.map((f) => <option key={f.value} value={f.value}>{f.label}</option>)}
+            {progressFilters.map((f) => (
+              <option key={f.value} value={f.value}>
+                {f.label}
+              </option>
+            ))}
           </select>
         </label>
-        <p role="status" className="text-walnut-soft">{shown} of {rows.length} members</p>
+        <p role="status" className="text-walnut-soft">
+          {shown} of {rows.length} members
+        </p>
       </div>
 
       <div className="relative overflow-x-auto">
@@ -135,15 +166,26 @@ export function RosterTable({ swap, rows }: { swap: SwapDto; rows: RosterRowDto[
                 {group.headers.map((header) => {
                   const sorted = header.column.getIsSorted();
                   return (
-                    <th key={header.id} scope="col" className={`py-2 pr-3 ${header.column.id === 'displayName' ? STICKY : ''}`} aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}>
-                      <button type="button" className="min-h-11 text-left font-semibold text-indigo-deep" onClick={header.column.getToggleSortingHandler()}>
+                    <th
+                      key={header.id}
+                      scope="col"
+                      className={`py-2 pr-3 ${header.column.id === 'displayName' ? STICKY : ''}`}
+                      aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}
+                    >
+                      <button
+                        type="button"
+                        className="min-h-11 text-left font-semibold text-indigo-deep"
+                        onClick={header.column.getToggleSortingHandler()}
+                      >
                         <table.FlexRender header={header} />
                         {sorted && <span aria-hidden="true">{sortMark[sorted]}</span>}
                       </button>
                     </th>
                   );
                 })}
-                <th scope="col" className="py-2"><span className="sr-only">Details</span></th>
+                <th scope="col" className="py-2">
+                  <span className="sr-only">Details</span>
+                </th>
               </tr>
             ))}
           </thead>
@@ -160,7 +202,8 @@ export function RosterTable({ swap, rows }: { swap: SwapDto; rows: RosterRowDto[
                     ))}
                     <td className="py-1 text-right">
                       <Button variant="quiet" aria-expanded={expanded} onClick={() => toggle(row.original.userId)}>
-                        {expanded ? 'Hide' : 'Blocks'}<span className="sr-only"> of {row.original.displayName}</span>
+                        {expanded ? 'Hide' : 'Blocks'}
+                        <span className="sr-only"> of {row.original.displayName}</span>
                       </Button>
                     </td>
                   </tr>
@@ -182,15 +225,27 @@ export function RosterTable({ swap, rows }: { swap: SwapDto; rows: RosterRowDto[
       </div>
 
       <nav aria-label="Roster pages" className="flex flex-wrap items-center gap-3">
-        <Button variant="secondary" onClick={() => table.previousPage()} disabled={!table.getCanPreviousPage()}>Previous</Button>
+        <Button variant="secondary" onClick={() => table.previousPage()} disabled={!table.getCanPreviousPage()}>
+          Previous
+        </Button>
         <span>
           Page {pageIndex + 1} of {Math.max(1, table.getPageCount())}
         </span>
-        <Button variant="secondary" onClick={() => table.nextPage()} disabled={!table.getCanNextPage()}>Next</Button>
+        <Button variant="secondary" onClick={() => table.nextPage()} disabled={!table.getCanNextPage()}>
+          Next
+        </Button>
         <label className="flex items-center gap-2">
           <span>Rows per page</span>
-          <select className="min-h-11 rounded-lg border-2 border-walnut/30 bg-white px-2" value={pageSize} onChange={(e) => table.setPageSize(Number(e.target.value))}>
-            {[10, 25, 50, 100].map((n) => <option key={n} value={n}>{n}</option>)}
+          <select
+            className="min-h-11 rounded-lg border-2 border-walnut/30 bg-white px-2"
+            value={pageSize}
+            onChange={(e) => table.setPageSize(Number(e.target.value))}
+          >
+            {[10, 25, 50, 100].map((n) => (
+              <option key={n} value={n}>
+                {n}
+              </option>
+            ))}
           </select>
         </label>
       </nav>
