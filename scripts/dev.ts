@@ -7,6 +7,8 @@ import { loadConfig } from '../server/config';
 import { createSequelize } from '../server/db/sequelize';
 import { initModels } from '../server/db/models';
 import { migrateUp } from '../server/db/migrator';
+import { claimPhotoStore } from '../server/uploads/store-identity';
+import { photoStorage } from '../server/uploads/storage';
 import { seedDemoIfEmpty } from '../server/seed/demo';
 import { repoRoot, startLocalServices } from './lib/local-services';
 
@@ -16,6 +18,7 @@ const config = loadConfig(env);
 const sequelize = createSequelize(config.DATABASE_URL);
 initModels(sequelize);
 await migrateUp(sequelize);
+await claimPhotoStore(sequelize, photoStorage(config));
 await seedDemoIfEmpty(sequelize, config);
 await sequelize.close();
 

@@ -7,6 +7,8 @@ import { loadConfig } from '../server/config';
 import { createSequelize } from '../server/db/sequelize';
 import { initModels } from '../server/db/models';
 import { migrateUp } from '../server/db/migrator';
+import { claimPhotoStore } from '../server/uploads/store-identity';
+import { photoStorage } from '../server/uploads/storage';
 import { seedDemoIfEmpty, DEMO_SIGN_INS } from '../server/seed/demo';
 import { startServer } from '../server/index';
 import { repoRoot, startLocalServices } from './lib/local-services';
@@ -34,6 +36,8 @@ try {
   const sequelize = createSequelize(config.DATABASE_URL);
   initModels(sequelize);
   await migrateUp(sequelize);
+  // The photo store's owner check comes before the demo seed writes any photo into it.
+  await claimPhotoStore(sequelize, photoStorage(config));
   if (config.NODE_ENV !== 'production') {
     const seeded = await seedDemoIfEmpty(sequelize, config);
     if (seeded) log('Seeded the demo guild.');

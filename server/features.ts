@@ -10,7 +10,7 @@ import { liveStartup } from './live/live.startup';
 import { boardLive } from './board/board.socket';
 import { chatLive } from './chat/chat.socket';
 import { photosRouter } from './uploads/photos.routes';
-import { photoSweepFeature } from './uploads/photos.startup';
+import { photoStoreFeature } from './uploads/photos.startup';
 import { swapsRouter } from './swaps/swaps.routes';
 import { blocksRouter } from './blocks/blocks.routes';
 import { distributionRouter } from './distribution/distribution.routes';
@@ -56,4 +56,5 @@ export const featureRouters: FeatureRouter[] = [
 /** The socket.io server with every live part: swap boards, sew-day and swap chat. */
 const liveFeature = liveStartup([boardLive(), chatLive]);
 
-export const featureStartups: FeatureStartup[] = [liveFeature, photoSweepFeature, mailJobsFeature];
+// The photo store's owner check comes first: a store that is another install's stops the start untouched.
+export const featureStartups: FeatureStartup[] = [photoStoreFeature, liveFeature, mailJobsFeature];

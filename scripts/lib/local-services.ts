@@ -1,12 +1,14 @@
 /**
  * The local services `npm start` and `npm run dev` need: a PostgreSQL cluster under .data/ on a fixed
- * loopback port (unless DATABASE_URL is set) and maildev on loopback (unless SMTP_URL is set).
+ * loopback port (unless DATABASE_URL is set), maildev on loopback (unless SMTP_URL is set), and the fake
+ * object store on loopback when photos go to a bucket (PHOTO_STORE=s3) and no S3_ENDPOINT names a real one.
  */
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
 import { join, resolve } from 'node:path';
 import { clusterUrl, ensureDatabase, ensurePostgresBinaries, initCluster, startCluster, stopCluster } from './postgres';
 import { startMaildev, type MaildevHandle } from './maildev';
+import { startS3Fake, type S3FakeHandle } from './s3-fake';
 
 export const repoRoot = resolve(import.meta.dirname, '..', '..');
 export const dataDir = join(repoRoot, '.data');
@@ -64,10 +66,26 @@ export async function startLocalServices(log: (msg: string) => void = console.lo
   }
   env.SESSION_SECRET = process.env.SESSION_SECRET ?? sessionSecret();
 
+  // Photos in a bucket with no bucket named: the fake object store on loopback, objects under .data/s3.
+  let s3: S3FakeHandle | null = null;
+  if (process.env.PHOTO_STORE === 's3' && !process.env.S3_ENDPOINT) {
+    const port = Number(process.env.S3_FAKE_PORT ?? 4569);
+    try {
+      s3 = await startS3Fake({ port, directory: join(dataDir, 's3'), buckets: [process.env.S3_BUCKET ?? 'blockpost-photos'] });
+    } catch (error) {
+      await maildev?.stop();
+      database.stop();
+      throw new Error(`the fake object store could not start on port ${port}: ${(error as Error).message}`, { cause: error });
+    }
+    Object.assign(env, s3.env);
+    log(`Photos go to the fake object store at ${s3.endpoint} (bucket "${s3.bucket}", files under .data/s3).`);
+  }
+
   return {
     env,
     maildevUrl: maildev ? `http://127.0.0.1:${maildev.webPort}` : null,
     async stop() {
+      await s3?.stop();
       await maildev?.stop();
       database.stop();
     },

@@ -4,8 +4,7 @@ import {
 } from '@shared/schemas/chat';
 import { ChatMessage, Photo } from '../db/models';
 import { AppError, ConflictError, ForbiddenError, NotFoundError, ValidationError } from '../http/errors';
-import { storePhotos } from '../uploads/photo-store';
-import { deletePhotos } from '../uploads/photo-store';
+import { commitStagedPhotos, deletePhotos, discardStaged, preparePhotosQueued, stagePhotos } from '../uploads/photo-store';
 import type { IncomingPhotoFile } from '../uploads/photo-pipeline';
 import type { AppDeps } from '../deps';
 import { authorInclude, messageDto, messageDtos, photoDto } from './chat-dto';
@@ -54,6 +53,8 @@ export async function postMessage(
   if (!input.body && files.length === 0) throw new ValidationError('Write a message or add a photo first.', { body: 'Write a message or add a photo first.' });
   if (files.length > CHAT_PHOTOS_MAX) throw new ValidationError(`Send at most ${CHAT_PHOTOS_MAX} photos in one message.`, { photos: `At most ${CHAT_PHOTOS_MAX} photos.` });
   const { room } = access;
+  // Photos are re-encoded (in the bounded queue) and written before the transaction and its lock.
+  const staged = files.length ? await stagePhotos(deps, await preparePhotosQueued(deps, files)) : [];
   const message = await deps.sequelize.transaction(async (transaction) => {
     await deps.sequelize.query('SELECT pg_advisory_xact_lock(7314005, $userId)', { bind: { userId: authorId }, transaction });
     const since = new Date(Date.now() - CHAT_RATE_WINDOW_MS);
@@ -68,10 +69,13 @@ export async function postMessage(
       throw new RateLimitedError(Math.max(1, Math.ceil((freeAt - Date.now()) / 1000)));
     }
     const created = await ChatMessage.create({ roomId: room.id, authorId, body: input.body, deletedById: null }, { transaction });
-    const photos = files.length
-      ? await storePhotos(deps, { files, guildId: room.guildId, uploadedBy: authorId, owner: { chatMessageId: created.id }, transaction })
+    const photos = staged.length
+      ? await commitStagedPhotos(deps, { staged, guildId: room.guildId, uploadedBy: authorId, owner: { chatMessageId: created.id }, transaction })
       : [];
     return { created, photos };
+  }).catch(async (error: unknown) => {
+    await discardStaged(deps, staged);
+    throw error;
   });
   // Built from what was just written: a new message needs no second read.
   const dto: ChatMessageDto = {

@@ -28,6 +28,9 @@ export function errorMiddleware(logger: Logger): ErrorRequestHandler {
     if (error instanceof AppError) {
       status = error.status;
       body = { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) };
+      // Errors that know when to come back (busy, rate limited) say so in the standard header too.
+      const retryAfter = (error as { retryAfterSeconds?: unknown }).retryAfterSeconds;
+      if (typeof retryAfter === 'number' && retryAfter > 0) res.set('Retry-After', String(Math.ceil(retryAfter)));
     } else if (isDatabaseDown(error)) {
       status = 503;
       body = { code: 'unavailable', message: 'The database is not reachable right now. Please try again in a moment.' };

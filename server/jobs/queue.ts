@@ -20,6 +20,8 @@ export const queues = {
   sweep: 'mail-sweep',
   /** Weekly: coordinators' digests. */
   digest: 'mail-digest',
+  /** Periodic: remove photo files the database queued for deletion or left pending past the grace period. */
+  photoFiles: 'photo-files',
 } as const;
 export type QueueName = (typeof queues)[keyof typeof queues];
 
@@ -41,6 +43,7 @@ export async function ensureQueues(boss: PgBoss, opts: QueueOptions) {
     [queues.compose]: { name: queues.compose, policy: 'short', ...retry, expireInSeconds: 15 * 60 },
     [queues.sweep]: { name: queues.sweep, policy: 'short', retryLimit: 1, expireInSeconds: 15 * 60 },
     [queues.digest]: { name: queues.digest, policy: 'short', ...retry, expireInSeconds: 30 * 60 },
+    [queues.photoFiles]: { name: queues.photoFiles, policy: 'short', retryLimit: 2, expireInSeconds: 30 * 60 },
   };
   for (const [name, options] of Object.entries(settings)) {
     await boss.createQueue(name, options);

@@ -9,6 +9,7 @@ import { hashPassword } from '../auth/passwords';
 import type { Role } from '@shared/schemas/guilds';
 import { seedDemoSwaps } from './swaps';
 import { seedDemoPhotos } from './photos';
+import type { PhotoStoreDeps } from '../uploads/photo-store';
 import { seedDemoSewDays } from './sew-days';
 
 export const DEMO_SIGN_INS = {
@@ -37,7 +38,7 @@ export interface DemoGuild {
 }
 
 /** Seeds only an empty database, so a restart never duplicates or overwrites real data. */
-export async function seedDemoIfEmpty(sequelize: Sequelize, config: Pick<Config, 'NODE_ENV' | 'UPLOAD_DIR'>): Promise<DemoGuild | null> {
+export async function seedDemoIfEmpty(sequelize: Sequelize, config: Pick<Config, 'NODE_ENV'> & PhotoStoreDeps['config']): Promise<DemoGuild | null> {
   if (config.NODE_ENV === 'production') return null;
   if ((await User.count()) > 0) return null;
   const passwordHash = await hashPassword(DEMO_SIGN_INS.password);

@@ -6,7 +6,7 @@
 import sharp from 'sharp';
 import type { Sequelize } from 'sequelize';
 import type { Config } from '../config';
-import { storePhotos } from '../uploads/photo-store';
+import { storePhotos, type PhotoStoreDeps } from '../uploads/photo-store';
 
 export const demoDesigns = ['nine-patch', 'pinwheel', 'flying-geese', 'square-in-a-square'] as const;
 export type DemoDesign = (typeof demoDesigns)[number];
@@ -123,10 +123,11 @@ export async function demoBlockPhoto(design: DemoDesign, seed: number): Promise<
  */
 export async function seedDemoPhotos(
   sequelize: Sequelize,
-  config: Pick<Config, 'UPLOAD_DIR'> & Partial<Pick<Config, 'PHOTO_FORMAT'>>,
+  config: PhotoStoreDeps['config'],
   blocks: readonly { id: number; guildId: number; makerId: number }[],
 ): Promise<number> {
-  const deps = { sequelize, config: { UPLOAD_DIR: config.UPLOAD_DIR, PHOTO_FORMAT: config.PHOTO_FORMAT ?? 'jpeg' } };
+  // The whole photo configuration goes on, so the demo's photos land in the configured folder or bucket.
+  const deps = { sequelize, config };
   for (const block of blocks) {
     const design = demoDesigns[block.id % demoDesigns.length]!;
     await storePhotos(deps, {

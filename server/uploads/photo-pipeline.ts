@@ -12,6 +12,7 @@ import {
   MAX_PHOTO_BYTES, MAX_PHOTOS_PER_UPLOAD, PHOTO_FIELD, PHOTO_LONG_SIDE, THUMB_LONG_SIDE, type PhotoMime,
 } from '@shared/schemas/photos';
 import { fromMulterError, inBatch, PhotoRejectedError, photoRefusals } from './photo-errors';
+import type { PhotoQueue } from './photo-queue';
 
 /** A received file: what multer's memory storage gives, or what a seeder builds. */
 export interface IncomingPhotoFile {
@@ -135,21 +136,34 @@ export async function encodePhoto(file: IncomingPhotoFile, kind: string, format:
 
 /**
  * Checks and re-encodes a whole batch, one file at a time to keep memory bounded. One bad file
- * refuses the batch, naming that file, before anything is written.
+ * refuses the batch, naming that file, before anything is written. With a queue (the server's), the
+ * encoding waits its turn there and a full queue refuses the batch with PhotosBusyError (503).
  */
-export async function preparePhotos(files: readonly IncomingPhotoFile[], format: PhotoFormat = 'jpeg'): Promise<EncodedPhoto[]> {
+export async function preparePhotos(
+  files: readonly IncomingPhotoFile[],
+  format: PhotoFormat = 'jpeg',
+  queue?: PhotoQueue,
+): Promise<EncodedPhoto[]> {
   if (files.length === 0) throw photoRefusals.noFiles();
   if (files.length > MAX_PHOTOS_PER_UPLOAD) throw photoRefusals.tooMany();
-  const encoded: EncodedPhoto[] = [];
   try {
     // Check every file first, so a bad last file is reported before time goes into encoding.
     const kinds: Kind[] = [];
     for (const file of files) kinds.push(await inspectPhoto(file));
-    for (const [i, file] of files.entries()) encoded.push(await encodePhoto(file, kinds[i]!, format));
+    const tasks = files.map((file, i) => async () => {
+      const photo = await encodePhoto(file, kinds[i]!, format);
+      // After re-encoding: `photo.full.data` and `photo.thumb.data` are the stored bytes. Work derived
+      // from them (such as colour statistics) belongs here, inside the bounded queue and outside any
+      // transaction; the rows are written in commitStagedPhotos (photo-store.ts).
+      return photo;
+    });
+    if (queue) return await queue.runBatch(tasks);
+    const encoded: EncodedPhoto[] = [];
+    for (const task of tasks) encoded.push(await task());
+    return encoded;
   } catch (error) {
     throw error instanceof PhotoRejectedError ? inBatch(error, files.length) : error;
   }
-  return encoded;
 }
 
 /**

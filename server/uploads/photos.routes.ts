@@ -1,4 +1,5 @@
-import { Router, type Response } from 'express';
+import { pipeline } from 'node:stream/promises';
+import { Router, type Request, type Response } from 'express';
 import { type z } from 'zod';
 import { blockPhotosParams, photoParams, photoQuery } from '@shared/schemas/photos';
 import { currentUser, requireUser } from '../auth/require-user';
@@ -6,8 +7,9 @@ import { validate } from '../http/validate';
 import { NotFoundError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { photoUploadMiddleware, receivedFiles } from './photo-pipeline';
+import { photoQueue } from './photo-queue';
 import { canAddBlockPhotos, canRemovePhoto, canSeeBlockPhotos, canSeePhoto } from './photos.policy';
-import { listBlockPhotos, photoFile, removePhoto, uploadBlockPhotos } from './photos.service';
+import { listBlockPhotos, openPhotoFile, removePhoto, uploadBlockPhotos } from './photos.service';
 
 type BlockParams = z.infer<typeof blockPhotosParams>;
 type PhotoParams = z.infer<typeof photoParams>;
@@ -32,6 +34,8 @@ export function photosRouter(deps: AppDeps) {
     async (req, res, next) => {
       const { blockId } = req.params as unknown as BlockParams;
       res.locals.blockAccess = await canAddBlockPhotos(currentUser(req).id, blockId);
+      // A full photo queue refuses before the body is read, so a busy server spends nothing on it.
+      photoQueue(deps.config).assertRoom();
       next();
     },
     upload,
@@ -46,7 +50,7 @@ export function photosRouter(deps: AppDeps) {
     const { size } = req.query as unknown as PhotoQuery;
     const photo = await canSeePhoto(currentUser(req).id, photoId);
     const extension = photo.mime === 'image/webp' ? 'webp' : 'jpg';
-    await sendPhoto(res, photoFile(deps, photo, size), {
+    await sendPhoto(req, res, deps, photo, size, {
       'Content-Type': photo.mime,
       // Only the member's own browser may keep it; never a shared cache.
       'Cache-Control': 'private, max-age=3600',
@@ -66,12 +70,31 @@ export function photosRouter(deps: AppDeps) {
   return router;
 }
 
-function sendPhoto(res: Response, path: string, headers: Record<string, string>): Promise<void> {
-  return new Promise((resolve, reject) => {
-    res.sendFile(path, { headers, cacheControl: false, dotfiles: 'deny' }, (error?: NodeJS.ErrnoException) => {
-      if (!error) return resolve();
-      if (res.headersSent) return resolve(); // the client went away mid-file
-      reject(error.code === 'ENOENT' ? new NotFoundError('The file of this photo is missing on the server.') : error);
-    });
-  });
+/**
+ * Streams a photo from the store (folder or bucket) after the permission check. A stored name never
+ * changes its bytes, so it serves as the ETag and a revalidation costs no read of the store.
+ */
+async function sendPhoto(
+  req: Request,
+  res: Response,
+  deps: AppDeps,
+  photo: Awaited<ReturnType<typeof canSeePhoto>>,
+  size: PhotoQuery['size'],
+  headers: Record<string, string>,
+): Promise<void> {
+  const etag = `"${size === 'thumb' ? photo.thumbFileName : photo.fileName}"`;
+  if (req.headers['if-none-match'] === etag) {
+    res.set({ ...headers, ETag: etag }).status(304).end();
+    return;
+  }
+  const file = await openPhotoFile(deps, photo, size);
+  if (!file) throw new NotFoundError('The file of this photo is missing on the server.');
+  res.set({ ...headers, ETag: etag, 'Content-Length': String(file.bytes) });
+  if (req.method === 'HEAD') {
+    file.body.destroy();
+    res.end();
+    return;
+  }
+  // A person leaving mid-photo ends the stream; that is not a server failure.
+  await pipeline(file.body, res).catch(() => undefined);
 }

@@ -7,9 +7,9 @@ import type { AppDeps } from '../deps';
 import { Photo, User } from '../db/models';
 import { lockedBlock, markBlockSewn } from '../blocks/blocks.service';
 import type { BlockAccess } from '../blocks/blocks.policy';
-import { preparePhotos, type IncomingPhotoFile } from './photo-pipeline';
-import { deletePhotos, storePreparedPhotos } from './photo-store';
-import { storedPath } from './photo-files';
+import type { IncomingPhotoFile } from './photo-pipeline';
+import { commitStagedPhotos, deletePhotos, discardStaged, preparePhotosQueued, stagePhotos, storageOf } from './photo-store';
+import type { StoredObject } from './storage/photo-storage';
 
 const uploader = { model: User, as: 'uploadedBy', attributes: ['id', 'displayName'] };
 
@@ -34,8 +34,8 @@ export function photoDto(photo: Photo): PhotoDto {
 
 /**
  * Stores photos of a block and, when the block is still `pledged`, marks it `sewn` in the same
- * transaction. Images are encoded before the transaction opens, so no row stays locked meanwhile.
- * Emits `block.changed` and `photo.added` after commit.
+ * transaction. Images are encoded (in the bounded queue) and written before the transaction opens,
+ * so no row stays locked meanwhile. Emits `block.changed` and `photo.added` after commit.
  */
 export async function uploadBlockPhotos(
   deps: AppDeps,
@@ -43,15 +43,22 @@ export async function uploadBlockPhotos(
   actorId: number,
   files: readonly IncomingPhotoFile[],
 ): Promise<BlockPhotosUploadDto> {
-  const prepared = await preparePhotos(files, deps.config.PHOTO_FORMAT);
+  const staged = await stagePhotos(deps, await preparePhotosQueued(deps, files));
   const blockId = access.block.id;
-  const { rows, state, swapId, makerId, guildId, afterCommit } = await deps.sequelize.transaction(async (transaction) => {
-    let { block, swap } = await lockedBlock(blockId, transaction);
-    let sewn: (() => void) | undefined;
-    if (block.state === 'pledged') ({ block, swap, after: sewn } = await markBlockSewn(deps, blockId, actorId, transaction));
-    const stored = await storePreparedPhotos(deps, { photos: prepared, guildId: swap.guildId, uploadedBy: actorId, owner: { blockId }, transaction });
-    return { rows: stored, state: block.state, swapId: swap.id, makerId: block.makerId, guildId: swap.guildId, afterCommit: sewn };
-  });
+  let outcome;
+  try {
+    outcome = await deps.sequelize.transaction(async (transaction) => {
+      let { block, swap } = await lockedBlock(blockId, transaction);
+      let sewn: (() => void) | undefined;
+      if (block.state === 'pledged') ({ block, swap, after: sewn } = await markBlockSewn(deps, blockId, actorId, transaction));
+      const stored = await commitStagedPhotos(deps, { staged, guildId: swap.guildId, uploadedBy: actorId, owner: { blockId }, transaction });
+      return { rows: stored, state: block.state, swapId: swap.id, makerId: block.makerId, guildId: swap.guildId, afterCommit: sewn };
+    });
+  } catch (error) {
+    await discardStaged(deps, staged);
+    throw error;
+  }
+  const { rows, state, swapId, makerId, guildId, afterCommit } = outcome;
   afterCommit?.();
   for (const row of rows) deps.events.emit('photo.added', { swapId, guildId, actorId, blockId, makerId, photoId: row.id });
   const withUploader = await Photo.findAll({ where: { id: rows.map((r) => r.id) }, include: [uploader], order: [['id', 'ASC']] });
@@ -64,12 +71,12 @@ export async function listBlockPhotos(blockId: number): Promise<PhotoDto[]> {
   return photos.map(photoDto);
 }
 
-/** Where the requested size of a photo is on disk. */
-export function photoFile(deps: Pick<AppDeps, 'config'>, photo: Photo, size: PhotoSize): string {
-  return storedPath(deps.config.UPLOAD_DIR, size === 'thumb' ? photo.thumbFileName : photo.fileName);
+/** The requested size of a photo from the store, or null when its file is missing. */
+export function openPhotoFile(deps: Pick<AppDeps, 'config'>, photo: Photo, size: PhotoSize): Promise<StoredObject | null> {
+  return storageOf(deps).get(size === 'thumb' ? photo.thumbFileName : photo.fileName);
 }
 
-/** Removes the row, then both files. */
+/** Removes the row; its files are queued for deletion in the same transaction and removed after it. */
 export async function removePhoto(deps: AppDeps, photo: Photo): Promise<void> {
   await deletePhotos(deps, [photo]);
 }
