@@ -31,7 +31,12 @@ describe('the planner’s block plan', () => {
 
   it('reads comma-separated lengths and names the bad entry', () => {
     expect(parseList('3½, 3 1/2, 89 mm').values).toEqual([3.5, 3.5, 89 / 25.4]);
-    expect(parseList('3, , 2').values).toEqual([3, 2]);
+    // An empty entry is pointed at rather than dropped; a trailing comma while typing is not an entry.
+    expect(parseList('2 1/2, , 2').error).toBe('Entry 2 is empty: type a length there or remove the extra comma.');
+    expect(parseList('3, 2,').values).toEqual([3, 2]);
+    // In millimetre mode a bare number is millimetres (1 in = 25.4 mm exactly, NIST SP 811, Appendix B.8).
+    expect(parseList('254, 127', { units: 'mm' }).values).toEqual([10, 5]);
+    expect(parseList('64, 2"', { units: 'mm' }).values).toEqual([64 / 25.4, 2]);
     expect(parseList('3, zero').error).toMatch(/^Entry 2 \(“zero”\)/);
     expect(parseList('').error).toMatch(/at least one/);
   });

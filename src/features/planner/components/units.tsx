@@ -1,6 +1,7 @@
 import { formatLength } from '@shared/quilt';
+import type { Units } from '../hooks/use-length-field';
 
-export type Units = 'in' | 'mm';
+export type { Units };
 export type LengthFormat = (inches: number) => string;
 
 export function useLengthFormat(units: Units): LengthFormat {

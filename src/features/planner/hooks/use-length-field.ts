@@ -1,4 +1,4 @@
-import { formatLength, LengthParseError, parseLength } from '@shared/quilt';
+import { formatLength, inchesToMm, LengthParseError, parseLength } from '@shared/quilt';
 
 export type Units = 'in' | 'mm';
 
@@ -26,7 +26,10 @@ export function parseOne(text: string, opts: ParseLengthOptions = {}): { value: 
 }
 
 /** A comma-separated list of lengths: "4, 3, 2, 1". An empty entry between commas is pointed at, not dropped. */
-export function parseList(text: string, opts: { allowEmpty?: boolean; units?: Units } = {}): { values: number[] | null; error?: string } {
+export function parseList(
+  text: string,
+  opts: { allowEmpty?: boolean; units?: Units } = {},
+): { values: number[] | null; error?: string } {
   if (text.trim() === '')
     return opts.allowEmpty ? { values: [] } : { values: null, error: 'Enter at least one length, separated by commas.' };
   const parts = text.split(/[,;]/).map((p) => p.trim());
@@ -44,7 +47,8 @@ export function parseList(text: string, opts: { allowEmpty?: boolean; units?: Un
 
 /** A length written back as a person would type it in `units`: "3 1/2" or "88.9" (no unit mark). */
 export function typedLength(inches: number, units: Units): string {
-  if (units === 'mm') return formatLength(inches, { unit: 'mm' }).replace(/\.0 mm$| mm$/, '');
+  // Hundredths keep ¼″ (6.35 mm) and every ⅛″ step exact enough to read back to the same plan.
+  if (units === 'mm') return String(Number(inchesToMm(inches).toFixed(2)));
   const text = formatLength(inches, { denominator: 16 }).replace('″', '');
   return text;
 }

@@ -49,7 +49,7 @@ const keys: Record<keyof PlannerInputs, string> = {
 };
 
 /** Lengths that are written in a unit (and rewritten when the unit changes); the flag marks lists. */
-const lengthFields: [keyof PlannerInputs, boolean][] = [
+const lengthFields: [Exclude<keyof PlannerInputs, 'units'>, boolean][] = [
   ['columns', true],
   ['rows', true],
   ['seam', false],
@@ -117,9 +117,11 @@ export function usePlannerState(defaultUnits: Units) {
     const defaults = inputs.units === 'in' ? inchDefaults : inUnits(inchDefaults, inputs.units);
     const next = new URLSearchParams();
     for (const field of Object.keys(keys) as (keyof PlannerInputs)[]) {
-      if (field === 'units' ? inputs.units !== defaultUnits : inputs[field] !== defaults[field]) next.set(keys[field], inputs[field]);
+      if (field === 'units' ? inputs.units !== defaultUnits : inputs[field] !== defaults[field])
+        next.set(keys[field], inputs[field]);
     }
-    if (next.toString() !== new URLSearchParams(window.location.search).toString()) setParams(next, { replace: true, preventScrollReset: true });
+    if (next.toString() !== new URLSearchParams(window.location.search).toString())
+      setParams(next, { replace: true, preventScrollReset: true });
   }, [inputs, defaultUnits, setParams]);
 
   const set = (field: keyof PlannerInputs, value: string) => setInputs((prev) => ({ ...prev, [field]: value }));

@@ -1,0 +1,120 @@
+/**
+ * Forms on a phone never lose what was typed: the Cutting planner keeps its last good results and
+ * every input through typos, keeps its inputs in the page address, reads bare numbers as millimetres
+ * in millimetre mode, and says exactly what each field allows.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { launchBrowser } from '../helpers/browser';
+import { startE2eServer } from '../helpers/e2e-server';
+import { PASSWORD, uniqueEmail } from '../helpers/factories';
+import type { RunningServer } from '../../server/index';
+
+let server: RunningServer;
+let browser: BrowserContext;
+let page: Page;
+beforeAll(async () => {
+  server = await startE2eServer();
+  browser = await launchBrowser({ viewport: { width: 360, height: 740 } });
+  page = await browser.newPage();
+  await page.goto(`${server.url}/register?next=/planner`);
+  await page.getByLabel('Your name').fill('Wilhelmina Acheson');
+  await page.getByLabel('E-mail').fill(uniqueEmail('phone-forms'));
+  await page.getByLabel('Password', { exact: true }).fill(PASSWORD);
+  await page.getByRole('button', { name: 'Create account' }).click();
+  await page.getByRole('heading', { name: 'Cutting planner' }).waitFor();
+});
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+});
+
+async function freshPlanner(query = '') {
+  await page.goto(`${server.url}/planner${query}`);
+  await page.getByRole('heading', { name: 'Cutting planner' }).waitFor();
+}
+
+describe('Cutting planner', () => {
+  it('keeps the last good results, marked out of date, and every quilt field through a typo', async () => {
+    await freshPlanner();
+    await page.getByLabel('Blocks across').fill('3');
+    await page.getByLabel('Sashing (finished width)').fill('1');
+    await page.getByLabel('Borders (finished widths)').fill('2, 4');
+    const top = await page.getByTestId('top-size').textContent();
+
+    // Half-way to "1 1/2": the field says what is wrong, the results stay, marked out of date.
+    await page.getByLabel('Row cut heights').fill('4, 3, 2, 1 1/');
+    await page.getByText(/Entry 4 \(“1 1\/”\)/).waitFor();
+    await page.getByText('Out of date', { exact: true }).waitFor();
+    expect(await page.getByTestId('unfinished-size').textContent()).toBe('8½″ × 8½″');
+    expect(await page.getByLabel('Sashing (finished width)').inputValue()).toBe('1');
+
+    await page.getByLabel('Row cut heights').fill('4, 3, 2, 1 1/2');
+    await expect.poll(() => page.getByText('Out of date', { exact: true }).count()).toBe(0);
+    expect(await page.getByLabel('Blocks across').inputValue()).toBe('3');
+    expect(await page.getByLabel('Sashing (finished width)').inputValue()).toBe('1');
+    expect(await page.getByLabel('Borders (finished widths)').inputValue()).toBe('2, 4');
+    expect(await page.getByTestId('top-size').textContent()).not.toBe(top); // the shorter block changed the top
+  });
+
+  it('keeps its inputs in the page address, so a reload or a shared link shows the same plan', async () => {
+    await freshPlanner();
+    await page.getByLabel('Column cut widths').fill('3 1/2, 3 1/2');
+    await page.getByLabel('Blocks across').fill('4');
+    await expect.poll(() => new URL(page.url()).searchParams.get('cols')).toBe('3 1/2, 3 1/2');
+    await page.reload();
+    await page.getByRole('heading', { name: 'Cutting planner' }).waitFor();
+    expect(await page.getByLabel('Column cut widths').inputValue()).toBe('3 1/2, 3 1/2');
+    expect(await page.getByLabel('Blocks across').inputValue()).toBe('4');
+  });
+
+  it('reads bare numbers as millimetres in millimetre mode and shows the unit beside each field', async () => {
+    await freshPlanner();
+    await page.getByText('Millimetres').click();
+    await page.getByLabel('Seam allowance').fill('6.35'); // ¼″ is 6.35 mm (1 in = 25.4 mm exactly, NIST SP 811)
+    await page.getByLabel('Column cut widths').fill('64, 64, 64');
+    await page.getByLabel('Row cut heights').fill('64, 64, 64');
+    // 3 × 64 mm less two seams of 2 × 6.35 mm: 166.6 mm (unfinished = Σ cuts − 2 × SA × seams, common practice, no source).
+    expect(await page.getByTestId('unfinished-size').textContent()).toBe('166.6 mm × 166.6 mm');
+    expect(await page.getByText(/is longer than|does not fit/).count()).toBe(0);
+    expect(await page.locator('[id$="-unit"]', { hasText: 'mm' }).count()).toBeGreaterThan(4);
+    expect(new URL(page.url()).searchParams.get('u')).toBe('mm');
+  });
+
+  it('lets "Blocks in the quilt" follow "How many blocks" until it is changed', async () => {
+    await freshPlanner();
+    await page.getByLabel('How many blocks or units').fill('20');
+    expect(await page.getByLabel('Blocks in the quilt').inputValue()).toBe('20');
+    await page.getByLabel('Blocks in the quilt').fill('24');
+    await page.getByLabel('How many blocks or units').fill('30');
+    expect(await page.getByLabel('Blocks in the quilt').inputValue()).toBe('24');
+  });
+
+  it('says what a length field allows, for a negative number and for zero alike', async () => {
+    await freshPlanner();
+    await page.getByLabel('Seam allowance').fill('-2');
+    await page.getByText('Enter a length greater than zero; “-2” is negative.').waitFor();
+    await page.getByLabel('Seam allowance').fill('0');
+    await page.getByText('Enter a length greater than zero.', { exact: true }).waitFor();
+  });
+
+  it('refuses a fabric narrower than the widest strip set and asks before planning with a narrow one', async () => {
+    await freshPlanner();
+    await page.getByLabel('Usable width of fabric (WOF)').fill('3');
+    await page.getByText('The fabric must be at least as wide as the widest piece or strip set, 8½″.').waitFor();
+    await page.getByText('Out of date', { exact: true }).waitFor();
+    await page.getByLabel('Usable width of fabric (WOF)').fill('30');
+    await page.getByText(/narrower than most quilting cotton/).waitFor();
+    await page.getByText('Out of date', { exact: true }).waitFor();
+    await page.getByLabel('My fabric really is this narrow').check();
+    await expect.poll(() => page.getByText('Out of date', { exact: true }).count()).toBe(0);
+    expect(await page.getByText(/Strips across the width of fabric \(30″\)/).count()).toBe(1);
+  });
+
+  it('points at an empty entry in a list instead of dropping it', async () => {
+    await freshPlanner();
+    await page.getByLabel('Column cut widths').fill('2 1/2, , 2');
+    await page.getByText('Entry 2 is empty: type a length there or remove the extra comma.').waitFor();
+    expect(await page.getByLabel('Column cut widths').inputValue()).toBe('2 1/2, , 2');
+  });
+});
