@@ -1,56 +1,41 @@
 import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
-import { checkBlock, formatDeviation, parseLength, type CheckBlockResult } from '@shared/quilt';
-import { measurementBodySchema } from '@shared/schemas/blocks';
-import { zodFields } from '@shared/schemas/errors';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { checkBlock, formatDeviation, type CheckBlockResult } from '@shared/quilt';
+import { measuringFormSchema, type MeasuringFormInput, type MeasuringFormOutput } from '@shared/schemas/intake';
 import type { SwapDto } from '@shared/swap-types';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
 import { ApiError } from '@/lib/api-client';
 import { useMeasureBlock, type MeasurementAnswer } from '@/entities/block/api/measure-block';
+import { VerdictBadge } from '@/entities/block/components/verdict-badge';
 import { newClientId } from '@/lib/client-id';
 import { len, sizeText } from './lengths';
-import { VerdictBadge } from '@/entities/block/components/verdict-badge';
 
-interface Values {
-  width: string;
-  height: string;
-  diagonal1: string;
-  diagonal2: string;
-}
-type Field = keyof Values;
+type Field = keyof MeasuringFormInput;
+const empty: MeasuringFormInput = { width: '', height: '', diagonal1: '', diagonal2: '' };
 
-function body(v: Values) {
-  const diagonals: [string, string] | undefined =
-    v.diagonal1.trim() || v.diagonal2.trim() ? [v.diagonal1, v.diagonal2] : undefined;
-  return { width: v.width, height: v.height, ...(diagonals ? { diagonals } : {}) };
-}
-
-/** The verdict as the engine sees what is typed so far, or null while it cannot be read. */
-function preview(swap: SwapDto, v: Values): CheckBlockResult | null {
+/** The verdict as the engine sees what is typed so far (a lone diagonal is left out), or null while it cannot be read. */
+function preview(swap: SwapDto, v: MeasuringFormInput): CheckBlockResult | null {
+  const pair = v.diagonal1.trim() !== '' && v.diagonal2.trim() !== '';
+  const parsed = measuringFormSchema.safeParse(pair ? v : { ...v, diagonal1: '', diagonal2: '' });
+  if (!parsed.success) return null;
   try {
-    const d =
-      v.diagonal1.trim() && v.diagonal2.trim()
-        ? ([parseLength(v.diagonal1), parseLength(v.diagonal2)] as [number, number])
-        : undefined;
-    return checkBlock({
-      target: swap.unfinished,
-      tolerance: swap.tolerance,
-      squareness: swap.squareness,
-      measured: { width: parseLength(v.width), height: parseLength(v.height), ...(d ? { diagonals: d } : {}) },
-    });
+    return checkBlock({ target: swap.unfinished, tolerance: swap.tolerance, squareness: swap.squareness, measured: parsed.data });
   } catch {
     return null;
   }
 }
 
+/** A field named by the server ("diagonals.1") as the box it came from. */
 const fieldOf = (path: string): Field =>
   path.startsWith('diagonals') ? (path.endsWith('1') ? 'diagonal2' : 'diagonal1') : (path as Field);
 
 /**
- * Width, height and optional diagonals in any format parseLength reads. The verdict shows as soon
- * as the numbers can be read; on saving, the server's own verdict replaces it.
+ * Width, height and optional diagonals in any format parseLength reads, checked by the same schema
+ * as the intake's measuring card. The verdict shows as soon as the numbers can be read; on saving,
+ * the server's own verdict replaces it.
  */
 export function MeasureForm({
   swap,
@@ -66,8 +51,11 @@ export function MeasureForm({
   onSaved?: (m: MeasurementAnswer) => void;
 }) {
   const measure = useMeasureBlock(swap.id);
-  const form = useForm<Values>({ defaultValues: { width: '', height: '', diagonal1: '', diagonal2: '' } });
-  const values = useWatch({ control: form.control }) as Values;
+  const form = useForm<MeasuringFormInput, unknown, MeasuringFormOutput>({
+    resolver: zodResolver(measuringFormSchema),
+    defaultValues: empty,
+  });
+  const values = useWatch({ control: form.control }) as MeasuringFormInput;
   const [saved, setSaved] = useState<MeasurementAnswer | null>(null);
   const [problem, setProblem] = useState('');
   // One id per entry: a retry after a lost answer is recorded once.
@@ -78,16 +66,11 @@ export function MeasureForm({
   const onSubmit = form.handleSubmit(async (v) => {
     setProblem('');
     setSaved(null);
-    const parsed = measurementBodySchema.safeParse(body(v));
-    if (!parsed.success) {
-      for (const [path, message] of Object.entries(zodFields(parsed.error))) form.setError(fieldOf(path), { message });
-      return;
-    }
     try {
-      const answer = await measure.mutateAsync({ blockId, ...body(v), source, clientId });
+      const answer = await measure.mutateAsync({ blockId, ...v, source, clientId });
       setSaved(answer);
       setClientId(newClientId());
-      form.reset();
+      form.reset(empty);
       onSaved?.(answer);
     } catch (error) {
       if (error instanceof ApiError) {
