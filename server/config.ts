@@ -42,6 +42,16 @@ const configSchema = z.object({
     .enum(['true', 'false'])
     .default('false')
     .transform((v) => v === 'true'),
+  /**
+   * Payments through the hosted service's SDK. With no secret key, payments are switched off. `npm start`
+   * and the tests point the SDK at the local fake (host, port, protocol); real keys with no host use
+   * the real service.
+   */
+  STRIPE_SECRET_KEY: z.string().max(255).optional(),
+  STRIPE_WEBHOOK_SECRET: z.string().max(255).optional(),
+  STRIPE_API_HOST: z.string().max(255).optional(),
+  STRIPE_API_PORT: z.coerce.number().int().min(1).max(65535).optional(),
+  STRIPE_API_PROTOCOL: z.enum(['http', 'https']).optional(),
   /** Folder of the built client (defaults to dist/); lets parallel test runs each use their own build. */
   CLIENT_DIR: z.string().max(4096).optional(),
   /** Serve the built client from dist/ (off in dev, where Vite serves it). */

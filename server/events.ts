@@ -33,6 +33,10 @@ export interface DomainEventMap {
   /** Chat: a message as it now stands (new, edited, deleted by its author or removed by a moderator). */
   'chat.posted': { guildId: number; roomId: number; actorId: number; message: ChatMessageDto };
   'chat.changed': { guildId: number; roomId: number; actorId: number; change: 'edited' | 'deleted' | 'removed'; message: ChatMessageDto };
+  /** Sign-in sessions that ended (signed out, or every session of an account after a password reset or change). */
+  'session.ended': { userId: number; sessionIds: string[] };
+  /** Payments changed by a verified webhook: paid or refunded (receipts), or failed. */
+  'payment.settled': { guildId: number; userId: number; swapId: number | null; paymentIds: number[]; status: 'paid' | 'refunded' | 'failed' };
 }
 
 export type DomainEventName = keyof DomainEventMap;

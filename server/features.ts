@@ -22,6 +22,8 @@ import { chatRouter } from './chat/chat.routes';
 import { boardRouter } from './board/board.routes';
 import { photoEstimatesRouter } from './photo-estimates/photo-estimates.routes';
 import { intakeRouter } from './intake/intake.routes';
+import { paymentsRouter } from './payments/payments.routes';
+import { paymentsFeature } from './payments/payments.startup';
 
 export type FeatureRouter = (deps: AppDeps) => Router;
 
@@ -51,10 +53,11 @@ export const featureRouters: FeatureRouter[] = [
   notificationsRouter,
   intakeRouter,
   photoEstimatesRouter,
+  paymentsRouter,
 ];
 
 /** The socket.io server with every live part: swap boards, sew-day and swap chat. */
 const liveFeature = liveStartup([boardLive(), chatLive]);
 
 // The photo store's owner check comes first: a store that is another install's stops the start untouched.
-export const featureStartups: FeatureStartup[] = [photoStoreFeature, liveFeature, mailJobsFeature];
+export const featureStartups: FeatureStartup[] = [photoStoreFeature, liveFeature, mailJobsFeature, paymentsFeature];

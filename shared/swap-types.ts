@@ -42,6 +42,8 @@ export interface SwapDto extends SwapSummaryDto {
   giftRecipient: { userId: number | null; name: string } | null;
   createdBy: { id: number; displayName: string } | null;
   createdAt: string;
+  /** In the guild currency's minor unit; 0 is no fee. */
+  fees: { entry: number; postage: number };
   updatedAt: string;
   distributionConfirmedAt: string | null;
   /** true while state is signup and the close date has not passed */

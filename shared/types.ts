@@ -23,6 +23,10 @@ export interface GuildDto {
   id: number;
   name: string;
   timeZone: string;
+  /** ISO 4217, lower case: the currency of the guild's dues and swap fees. */
+  currency: string;
+  /** Yearly dues in the currency's minor unit, or null when the guild asks for none. */
+  dues: { amount: number; year: number } | null;
   createdAt: string;
   myRole: Role;
   memberCount: number;

@@ -13,7 +13,7 @@ function safeCell(value: unknown): string | number {
   return /^[=+\-@\t\r]/.test(text) ? `'${text}` : text;
 }
 
-function csv(header: string[], rows: (string | number | null | undefined)[][]): string {
+export function csv(header: string[], rows: (string | number | null | undefined)[][]): string {
   // A byte-order mark so spreadsheet programs read names such as “Ibáñez” as UTF-8.
   return '\uFEFF' + stringify([header, ...rows.map((r) => r.map(safeCell))], { record_delimiter: 'windows' });
 }

@@ -22,6 +22,9 @@ export const guildPermissions = {
   'photos:read': ['admin', 'coordinator', 'member'],
   'photos:manage': ['admin', 'coordinator'],
   'intake:run': ['admin', 'coordinator'],
+  'payments:pay': ['admin', 'coordinator', 'member'],
+  /** The treasurer's work: every payment, exports, refunds, dues and currency. */
+  'payments:manage': ['admin'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type GuildAction = keyof typeof guildPermissions;

@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { type z } from 'zod';
 import {
   createGuildSchema, createInvitationSchema, guildParamsSchema, idParam, invitationTokenParams, memberParamsSchema,
-  updateMemberSchema,
+  updateGuildSchema, updateMemberSchema,
 } from '@shared/schemas/guilds';
 import { validate } from '../http/validate';
 import { currentUser, requireUser } from '../auth/require-user';
@@ -33,7 +33,7 @@ export function guildsRouter(deps: AppDeps) {
 
   router.patch(
     '/:guildId',
-    validate({ params: guildParamsSchema, body: createGuildSchema.partial() }),
+    validate({ params: guildParamsSchema, body: updateGuildSchema }),
     async (req, res) => {
       const { guildId } = req.params as unknown as GuildParams;
       const membership = await authorizeGuild(currentUser(req).id, guildId, 'guild:update');

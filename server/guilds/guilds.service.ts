@@ -1,5 +1,5 @@
-import { Op, type Transaction } from 'sequelize';
-import type { CreateGuildInput, Role } from '@shared/schemas/guilds';
+import { Op, QueryTypes, type Transaction } from 'sequelize';
+import type { CreateGuildInput, Role, UpdateGuildInput } from '@shared/schemas/guilds';
 import type { GuildDto, InvitationDto, InvitationPreviewDto, MemberDto } from '@shared/types';
 import { Guild, Invitation, Membership, User } from '../db/models';
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '../http/errors';
@@ -21,7 +21,15 @@ export async function createGuild(userId: number, input: CreateGuildInput): Prom
 }
 
 function guildDto(guild: Guild, myRole: Role): Omit<GuildDto, 'memberCount'> {
-  return { id: guild.id, name: guild.name, timeZone: guild.timeZone, createdAt: guild.createdAt.toISOString(), myRole };
+  return {
+    id: guild.id,
+    name: guild.name,
+    timeZone: guild.timeZone,
+    currency: guild.currency,
+    dues: guild.duesAmount && guild.duesYear ? { amount: guild.duesAmount, year: guild.duesYear } : null,
+    createdAt: guild.createdAt.toISOString(),
+    myRole,
+  };
 }
 
 async function memberCount(guildId: number) {
@@ -43,10 +51,24 @@ export async function getGuild(guildId: number, myRole: Role): Promise<GuildDto>
   return { ...guildDto(guild, myRole), memberCount: await memberCount(guildId) };
 }
 
-export async function updateGuild(guildId: number, myRole: Role, input: Partial<CreateGuildInput>) {
+export async function updateGuild(guildId: number, myRole: Role, input: UpdateGuildInput) {
   const guild = await Guild.findByPk(guildId);
   if (!guild) throw new NotFoundError('That guild does not exist.');
-  await guild.update(input);
+  const { dues, currency, ...rest } = input;
+  if (currency && currency !== guild.currency) {
+    const charged = await Guild.sequelize!.query<{ n: number }>('SELECT count(*)::int AS n FROM payments WHERE guild_id = $1', {
+      bind: [guildId],
+      type: QueryTypes.SELECT,
+    });
+    if ((charged[0]?.n ?? 0) > 0) {
+      throw new ValidationError('The currency cannot change once members have paid in it.', { currency: 'The currency cannot change once members have paid in it.' });
+    }
+  }
+  await guild.update({
+    ...rest,
+    ...(currency ? { currency } : {}),
+    ...(dues !== undefined ? { duesAmount: dues?.amount ?? null, duesYear: dues?.year ?? null } : {}),
+  });
   return getGuild(guildId, myRole);
 }
 

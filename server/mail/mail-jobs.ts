@@ -16,6 +16,7 @@ import { composeReminders } from './compose/reminders';
 import { composeReceipt } from './compose/receipt';
 import { composeDistribution } from './compose/distribution';
 import { composeDigests } from './compose/digest';
+import { composePaymentReceipt } from './compose/payment-receipt';
 import { queues, startBoss } from '../jobs/queue';
 
 const SEND_WORKERS = 4;
@@ -24,7 +25,8 @@ export type ComposeJob =
   | { kind: 'announcement'; swapId: number }
   | { kind: 'signup-confirmation'; swapId: number; userId: number }
   | { kind: 'receipt'; swapId: number; userId: number }
-  | { kind: 'distribution'; swapId: number };
+  | { kind: 'distribution'; swapId: number }
+  | { kind: 'payment-receipt'; paymentIds: number[]; news: 'paid' | 'refunded' };
 
 export interface MailJobs {
   boss: PgBoss;
@@ -51,6 +53,7 @@ export interface MailJobsOptions {
 
 /** One waiting compose job per subject: a burst of events for it makes one message. */
 function singletonKey(job: ComposeJob) {
+  if (job.kind === 'payment-receipt') return `${job.kind}:${job.paymentIds.join('-')}:${job.news}`;
   return 'userId' in job ? `${job.kind}:${job.swapId}:${job.userId}` : `${job.kind}:${job.swapId}`;
 }
 
@@ -77,6 +80,8 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
   const sweep = async (now = new Date()) => {
     const reminders = await composeReminders(composeDeps, now);
     return { ...reminders, requeued: await requeueStalled(deps.pool, boss) };
+      case 'payment-receipt':
+        return composePaymentReceipt(composeDeps, job.paymentIds, job.news);
   };
   const digest = (now = new Date()) => composeDigests(composeDeps, now);
   const enqueue = (job: ComposeJob, delaySeconds = 0) =>
@@ -134,6 +139,7 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
     sweep,
     digest,
     async close() {
+    deps.events.on('payment.settled', (e) => (e.status === 'failed' ? undefined : on({ kind: 'payment-receipt', paymentIds: e.paymentIds, news: e.status })));
       closed = true;
       // Graceful: running jobs finish (or are left for another worker once they expire).
       await boss.stop({ graceful: true, wait: true, timeout: 10_000 });

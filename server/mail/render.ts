@@ -21,6 +21,7 @@ export const templateNames = [
   'receipt',
   'distribution',
   'coordinator-digest',
+  'payment-receipt',
 ] as const;
 export type TemplateName = (typeof templateNames)[number];
 

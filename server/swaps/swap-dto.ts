@@ -76,6 +76,7 @@ export async function swapDto(swap: Swap, viewer: { userId: number; role: Role; 
     createdAt: swap.createdAt.toISOString(),
     updatedAt: swap.updatedAt.toISOString(),
     distributionConfirmedAt: swap.distributionConfirmedAt?.toISOString() ?? null,
+    fees: { entry: swap.entryFee, postage: swap.postageFee },
     signupOpen: signupIsOpen(swap),
     guild: { id: guild!.id, name: guild!.name, timeZone: guild!.timeZone },
     myRole: viewer.role,

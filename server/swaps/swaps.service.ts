@@ -64,6 +64,8 @@ export async function createSwap(deps: Deps, guildId: number, viewer: Viewer, in
         giftRecipientId: input.mode === 'gift' ? (input.giftRecipientId ?? null) : null,
         giftRecipientName: input.mode === 'gift' && !input.giftRecipientId ? (input.giftRecipientName?.trim() ?? null) : null,
         createdById: viewer.userId,
+        entryFee: input.fees?.entry ?? 0,
+        postageFee: input.fees?.postage ?? 0,
       },
       { transaction },
     );
@@ -131,6 +133,8 @@ export async function updateSwap(deps: Deps, swapId: number, viewer: Viewer, pat
         ...(patch.signupReminderDays !== undefined ? { signupReminderDays: patch.signupReminderDays } : {}),
         ...(patch.dueReminderDays !== undefined ? { dueReminderDays: patch.dueReminderDays } : {}),
         quotaMin: merged.quota.min,
+        ...(patch.fees?.entry !== undefined ? { entryFee: patch.fees.entry } : {}),
+        ...(patch.fees?.postage !== undefined ? { postageFee: patch.fees.postage } : {}),
         quotaMax: merged.quota.max,
         signupClosesAt: merged.signupClosesAt,
         dueAt: merged.dueAt,

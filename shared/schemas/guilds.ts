@@ -1,5 +1,7 @@
 import { z } from 'zod';
 import { emailSchema } from './auth';
+import { idParam } from './ids';
+import { guildPaymentFields } from './payments';
 
 export const roles = ['admin', 'coordinator', 'member'] as const;
 export const roleSchema = z.enum(roles, { error: 'Choose admin, coordinator or member.' });
@@ -39,6 +41,14 @@ export const createGuildSchema = z.object({
 export type CreateGuildInput = z.infer<typeof createGuildSchema>;
 
 export const updateMemberSchema = z.object({ role: roleSchema });
+/** PATCH /api/guilds/:guildId: any of the guild's settings (admins). */
+export const updateGuildSchema = createGuildSchema
+  .partial()
+  .extend(guildPaymentFields)
+  .strict()
+  .refine((o) => Object.keys(o).length > 0, { message: 'Nothing to change.' });
+export type UpdateGuildInput = z.infer<typeof updateGuildSchema>;
+
 export type UpdateMemberInput = z.infer<typeof updateMemberSchema>;
 
 export const createInvitationSchema = z.object({ email: emailSchema, role: roleSchema.default('member') });

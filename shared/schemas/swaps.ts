@@ -5,6 +5,8 @@
 import { z } from 'zod';
 import { lengthSchema } from '@shared/quilt';
 import { blockSpecSchema } from './blocks';
+import { swapFeesSchema } from './payments';
+import { idParam } from './ids';
 
 export const swapStates = ['draft', 'signup', 'sewing', 'collecting', 'sorting', 'complete', 'cancelled'] as const;
 export type SwapState = (typeof swapStates)[number];
@@ -118,6 +120,8 @@ const createFields = {
   signupReminderDays: swapFields.signupReminderDays.default(7),
   dueReminderDays: swapFields.dueReminderDays.default(2),
   mode: swapFields.mode.default('return'),
+  /** Entry fee and return postage in the guild currency's minor unit (cents); 0 or absent is none. */
+  fees: swapFeesSchema,
 };
 
 export type SwapShape = {
@@ -130,6 +134,7 @@ export type SwapShape = {
 };
 
 /** Problems across fields as `{ field: message }`; also run on a PATCH merged onto the stored swap. */
+  fees: swapFields.fees.optional(),
 export function swapRuleProblems(s: SwapShape): Record<string, string> {
   const problems: Record<string, string> = {};
   if (s.quota.max < s.quota.min) problems['quota.max'] = 'The most blocks cannot be fewer than the fewest.';

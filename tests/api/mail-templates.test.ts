@@ -28,6 +28,10 @@ const swapView = {
 };
 
 const fixtures: Record<Exclude<TemplateName, 'invitation' | 'password-reset'>, object> = {
+  'payment-receipt': {
+    name: 'Nell', guildName: 'Kestrel Hollow Quilters', refunded: false, lines: [{ label: 'Swap entry fee: Scrap Stars', amount: '$5.00' }],
+    total: '$5.00', reference: 'BP-12', when: 'Tuesday 20 April 2027 at 12:00 pm', url: 'http://x/settings/payments',
+  },
   'swap-announcement': { name: 'Nell', guildName: 'Kestrel Hollow Quilters', swap: swapView, url: 'http://127.0.0.1:3000/guilds/1/swaps/2' },
   'signup-confirmation': {
     name: 'Nell', swapTitle: 'Scrap Stars', blocks: 2, blocksText: '2 blocks', unfinished: '9½″ × 9½″', due: 'Tuesday 20 April 2027', dueIn: 'in 45 days',

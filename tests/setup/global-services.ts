@@ -12,6 +12,7 @@ import { startThrowawayCluster } from '../../scripts/lib/throwaway-cluster';
 import { startMaildev } from '../../scripts/lib/maildev';
 import { startS3Fake } from '../../scripts/lib/s3-fake';
 import { freePort } from '../../scripts/lib/ports';
+import { startPaymentsFake } from '../../scripts/lib/payments-fake';
 import { createSequelize } from '../../server/db/sequelize';
 import { migrateUp } from '../../server/db/migrator';
 
@@ -24,6 +25,8 @@ declare module 'vitest' {
     maildevApi: string;
     /** The fake object store (s3rver) on loopback, with one bucket; tests keep apart by key prefix. */
     s3Env: Record<string, string>;
+    /** The local payments fake's port (tests register their own webhook endpoints on it). */
+    paymentsPort: number;
   }
 }
 
@@ -49,8 +52,11 @@ export default async function setup(project: TestProject) {
   project.provide('smtpUrl', `smtp://127.0.0.1:${maildev.smtpPort}`);
   project.provide('maildevApi', maildev.apiUrl);
   project.provide('s3Env', s3.env);
+  const payments = await startPaymentsFake();
+  project.provide('paymentsPort', payments.port);
 
   return async () => {
+    await payments.stop();
     await s3?.stop();
     rmSync(s3Dir, { recursive: true, force: true });
     await maildev?.stop();

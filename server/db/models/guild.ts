@@ -5,6 +5,11 @@ export class Guild extends Model<InferAttributes<Guild>, InferCreationAttributes
   declare name: string;
   /** IANA zone in which deadlines are shown to members. */
   declare timeZone: CreationOptional<string>;
+  /** ISO 4217, lower case; every fee and due of the guild is in it. */
+  declare currency: CreationOptional<string>;
+  /** Yearly dues in the currency's minor unit, and the membership year they are for (both or neither). */
+  declare duesAmount: CreationOptional<number | null>;
+  declare duesYear: CreationOptional<number | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -14,6 +19,9 @@ export class Guild extends Model<InferAttributes<Guild>, InferCreationAttributes
         id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
         name: { type: DataTypes.STRING(100), allowNull: false },
         timeZone: { type: DataTypes.STRING(64), allowNull: false, defaultValue: 'UTC' },
+        currency: { type: DataTypes.STRING(3), allowNull: false, defaultValue: 'usd' },
+        duesAmount: { type: DataTypes.INTEGER, allowNull: true },
+        duesYear: { type: DataTypes.INTEGER, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

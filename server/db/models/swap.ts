@@ -41,6 +41,9 @@ export class Swap extends Model<InferAttributes<Swap>, InferCreationAttributes<S
   declare signupReminderDays: CreationOptional<number>;
   declare dueReminderDays: CreationOptional<number>;
   declare mode: CreationOptional<SwapMode>;
+  /** Fees in the guild currency's minor unit; 0 is no fee. Return postage is asked only of makers who post blocks. */
+  declare entryFee: CreationOptional<number>;
+  declare postageFee: CreationOptional<number>;
   declare giftRecipientId: CreationOptional<number | null>;
   declare giftRecipientName: CreationOptional<string | null>;
   declare state: CreationOptional<SwapState>;
@@ -74,6 +77,8 @@ export class Swap extends Model<InferAttributes<Swap>, InferCreationAttributes<S
         signupReminderDays: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 7 },
         dueReminderDays: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 2 },
         mode: { type: DataTypes.STRING(16), allowNull: false, defaultValue: 'return' },
+        entryFee: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        postageFee: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         giftRecipientId: { type: DataTypes.INTEGER, allowNull: true },
         giftRecipientName: { type: DataTypes.STRING(120), allowNull: true },
         state: { type: DataTypes.STRING(16), allowNull: false, defaultValue: 'draft' },

@@ -1,0 +1,24 @@
+/**
+ * Who may do what with payments (deny by default): every member pays their own dues and fees and
+ * sees their own payments; officers see who has paid a swap's fees; only admins, as the guild's
+ * treasurer, see every payment, export them and refund.
+ */
+import type { Role } from '@shared/schemas/guilds';
+import { authorizeGuild, can } from '../guilds/guilds.policy';
+import { canReadSwap } from '../swaps/swaps.policy';
+
+export async function canPayGuild(userId: number, guildId: number): Promise<{ role: Role; isTreasurer: boolean }> {
+  const membership = await authorizeGuild(userId, guildId, 'payments:pay');
+  return { role: membership.role, isTreasurer: can(membership.role, 'payments:manage') };
+}
+
+export async function canTreasure(userId: number, guildId: number): Promise<void> {
+  await authorizeGuild(userId, guildId, 'payments:manage');
+}
+
+/** Members of the swap's guild pay its fees; officers also see everyone's standing. */
+export async function canPaySwap(userId: number, swapId: number): Promise<{ canManage: boolean }> {
+  const access = await canReadSwap(userId, swapId);
+  if (!can(access.role, 'payments:pay')) return { canManage: false };
+  return { canManage: access.canManage };
+}
