@@ -9,6 +9,7 @@ import type { Config } from '../config';
 import type { Mailer } from './mailer';
 import { optedOut, optedOutReason } from './preferences';
 import { unsubscribeHeaders, unsubscribeToken } from './unsubscribe-token';
+import { stillTrue } from './still-true';
 
 /** How long a claim holds; a worker that dies mid-send lets the message go after this. */
 const LEASE_MINUTES = 15;
@@ -22,9 +23,13 @@ interface ClaimedRow {
   text_body: string;
   html_body: string;
   attempts: number;
+  kind: string;
+  swap_id: number | null;
+  idempotency_key: string;
+  written_for: Date;
 }
 
-export type DeliveryOutcome = 'sent' | 'skipped' | 'failed' | 'not-claimed';
+export type DeliveryOutcome = 'sent' | 'skipped' | 'failed' | 'not-claimed' | 'held';
 
 /** Thrown for a failure worth retrying; the job queue brings the job back with backoff. */
 export class RetryableDeliveryError extends Error {}
@@ -33,7 +38,22 @@ export interface DeliveryDeps {
   pool: pg.Pool;
   mailer: Mailer;
   config: Pick<Config, 'PUBLIC_URL' | 'SESSION_SECRET' | 'MAIL_RETRY_LIMIT'>;
+  /** Queues message `id` for delivery again after `seconds` (a message held back for another). */
+  later?: (id: number, seconds: number) => Promise<unknown>;
 }
+
+/** How long a return notice waits for the same maker's receipt before looking again. */
+const HOLD_SECONDS = 2;
+
+/**
+ * A return notice waits while the same person's receipt for that swap is still on its way, so
+ * "your blocks arrived" always lands before "blocks coming your way".
+ */
+const RECEIPT_PENDING = `
+  SELECT 1 FROM mail_messages d
+    JOIN mail_messages r ON r.swap_id = d.swap_id AND r.user_id = d.user_id AND r.kind = 'receipt' AND r.status IN ('queued', 'sending')
+   WHERE d.id = $1 AND d.kind = 'distribution' AND d.status = 'queued'
+   LIMIT 1`;
 
 function reasonOf(error: unknown): string {
   const e = error as { message?: string; responseCode?: number; code?: string };
@@ -48,11 +68,15 @@ function isPermanent(error: unknown) {
 
 /** Sends message `id` if nobody else has or is; records the outcome on the row. */
 export async function deliverMessage(deps: DeliveryDeps, id: number): Promise<DeliveryOutcome> {
+  if (deps.later && (await deps.pool.query(RECEIPT_PENDING, [id])).rowCount) {
+    await deps.later(id, HOLD_SECONDS);
+    return 'held';
+  }
   const claimed = await deps.pool.query<ClaimedRow>(
     `UPDATE mail_messages
         SET status = 'sending', attempts = attempts + 1, locked_until = now() + make_interval(mins => $2), updated_at = now()
       WHERE id = $1 AND (status = 'queued' OR (status = 'sending' AND locked_until < now()))
-      RETURNING id, category, user_id, to_address, subject, text_body, html_body, attempts`,
+      RETURNING id, category, user_id, to_address, subject, text_body, html_body, attempts, kind, swap_id, idempotency_key, written_for`,
     [id, LEASE_MINUTES],
   );
   const row = claimed.rows[0];
@@ -70,6 +94,19 @@ export async function deliverMessage(deps: DeliveryDeps, id: number): Promise<De
   if (row.category !== 'account' && row.user_id !== null && (await optedOut([row.user_id], row.category)).has(row.user_id)) {
     await finish('skipped', optedOutReason(row.category as MailCategory));
     return 'skipped';
+  }
+
+  // What the message says is checked against the swap as it is now: dropped or rewritten if it moved on.
+  const asOf = new Date(Math.max(Date.now(), new Date(row.written_for).getTime()));
+  const check = await stillTrue(deps.config, row, asOf);
+  if ('drop' in check) {
+    await finish('skipped', check.drop);
+    return 'skipped';
+  }
+  if (check.send === 'rewritten') {
+    const { subject, text, html } = check.mail;
+    await deps.pool.query(`UPDATE mail_messages SET subject = $2, text_body = $3, html_body = $4, updated_at = now() WHERE id = $1`, [id, subject.slice(0, 300), text, html]);
+    Object.assign(row, { subject: subject.slice(0, 300), text_body: text, html_body: html });
   }
 
   const headers =

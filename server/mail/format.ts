@@ -24,15 +24,21 @@ export function localDateKey(date: Date | string, timeZone: string): string {
   return new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(new Date(date));
 }
 
-/** Whole days from `now` until `date`, rounded up: a deadline 36 hours away is "in 2 days". */
-export function daysUntil(date: Date | string, now = new Date()): number {
-  return Math.ceil((new Date(date).getTime() - now.getTime()) / 86_400_000);
+/**
+ * Calendar days from `now` until `date` as the guild's clock reads them: a deadline at 9 am
+ * tomorrow is "tomorrow" even at 11 pm today. Negative once the date has passed.
+ */
+export function daysUntil(date: Date | string, now = new Date(), timeZone = 'UTC'): number {
+  const day = (d: Date | string) => Date.parse(`${localDateKey(d, timeZone)}T00:00:00Z`);
+  return Math.round((day(date) - day(now)) / 86_400_000);
 }
 
-/** "today", "tomorrow", "in 5 days". */
+/** "today", "tomorrow", "in 5 days"; past dates read in the past: "yesterday", "3 days ago". */
 export function inDays(days: number): string {
-  if (days <= 0) return 'today';
+  if (days === 0) return 'today';
   if (days === 1) return 'tomorrow';
+  if (days === -1) return 'yesterday';
+  if (days < 0) return `${-days} days ago`;
   return `in ${days} days`;
 }
 

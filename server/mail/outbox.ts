@@ -32,13 +32,16 @@ export interface RecordResult {
 
 const INSERT = `
   INSERT INTO mail_messages
-    (idempotency_key, category, kind, guild_id, swap_id, user_id, to_address, subject, text_body, html_body, status, status_reason)
-  VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12)
+    (idempotency_key, category, kind, guild_id, swap_id, user_id, to_address, subject, text_body, html_body, status, status_reason, written_for)
+  VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, COALESCE($13::timestamptz, now()))
   ON CONFLICT (idempotency_key) DO NOTHING
   RETURNING id`;
 
-/** Records each message once and queues its delivery; a key seen before is left alone. */
-export async function recordAndQueue(pool: pg.Pool, boss: PgBoss, records: OutgoingRecord[]): Promise<RecordResult> {
+/**
+ * Records each message once and queues its delivery; a key seen before is left alone. `writtenFor`
+ * is the moment the words were worked out for (now, unless a sweep was run for another time).
+ */
+export async function recordAndQueue(pool: pg.Pool, boss: PgBoss, records: OutgoingRecord[], writtenFor?: Date): Promise<RecordResult> {
   const result: RecordResult = { queued: 0, skipped: 0, existing: 0 };
   for (const r of records) {
     const client = await pool.connect();
@@ -46,7 +49,7 @@ export async function recordAndQueue(pool: pg.Pool, boss: PgBoss, records: Outgo
       await client.query('BEGIN');
       const status = r.skipReason ? 'skipped' : 'queued';
       const inserted = await client.query<{ id: number }>(INSERT, [
-        r.key, r.category, r.kind, r.guildId, r.swapId, r.userId, r.to, r.mail.subject.slice(0, 300), r.mail.text, r.mail.html, status, r.skipReason ?? null,
+        r.key, r.category, r.kind, r.guildId, r.swapId, r.userId, r.to, r.mail.subject.slice(0, 300), r.mail.text, r.mail.html, status, r.skipReason ?? null, writtenFor ?? null,
       ]);
       const id = inserted.rows[0]?.id;
       if (id !== undefined && status === 'queued') {

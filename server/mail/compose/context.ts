@@ -13,6 +13,9 @@ import type { OutgoingRecord } from '../outbox';
 import type { MailFrame, RenderedMail, TemplateName } from '../render';
 import { unsubscribePageUrl, unsubscribeToken } from '../unsubscribe-token';
 
+/** What drafting a message needs of the configuration: links and unsubscribe tokens. */
+export type MailConfig = Pick<Config, 'PUBLIC_URL' | 'SESSION_SECRET'>;
+
 export interface ComposeDeps {
   pool: pg.Pool;
   config: Config;

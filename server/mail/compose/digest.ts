@@ -93,8 +93,8 @@ export function changeLines(w: WeekCounts, timeZone: string): string[] {
 }
 
 function nextDeadline(swap: Swap, timeZone: string, now: Date): string | null {
-  if (swap.state === 'signup' && swap.signupClosesAt > now) return `sign-up closes ${inDays(daysUntil(swap.signupClosesAt, now))}, ${mailDate(swap.signupClosesAt, timeZone, false)}`;
-  if (['signup', 'sewing', 'collecting'].includes(swap.state) && swap.dueAt > now) return `blocks due ${inDays(daysUntil(swap.dueAt, now))}, ${mailDate(swap.dueAt, timeZone, false)}`;
+  if (swap.state === 'signup' && swap.signupClosesAt > now) return `sign-up closes ${inDays(daysUntil(swap.signupClosesAt, now, timeZone))}, ${mailDate(swap.signupClosesAt, timeZone, false)}`;
+  if (['signup', 'sewing', 'collecting'].includes(swap.state) && swap.dueAt > now) return `blocks due ${inDays(daysUntil(swap.dueAt, now, timeZone))}, ${mailDate(swap.dueAt, timeZone, false)}`;
   return null;
 }
 

@@ -43,9 +43,9 @@ export function swapView(swap: Swap, guild: Guild, units: Units, now = new Date(
     colourRules: (swap.colourRules ?? []).map((r) => ({ role: r.role, note: r.note || 'your choice' })),
     quota: quotaText(swap.quotaMin, swap.quotaMax),
     signupCloses: mailDate(swap.signupClosesAt, tz),
-    signupClosesIn: inDays(daysUntil(swap.signupClosesAt, now)),
+    signupClosesIn: inDays(daysUntil(swap.signupClosesAt, now, tz)),
     due: mailDate(swap.dueAt, tz),
-    dueIn: inDays(daysUntil(swap.dueAt, now)),
+    dueIn: inDays(daysUntil(swap.dueAt, now, tz)),
     zone: zoneLabel(tz),
     mode:
       swap.mode === 'gift'
