@@ -15,7 +15,8 @@ import { createTestDatabase } from '../helpers/test-app';
 import { PASSWORD } from '../helpers/factories';
 import { freePort } from '../../scripts/lib/ports';
 import { createSequelize } from '../../server/db/sequelize';
-import { sweepOrphanPhotoFiles } from '../../server/uploads/photo-files';
+import { sweepPendingUploads } from '../../server/uploads/photo-ledger';
+import { photoStorage } from '../../server/uploads/storage';
 
 const DAY = 86_400_000;
 let databaseUrl: string;
@@ -140,12 +141,13 @@ it('keeps every acknowledged measurement and photo across a SIGKILL, with nothin
   const pledgedWithPhotos = await db.query(`SELECT DISTINCT b.id FROM blocks b JOIN photos p ON p.block_id = b.id WHERE b.state = 'pledged'`);
   expect(pledgedWithPhotos.rows).toEqual([]);
 
-  // Every stored photo has both files; after the sweep, no file lacks its row.
-  const files = () => readdirSync(uploadDir).filter((f) => !f.startsWith('.'));
+  // Every stored photo has both files; once the uploads cut off by the kill are past their grace
+  // period (0 here), the recorded sweep leaves no file without its row and no half-written file.
+  const files = () => readdirSync(join(uploadDir, 'photos')).filter((f) => f !== '.blockpost-store.json');
   const names = photos.rows.flatMap((r) => [r.file_name, r.thumb_file_name]);
-  for (const name of names) expect(existsSync(join(uploadDir, name)), name).toBe(true);
+  for (const name of names) expect(existsSync(join(uploadDir, 'photos', name)), name).toBe(true);
   const sequelize = createSequelize(databaseUrl);
-  await sweepOrphanPhotoFiles(sequelize, uploadDir, 0);
+  await sweepPendingUploads({ sequelize, storage: photoStorage({ UPLOAD_DIR: uploadDir }) }, 0);
   await sequelize.close();
   expect(files().sort()).toEqual([...new Set(names)].sort());
 }, 120_000);
