@@ -1,13 +1,11 @@
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import sharp from 'sharp';
 import { checkBlock } from '../../shared/quilt';
 import { measuringFormSchema } from '../../shared/schemas/intake';
 
 const form = (v: Partial<Record<'width' | 'height' | 'diagonal1' | 'diagonal2', string>>) =>
   measuringFormSchema.safeParse({ width: '', height: '', diagonal1: '', diagonal2: '', ...v });
 
-describe('the measuring card’s entries', () => {
+describe('the measuring form’s entries (intake card and swap page)', () => {
   it('reads lengths in any form parseLength knows, in inches', () => {
     // 241.3 mm = 9.5 in exactly (25.4 mm to the inch, NIST SP 811).
     expect(form({ width: '9 1/2', height: '241.3 mm' })).toEqual({ success: true, data: { width: 9.5, height: 9.5 } });
@@ -18,13 +16,16 @@ describe('the measuring card’s entries', () => {
   });
 
   it('names the field and the problem, and asks for diagonals in pairs', () => {
-    const issues = (r: ReturnType<typeof form>) => Object.fromEntries((r.error?.issues ?? []).map((i) => [i.path.join('.'), i.message]));
+    const issues = (r: ReturnType<typeof form>) =>
+      Object.fromEntries((r.error?.issues ?? []).map((i) => [i.path.join('.'), i.message]));
     expect(issues(form({ height: '9.5' }))).toEqual({ width: 'Type the width, e.g. 9 1/2 or 241 mm.' });
     expect(issues(form({ width: 'nine', height: '0' }))).toEqual({
       width: expect.stringContaining('“nine” is not a length'),
       height: 'The height must be more than zero.',
     });
-    expect(issues(form({ width: '9.5', height: '9.5', diagonal1: '13.4' }))).toEqual({ diagonal2: 'Give both diagonals, or neither.' });
+    expect(issues(form({ width: '9.5', height: '9.5', diagonal1: '13.4' }))).toEqual({
+      diagonal2: 'Give both diagonals, or neither.',
+    });
     expect(issues(form({ width: '950', height: '9.5' }))).toEqual({ width: 'The width must be at most 120″.' });
   });
 
@@ -32,45 +33,24 @@ describe('the measuring card’s entries', () => {
     // The server stores four decimals; a metric entry rounds there, and the verdict must not change.
     const target = { width: 9.5, height: 9.5 };
     // 238.125 mm is exactly 9⅜″, the lower edge of 9½″ ± ⅛″; 238.1 mm is just under it.
-    for (const [w, h, verdict] of [['238.125 mm', '9.5', 'true'], ['238.1 mm', '9.5', 'short'], ['9 3/8', '9 5/8', 'true'], ['9 11/32', '9.5', 'short'], ['9 21/32', '9.5', 'trim']] as const) {
+    for (const [w, h, verdict] of [
+      ['238.125 mm', '9.5', 'true'],
+      ['238.1 mm', '9.5', 'short'],
+      ['9 3/8', '9 5/8', 'true'],
+      ['9 11/32', '9.5', 'short'],
+      ['9 21/32', '9.5', 'trim'],
+    ] as const) {
       const parsed = form({ width: w, height: h });
       if (!parsed.success) throw parsed.error;
       const here = checkBlock({ target, tolerance: 0.125, squareness: 0.25, measured: parsed.data });
       const four = (x: number) => Math.round(x * 10_000) / 10_000;
-      const stored = checkBlock({ target, tolerance: 0.125, squareness: 0.25, measured: { width: four(parsed.data.width), height: four(parsed.data.height) } });
+      const stored = checkBlock({
+        target,
+        tolerance: 0.125,
+        squareness: 0.25,
+        measured: { width: four(parsed.data.width), height: four(parsed.data.height) },
+      });
       expect([here.verdict, stored.verdict], `${w} × ${h}`).toEqual([verdict, verdict]);
-    }
-  });
-});
-
-describe('installing the web app', () => {
-  const root = new URL('../../public/', import.meta.url);
-  const manifest = JSON.parse(readFileSync(new URL('manifest.webmanifest', root), 'utf8'));
-
-  it('has a manifest a browser can install from', () => {
-    expect(manifest).toMatchObject({ name: 'Blockpost', start_url: '/guilds', scope: '/', display: 'standalone' });
-    // Chromium's installability check wants 192 px and 512 px icons.
-    const sizes = manifest.icons.map((i: { sizes: string }) => i.sizes);
-    expect(sizes).toEqual(expect.arrayContaining(['192x192', '512x512']));
-    expect(manifest.icons.some((i: { purpose: string }) => i.purpose === 'maskable')).toBe(true);
-  });
-
-  it('points at icon files of the sizes it claims', async () => {
-    for (const icon of manifest.icons.filter((i: { type: string }) => i.type === 'image/png')) {
-      const meta = await sharp(readFileSync(new URL(`.${icon.src}`, root))).metadata();
-      expect(`${meta.width}x${meta.height}`, icon.src).toBe(icon.sizes);
-      expect(meta.format).toBe('png');
-    }
-  });
-
-  it('keeps only the intake’s API answers in the service worker, never other /api data', () => {
-    const sw = readFileSync(new URL('sw.js', root), 'utf8');
-    const kept = /const API_FALLBACK = \[(.*)\];/.exec(sw)![1]!;
-    const patterns = [...kept.matchAll(/\/(\^.*?\$)\//g)].map((m) => new RegExp(m[1]!.replace(/\\\\/g, '\\')));
-    const matches = (path: string) => patterns.some((re) => re.test(path));
-    expect(['/api/me', '/api/guilds/4', '/api/swaps/7/intake'].every(matches)).toBe(true);
-    for (const path of ['/api/swaps/7/roster', '/api/swaps/7/labels', '/api/guilds/4/members', '/api/photos/3', '/api/swaps/7/export/roster.csv']) {
-      expect(matches(path), path).toBe(false);
     }
   });
 });

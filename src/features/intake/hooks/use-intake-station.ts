@@ -19,6 +19,7 @@ import type { IntakePack } from '../api/get-intake-pack';
 import type { MeasurementSend } from '@/entities/block/api/measure-block';
 import { enqueue, savePack } from '../offline/intake-db';
 import { flushQueue, notifyQueueChanged, onSent } from '../offline/sync-queue';
+import { pickNewer } from '../offline/pick-newer';
 
 export interface StationResult {
   clientId: string;
@@ -130,7 +131,7 @@ export function useIntakeStation(pack: IntakePack, userId: number) {
       setCodeError(`${blockLabel(block)} was already returned to a member; there is nothing to take in.`);
       return false;
     }
-    if (block.state === 'pledged' || block.state === 'sewn' || block.state === 'handed_in') {
+    if (isBlockStateBefore(block.state, 'received')) {
       await enqueue({ clientId: newClientId(), kind: 'receive', swapId, blockId: block.id, userId, label: blockLabel(block) });
       block = { ...block, state: 'received' };
       patchBlock(block.id, { state: 'received' });
@@ -177,9 +178,4 @@ export function useIntakeStation(pack: IntakePack, userId: number) {
     cancel: () => setCurrent(null),
     clearError: () => setCodeError(null),
   };
-}
-
-/** Our own queued changes may be ahead of the server's answer; keep whichever state is further along. */
-function pickNewer(local: IntakeBlockDto, server: IntakeBlockDto): Partial<IntakeBlockDto> {
-  return isBlockStateBefore(server.state, local.state) ? { state: local.state, verdict: local.verdict } : {};
 }

@@ -79,10 +79,16 @@ async function send(item: QueueItem): Promise<Outcome> {
   }
 }
 
+/**
+ * The wait before the next attempt after `failures` failed ones in a row: 1 s, 2 s, 4 s … at most a
+ * minute, give or take 15 % (`random` in [0, 1)) so several devices do not knock together.
+ */
+export const retryDelay = (failures: number, random: number) =>
+  Math.min(MAX_DELAY_MS, 1000 * 2 ** Math.min(failures, 6)) * (0.85 + random * 0.3);
+
 function scheduleRetry() {
   clearTimeout(timer);
-  // 1 s, 2 s, 4 s … at most a minute, with a little jitter so several devices do not knock together.
-  const delay = Math.min(MAX_DELAY_MS, 1000 * 2 ** Math.min(failures, 6)) * (0.85 + Math.random() * 0.3);
+  const delay = retryDelay(failures, Math.random());
   failures += 1;
   setState({ retryAt: Date.now() + delay });
   timer = setTimeout(() => void flushQueue(), delay);

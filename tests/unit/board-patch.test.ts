@@ -1,0 +1,91 @@
+import { describe, expect, it } from 'vitest';
+import type { ActivityDto, BoardPatch } from '../../shared/live-events';
+import type { RosterDto, RosterRowDto } from '../../shared/swap-types';
+import { applyBoardPatch } from '../../src/entities/roster/api/apply-board-patch';
+import { prependActivities } from '../../src/features/live-board/hooks/prepend-activities';
+
+const counts = { pledged: 0, sewn: 0, handedIn: 0, received: 0, measured: 0, returned: 0 };
+const verdicts = { true: 0, trim: 0, short: 0, skewed: 0 };
+
+function row(userId: number, displayName: string, pledged = 2): RosterRowDto {
+  return { ...counts, verdicts, pledged, userId, displayName, owed: pledged, accepted: 0, blocks: [] } as RosterRowDto;
+}
+
+function roster(rows: RosterRowDto[]): RosterDto {
+  return {
+    swap: { id: 7, state: 'collecting', unfinished: { width: 9.5, height: 9.5 }, title: 'Lantern Nine-Patch', mode: 'return' },
+    totals: { ...counts, verdicts, accepted: 0, members: rows.length } as RosterDto['totals'],
+    rows,
+  };
+}
+
+function patch(p: Partial<BoardPatch>): BoardPatch {
+  return { swap: roster([]).swap, totals: roster([]).totals, rows: [], removedUserIds: [], complete: false, ...p };
+}
+
+describe('applying a live board change to the cached roster', () => {
+  const before = roster([row(1, 'Ada'), row(2, 'Bea'), row(3, 'Cyd')]);
+
+  it('replaces a changed row in place and leaves the others as they were', () => {
+    const measured = { ...row(2, 'Bea'), measured: 1, owed: 1 };
+    const after = applyBoardPatch(before, patch({ rows: [measured] }));
+    expect(after.rows.map((r) => [r.displayName, r.measured])).toEqual([
+      ['Ada', 0],
+      ['Bea', 1],
+      ['Cyd', 0],
+    ]);
+    expect(after.rows[0]).toBe(before.rows[0]);
+  });
+
+  it('adds a new sign-up in name order, ignoring case, and drops a withdrawn one', () => {
+    const after = applyBoardPatch(before, patch({ rows: [row(9, 'bo')], removedUserIds: [3] }));
+    expect(after.rows.map((r) => r.displayName)).toEqual(['Ada', 'Bea', 'bo']);
+  });
+
+  it('orders two people of the same name by their id, so the rows never swap places', () => {
+    const after = applyBoardPatch(roster([row(5, 'Ada')]), patch({ rows: [row(4, 'Ada')] }));
+    expect(after.rows.map((r) => r.userId)).toEqual([4, 5]);
+  });
+
+  it('takes the totals and the swap’s fields from the change', () => {
+    const totals = { ...before.totals, measured: 3 };
+    const after = applyBoardPatch(before, patch({ totals, swap: { ...before.swap, state: 'sorting' } }));
+    expect(after.totals.measured).toBe(3);
+    expect(after.swap.state).toBe('sorting');
+    expect(after.swap.title).toBe('Lantern Nine-Patch');
+  });
+
+  it('replaces every row when the change is complete (after a redistribution)', () => {
+    const after = applyBoardPatch(before, patch({ rows: [row(3, 'Cyd', 4)], complete: true }));
+    expect(after.rows.map((r) => [r.userId, r.pledged])).toEqual([[3, 4]]);
+  });
+
+  it('leaves the cached roster itself untouched', () => {
+    const copy = structuredClone(before);
+    applyBoardPatch(before, patch({ rows: [row(9, 'Eve')], removedUserIds: [1] }));
+    expect(before).toEqual(copy);
+  });
+});
+
+describe('adding a change’s activity lines to the board’s list', () => {
+  const line = (id: number): ActivityDto => ({
+    id,
+    swapId: 7,
+    kind: 'block.measured',
+    actor: null,
+    subject: null,
+    blockId: id,
+    detail: {},
+    at: '',
+  });
+
+  it('puts new lines on top, newest first, without repeating one already shown', () => {
+    const list = prependActivities([line(3), line(2)], [line(5), line(3), line(4)], 20);
+    expect(list.map((a) => a.id)).toEqual([5, 4, 3, 2]);
+  });
+
+  it('keeps at most the number asked for, dropping the oldest', () => {
+    const list = prependActivities([line(2), line(1)], [line(4), line(3)], 3);
+    expect(list.map((a) => a.id)).toEqual([4, 3, 2]);
+  });
+});
