@@ -22,8 +22,7 @@ import { chatRouter } from './chat/chat.routes';
 import { boardRouter } from './board/board.routes';
 import { photoEstimatesRouter } from './photo-estimates/photo-estimates.routes';
 import { intakeRouter } from './intake/intake.routes';
-import { paymentsRouter } from './payments/payments.routes';
-import { paymentsFeature } from './payments/payments.startup';
+import { homeRouter } from './home/home.routes';
 
 export type FeatureRouter = (deps: AppDeps) => Router;
 
@@ -53,11 +52,11 @@ export const featureRouters: FeatureRouter[] = [
   notificationsRouter,
   intakeRouter,
   photoEstimatesRouter,
-  paymentsRouter,
+  homeRouter,
 ];
 
 /** The socket.io server with every live part: swap boards, sew-day and swap chat. */
 const liveFeature = liveStartup([boardLive(), chatLive]);
 
 // The photo store's owner check comes first: a store that is another install's stops the start untouched.
-export const featureStartups: FeatureStartup[] = [photoStoreFeature, liveFeature, mailJobsFeature, paymentsFeature];
+export const featureStartups: FeatureStartup[] = [photoStoreFeature, liveFeature, mailJobsFeature];

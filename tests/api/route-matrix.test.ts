@@ -11,7 +11,6 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles, PASSWORD, signedInUser, uniqueEmail } from '../helpers/factories';
 import { listRoutes } from '../../server/http/list-routes';
-import { paymentsOverrides } from '../helpers/payments';
 import { createSwap, move, receiveAndMeasure, swapBody } from './swaps-support';
 
 type Role = 'signedOut' | 'stranger' | 'member' | 'coordinator' | 'admin';
@@ -32,7 +31,7 @@ let g: Awaited<ReturnType<typeof guildWithRoles>>;
 const ids = { swap: 0, block: 0, photo: 0, photoToDelete: 0, sewDay: 0, room: 0, message: 0, messageToDelete: 0, token: '' };
 
 beforeAll(async () => {
-  app = await createTestApp(paymentsOverrides());
+  app = await createTestApp();
   g = await guildWithRoles(app);
   const swap = await createSwap(g.coordinator.agent, g.guildId);
   ids.swap = swap.id;
@@ -75,6 +74,9 @@ const cases: Record<string, Case> = {
   'POST /api/auth/reset': { access: 'public', fresh: 'anonymous', path: () => '/api/auth/reset', body: () => ({ token: 'x'.repeat(43), password: PASSWORD }) },
   'GET /api/me': { access: 'user', path: () => '/api/me' },
   'PATCH /api/me': { access: 'user', path: () => '/api/me', body: () => ({ units: 'in' }) },
+  'GET /api/session': { access: 'public', path: () => '/api/session' },
+  'GET /api/me/next': { access: 'user', path: () => '/api/me/next' },
+  'PUT /api/me/rooms/:roomId/seen': { access: 'member', path: () => `/api/me/rooms/${ids.room}/seen` },
   'GET /api/invitations/:token': { access: 'public', path: () => `/api/invitations/${ids.token}` },
   'POST /api/invitations/:token/accept': { access: 'user', fresh: 'user', path: () => `/api/invitations/${'y'.repeat(43)}/accept` },
   'GET /api/guilds': { access: 'user', path: () => '/api/guilds' },
@@ -138,15 +140,6 @@ const cases: Record<string, Case> = {
   'GET /api/me/mail-preferences': { access: 'user', path: () => '/api/me/mail-preferences' },
   'PATCH /api/me/mail-preferences': { access: 'user', path: () => '/api/me/mail-preferences', body: () => ({ reminders: true }) },
   'GET /api/unsubscribe': { access: 'public', path: () => `/api/unsubscribe?token=${'z'.repeat(40)}` },
-  // Without a signature the payment service's webhook refuses everyone alike (400), signed in or not.
-  'POST /api/payments/webhook': { access: 'public', path: () => '/api/payments/webhook', body: () => ({ id: 'evt_test_unsigned' }) },
-  'GET /api/me/payments': { access: 'user', path: () => '/api/me/payments' },
-  'GET /api/swaps/:swapId/fees': { access: 'member', path: () => `/api/swaps/${ids.swap}/fees` },
-  'POST /api/swaps/:swapId/checkout': { access: 'member', path: () => `/api/swaps/${ids.swap}/checkout`, body: () => ({}) },
-  'GET /api/guilds/:guildId/dues': { access: 'member', path: () => `/api/guilds/${G()}/dues` },
-  'POST /api/guilds/:guildId/dues/checkout': { access: 'member', path: () => `/api/guilds/${G()}/dues/checkout`, body: () => ({}) },
-  'GET /api/guilds/:guildId/payments': { access: 'admin', path: () => `/api/guilds/${G()}/payments` },
-  'POST /api/guilds/:guildId/payments/:paymentId/refund': { access: 'admin', path: () => `/api/guilds/${G()}/payments/${NOPE}/refund` },
   'GET /api/unsubscribe/info': { access: 'public', path: () => `/api/unsubscribe/info?token=${'z'.repeat(40)}` },
   'POST /api/unsubscribe': { access: 'public', path: () => `/api/unsubscribe?token=${'z'.repeat(40)}` },
   'POST /api/unsubscribe/undo': { access: 'public', path: () => `/api/unsubscribe/undo?token=${'z'.repeat(40)}` },

@@ -1,0 +1,39 @@
+import { Router } from 'express';
+import { roomSeenParamsSchema } from '@shared/schemas/home';
+import { route } from '../http/route';
+import { currentUser, requireUser } from '../auth/require-user';
+import type { AppDeps } from '../deps';
+import { getMe } from '../auth/auth.service';
+import { markRoomSeen, nextForMe } from './home.service';
+
+/**
+ * The client's session probe (who is signed in, or null: a visitor is not an error, so it answers 200),
+ * the home screen's "what is next for me" across every guild, and the note that a chat room was read.
+ */
+export function homeRouter(deps: AppDeps) {
+  const router = Router();
+
+  router.get(
+    '/session',
+    route({}, async (_input, req, res) => {
+      res.json(req.user ? ((await getMe(req.user.id)) ?? null) : null);
+    }),
+  );
+
+  router.get(
+    '/me/next',
+    requireUser,
+    route({}, async (_input, req, res) => {
+      res.json(await nextForMe(deps, currentUser(req).id));
+    }),
+  );
+  router.put(
+    '/me/rooms/:roomId/seen',
+    requireUser,
+    route({ params: roomSeenParamsSchema }, async ({ params }, req, res) => {
+      await markRoomSeen(deps, currentUser(req).id, params.roomId);
+      res.status(204).end();
+    }),
+  );
+  return router;
+}
