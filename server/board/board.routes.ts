@@ -1,24 +1,30 @@
-import { Router } from 'express';
-import type { z } from 'zod';
+import { Router, type Request } from 'express';
 import { activityQuerySchema, swapParamsSchema } from '@shared/schemas/live';
-import { validate } from '../http/validate';
+import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { canReadSwap } from '../swaps/swaps.policy';
 import { listActivity } from './board-activity';
 import { getRoster } from './roster.service';
 
+const readSwap = (req: Request, { params }: { params: { swapId: number } }) => canReadSwap(currentUser(req).id, params.swapId);
+
 /** The board's roster (addresses only for coordinators and admins) and its recent-activity list. */
 export function boardRouter() {
   const router = Router();
-  router.get('/swaps/:swapId/roster', requireUser, validate({ params: swapParamsSchema }), async (req, res) => {
-    const { swapId } = req.params as unknown as z.infer<typeof swapParamsSchema>;
-    const { swap, canManage } = await canReadSwap(currentUser(req).id, swapId);
-    res.json(await getRoster(swap, { withAddresses: canManage }));
-  });
-  router.get('/swaps/:swapId/activity', requireUser, validate({ params: swapParamsSchema, query: activityQuerySchema }), async (req, res) => {
-    const { swapId } = req.params as unknown as z.infer<typeof swapParamsSchema>;
-    await canReadSwap(currentUser(req).id, swapId);
-    res.json(await listActivity(swapId, (req.query as unknown as z.infer<typeof activityQuerySchema>).limit));
-  });
+
+  router.get(
+    '/swaps/:swapId/roster',
+    requireUser,
+    route({ params: swapParamsSchema, authorize: readSwap }, async ({ access: { swap, canManage } }, _req, res) => {
+      res.json(await getRoster(swap, { withAddresses: canManage }));
+    }),
+  );
+  router.get(
+    '/swaps/:swapId/activity',
+    requireUser,
+    route({ params: swapParamsSchema, query: activityQuerySchema, authorize: readSwap }, async ({ params, query }, _req, res) => {
+      res.json(await listActivity(params.swapId, query.limit));
+    }),
+  );
   return router;
 }

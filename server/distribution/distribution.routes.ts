@@ -1,31 +1,35 @@
 /** Planning and confirming the return of blocks (coordinators and admins). */
 import { Router, type Request } from 'express';
 import { confirmDistributionSchema, swapParamsSchema } from '@shared/schemas/swaps';
-import { validate } from '../http/validate';
+import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { canManageSwap } from '../swaps/swaps.policy';
 import type { AppDeps } from '../deps';
 import { confirmReturn, planReturn } from './distribution.service';
 
-const swapId = (req: Request) => (req.params as unknown as { swapId: number }).swapId;
+const manageSwap = (req: Request, { params }: { params: { swapId: number } }) =>
+  canManageSwap(currentUser(req).id, params.swapId);
 
 export function distributionRouter(deps: AppDeps) {
   const router = Router();
 
-  router.post('/swaps/:swapId/distribution/plan', requireUser, validate({ params: swapParamsSchema }), async (req, res) => {
-    const { swap } = await canManageSwap(currentUser(req).id, swapId(req));
-    res.json(await planReturn(swap));
-  });
+  router.post(
+    '/swaps/:swapId/distribution/plan',
+    requireUser,
+    route({ params: swapParamsSchema, authorize: manageSwap }, async ({ access }, _req, res) => {
+      res.json(await planReturn(access.swap));
+    }),
+  );
 
   router.post(
     '/swaps/:swapId/distribution/confirm',
     requireUser,
-    validate({ params: swapParamsSchema, body: confirmDistributionSchema }),
-    async (req, res) => {
-      const userId = currentUser(req).id;
-      await canManageSwap(userId, swapId(req));
-      res.json(await confirmReturn(deps, swapId(req), userId, req.body));
-    },
+    route(
+      { params: swapParamsSchema, body: confirmDistributionSchema, authorize: manageSwap },
+      async ({ params, body }, req, res) => {
+        res.json(await confirmReturn(deps, params.swapId, currentUser(req).id, body));
+      },
+    ),
   );
 
   return router;

@@ -1,26 +1,29 @@
 /** CSV downloads of a swap for its coordinators: the roster and the confirmed return. */
 import { Router, type Request, type Response } from 'express';
 import { swapParamsSchema } from '@shared/schemas/swaps';
-import { validate } from '../http/validate';
+import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { canManageSwap } from '../swaps/swaps.policy';
 import { distributionCsv, rosterCsv } from './exports.service';
 
-const swapId = (req: Request) => (req.params as unknown as { swapId: number }).swapId;
-const params = validate({ params: swapParamsSchema });
+const manageSwap = (req: Request, { params }: { params: { swapId: number } }) =>
+  canManageSwap(currentUser(req).id, params.swapId);
+const coordinators = { params: swapParamsSchema, authorize: manageSwap };
 
 export function exportsRouter() {
   const router = Router();
 
-  router.get('/swaps/:swapId/export/roster.csv', requireUser, params, async (req, res) => {
-    const { swap } = await canManageSwap(currentUser(req).id, swapId(req));
-    sendCsv(res, await rosterCsv(swap));
-  });
+  router.get(
+    '/swaps/:swapId/export/roster.csv',
+    requireUser,
+    route(coordinators, async ({ access }, _req, res) => sendCsv(res, await rosterCsv(access.swap))),
+  );
 
-  router.get('/swaps/:swapId/export/distribution.csv', requireUser, params, async (req, res) => {
-    const { swap } = await canManageSwap(currentUser(req).id, swapId(req));
-    sendCsv(res, await distributionCsv(swap));
-  });
+  router.get(
+    '/swaps/:swapId/export/distribution.csv',
+    requireUser,
+    route(coordinators, async ({ access }, _req, res) => sendCsv(res, await distributionCsv(access.swap))),
+  );
 
   return router;
 }

@@ -1,34 +1,51 @@
 /** Intake routes: label sheets, the offline pack of a swap, and resolving a scanned or typed label. */
-import { Router, type Request } from 'express';
+import { Router } from 'express';
 import { swapParamsSchema } from '@shared/schemas/swaps';
-import { labelsQuerySchema, resolveBodySchema, type LabelsQuery, type ResolveBody } from '@shared/schemas/intake';
-import { validate } from '../http/validate';
+import { labelsQuerySchema, resolveBodySchema } from '@shared/schemas/intake';
+import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import type { AppDeps } from '../deps';
 import { canPrintLabels, canRunIntake } from './intake.policy';
 import { intakePack, labelSheet, resolveBlock } from './intake.service';
 
-const swapId = (req: Request) => (req.params as unknown as { swapId: number }).swapId;
-
 export function intakeRouter(deps: AppDeps) {
   const router = Router();
 
-  router.get('/swaps/:swapId/labels', requireUser, validate({ params: swapParamsSchema, query: labelsQuerySchema }), async (req, res) => {
-    const { maker } = req.query as unknown as LabelsQuery;
-    const { swap, makerId } = await canPrintLabels(currentUser(req).id, swapId(req), maker);
-    res.set('Cache-Control', 'no-store').json(await labelSheet(deps, swap, makerId));
-  });
+  router.get(
+    '/swaps/:swapId/labels',
+    requireUser,
+    route(
+      {
+        params: swapParamsSchema,
+        query: labelsQuerySchema,
+        authorize: (req, { params, query }) => canPrintLabels(currentUser(req).id, params.swapId, query.maker),
+      },
+      async ({ access: { swap, makerId } }, _req, res) => {
+        res.set('Cache-Control', 'no-store').json(await labelSheet(deps, swap, makerId));
+      },
+    ),
+  );
 
-  router.get('/swaps/:swapId/intake', requireUser, validate({ params: swapParamsSchema }), async (req, res) => {
-    const swap = await canRunIntake(currentUser(req).id, swapId(req));
-    res.set('Cache-Control', 'no-store').json(await intakePack(deps, swap));
-  });
+  router.get(
+    '/swaps/:swapId/intake',
+    requireUser,
+    route(
+      { params: swapParamsSchema, authorize: (req, { params }) => canRunIntake(currentUser(req).id, params.swapId) },
+      async ({ access: swap }, _req, res) => {
+        res.set('Cache-Control', 'no-store').json(await intakePack(deps, swap));
+      },
+    ),
+  );
 
-  router.post('/intake/resolve', requireUser, validate({ body: resolveBodySchema }), async (req, res) => {
-    const body = req.body as ResolveBody;
-    const swap = await canRunIntake(currentUser(req).id, body.swapId);
-    res.json(await resolveBlock(deps, swap, body));
-  });
+  // The swap to check is named in the body, so the body is read first here.
+  router.post(
+    '/intake/resolve',
+    requireUser,
+    route({ body: resolveBodySchema }, async ({ body }, req, res) => {
+      const swap = await canRunIntake(currentUser(req).id, body.swapId);
+      res.json(await resolveBlock(deps, swap, body));
+    }),
+  );
 
   return router;
 }

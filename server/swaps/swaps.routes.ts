@@ -2,7 +2,7 @@
 import { Router, type Request } from 'express';
 import { guildParamsSchema } from '@shared/schemas/guilds';
 import { createSwapSchema, signupSchema, swapParamsSchema, transitionSchema, updateSwapSchema } from '@shared/schemas/swaps';
-import { validate } from '../http/validate';
+import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { authorizeGuild, can } from '../guilds/guilds.policy';
 import type { AppDeps } from '../deps';
@@ -10,67 +10,117 @@ import { canJoinSwap, canManageSwap, canReadSwap } from './swaps.policy';
 import * as swaps from './swaps.service';
 import * as signups from './signups.service';
 
-const swapId = (req: Request) => (req.params as unknown as { swapId: number }).swapId;
-const params = validate({ params: swapParamsSchema });
+type SwapInput = { params: { swapId: number } };
+const readSwap = (req: Request, { params }: SwapInput) => canReadSwap(currentUser(req).id, params.swapId);
+const manageSwap = (req: Request, { params }: SwapInput) => canManageSwap(currentUser(req).id, params.swapId);
+const joinSwap = (req: Request, { params }: SwapInput) => canJoinSwap(currentUser(req).id, params.swapId);
 
 export function swapsRouter(deps: AppDeps) {
   const router = Router();
 
-  router.get('/guilds/:guildId/swaps', requireUser, validate({ params: guildParamsSchema }), async (req, res) => {
-    const { guildId } = req.params as unknown as { guildId: number };
-    const userId = currentUser(req).id;
-    const membership = await authorizeGuild(userId, guildId, 'swaps:read');
-    res.json(await swaps.listSwaps(guildId, { userId, role: membership.role, canManage: can(membership.role, 'swaps:manage') }));
-  });
+  router.get(
+    '/guilds/:guildId/swaps',
+    requireUser,
+    route(
+      {
+        params: guildParamsSchema,
+        authorize: (req, { params }) => authorizeGuild(currentUser(req).id, params.guildId, 'swaps:read'),
+      },
+      async ({ params, access: { role } }, req, res) => {
+        res.json(
+          await swaps.listSwaps(params.guildId, { userId: currentUser(req).id, role, canManage: can(role, 'swaps:manage') }),
+        );
+      },
+    ),
+  );
 
-  router.post('/guilds/:guildId/swaps', requireUser, validate({ params: guildParamsSchema, body: createSwapSchema }), async (req, res) => {
-    const { guildId } = req.params as unknown as { guildId: number };
-    const userId = currentUser(req).id;
-    const membership = await authorizeGuild(userId, guildId, 'swaps:manage');
-    res.status(201).json(await swaps.createSwap(deps, guildId, { userId, role: membership.role, canManage: true }, req.body));
-  });
+  router.post(
+    '/guilds/:guildId/swaps',
+    requireUser,
+    route(
+      {
+        params: guildParamsSchema,
+        body: createSwapSchema,
+        authorize: (req, { params }) => authorizeGuild(currentUser(req).id, params.guildId, 'swaps:manage'),
+      },
+      async ({ params, body, access: { role } }, req, res) => {
+        res
+          .status(201)
+          .json(await swaps.createSwap(deps, params.guildId, { userId: currentUser(req).id, role, canManage: true }, body));
+      },
+    ),
+  );
 
-  router.get('/swaps/:swapId', requireUser, params, async (req, res) => {
-    const userId = currentUser(req).id;
-    const { swap, role, canManage } = await canReadSwap(userId, swapId(req));
-    res.json(await swaps.getSwap(swap, { userId, role, canManage }));
-  });
+  router.get(
+    '/swaps/:swapId',
+    requireUser,
+    route({ params: swapParamsSchema, authorize: readSwap }, async ({ access: { swap, role, canManage } }, req, res) => {
+      res.json(await swaps.getSwap(swap, { userId: currentUser(req).id, role, canManage }));
+    }),
+  );
 
-  router.patch('/swaps/:swapId', requireUser, validate({ params: swapParamsSchema, body: updateSwapSchema }), async (req, res) => {
-    const userId = currentUser(req).id;
-    const { role } = await canManageSwap(userId, swapId(req));
-    res.json(await swaps.updateSwap(deps, swapId(req), { userId, role, canManage: true }, req.body));
-  });
+  router.patch(
+    '/swaps/:swapId',
+    requireUser,
+    route(
+      { params: swapParamsSchema, body: updateSwapSchema, authorize: manageSwap },
+      async ({ params, body, access: { role } }, req, res) => {
+        res.json(await swaps.updateSwap(deps, params.swapId, { userId: currentUser(req).id, role, canManage: true }, body));
+      },
+    ),
+  );
 
-  router.get('/swaps/:swapId/transitions', requireUser, params, async (req, res) => {
-    await canReadSwap(currentUser(req).id, swapId(req));
-    res.json(await swaps.listTransitions(swapId(req)));
-  });
+  router.get(
+    '/swaps/:swapId/transitions',
+    requireUser,
+    route({ params: swapParamsSchema, authorize: readSwap }, async ({ params }, _req, res) => {
+      res.json(await swaps.listTransitions(params.swapId));
+    }),
+  );
 
-  router.post('/swaps/:swapId/transitions', requireUser, validate({ params: swapParamsSchema, body: transitionSchema }), async (req, res) => {
-    const userId = currentUser(req).id;
-    const { role } = await canManageSwap(userId, swapId(req));
-    res.json(await swaps.transitionSwap(deps, swapId(req), { userId, role, canManage: true }, req.body.to, req.body.reason));
-  });
+  router.post(
+    '/swaps/:swapId/transitions',
+    requireUser,
+    route(
+      { params: swapParamsSchema, body: transitionSchema, authorize: manageSwap },
+      async ({ params, body, access: { role } }, req, res) => {
+        res.json(
+          await swaps.transitionSwap(
+            deps,
+            params.swapId,
+            { userId: currentUser(req).id, role, canManage: true },
+            body.to,
+            body.reason,
+          ),
+        );
+      },
+    ),
+  );
 
-  router.post('/swaps/:swapId/signups', requireUser, validate({ params: swapParamsSchema, body: signupSchema }), async (req, res) => {
-    const userId = currentUser(req).id;
-    await canJoinSwap(userId, swapId(req));
-    res.json(await signups.pledge(deps, swapId(req), userId, req.body.blocks));
-  });
+  router.post(
+    '/swaps/:swapId/signups',
+    requireUser,
+    route({ params: swapParamsSchema, body: signupSchema, authorize: joinSwap }, async ({ params, body }, req, res) => {
+      res.json(await signups.pledge(deps, params.swapId, currentUser(req).id, body.blocks));
+    }),
+  );
 
-  router.get('/swaps/:swapId/signups/me', requireUser, params, async (req, res) => {
-    const userId = currentUser(req).id;
-    await canReadSwap(userId, swapId(req));
-    res.json(await signups.mySignup(swapId(req), userId));
-  });
+  router.get(
+    '/swaps/:swapId/signups/me',
+    requireUser,
+    route({ params: swapParamsSchema, authorize: readSwap }, async ({ params }, req, res) => {
+      res.json(await signups.mySignup(params.swapId, currentUser(req).id));
+    }),
+  );
 
-  router.delete('/swaps/:swapId/signups/me', requireUser, params, async (req, res) => {
-    const userId = currentUser(req).id;
-    await canJoinSwap(userId, swapId(req));
-    await signups.withdraw(deps, swapId(req), userId);
-    res.status(204).end();
-  });
+  router.delete(
+    '/swaps/:swapId/signups/me',
+    requireUser,
+    route({ params: swapParamsSchema, authorize: joinSwap }, async ({ params }, req, res) => {
+      await signups.withdraw(deps, params.swapId, currentUser(req).id);
+      res.status(204).end();
+    }),
+  );
 
   return router;
 }

@@ -1,0 +1,83 @@
+import type { Request, RequestHandler, Response } from 'express';
+import type { z, ZodType } from 'zod';
+import { zodFields } from '@shared/schemas/errors';
+import { ValidationError } from './errors';
+
+type Part = 'params' | 'query' | 'body';
+/** The parsed type of an optional schema; `undefined` where the route declares none. */
+type Out<S> = S extends ZodType ? z.output<S> : undefined;
+
+export interface RouteSpec<P, Q, B, A> {
+  params?: P;
+  query?: Q;
+  body?: B;
+  /**
+   * Decides whether the caller may use the route, once params and query are parsed and before the
+   * body is: an outsider is refused (403/404) before anything they sent is read as data. What it
+   * returns (the swap, the block, the membership it read) reaches the handler as `access`.
+   */
+  authorize?: (req: Request, input: { params: Out<P>; query: Out<Q> }) => A | Promise<A>;
+  /** Middleware that reads a multipart body (photos), run after `authorize` and before `body` is parsed. */
+  receive?: RequestHandler;
+}
+
+export interface RouteInput<P, Q, B, A> {
+  params: Out<P>;
+  query: Out<Q>;
+  body: Out<B>;
+  access: Awaited<A>;
+}
+
+/**
+ * Parses the named parts of the request with their schemas; every field that fails is reported in
+ * one validation error. The parsed values replace the raw ones on `req` as well.
+ */
+function parse(req: Request, schemas: Partial<Record<Part, ZodType>>, parts: readonly Part[]): Record<Part, unknown> {
+  const fields: Record<string, string> = {};
+  const parsed: Record<Part, unknown> = { params: undefined, query: undefined, body: undefined };
+  for (const part of parts) {
+    const schema = schemas[part];
+    if (!schema) continue;
+    const result = schema.safeParse(req[part] ?? {});
+    if (!result.success) {
+      Object.assign(fields, zodFields(result.error));
+      continue;
+    }
+    parsed[part] = result.data;
+    // Express 5 makes req.query a getter; redefine it so later middleware sees the parsed value.
+    Object.defineProperty(req, part, { value: result.data, writable: true, configurable: true, enumerable: true });
+  }
+  const messages = Object.values(fields);
+  if (messages.length) throw new ValidationError(messages.length === 1 ? messages[0]! : 'Some fields need another look.', fields);
+  return parsed;
+}
+
+function run(middleware: RequestHandler, req: Request, res: Response): Promise<void> {
+  return new Promise((resolve, reject) => {
+    void middleware(req, res, (error?: unknown) => (error ? reject(error) : resolve()));
+  });
+}
+
+/**
+ * A route handler whose `params`, `query` and `body` are parsed with their shared zod schemas and
+ * typed from them, the HTTP counterpart of the socket side's `handle()`. Order: params and query,
+ * then `authorize`, then `receive`, then the body; a route without `authorize` parses all three at
+ * once, so every bad field is named in one answer.
+ */
+export function route<
+  P extends ZodType | undefined = undefined,
+  Q extends ZodType | undefined = undefined,
+  B extends ZodType | undefined = undefined,
+  A = undefined,
+>(spec: RouteSpec<P, Q, B, A>, handler: (input: RouteInput<P, Q, B, A>, req: Request, res: Response) => unknown): RequestHandler {
+  const schemas = { params: spec.params, query: spec.query, body: spec.body } as Partial<Record<Part, ZodType>>;
+  const early = spec.authorize || spec.receive;
+  return async (req, res) => {
+    const parsed = parse(req, schemas, early ? ['params', 'query'] : ['params', 'query', 'body']);
+    const input = { params: parsed.params as Out<P>, query: parsed.query as Out<Q> };
+    const access = spec.authorize ? await spec.authorize(req, input) : undefined;
+    if (spec.receive) await run(spec.receive, req, res);
+    const body = early ? parse(req, schemas, ['body']).body : parsed.body;
+    await handler({ ...input, body: body as Out<B>, access: access as Awaited<A> }, req, res);
+  };
+}
