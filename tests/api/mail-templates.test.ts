@@ -21,42 +21,138 @@ const frame: MailFrame = {
 };
 
 const swapView = {
-  title: 'Scrap Stars', description: 'Line one\nLine two', kindLabel: 'Grid block', finished: '9″ × 9″', unfinished: '9½″ × 9½″',
-  seam: '¼″', tolerance: '⅛″ either way', squareness: '¼″', colourRules: [{ role: 'light', note: 'cream' }], quota: '1 to 6 blocks each, your choice',
-  signupCloses: 'Wednesday 10 March 2027 at 12:00 pm', signupClosesIn: 'in 5 days', due: 'Tuesday 20 April 2027 at 12:00 pm', dueIn: 'in 45 days',
-  zone: 'America/Chicago time', mode: 'Makers get back as many blocks as they hand in.',
+  title: 'Scrap Stars',
+  description: 'Line one\nLine two',
+  kindLabel: 'Grid block',
+  finished: '9″ × 9″',
+  unfinished: '9½″ × 9½″',
+  seam: '¼″',
+  tolerance: '⅛″ either way',
+  squareness: '¼″',
+  colourRules: [{ role: 'light', note: 'cream' }],
+  quota: '1 to 6 blocks each, your choice',
+  signupCloses: 'Wednesday 10 March 2027 at 12:00 pm',
+  signupClosesIn: 'in 5 days',
+  due: 'Tuesday 20 April 2027 at 12:00 pm',
+  dueIn: 'in 45 days',
+  zone: 'America/Chicago time',
+  mode: 'Makers get back as many blocks as they hand in.',
 };
 
 const fixtures: Record<Exclude<TemplateName, 'invitation' | 'password-reset'>, object> = {
   'payment-receipt': {
-    name: 'Nell', guildName: 'Kestrel Hollow Quilters', refunded: false, lines: [{ label: 'Swap entry fee: Scrap Stars', amount: '$5.00' }],
-    total: '$5.00', reference: 'BP-12', when: 'Tuesday 20 April 2027 at 12:00 pm', url: 'http://x/settings/payments',
+    name: 'Nell',
+    guildName: 'Kestrel Hollow Quilters',
+    refunded: false,
+    lines: [{ label: 'Swap entry fee: Scrap Stars', amount: '$5.00' }],
+    total: '$5.00',
+    reference: 'BP-12',
+    when: 'Tuesday 20 April 2027 at 12:00 pm',
+    url: 'http://x/settings/payments',
   },
-  'swap-announcement': { name: 'Nell', guildName: 'Kestrel Hollow Quilters', swap: swapView, url: 'http://127.0.0.1:3000/guilds/1/swaps/2' },
+  'swap-announcement': {
+    name: 'Nell',
+    guildName: 'Kestrel Hollow Quilters',
+    swap: swapView,
+    url: 'http://127.0.0.1:3000/guilds/1/swaps/2',
+  },
   'signup-confirmation': {
-    name: 'Nell', swapTitle: 'Scrap Stars', blocks: 2, blocksText: '2 blocks', unfinished: '9½″ × 9½″', due: 'Tuesday 20 April 2027', dueIn: 'in 45 days',
-    zone: 'UTC', signupCloses: 'Wednesday 10 March 2027', wof: '42″', url: 'http://x/s', plan: planView(pledgePlan({ kind: 'hst', finished: 3, method: 'two-at-a-time' }, 2), 'in'),
+    name: 'Nell',
+    swapTitle: 'Scrap Stars',
+    blocks: 2,
+    blocksText: '2 blocks',
+    unfinished: '9½″ × 9½″',
+    due: 'Tuesday 20 April 2027',
+    dueIn: 'in 45 days',
+    zone: 'UTC',
+    signupCloses: 'Wednesday 10 March 2027',
+    wof: '42″',
+    url: 'http://x/s',
+    plan: planView(pledgePlan({ kind: 'hst', finished: 3, method: 'two-at-a-time' }, 2), 'in'),
   },
   'signup-reminder': {
-    name: 'Nell', swapTitle: 'Scrap Stars', owedText: '2 blocks', pledgedText: '2 blocks', handedIn: 0, handedInText: '0 blocks', closes: 'Wednesday', closesIn: 'in 5 days',
-    due: 'Tuesday', dueIn: 'in 45 days', unfinished: '9½″ × 9½″', tolerance: '⅛″ either way', zone: 'UTC', url: 'http://x/s',
+    name: 'Nell',
+    swapTitle: 'Scrap Stars',
+    owedText: '2 blocks',
+    pledgedText: '2 blocks',
+    handedIn: 0,
+    handedInText: '0 blocks',
+    closes: 'Wednesday',
+    closesIn: 'in 5 days',
+    due: 'Tuesday',
+    dueIn: 'in 45 days',
+    unfinished: '9½″ × 9½″',
+    tolerance: '⅛″ either way',
+    zone: 'UTC',
+    url: 'http://x/s',
   },
   'due-reminder': {
-    name: 'Nell', swapTitle: 'Scrap Stars', owedText: '1 block', pledgedText: '2 blocks', handedIn: 1, handedInText: '1 block', closes: 'Wednesday', closesIn: 'in 5 days',
-    due: 'Tuesday', dueIn: 'tomorrow', unfinished: '9½″ × 9½″', tolerance: '⅛″ either way', zone: 'UTC', url: 'http://x/s',
+    name: 'Nell',
+    swapTitle: 'Scrap Stars',
+    owedText: '1 block',
+    pledgedText: '2 blocks',
+    handedIn: 1,
+    handedInText: '1 block',
+    closes: 'Wednesday',
+    closesIn: 'in 5 days',
+    due: 'Tuesday',
+    dueIn: 'tomorrow',
+    unfinished: '9½″ × 9½″',
+    tolerance: '⅛″ either way',
+    zone: 'UTC',
+    url: 'http://x/s',
   },
   receipt: {
-    name: 'Nell', swapTitle: 'Scrap Stars', receivedText: '2 blocks', measuredCount: 2, measuredText: 'all 2', unfinished: '9½″ × 9½″', owed: 0, owedText: '0 blocks',
-    due: 'Tuesday', needsCare: true, url: 'http://x/s',
+    name: 'Nell',
+    swapTitle: 'Scrap Stars',
+    receivedText: '2 blocks',
+    measuredCount: 2,
+    measuredText: 'all 2',
+    unfinished: '9½″ × 9½″',
+    owed: 0,
+    owedText: '0 blocks',
+    due: 'Tuesday',
+    needsCare: true,
+    url: 'http://x/s',
     blocks: [
       { label: 'Block 1', verdict: 'True to size', glyph: '✓', verdictStyle: 'verdict_true', measured: null, advice: null },
-      { label: 'Block 2', verdict: 'Out of square', glyph: '◇', verdictStyle: 'verdict_skewed', measured: '9½″ × 9½″', advice: 'Press & square it.' },
+      {
+        label: 'Block 2',
+        verdict: 'Out of square',
+        glyph: '◇',
+        verdictStyle: 'verdict_skewed',
+        measured: '9½″ × 9½″',
+        advice: 'Press & square it.',
+      },
     ],
   },
-  distribution: { name: 'Nell', swapTitle: 'Scrap Stars', countText: '3 blocks', makersText: '2 makers', makers: [{ name: 'Ada', count: 2 }, { name: 'Bo', count: 1 }], gift: false, url: 'http://x/s' },
+  distribution: {
+    name: 'Nell',
+    swapTitle: 'Scrap Stars',
+    countText: '3 blocks',
+    makersText: '2 makers',
+    makers: [
+      { name: 'Ada', count: 2 },
+      { name: 'Bo', count: 1 },
+    ],
+    gift: false,
+    url: 'http://x/s',
+  },
   'coordinator-digest': {
-    name: 'Ada', guildName: 'Kestrel Hollow Quilters', from: 'Monday 1 March 2027', to: 'Monday 8 March 2027',
-    swaps: [{ title: 'Scrap Stars', stateLabel: 'Sewing', nextDeadline: null, changes: ['2 blocks handed in.'], totals: { pledged: 4, makers: '2 makers', handedIn: 2, measured: 0, owed: 2, owing: '1 member' }, url: 'http://x/s' }],
+    name: 'Ada',
+    guildName: 'Kestrel Hollow Quilters',
+    from: 'Monday 1 March 2027',
+    to: 'Monday 8 March 2027',
+    swaps: [
+      {
+        title: 'Scrap Stars',
+        stateLabel: 'Sewing',
+        nextDeadline: null,
+        changes: ['2 blocks handed in.'],
+        totals: { pledged: 4, makers: '2 makers', handedIn: 2, measured: 0, owed: 2, owing: '1 member' },
+        url: 'http://x/s',
+      },
+    ],
   },
 };
 
@@ -89,8 +185,20 @@ describe('templates', () => {
   });
 
   it('leaves the unsubscribe link out of account mail, which is always sent', () => {
-    const invite = invitationMail({ to: 'a@example.test', guildName: 'Kestrel Hollow Quilters', inviterName: 'Ada', role: 'member', url: 'http://x/i/t', expiresAt: new Date('2027-01-05T12:00:00Z') });
-    const reset = passwordResetMail({ to: 'a@example.test', displayName: 'Nell', url: 'http://x/reset-password?token=t', validMinutes: 60 });
+    const invite = invitationMail({
+      to: 'a@example.test',
+      guildName: 'Kestrel Hollow Quilters',
+      inviterName: 'Ada',
+      role: 'member',
+      url: 'http://x/i/t',
+      expiresAt: new Date('2027-01-05T12:00:00Z'),
+    });
+    const reset = passwordResetMail({
+      to: 'a@example.test',
+      displayName: 'Nell',
+      url: 'http://x/reset-password?token=t',
+      validMinutes: 60,
+    });
     for (const mail of [invite, reset]) {
       expect(mail.text).not.toMatch(/unsubscribe|Stop e-mails/i);
       expect(mail.html).not.toMatch(/unsubscribe/i);
@@ -102,7 +210,7 @@ describe('templates', () => {
 });
 
 describe('cutting plans from the unit formulas', () => {
-  // Cut sizes as in quilt guild block-making handouts (see the team's references): HST two at a
+  // Cut sizes as in quilt guild block-making handouts (common practice, no source): HST two at a
   // time finished + ⅞″; QST finished + 1¼″; flying geese no-waste width + 1¼″ and height + ⅞″;
   // square-in-a-square centre S⁄√2 + ½″ (rounded up to ⅛″), corners S⁄2 + ⅞″.
   it('HSTs: two squares of finished + ⅞″ make two units', () => {
@@ -116,7 +224,10 @@ describe('cutting plans from the unit formulas', () => {
 
   it('QSTs: finished + 1¼″', () => {
     const plan = pledgePlan({ kind: 'qst', finished: 4 }, 4);
-    expect(plan.cuts.map((c) => [c.width, c.count])).toEqual([[5.25, 2], [5.25, 2]]);
+    expect(plan.cuts.map((c) => [c.width, c.count])).toEqual([
+      [5.25, 2],
+      [5.25, 2],
+    ]);
   });
 
   it('flying geese, no-waste: one big square and four small ones make four', () => {
@@ -129,7 +240,10 @@ describe('cutting plans from the unit formulas', () => {
 
   it('square-in-a-square: 4″ finished gives a 3⅜″ centre (2.828 + ½ rounded up) and 2⅞″ corners', () => {
     const plan = pledgePlan({ kind: 'square-in-square', finished: 4 }, 3);
-    expect(plan.cuts.map((c) => [c.fabric, c.width, c.count])).toEqual([['Centre fabric', 3.375, 3], ['Corner fabric', 2.875, 6]]);
+    expect(plan.cuts.map((c) => [c.fabric, c.width, c.count])).toEqual([
+      ['Centre fabric', 3.375, 3],
+      ['Corner fabric', 2.875, 6],
+    ]);
   });
 
   it('yardage: strips across a 42″ width, each fabric rounded up to ⅛ yd', () => {
@@ -185,7 +299,9 @@ describe('unsubscribe tokens', () => {
 
   it('makes RFC 8058 headers', () => {
     const headers = unsubscribeHeaders('https://blockpost.example/', unsubscribeToken(secret, 7, 'receipts'));
-    expect(headers['List-Unsubscribe']).toMatch(/^<https:\/\/blockpost\.example\/api\/unsubscribe\?token=7\.receipts\.[\w-]{43}>$/);
+    expect(headers['List-Unsubscribe']).toMatch(
+      /^<https:\/\/blockpost\.example\/api\/unsubscribe\?token=7\.receipts\.[\w-]{43}>$/,
+    );
     expect(headers['List-Unsubscribe-Post']).toBe('List-Unsubscribe=One-Click');
   });
 });

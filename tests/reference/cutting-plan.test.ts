@@ -1,5 +1,5 @@
 /**
- * Cutting plans worked by hand with the rules in REFERENCES.md: usable WOF 42″, sub-cuts per strip
+ * Cutting plans worked by hand with the usual rules (common practice, no source): usable WOF 42″, sub-cuts per strip
  * ⌊42 ⁄ sub-cut⌋, strips ⌈count ⁄ per strip⌉, yardage rounded up to ⅛ yd (common practice, no
  * source). The working is written beside each check.
  */
@@ -74,7 +74,10 @@ describe('a cutting plan worked by hand', () => {
       { width: 2.5, height: 2.5, count: 60 },
       { width: 2.5, height: 2.5, count: 48 },
     ]);
-    expect(plan.rows.map((r) => [r.perSquare, r.squares])).toEqual([[16, 4], [16, 3]]);
+    expect(plan.rows.map((r) => [r.perSquare, r.squares])).toEqual([
+      [16, 4],
+      [16, 3],
+    ]);
     expect(plan.squares).toBe(7);
   });
 });

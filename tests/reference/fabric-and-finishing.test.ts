@@ -1,6 +1,6 @@
 /**
- * Fabric, binding, backing, bed sizes and squareness checked against REFERENCES.md. Trade facts
- * without a source are marked "common practice, no source".
+ * Fabric, binding, backing, bed sizes and squareness worked by hand and checked against the published
+ * source named beside each check. Trade facts without a source are marked "common practice, no source".
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
@@ -28,15 +28,24 @@ describe('yards and strips', () => {
 
   it('strips of width w per yard = ⌊36 ⁄ w⌋: 2½″ gives 14', () => {
     expect(stripsPerYard(2.5)).toBe(14);
-    fc.assert(fc.property(fc.integer({ min: 4, max: 96 }).map((k) => k / 8), (w) => stripsPerYard(w) === Math.floor(36 / w)));
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 4, max: 96 }).map((k) => k / 8),
+        (w) => stripsPerYard(w) === Math.floor(36 / w),
+      ),
+    );
   });
 
   it('charts that allow a straightening cut say 13 strips of 2½″: the cut is a parameter', () => {
     expect(stripsPerYard(2.5, { straighteningCut: 2 })).toBe(13);
     fc.assert(
-      fc.property(fc.integer({ min: 4, max: 96 }).map((k) => k / 8), fc.integer({ min: 0, max: 16 }).map((k) => k / 8), (w, cut) => {
-        expect(stripsPerYard(w, { straighteningCut: cut })).toBe(Math.floor((36 - cut) / w));
-      }),
+      fc.property(
+        fc.integer({ min: 4, max: 96 }).map((k) => k / 8),
+        fc.integer({ min: 0, max: 16 }).map((k) => k / 8),
+        (w, cut) => {
+          expect(stripsPerYard(w, { straighteningCut: cut })).toBe(Math.floor((36 - cut) / w));
+        },
+      ),
     );
   });
 
@@ -72,7 +81,13 @@ describe('binding (binding how-to handouts of quilt guilds and shops)', () => {
   it('never needs fewer strips than ⌈length ⁄ WOF⌉ and at most one more for quilts up to king size', () => {
     fc.assert(
       fc.property(fc.integer({ min: 4, max: 12 }), fc.integer({ min: 4, max: 12 }), (c, r) => {
-        const { binding } = quiltPlan({ blockFinished: { width: 9, height: 9 }, blocks: c * r, columns: c, bindingWidth: 2.25, bindingAllowance: 10 });
+        const { binding } = quiltPlan({
+          blockFinished: { width: 9, height: 9 },
+          blocks: c * r,
+          columns: c,
+          bindingWidth: 2.25,
+          bindingAllowance: 10,
+        });
         const rule = Math.ceil(binding.length / 42);
         expect(binding.strips).toBeGreaterThanOrEqual(rule);
         expect(binding.strips).toBeLessThanOrEqual(rule + 1);
@@ -81,13 +96,28 @@ describe('binding (binding how-to handouts of quilt guilds and shops)', () => {
   });
 });
 
-describe('backing (REFERENCES.md: 4″ each side for home quilting, seams whichever way uses less)', () => {
+describe('backing (common practice, no source: 4″ each side for home quilting, seams whichever way uses less)', () => {
   it('worked by hand for a 60″ × 80″ top', () => {
     // Needs 68″ × 88″. Vertical seams: 2 widths (42 + 42 − 1 = 83″ ≥ 68″) × 88″ = 176″ → 4.89 → 5 yd.
     // Horizontal seams: 3 widths (126 − 2 = 124″ ≥ 88″) × 68″ = 204″ → 5.67 → 5¾ yd. Vertical wins.
     const { backing } = quiltPlan({ blockFinished: { width: 10, height: 10 }, blocks: 48, columns: 6 });
-    expect(backing).toMatchObject({ width: 68, height: 88, direction: 'vertical', seams: 'vertical', panels: 2, piecedWidth: 83, fabricLength: 176, yards: 5 });
-    expect(backing.alternative).toMatchObject({ seams: 'horizontal', panels: 3, piecedWidth: 124, fabricLength: 204, yards: 5.75 });
+    expect(backing).toMatchObject({
+      width: 68,
+      height: 88,
+      direction: 'vertical',
+      seams: 'vertical',
+      panels: 2,
+      piecedWidth: 83,
+      fabricLength: 176,
+      yards: 5,
+    });
+    expect(backing.alternative).toMatchObject({
+      seams: 'horizontal',
+      panels: 3,
+      piecedWidth: 124,
+      fabricLength: 204,
+      yards: 5.75,
+    });
   });
 
   it('checks that the joined widths really cover: a seam loses its allowance on both widths', () => {
@@ -101,7 +131,9 @@ describe('backing (REFERENCES.md: 4″ each side for home quilting, seams whiche
   });
 
   it('6–8″ each side for longarm machines is a parameter', () => {
-    expect(quiltPlan({ blockFinished: { width: 10, height: 10 }, blocks: 48, columns: 6, backingOverage: 8 }).backing).toMatchObject({ width: 76, height: 96 });
+    expect(
+      quiltPlan({ blockFinished: { width: 10, height: 10 }, blocks: 48, columns: 6, backingOverage: 8 }).backing,
+    ).toMatchObject({ width: 76, height: 96 });
   });
 });
 

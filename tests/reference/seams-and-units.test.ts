@@ -1,10 +1,18 @@
 /**
- * Seam allowance, strip sets and unit formulas checked against the handbook values in
- * REFERENCES.md and against exact geometry. Sources are named beside each check.
+ * Seam allowance, strip sets and unit formulas checked against the usual trade values and against
+ * exact geometry. Sources are named beside each check; trade values are marked as common practice.
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { flyingGeeseCuts, hstCutSize, qstCutSize, settingTriangles, squareInSquareCuts, stripSetWidth, unfinishedSize } from '@shared/quilt';
+import {
+  flyingGeeseCuts,
+  hstCutSize,
+  qstCutSize,
+  settingTriangles,
+  squareInSquareCuts,
+  stripSetWidth,
+  unfinishedSize,
+} from '@shared/quilt';
 
 const finishedSizes = fc.integer({ min: 8, max: 16 * 16 }).map((k) => k / 16);
 
@@ -27,9 +35,13 @@ describe('strip sets (quilting tips columns on strip piecing)', () => {
 
   it('n equal strips of width w give (w − ½) × n + ½', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1, max: 40 }), fc.integer({ min: 5, max: 96 }).map((k) => k / 8), (n, w) => {
-        expect(stripSetWidth(Array(n).fill(w))).toBe((w - 0.5) * n + 0.5);
-      }),
+      fc.property(
+        fc.integer({ min: 1, max: 40 }),
+        fc.integer({ min: 5, max: 96 }).map((k) => k / 8),
+        (n, w) => {
+          expect(stripSetWidth(Array(n).fill(w))).toBe((w - 0.5) * n + 0.5);
+        },
+      ),
     );
   });
 });
@@ -56,7 +68,12 @@ describe('half-square triangles (quilt guild block-making handouts on HSTs)', ()
   });
 
   it('eight at a time: 2 × finished + 1¾″ (two two-at-a-time squares side by side each way)', () => {
-    fc.assert(fc.property(finishedSizes, (f) => hstCutSize(f, 'eight-at-a-time') === 2 * f + 1.75 && hstCutSize(f, 'eight-at-a-time') === 2 * hstCutSize(f)));
+    fc.assert(
+      fc.property(
+        finishedSizes,
+        (f) => hstCutSize(f, 'eight-at-a-time') === 2 * f + 1.75 && hstCutSize(f, 'eight-at-a-time') === 2 * hstCutSize(f),
+      ),
+    );
   });
 
   it('four at a time, sewn all round and cut on both diagonals: (finished + ⅞″) × √2 rounded up to ⅛″ (from memory)', () => {
@@ -87,7 +104,7 @@ describe('quarter-square triangles (quilt guild block-making handouts)', () => {
   });
 });
 
-describe('flying geese (REFERENCES.md)', () => {
+describe('flying geese (common practice, no source; the cut sizes of guild block-making handouts)', () => {
   it('no-waste: one square finished width + 1¼″ and four squares finished height + ⅞″', () => {
     fc.assert(
       fc.property(finishedSizes, (h) => {
@@ -109,7 +126,7 @@ describe('flying geese (REFERENCES.md)', () => {
   });
 });
 
-describe('square-in-a-square and on-point settings (REFERENCES.md)', () => {
+describe('square-in-a-square and on-point settings (exact geometry: a square’s diagonal is its side × √2)', () => {
   it('centre S⁄√2 + ½″ and corners S⁄2 + ⅞″ cut once, irrational sizes rounded up to ⅛″', () => {
     fc.assert(
       fc.property(finishedSizes, (s) => {

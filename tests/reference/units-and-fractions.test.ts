@@ -25,7 +25,7 @@ describe('the inch is exactly 25.4 mm', () => {
     expect(parseLengthExact('1 yd').equals(parseLengthExact('914.4 mm'))).toBe(true);
   });
 
-  it('¼″ = 6.35 mm and 12½″ = 317.5 mm (REFERENCES.md, from the exact inch)', () => {
+  it('¼″ = 6.35 mm and 12½″ = 317.5 mm (NIST SP 811, Appendix B.8: the inch is exactly 25.4 mm)', () => {
     expect(inchesToMm(0.25)).toBe(6.35);
     expect(inchesToMm(12.5)).toBe(317.5);
     expect(parseLength('6.35 mm')).toBe(0.25);
@@ -71,7 +71,15 @@ describe('mixed numbers agree with fraction.js (reference library)', () => {
   });
 
   it('writes sixteenths that fraction.js reads back to the same value', () => {
-    const vulgar: Record<string, string> = { '½': ' 1/2', '¼': ' 1/4', '¾': ' 3/4', '⅛': ' 1/8', '⅜': ' 3/8', '⅝': ' 5/8', '⅞': ' 7/8' };
+    const vulgar: Record<string, string> = {
+      '½': ' 1/2',
+      '¼': ' 1/4',
+      '¾': ' 3/4',
+      '⅛': ' 1/8',
+      '⅜': ' 3/8',
+      '⅝': ' 5/8',
+      '⅞': ' 7/8',
+    };
     fc.assert(
       fc.property(fc.integer({ min: 1, max: 16 * 100 }), (k) => {
         const ascii = formatLength(k / 16, { denominator: 16 })
