@@ -111,7 +111,7 @@ export async function runLiveBench(opts: { sockets?: number; members?: number; m
   try {
     const url = await cluster.database('live_bench');
     const config = (port = '0') =>
-      loadConfig({ DATABASE_URL: url, SESSION_SECRET: 'bench-secret-bench-secret', PORT: port, LOG_LEVEL: 'silent', SERVE_CLIENT: 'false', JOBS: 'false', NODE_ENV: 'test' });
+      loadConfig({ DATABASE_URL: url, SESSION_SECRET: 'bench-secret-bench-secret', PORT: port, LOG_LEVEL: 'silent', SERVE_CLIENT: 'false', JOBS: 'false', NODE_ENV: 'test', REGISTER_RATE_LIMIT: '100000' });
     nodes.push(await startServer(config()), await startServer(config()));
     const [nodeA, nodeB] = nodes as [RunningServer, RunningServer];
 

@@ -9,10 +9,10 @@ import { authRouter } from './auth/auth.routes';
 import { guildsRouter, invitationsRouter } from './guilds/guilds.routes';
 import { healthRouter } from './health.routes';
 import { requireCsrfHeader } from './http/csrf';
+import { refuseNul } from './http/refuse-nul';
 import { apiNotFound, errorMiddleware } from './http/error-middleware';
 import type { AppDeps } from './deps';
 import { featureRouters } from './features';
-import { paymentsWebhookRouter } from './payments/payments.routes';
 
 export const clientDist = fileURLToPath(new URL('../dist', import.meta.url));
 
@@ -71,8 +71,7 @@ export function createApp(deps: AppDeps): BuiltApp {
   // Health first: it must answer even when the session store (PostgreSQL) cannot.
   api.use(healthRouter(deps));
   api.use(express.json({ limit: '200kb' }));
-  // Signed by the payment service over the raw body: before the JSON parser, the session and CSRF.
-  api.use(paymentsWebhookRouter(deps));
+  api.use(refuseNul);
   api.use(sessionMiddleware, ...passportMiddleware);
   api.use(requireCsrfHeader);
   api.use(authRouter(deps));

@@ -1,11 +1,18 @@
 import { Router, type Request } from 'express';
 import passport from 'passport';
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
-import { loginSchema, profileUpdateSchema, registerSchema, resetRequestSchema, resetSchema } from '@shared/schemas/auth';
+import {
+  changePasswordSchema,
+  loginSchema,
+  profileUpdateSchema,
+  registerSchema,
+  resetRequestSchema,
+  resetSchema,
+} from '@shared/schemas/auth';
 import { validate } from '../http/validate';
 import { AppError, UnauthorizedError } from '../http/errors';
 import { currentUser, requireUser } from './require-user';
-import { getMe, register, requestPasswordReset, resetPassword, updateProfile } from './auth.service';
+import { changePassword, endSessions, getMe, register, requestPasswordReset, resetPassword, updateProfile } from './auth.service';
 import type { AppDeps } from '../deps';
 
 function logIn(req: Request, user: Express.User) {
@@ -17,35 +24,57 @@ function tooMany(message: string) {
   return new AppError(429, 'rate_limited', message);
 }
 
+const clientKey = (req: Request) => ipKeyGenerator(req.ip ?? '');
+
 export function authRouter(deps: AppDeps) {
   const router = Router();
+  const limits = { standardHeaders: 'draft-8', legacyHeaders: false } as const;
 
+  // Per address and client, so one person cannot lock out another from elsewhere. The address is the
+  // validated one (NFKC, trimmed, lower case): spaces or capitals around it are the same address.
   const loginLimiter = rateLimit({
+    ...limits,
     windowMs: 15 * 60_000,
     limit: deps.config.LOGIN_RATE_LIMIT,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    // Per address and per client, so one person cannot lock out another from elsewhere.
-    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String((req.body as { email?: unknown } | undefined)?.email ?? '').toLowerCase()}`,
+    keyGenerator: (req) => `${clientKey(req)}|${String((req.body as { email?: unknown }).email)}`,
     handler: (_req, _res, next) => next(tooMany('Too many sign-in attempts. Wait 15 minutes, or reset your password.')),
   });
+  // Failed sign-ins per client across every address: one password tried against many accounts.
+  const sprayLimiter = rateLimit({
+    ...limits,
+    windowMs: 15 * 60_000,
+    limit: deps.config.LOGIN_IP_RATE_LIMIT,
+    skipSuccessfulRequests: true,
+    keyGenerator: clientKey,
+    handler: (_req, _res, next) => next(tooMany('Too many failed sign-ins from this network. Wait 15 minutes and try again.')),
+  });
+  const registerLimiter = rateLimit({
+    ...limits,
+    windowMs: 60 * 60_000,
+    limit: deps.config.REGISTER_RATE_LIMIT,
+    keyGenerator: clientKey,
+    handler: (_req, _res, next) => next(tooMany('Too many new accounts from this network. Try again in an hour.')),
+  });
   const mailLimiter = rateLimit({
+    ...limits,
     windowMs: 15 * 60_000,
     limit: 5,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
     handler: (_req, _res, next) => next(tooMany('Too many reset requests. Try again in 15 minutes.')),
   });
 
-  router.post('/auth/register', validate({ body: registerSchema }), async (req, res) => {
+  router.post('/auth/register', registerLimiter, validate({ body: registerSchema }), async (req, res) => {
     const user = await register(req.body);
     await logIn(req, user);
     res.status(201).json(await getMe(user.id));
   });
 
-  router.post('/auth/login', loginLimiter, validate({ body: loginSchema }), async (req, res, next) => {
+  router.post('/auth/login', validate({ body: loginSchema }), sprayLimiter, loginLimiter, async (req, res, next) => {
     const user = await new Promise<Express.User | false>((resolve, reject) => {
-      passport.authenticate('local', (err: unknown, found: Express.User | false) => (err ? reject(err) : resolve(found)))(req, res, next);
+      passport.authenticate('local', (err: unknown, found: Express.User | false) => (err ? reject(err) : resolve(found)))(
+        req,
+        res,
+        next,
+      );
     });
     if (!user) throw new UnauthorizedError('That e-mail and password do not match an account.');
     await logIn(req, user);
@@ -53,21 +82,28 @@ export function authRouter(deps: AppDeps) {
   });
 
   router.post('/auth/logout', async (req, res) => {
+    const sessionId = req.sessionID;
+    const userId = req.user?.id;
     await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
     await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
+    // Sockets opened with this session close on every node, not only at their next action.
+    if (userId !== undefined && sessionId) deps.events.emit('session.ended', { userId, sessionIds: [sessionId] });
     res.clearCookie('blockpost.sid');
     res.status(204).end();
   });
 
-  router.post('/auth/reset-request', mailLimiter, validate({ body: resetRequestSchema }), async (req, res) => {
-    await requestPasswordReset(deps, req.body.email);
+  router.post('/auth/reset-request', mailLimiter, validate({ body: resetRequestSchema }), (req, res) => {
     res.status(202).json({ message: 'If that address has an account, a reset link is on its way.' });
+    // After the answer: looking the address up and mailing take time only when it has an account.
+    requestPasswordReset(deps, req.body.email).catch((err: unknown) =>
+      deps.logger.error({ err }, 'password reset request failed'),
+    );
   });
 
   router.post('/auth/reset', mailLimiter, validate({ body: resetSchema }), async (req, res) => {
     const userId = await resetPassword(req.body.token, req.body.password);
-    // Sign out every other session of the account: whoever held the old password is out.
-    await deps.pool.query(`DELETE FROM session WHERE (sess->'passport'->>'user')::int = $1`, [userId]);
+    // Sign out every session of the account: whoever held the old password is out, sockets included.
+    await endSessions(deps, userId);
     res.json({ message: 'Your password is changed. Sign in with the new one.' });
   });
 
@@ -80,6 +116,14 @@ export function authRouter(deps: AppDeps) {
   router.patch('/me', requireUser, validate({ body: profileUpdateSchema }), async (req, res) => {
     await updateProfile(currentUser(req).id, req.body);
     res.json(await getMe(currentUser(req).id));
+  });
+
+  router.post('/me/password', requireUser, validate({ body: changePasswordSchema }), async (req, res) => {
+    const user = currentUser(req);
+    await changePassword(user.id, req.body.currentPassword, req.body.newPassword);
+    // Every other device is signed out; this one stays.
+    const ended = await endSessions(deps, user.id, req.sessionID);
+    res.json({ message: 'Your password is changed.', signedOutElsewhere: ended });
   });
 
   return router;

@@ -1,18 +1,32 @@
-import { Op, UniqueConstraintError } from 'sequelize';
+import { Op, QueryTypes, UniqueConstraintError } from 'sequelize';
 import type { RegisterInput, ProfileUpdateInput } from '@shared/schemas/auth';
 import type { MeDto } from '@shared/types';
+import { passwordStrength } from '@shared/password-strength';
 import { Guild, Membership, PasswordReset, User } from '../db/models';
-import { ConflictError, ValidationError } from '../http/errors';
-import { hashPassword } from './passwords';
+import { ConflictError, UnauthorizedError, ValidationError } from '../http/errors';
+import { hashPassword, verifyPassword } from './passwords';
 import { hashToken, newToken } from './tokens';
 import { toSessionUser } from './passport';
+import { assertNameFreeInGuilds } from './display-names';
 import { passwordResetMail } from '../mail/account-messages';
 import type { AppDeps } from '../deps';
 
 export const RESET_VALID_MINUTES = 60;
 
-/** Creates an account; the e-mail must be unused. */
+/**
+ * Refuses a password that is quick to guess (common, a pattern, a repeat, or made of the person's
+ * own name or address), with the reason and a tip, under the given field name.
+ */
+export function assertStrongPassword(password: string, personal: string[], field = 'password') {
+  const strength = passwordStrength(password, personal);
+  if (strength.strong) return;
+  const message = `${strength.reason} ${strength.tip}`;
+  throw new ValidationError(message, { [field]: message });
+}
+
+/** Creates an account; the e-mail must be unused and the password hard to guess. */
 export async function register(input: RegisterInput): Promise<Express.User> {
+  assertStrongPassword(input.password, [input.email, input.displayName]);
   const passwordHash = await hashPassword(input.password);
   try {
     const user = await User.create({ email: input.email, displayName: input.displayName, passwordHash });
@@ -40,14 +54,24 @@ export async function getMe(userId: number): Promise<MeDto | null> {
   };
 }
 
+/** Changes name, units or address; a new name must not be another member's in any of the person's guilds. */
 export async function updateProfile(userId: number, input: ProfileUpdateInput) {
   const user = await User.findByPk(userId);
   if (!user) throw new ValidationError('Your account no longer exists.');
+  if (input.displayName !== undefined && input.displayName !== user.displayName) {
+    const guildIds = (await Membership.findAll({ where: { userId, status: 'active' }, attributes: ['guildId'] })).map(
+      (m) => m.guildId,
+    );
+    await assertNameFreeInGuilds(userId, input.displayName, guildIds, user.email);
+  }
   await user.update(input);
   return toSessionUser(user);
 }
 
-/** Always resolves the same way, so the answer does not reveal whether the address has an account. */
+/**
+ * Sends a reset link if the address has an account, and nothing otherwise. Call it after the answer
+ * has gone out: the caller then waits the same time either way.
+ */
 export async function requestPasswordReset(deps: Pick<AppDeps, 'mailer' | 'config' | 'logger'>, email: string) {
   const user = await User.findOne({ where: { email } });
   if (!user) return;
@@ -55,7 +79,9 @@ export async function requestPasswordReset(deps: Pick<AppDeps, 'mailer' | 'confi
   await PasswordReset.create({ userId: user.id, tokenHash, expiresAt: new Date(Date.now() + RESET_VALID_MINUTES * 60_000) });
   const url = `${deps.config.PUBLIC_URL}/reset-password?token=${encodeURIComponent(token)}`;
   try {
-    await deps.mailer.send(passwordResetMail({ to: user.email, displayName: user.displayName, url, validMinutes: RESET_VALID_MINUTES }));
+    await deps.mailer.send(
+      passwordResetMail({ to: user.email, displayName: user.displayName, url, validMinutes: RESET_VALID_MINUTES }),
+    );
   } catch (error) {
     deps.logger.error({ err: error }, 'password reset mail failed');
   }
@@ -63,7 +89,6 @@ export async function requestPasswordReset(deps: Pick<AppDeps, 'mailer' | 'confi
 
 /** Uses a reset token once; every other open token for the account is spent too. */
 export async function resetPassword(token: string, password: string) {
-  const passwordHash = await hashPassword(password);
   const reset = await PasswordReset.findOne({
     where: { tokenHash: hashToken(token), usedAt: null, expiresAt: { [Op.gt]: new Date() } },
   });
@@ -72,15 +97,45 @@ export async function resetPassword(token: string, password: string) {
       token: 'This reset link has expired or was already used.',
     });
   }
+  const owner = await User.findByPk(reset.userId, { attributes: ['email', 'displayName'] });
+  assertStrongPassword(password, owner ? [owner.email, owner.displayName] : []);
+  const passwordHash = await hashPassword(password);
   const sequelize = PasswordReset.sequelize!;
   await sequelize.transaction(async (transaction) => {
-    const [spent] = await PasswordReset.update(
-      { usedAt: new Date() },
-      { where: { id: reset.id, usedAt: null }, transaction },
-    );
+    const [spent] = await PasswordReset.update({ usedAt: new Date() }, { where: { id: reset.id, usedAt: null }, transaction });
     if (spent !== 1) throw new ValidationError('This reset link was already used. Ask for a new one.');
     await PasswordReset.update({ usedAt: new Date() }, { where: { userId: reset.userId, usedAt: null }, transaction });
     await User.update({ passwordHash }, { where: { id: reset.userId }, transaction });
   });
   return reset.userId;
+}
+
+/** Changes the password of a signed-in person who knows the current one. */
+export async function changePassword(userId: number, currentPassword: string, newPassword: string) {
+  const user = await User.findByPk(userId);
+  if (!user) throw new UnauthorizedError('Your account no longer exists.');
+  if (!(await verifyPassword(user.passwordHash, currentPassword))) {
+    throw new ValidationError('That is not your current password.', { currentPassword: 'That is not your current password.' });
+  }
+  if (currentPassword === newPassword) {
+    throw new ValidationError('Choose a new password that differs from the current one.', {
+      newPassword: 'Choose a password that differs from the current one.',
+    });
+  }
+  assertStrongPassword(newPassword, [user.email, user.displayName], 'newPassword');
+  await user.update({ passwordHash: await hashPassword(newPassword) });
+}
+
+/**
+ * Ends every sign-in session of the account but `keep` (the caller's own, when it stays signed in),
+ * and the live sockets opened with them, on every node.
+ */
+export async function endSessions(deps: Pick<AppDeps, 'sequelize' | 'events'>, userId: number, keep?: string) {
+  const rows = await deps.sequelize.query<{ sid: string }>(
+    `DELETE FROM session WHERE (sess->'passport'->>'user')::int = $userId AND sid IS DISTINCT FROM $keep RETURNING sid`,
+    { bind: { userId, keep: keep ?? null }, type: QueryTypes.SELECT },
+  );
+  const sessionIds = rows.map((r) => r.sid);
+  if (sessionIds.length) deps.events.emit('session.ended', { userId, sessionIds });
+  return sessionIds.length;
 }

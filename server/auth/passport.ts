@@ -1,6 +1,7 @@
 import passport from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { QueryTypes } from 'sequelize';
+import { normaliseEmail } from '@shared/schemas/auth';
 import { User } from '../db/models';
 import { decoyVerify, verifyPassword } from './passwords';
 
@@ -21,7 +22,7 @@ declare global {
 export function configurePassport() {
   passport.use(
     new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
-      User.findOne({ where: { email: email.trim().toLowerCase() } })
+      User.findOne({ where: { email: normaliseEmail(email) } })
         .then(async (user) => {
           if (!user) {
             await decoyVerify(password);
@@ -36,11 +37,13 @@ export function configurePassport() {
   passport.serializeUser((user, done) => done(null, user.id));
   // Runs on every signed-in request: a plain query, since a model instance would only be copied out.
   passport.deserializeUser((id: number, done) => {
-    User.sequelize!.query<Express.User>(
-      'SELECT id, email, display_name AS "displayName", units FROM users WHERE id = $id',
-      { bind: { id }, type: QueryTypes.SELECT },
-    )
-      .then(([user]) => done(null, user ? { id: user.id, email: user.email, displayName: user.displayName, units: user.units } : false))
+    User.sequelize!.query<Express.User>('SELECT id, email, display_name AS "displayName", units FROM users WHERE id = $id', {
+      bind: { id },
+      type: QueryTypes.SELECT,
+    })
+      .then(([user]) =>
+        done(null, user ? { id: user.id, email: user.email, displayName: user.displayName, units: user.units } : false),
+      )
       .catch(done);
   });
   return passport;

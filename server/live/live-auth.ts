@@ -56,8 +56,39 @@ export function attachLiveAuth(io: LiveServer, deps: AppDeps, built: BuiltApp) {
 
 type SessionRequest = EngineRequest & {
   sessionID?: string;
+  session?: { cookie?: { expires?: Date | string | null } };
   sessionStore?: { get(sid: string, cb: (err: unknown, session?: { passport?: { user?: unknown } } | null) => void): void };
 };
+
+/** The id of the sign-in session a socket was opened with (undefined without one). */
+export function socketSessionId(socket: LiveSocket): string | undefined {
+  return (socket.request as SessionRequest).sessionID;
+}
+
+// setTimeout fires at once for delays past 2^31 - 1 ms (24.8 days); longer waits are taken in steps.
+const MAX_TIMER_MS = 2_147_483_647;
+
+/**
+ * Closes the socket when its session expires (a session lasts a fixed time from sign-in). Returns a
+ * function that cancels the timer, for when the socket goes first.
+ */
+export function endAtSessionExpiry(socket: LiveSocket): () => void {
+  const expires = (socket.request as SessionRequest).session?.cookie?.expires;
+  const at = expires ? new Date(expires).getTime() : NaN;
+  if (!Number.isFinite(at)) return () => undefined;
+  let timer: NodeJS.Timeout;
+  const arm = () => {
+    const wait = at - Date.now();
+    if (wait <= 0) {
+      socket.disconnect(true);
+      return;
+    }
+    timer = setTimeout(arm, Math.min(wait, MAX_TIMER_MS));
+    timer.unref();
+  };
+  arm();
+  return () => clearTimeout(timer);
+}
 
 /**
  * Checks that the session the socket was opened with still belongs to its user (not signed out,

@@ -3,9 +3,9 @@ import { createAdapter } from '@socket.io/postgres-adapter';
 import type { FeatureStartup } from '../features';
 import type { AppDeps } from '../deps';
 import type { LiveServer, LiveSocket } from './live-types';
-import { attachLiveAuth } from './live-auth';
+import { attachLiveAuth, endAtSessionExpiry, socketSessionId } from './live-auth';
 import { Presence } from './presence';
-import { guildPrefix, userRoom } from './rooms';
+import { guildPrefix, sessionRoom, userRoom } from './rooms';
 
 export interface LiveContext {
   io: LiveServer;
@@ -45,9 +45,19 @@ export function liveStartup(parts: LivePart[]): FeatureStartup {
       io.to(userRoom(userId)).emit('guild:left', { guildId });
     });
 
+    // A session ended on any node (sign-out, password reset or change): its sockets close on every node
+    // at once, through the adapter, so nothing more reaches whoever held it.
+    deps.events.on('session.ended', async ({ sessionIds }) => {
+      for (const sid of sessionIds) io.in(sessionRoom(sid)).disconnectSockets(true);
+    });
+
     for (const part of parts) part.start?.(ctx);
     io.on('connection', (socket) => {
       void socket.join(userRoom(socket.data.user.userId));
+      const sid = socketSessionId(socket);
+      if (sid) void socket.join(sessionRoom(sid));
+      const cancelExpiry = endAtSessionExpiry(socket);
+      socket.on('disconnect', cancelExpiry);
       for (const part of parts) part.onConnection?.(ctx, socket);
       socket.on('disconnecting', () => {
         for (const room of socket.rooms) presence.announce(room);

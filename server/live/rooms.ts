@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import type { RoomRef } from '@shared/live-events';
 
 /** Rooms are prefixed by their guild, so every room of a guild can be left at once. */
@@ -5,6 +6,11 @@ export const guildPrefix = (guildId: number) => `g${guildId}:`;
 export const boardRoom = (guildId: number, swapId: number) => `g${guildId}:board:${swapId}`;
 export const chatRoom = (guildId: number, roomId: number) => `g${guildId}:chat:${roomId}`;
 export const userRoom = (userId: number) => `user:${userId}`;
+/**
+ * Every socket opened with one sign-in session: ending the session ends them all, on every node.
+ * The name carries a hash of the session id, never the id itself.
+ */
+export const sessionRoom = (sessionId: string) => `session:${createHash('sha256').update(sessionId).digest('hex').slice(0, 32)}`;
 
 const pattern = /^g(\d+):(board|chat):(\d+)$/;
 

@@ -2,6 +2,7 @@
 export { QuiltInputError } from './rational';
 export {
   LengthParseError,
+  MAX_LENGTH_TEXT,
   MM_PER_INCH,
   formatDeviation,
   formatLength,

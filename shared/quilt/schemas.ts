@@ -3,11 +3,13 @@
  * or any text parseLength reads; they come out as numbers of inches.
  */
 import { z } from 'zod';
-import { LengthParseError, parseLengthExact } from './lengths';
+import { LengthParseError, MAX_LENGTH_TEXT, parseLengthExact } from './lengths';
 import { HST_METHODS } from './units';
 
 /** A length: a number of inches ≥ 0 or text such as "8 1/2", "8½″" or "216 mm". */
-export const lengthSchema = z.union([z.number(), z.string()]).transform((value, ctx) => {
+export const lengthSchema = z
+  .union([z.number(), z.string().max(MAX_LENGTH_TEXT, `A length needs at most ${MAX_LENGTH_TEXT} characters.`)])
+  .transform((value, ctx) => {
   try {
     return parseLengthExact(value).valueOf();
   } catch (error) {
@@ -43,6 +45,6 @@ export const photoMeasureSchema = z.object({
 });
 
 export const distributionInputSchema = z.object({
-  makers: z.array(z.object({ id: z.string().min(1), accepted: z.number().int().min(0) })),
-  angels: z.array(z.object({ id: z.string().min(1), blocks: z.number().int().min(0) })).optional(),
+  makers: z.array(z.object({ id: z.string().min(1).max(40), accepted: z.number().int().min(0) })),
+  angels: z.array(z.object({ id: z.string().min(1).max(40), blocks: z.number().int().min(0) })).optional(),
 });

@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { gridBlock, lengthSchema, unfinishedSize } from '@shared/quilt';
+import { idParam } from './ids';
 
 /** Largest length we accept anywhere in a swap: larger values are typing slips, not blocks. */
 export const MAX_INCHES = 120;
@@ -132,7 +133,32 @@ export const handInSchema = z.object({
 });
 export type HandInInput = z.infer<typeof handInSchema>;
 
-export const clientIdSchema = z.uuid({ error: 'clientId must be a UUID.' }).optional();
+/** `POST /swaps/:swapId/handed-in`: the maker hands several of their blocks in at once. */
+export const handInManySchema = z
+  .object({
+    blockIds: z
+      .array(z.number({ error: 'Each block is a number.' }).int().positive(), { error: 'Choose the blocks you hand in.' })
+      .min(1, 'Choose at least one block.')
+      .max(50, 'At most 50 blocks at once.'),
+    how: handInSchema.shape.how,
+    note: handInSchema.shape.note,
+  })
+  .strict();
+export type HandInManyInput = z.infer<typeof handInManySchema>;
+
+/** `POST /blocks/:blockId/accept`: an officer accepts an off-size block anyway, and says why. */
+export const acceptBlockSchema = z
+  .object({
+    reason: z
+      .string({ error: 'Say why the block is accepted.' })
+      .trim()
+      .min(3, 'Say in a few words why the block is accepted.')
+      .max(500, 'Keep the reason under 500 characters.'),
+  })
+  .strict();
+export type AcceptBlockInput = z.infer<typeof acceptBlockSchema>;
+
+export const clientIdSchema = z.uuid({ error: 'clientId must be a UUID.' }).max(36, 'clientId must be a UUID.').optional();
 
 export const receiveSchema = z.object({ clientId: clientIdSchema });
 export type ReceiveInput = z.infer<typeof receiveSchema>;
@@ -156,4 +182,4 @@ export const measurementBodySchema = z
 export type MeasurementBodyInput = z.input<typeof measurementBodySchema>;
 export type MeasurementBody = z.output<typeof measurementBodySchema>;
 
-export const blockParamsSchema = z.object({ blockId: z.coerce.number({ error: 'Expected a number.' }).int().positive('Expected a positive id.') });
+export const blockParamsSchema = z.object({ blockId: idParam });

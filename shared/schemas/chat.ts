@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { socketId } from './live';
+import { idParam } from './ids';
 
 export const CHAT_MESSAGE_MAX = 2000;
 /** At most this many messages per person in CHAT_RATE_WINDOW_MS, across every room and node. */
@@ -14,6 +15,7 @@ const controlChars = /[\u0000-\u0008\v\f\u000E-\u001F\u007F]/g;
 /** A message's text: trimmed, control characters dropped, 1 to 2,000 characters. */
 export const messageBodySchema = z
   .string({ error: 'Write a message first.' })
+  .max(2 * CHAT_MESSAGE_MAX, `Keep a message under ${CHAT_MESSAGE_MAX.toLocaleString('en')} characters.`)
   .transform((s) => s.replace(controlChars, '').trim())
   .pipe(
     z
@@ -30,6 +32,7 @@ export type SendMessageInput = z.infer<typeof sendMessageSchema>;
 export const postMessageSchema = z.object({
   body: z
     .string()
+    .max(2 * CHAT_MESSAGE_MAX, `Keep a message under ${CHAT_MESSAGE_MAX.toLocaleString('en')} characters.`)
     .optional()
     .transform((s) => (s ?? '').replace(controlChars, '').trim())
     .pipe(z.string().max(CHAT_MESSAGE_MAX, `Keep a message under ${CHAT_MESSAGE_MAX.toLocaleString('en')} characters.`)),
@@ -39,7 +42,7 @@ export type PostMessageInput = z.infer<typeof postMessageSchema>;
 export const editMessageSchema = z.object({ body: messageBodySchema }).strict();
 export type EditMessageInput = z.infer<typeof editMessageSchema>;
 
-const restId = z.coerce.number({ error: 'Expected a number.' }).int().positive('Expected a positive id.');
+const restId = idParam;
 export const roomParamsSchema = z.object({ roomId: restId });
 export const messageParamsSchema = z.object({ messageId: restId });
 

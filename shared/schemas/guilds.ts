@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { emailSchema } from './auth';
 import { idParam } from './ids';
+import { idParam } from './ids';
 import { guildPaymentFields } from './payments';
 
 export const roles = ['admin', 'coordinator', 'member'] as const;
@@ -13,7 +14,7 @@ export const roleLabels: Record<Role, string> = {
   member: 'Member',
 };
 
-export const idParam = z.coerce.number({ error: 'Expected a number.' }).int().positive('Expected a positive id.');
+export { idParam } from './ids';
 
 export const guildParamsSchema = z.object({ guildId: idParam });
 export const memberParamsSchema = z.object({ guildId: idParam, userId: idParam });
@@ -21,6 +22,7 @@ export const memberParamsSchema = z.object({ guildId: idParam, userId: idParam }
 export const timeZoneSchema = z
   .string()
   .trim()
+  .max(64, 'Choose a time zone such as America/Chicago.')
   .refine((tz) => {
     try {
       new Intl.DateTimeFormat('en', { timeZone: tz });

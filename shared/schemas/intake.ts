@@ -7,13 +7,23 @@ import type { BlockState, SwapState } from './swaps';
 import type { VerdictName } from '../swap-types';
 import { idParam } from './guilds';
 import { MAX_INCHES } from './blocks';
-import { LengthParseError, parseLength } from '../quilt';
+import { LengthParseError, MAX_LENGTH_TEXT, parseLength } from '../quilt';
 
 export const resolveBodySchema = z
   .object({
     swapId: idParam,
-    reference: z.string().trim().min(1, 'Scan the label again: the code was empty.').max(200, 'That is not a Blockpost label.').optional(),
-    shortCode: z.string().trim().min(1, 'Type the short code under the QR code.').max(20, 'A short code has 8 characters, like K7QM-3XWD.').optional(),
+    reference: z
+      .string()
+      .trim()
+      .min(1, 'Scan the label again: the code was empty.')
+      .max(200, 'That is not a Blockpost label.')
+      .optional(),
+    shortCode: z
+      .string()
+      .trim()
+      .min(1, 'Type the short code under the QR code.')
+      .max(20, 'A short code has 8 characters, like K7QM-3XWD.')
+      .optional(),
   })
   .refine((b) => (b.reference === undefined) !== (b.shortCode === undefined), {
     path: ['reference'],
@@ -23,9 +33,7 @@ export type ResolveBody = z.infer<typeof resolveBodySchema>;
 
 /** Whose labels: `me` (default), `all` (officers), or one maker's user id (officers, or yourself). */
 export const labelsQuerySchema = z.object({
-  maker: z
-    .union([z.enum(['me', 'all']), idParam], { error: 'maker is "me", "all" or a member’s id.' })
-    .default('me'),
+  maker: z.union([z.enum(['me', 'all']), idParam], { error: 'maker is "me", "all" or a member’s id.' }).default('me'),
 });
 export type LabelsQuery = z.infer<typeof labelsQuerySchema>;
 
@@ -34,7 +42,10 @@ function readSide(what: string, text: string, ctx: z.RefinementCtx): number | un
   try {
     inches = parseLength(text);
   } catch (error) {
-    ctx.addIssue({ code: 'custom', message: error instanceof LengthParseError ? error.message : `Type the ${what} as a length, e.g. 9 1/2.` });
+    ctx.addIssue({
+      code: 'custom',
+      message: error instanceof LengthParseError ? error.message : `Type the ${what} as a length, e.g. 9 1/2.`,
+    });
     return undefined;
   }
   if (inches <= 0) ctx.addIssue({ code: 'custom', message: `The ${what} must be more than zero.` });
@@ -44,15 +55,22 @@ function readSide(what: string, text: string, ctx: z.RefinementCtx): number | un
 }
 
 const sideSchema = (what: string) =>
-  z.string().transform((text, ctx) => {
-    if (text.trim() === '') {
-      ctx.addIssue({ code: 'custom', message: `Type the ${what}, e.g. 9 1/2 or 241 mm.` });
-      return z.NEVER;
-    }
-    return readSide(what, text, ctx) ?? z.NEVER;
-  });
+  z
+    .string()
+    .max(MAX_LENGTH_TEXT, `Type the ${what} in at most ${MAX_LENGTH_TEXT} characters, e.g. 9 1/2.`)
+    .transform((text, ctx) => {
+      if (text.trim() === '') {
+        ctx.addIssue({ code: 'custom', message: `Type the ${what}, e.g. 9 1/2 or 241 mm.` });
+        return z.NEVER;
+      }
+      return readSide(what, text, ctx) ?? z.NEVER;
+    });
 
-const optionalSide = (what: string) => z.string().transform((text, ctx) => (text.trim() === '' ? undefined : (readSide(what, text, ctx) ?? z.NEVER)));
+const optionalSide = (what: string) =>
+  z
+    .string()
+    .max(MAX_LENGTH_TEXT, `Type the ${what} in at most ${MAX_LENGTH_TEXT} characters, e.g. 9 1/2.`)
+    .transform((text, ctx) => (text.trim() === '' ? undefined : (readSide(what, text, ctx) ?? z.NEVER)));
 
 /**
  * The measuring card: width and height in any format parseLength reads, diagonals optional but in

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idParam } from './ids';
 
 export const rsvpAnswers = ['going', 'maybe', 'no'] as const;
 export const rsvpAnswerSchema = z.enum(rsvpAnswers, { error: 'Answer going, maybe or no.' });
@@ -8,8 +9,32 @@ export const rsvpLabels: Record<RsvpAnswer, string> = { going: 'Going', maybe: '
 /** A wall-clock time as a datetime-local input gives it: read in the guild's time zone. */
 const wallTime = z
   .string({ error: 'Enter a date and time.' })
+  .max(16, 'Enter a date and time like 2027-03-14 10:00.')
   .regex(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/, 'Enter a date and time like 2027-03-14 10:00.')
-  .refine((s) => !Number.isNaN(Date.parse(`${s}:00Z`)), 'That date does not exist.');
+  .superRefine((s, ctx) => {
+    const problem = wallTimeProblem(s);
+    if (problem) ctx.addIssue({ code: 'custom', message: problem });
+  });
+
+export const SEW_DAY_FIRST_YEAR = 2000;
+export const SEW_DAY_LAST_YEAR = 2200;
+const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
+
+/**
+ * Why a `YYYY-MM-DDTHH:mm` is not a real time on the calendar, or null. Read strictly: 30 February
+ * is refused, never rolled over into March.
+ */
+export function wallTimeProblem(s: string): string | null {
+  const [year, month, day, hour, minute] = [s.slice(0, 4), s.slice(5, 7), s.slice(8, 10), s.slice(11, 13), s.slice(14, 16)].map(Number) as [
+    number, number, number, number, number,
+  ];
+  if (year < SEW_DAY_FIRST_YEAR || year > SEW_DAY_LAST_YEAR) return `Choose a year between ${SEW_DAY_FIRST_YEAR} and ${SEW_DAY_LAST_YEAR}.`;
+  if (month < 1 || month > 12) return `There is no month ${month}: use 01 to 12.`;
+  const days = new Date(Date.UTC(year, month, 0)).getUTCDate();
+  if (day < 1 || day > days) return `${MONTHS[month - 1]} ${year} has ${days} days: there is no day ${day}.`;
+  if (hour > 23 || minute > 59) return 'Give a time of day from 00:00 to 23:59.';
+  return null;
+}
 
 const optionalText = (max: number, message: string) =>
   z
@@ -26,10 +51,11 @@ const sewDayFields = z.object({
   place: optionalText(300, 'Keep the place under 300 characters.'),
   videoUrl: z
     .string()
+    .max(500, 'That link is too long.')
     .trim()
     .nullish()
     .transform((s) => (s ? s : null))
-    .pipe(z.url({ protocol: /^https?$/, error: 'Give a video link starting with https://' }).max(500, 'That link is too long.').nullable()),
+    .pipe(z.url({ protocol: /^https$/, error: 'Give a video link starting with https://' }).max(500, 'That link is too long.').nullable()),
   notes: optionalText(4000, 'Keep the notes under 4,000 characters.'),
 });
 
@@ -50,7 +76,7 @@ export const sewDayListQuerySchema = z.object({ when: z.enum(['upcoming', 'past'
 export type SewDayListQuery = z.infer<typeof sewDayListQuerySchema>;
 
 export const sewDayParamsSchema = z.object({
-  sewDayId: z.coerce.number({ error: 'Expected a number.' }).int().positive('Expected a positive id.'),
+  sewDayId: idParam,
 });
 
 export interface SewDayDto {

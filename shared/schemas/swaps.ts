@@ -5,6 +5,7 @@
 import { z } from 'zod';
 import { lengthSchema } from '@shared/quilt';
 import { blockSpecSchema } from './blocks';
+import { idParam } from './ids';
 import { swapFeesSchema } from './payments';
 import { idParam } from './ids';
 
@@ -79,6 +80,7 @@ const inchesUpTo = (max: number, what: string) =>
 const isoDate = (what: string) =>
   z.iso
     .datetime({ offset: true, error: `Give ${what} as a date and time.` })
+    .max(40, `Give ${what} as a date and time.`)
     .transform((s) => new Date(s))
     .refine((d) => d.getUTCFullYear() >= 2000 && d.getUTCFullYear() <= 2200, { message: `${what} is not a sensible date.` });
 
@@ -182,11 +184,11 @@ export const signupSchema = z
   .strict();
 export type SignupInput = z.infer<typeof signupSchema>;
 
-export const swapParamsSchema = z.object({ swapId: z.coerce.number({ error: 'Expected a number.' }).int().positive('Expected a positive id.') });
+export const swapParamsSchema = z.object({ swapId: idParam });
 
 export const blocksQuerySchema = z
   .object({
-    maker: z.union([z.literal('me'), z.coerce.number().int().positive()], { error: 'maker is "me" or a member id.' }).optional(),
+    maker: z.union([z.literal('me'), idParam], { error: 'maker is "me" or a member id.' }).optional(),
     recipient: z.literal('me', { error: 'recipient can only be "me".' }).optional(),
   })
   .strict();

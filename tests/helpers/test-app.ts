@@ -47,6 +47,11 @@ export function testConfig(databaseUrl: string, overrides: Partial<Record<string
     LOG_LEVEL: 'silent',
     SERVE_CLIENT: 'false',
     JOBS: 'false',
+    // Every test signs up from 127.0.0.1: the per-client limits are tested with their own low values.
+    REGISTER_RATE_LIMIT: '100000',
+    LOGIN_IP_RATE_LIMIT: '100000',
+    INVITES_PER_INVITER_DAY: '100000',
+    INVITES_PER_GUILD_DAY: '100000',
     ...overrides,
   });
 }
