@@ -4,13 +4,17 @@
  * NODE_ENV=production), bare Express + pg, and bare node:http + pg (one equivalent query each, no
  * session, no checks). Each load run is a separate autocannon process (bench/load.ts). Runs alternate
  * app / Express / node:http and repeat; medians are reported with their spread (min–max).
- * Run alone with `npx tsx bench/api.ts`; BENCH_SECONDS, BENCH_RUNS and BENCH_PROFILE_DIR (a folder
- * for the app's `node --cpu-prof` profile) adjust it.
+ * Run alone with `npx tsx bench/api.ts`; BENCH_SECONDS, BENCH_RUNS, BENCH_ONLY (a pattern of scenario
+ * names) and BENCH_PROFILE_DIR (a folder for the app's `node --cpu-prof` profile; summarise it with
+ * `npx tsx bench/profile.ts <file>`) adjust it.
  */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
 import { freePort } from '../scripts/lib/ports';
 import type { LoadOptions, LoadResult } from './load';
-import { runNodeScript, startNodeServer, type NodeProcess } from './lib/processes';
+import { clusterCpuSeconds, cpuSeconds, runNodeScript, startNodeServer, type NodeProcess } from './lib/processes';
 import { median, round, withSpread } from './lib/stats';
 import { seedSwap, signIn, type SeededSwap } from './lib/seed';
 
@@ -26,6 +30,8 @@ interface Scenario {
   request: (server: ServerKey) => Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers'>;
 }
 
+type Run = LoadResult & { serverCpuMs: number; dbCpuMs: number };
+
 export interface ApiBenchResult {
   rows: Row[];
   goals: Row[];
@@ -38,11 +44,15 @@ const SIZES = [
   { members: 600, blocksEach: 6, tag: '600x6' },
 ];
 
-export async function runApiBench(opts: { duration?: number; runs?: number; profileDir?: string } = {}): Promise<ApiBenchResult> {
+export async function runApiBench(
+  opts: { duration?: number; runs?: number; profileDir?: string; only?: RegExp } = {},
+): Promise<ApiBenchResult> {
   const duration = opts.duration ?? 5;
   const runs = opts.runs ?? 3;
   const cluster = await startThrowawayCluster('blockpost-bench-');
   const servers: Partial<Record<ServerKey, NodeProcess>> = {};
+  // Its own photo store: the app refuses one that belongs to another database.
+  const uploads = mkdtempSync(join(tmpdir(), 'blockpost-bench-uploads-'));
   try {
     const databaseUrl = await cluster.database('bench');
     servers.app = await startNodeServer({
@@ -61,6 +71,7 @@ export async function runApiBench(opts: { duration?: number; runs?: number; prof
         JOBS: 'false',
         SMTP_URL: 'smtp://127.0.0.1:9',
         LOGIN_RATE_LIMIT: '1000',
+        UPLOAD_DIR: uploads,
       },
     });
     const bareEnv = { DATABASE_URL: databaseUrl, NODE_ENV: 'production' };
@@ -120,14 +131,26 @@ export async function runApiBench(opts: { duration?: number; runs?: number; prof
         .map((swap) => ({ name: `GET roster ${sizeName(swap)}, 10 connections`, connections: 10, request: roster(swap) })),
     ];
 
-    const load = (s: ServerKey, scenario: Scenario, seconds: number) =>
-      runNodeScript<LoadResult>('bench/load.ts', {
+    if (opts.only) scenarios.splice(0, scenarios.length, ...scenarios.filter((s) => opts.only!.test(s.name)));
+
+    // CPU used by the server process and by PostgreSQL during the run, per answered request: unlike
+    // throughput, it hardly moves when other work on the machine takes turns on the cores.
+    const load = async (s: ServerKey, scenario: Scenario, seconds: number): Promise<Run> => {
+      const before = { server: cpuSeconds(servers[s]!.pid), db: clusterCpuSeconds(cluster.port) };
+      const result = await runNodeScript<LoadResult>('bench/load.ts', {
         url: url(s),
         connections: scenario.connections,
         duration: seconds,
         rate: scenario.rate,
         ...scenario.request(s),
       } satisfies LoadOptions);
+      const perRequest = (sec: number) => (sec * 1000) / Math.max(1, result.requests);
+      return {
+        ...result,
+        serverCpuMs: perRequest(cpuSeconds(servers[s]!.pid) - before.server),
+        dbCpuMs: perRequest(clusterCpuSeconds(cluster.port) - before.db),
+      };
+    };
 
     // A short untimed run of each server first, so every JIT has settled before the first figure.
     for (const s of SERVERS) await load(s, scenarios[0]!, 2);
@@ -136,7 +159,7 @@ export async function runApiBench(opts: { duration?: number; runs?: number; prof
     const goals: Row[] = [];
     const medians = new Map<string, Record<ServerKey, { rps: number; p99: number }>>();
     for (const scenario of scenarios) {
-      const results: Record<ServerKey, LoadResult[]> = { app: [], express: [], http: [] };
+      const results: Record<ServerKey, Run[]> = { app: [], express: [], http: [] };
       for (let run = 0; run < runs; run++) for (const s of SERVERS) results[s].push(await load(s, scenario, duration));
       const bytes = Object.fromEntries(
         await Promise.all(SERVERS.map(async (s) => [s, await bytesPerResponse(url(s), scenario.request(s))])),
@@ -155,6 +178,14 @@ export async function runApiBench(opts: { duration?: number; runs?: number; prof
           'p97.5_ms': withSpread(rs.map((r) => r.p97_5)),
           p99_ms: withSpread(rs.map((r) => r.p99)),
           bytes: bytes[s],
+          'server CPU ms/req': withSpread(
+            rs.map((r) => r.serverCpuMs),
+            2,
+          ),
+          'db CPU ms/req': withSpread(
+            rs.map((r) => r.dbCpuMs),
+            2,
+          ),
           errors: rs.reduce((n, r) => n + r.errors + r.non2xx, 0),
           'of Express': s === 'express' ? '100 %' : `${Math.round((rps / expressRps) * 100)} %`,
         });
@@ -167,6 +198,7 @@ export async function runApiBench(opts: { duration?: number; runs?: number; prof
 
     const pct = (a: number, b: number) => Math.round((a / b) * 100);
     const at = (name: string) => medians.get(name)!;
+    if (opts.only) return { rows, goals, memory: memoryRows(servers) };
     for (const c of [10, 50]) {
       const m = at(`GET roster ${sizeName(small)}, ${c} connections`);
       goals.push(
@@ -208,15 +240,19 @@ export async function runApiBench(opts: { duration?: number; runs?: number; prof
       ),
     );
 
-    const memory: Row[] = SERVERS.map((s) => {
-      const m = servers[s]!.memory();
-      return { server: LABEL[s], rss_MiB: m?.rssMiB ?? 'n/a', peak_rss_MiB: m?.peakMiB ?? 'n/a' };
-    });
-    return { rows, goals, memory };
+    return { rows, goals, memory: memoryRows(servers) };
   } finally {
     for (const s of SERVERS) await servers[s]?.stop().catch(() => undefined);
     cluster.stop();
+    rmSync(uploads, { recursive: true, force: true });
   }
+}
+
+function memoryRows(servers: Partial<Record<ServerKey, NodeProcess>>): Row[] {
+  return SERVERS.map((s) => {
+    const m = servers[s]!.memory();
+    return { server: LABEL[s], rss_MiB: m?.rssMiB ?? 'n/a', peak_rss_MiB: m?.peakMiB ?? 'n/a' };
+  });
 }
 
 const goal = (name: string, measured: string, met: boolean): Row => ({ goal: name, measured, met: met ? 'yes' : 'NO' });
@@ -235,6 +271,7 @@ if (import.meta.url === `file://${process.argv[1]}`) {
     duration: Number(process.env.BENCH_SECONDS ?? 5),
     runs: Number(process.env.BENCH_RUNS ?? 3),
     profileDir: process.env.BENCH_PROFILE_DIR,
+    only: process.env.BENCH_ONLY ? new RegExp(process.env.BENCH_ONLY) : undefined,
   });
   console.table(result.rows);
   console.table(result.goals);

@@ -5,7 +5,7 @@
 import { writeFileSync } from 'node:fs';
 import { cpus, totalmem, release } from 'node:os';
 import { runBundleBench } from './bundle';
-import { runApiBench } from './api';
+import { runApiBench, type ApiBenchResult } from './api';
 
 type Row = Record<string, string | number | undefined>;
 interface Section {
@@ -15,7 +15,8 @@ interface Section {
 }
 
 const sections: Section[] = [];
-const seconds = Number(process.env.BENCH_SECONDS ?? 8);
+const seconds = Number(process.env.BENCH_SECONDS ?? 5);
+const runs = Number(process.env.BENCH_RUNS ?? 3);
 
 async function section(title: string, note: string, run: () => Promise<Row[]> | Row[]) {
   console.log(`\n== ${title}`);
@@ -42,17 +43,54 @@ async function optional<T>(path: string, name: string): Promise<T | null> {
 }
 
 const runEngineBench = await optional<() => Promise<Row[]>>('./engine.ts', 'runEngineBench');
-if (runEngineBench) await section('Quilt math engine', 'Median time per call; target: a 60 × 4 distribution under 5 ms.', runEngineBench);
-await section('API (autocannon over loopback)', `${seconds} s per run; the app versus bare Express + pg doing one equivalent query. Goals: roster p95 < 20 ms at 200 req/s; throughput ≥ 50 % of bare.`, async () => (await runApiBench({ duration: seconds })) as unknown as Row[]);
+if (runEngineBench)
+  await section('Quilt math engine', 'Median time per call; target: a 60 × 4 distribution under 5 ms.', runEngineBench);
+const runArrangeBench = await optional<() => Promise<Row[]>>('./arrange.ts', 'runArrangeBench');
+if (runArrangeBench) {
+  await section(
+    'Design wall: spreading the colours',
+    'Median time of the arrangement search from a random start; score = smallest CIEDE2000 difference between neighbours (higher is better), beside the median of 100 random arrangements. Target: 42 blocks under 200 ms.',
+    runArrangeBench,
+  );
+}
+let api: ApiBenchResult | null = null;
+await section(
+  'API (each server its own process, autocannon in another)',
+  `${seconds} s per run, ${runs} runs of each server alternating app / Express / node:http; medians with the spread (min–max) in brackets. The app runs as production starts it; the references do one equivalent query with no session, checks or logging. "of Express" is the ratio of median throughputs measured in the same run, the figure to read on a shared machine.`,
+  async () => {
+    api = await runApiBench({ duration: seconds, runs, profileDir: process.env.BENCH_PROFILE_DIR });
+    return api.rows;
+  },
+);
+if (api) {
+  const { goals, memory } = api as ApiBenchResult;
+  await section('API goals', 'Ratios to bare Express from the runs above.', () => goals);
+  await section('Memory after the API bench', 'Resident set size of each server process at the end, and its peak.', () => memory);
+}
 const runLiveBench = await optional<() => Promise<Row[]>>('./live.ts', 'runLiveBench');
-if (runLiveBench) await section('Live board and chat (socket.io over loopback)', 'From the database commit to receipt on every socket; target p95 < 50 ms.', runLiveBench);
-await section('Client bundle (gzip)', 'Initial route JS target < 200 kB gzip; route chunks load on demand.', () => runBundleBench() as unknown as Row[]);
+if (runLiveBench)
+  await section(
+    'Live board and chat (socket.io over loopback)',
+    'From the database commit to receipt on every socket; target p95 < 50 ms.',
+    runLiveBench,
+  );
+await section(
+  'Client bundle (gzip)',
+  'Initial route JS target < 200 kB gzip; route chunks load on demand.',
+  () => runBundleBench() as unknown as Row[],
+);
 
 const machine = `${cpus().length} × ${cpus()[0]?.model ?? 'CPU'}, ${(totalmem() / 2 ** 30).toFixed(0)} GiB RAM, Linux ${release()}, Node ${process.version}`;
 const table = (rows: Row[]) => {
   if (!rows.length) return '_no figures_\n';
   const keys = [...new Set(rows.flatMap((r) => Object.keys(r)))];
-  return [`| ${keys.join(' | ')} |`, `|${keys.map(() => '---').join('|')}|`, ...rows.map((r) => `| ${keys.map((k) => r[k] ?? '').join(' | ')} |`)].join('\n') + '\n';
+  return (
+    [
+      `| ${keys.join(' | ')} |`,
+      `|${keys.map(() => '---').join('|')}|`,
+      ...rows.map((r) => `| ${keys.map((k) => r[k] ?? '').join(' | ')} |`),
+    ].join('\n') + '\n'
+  );
 };
 const markdown = [
   '# Benchmarks',

@@ -3,7 +3,7 @@
  * shares an event loop with the server it measures. TypeScript entry points run through tsx's loader.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
-import { readFileSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 
 export const repoRoot = fileURLToPath(new URL('../..', import.meta.url));
@@ -92,4 +92,47 @@ export function runNodeScript<T>(script: string, arg: unknown): Promise<T> {
       }
     });
   });
+}
+
+const TICKS_PER_SECOND = 100;
+
+function statFields(pid: number): string[] | null {
+  try {
+    const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+    // The command name may hold spaces: the fields start after its closing bracket.
+    return stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+  } catch {
+    return null;
+  }
+}
+
+/** CPU seconds (user + system, every thread) a process has used so far; with `reaped`, its waited-for children's too. */
+export function cpuSeconds(pid: number, reaped = false): number {
+  const f = statFields(pid);
+  if (!f) return 0;
+  // Fields 14–17 of /proc/<pid>/stat (utime, stime, cutime, cstime) are the 12th–15th after the name.
+  const ticks = Number(f[11]) + Number(f[12]) + (reaped ? Number(f[13]) + Number(f[14]) : 0);
+  return ticks / TICKS_PER_SECOND;
+}
+
+/**
+ * CPU seconds used so far by the PostgreSQL cluster listening on `port`: the postmaster, its live
+ * backends and the backends that have already exited.
+ */
+export function clusterCpuSeconds(port: number): number {
+  const pids = readdirSync('/proc')
+    .filter((d) => /^\d+$/.test(d))
+    .map(Number);
+  const postmaster = pids.find((pid) => {
+    try {
+      const args = readFileSync(`/proc/${pid}/cmdline`, 'utf8').split('\0');
+      return args[0]?.endsWith('postgres') && args.includes('-p') && args[args.indexOf('-p') + 1] === String(port);
+    } catch {
+      return false;
+    }
+  });
+  if (postmaster === undefined) return 0;
+  let total = cpuSeconds(postmaster, true);
+  for (const pid of pids) if (statFields(pid)?.[1] === String(postmaster)) total += cpuSeconds(pid);
+  return total;
 }

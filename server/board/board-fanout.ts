@@ -30,18 +30,27 @@ export function patchFor(roster: RosterDto, batch: SwapEvent[]): BoardPatch {
   return { swap: roster.swap, totals: roster.totals, rows, removedUserIds, complete: false };
 }
 
+/** The shortest time between two board changes of one swap sent by one node, in milliseconds. */
+export const BOARD_CHANGE_INTERVAL_MS = 50;
+
 /**
- * Turns committed swap events into board changes. Events of one swap are handled one batch at a time
- * (a burst becomes one change); each change takes the next number from the swap's counter in
+ * Turns committed swap events into board changes. Events of one swap are handled one batch at a time,
+ * and a node sends at most one change per swap per `intervalMs`: the first event after a quiet spell
+ * goes out at once, and whatever arrives meanwhile waits for the interval to pass and goes out as one
+ * change carrying every row it touched (a meeting night's burst of measurements makes a few changes a
+ * second, not one per block). Each change takes the next number from the swap's counter in
  * PostgreSQL and holds that row lock while the roster is read, so on every node a higher number
  * always carries a later state.
  */
 export class BoardFanout {
   private queues = new Map<number, SwapEvent[]>();
+  /** when each swap's last change went out (performance.now()) */
+  private sentAt = new Map<number, number>();
 
   constructor(
     private io: LiveServer,
     private deps: Pick<AppDeps, 'sequelize' | 'logger'>,
+    private intervalMs = BOARD_CHANGE_INTERVAL_MS,
   ) {}
 
   push(event: SwapEvent) {
@@ -56,37 +65,52 @@ export class BoardFanout {
   }
 
   private async drain(swapId: number) {
-    // Let the rest of a burst arrive before the first batch is taken.
-    await new Promise((r) => setImmediate(r));
     for (;;) {
+      // Let the rest of a burst arrive (at least the rest of this tick) before the batch is taken.
+      const wait = (this.sentAt.get(swapId) ?? -Infinity) + this.intervalMs - performance.now();
+      await new Promise((r) => (wait > 0 ? setTimeout(r, wait) : setImmediate(r)));
       const batch = this.queues.get(swapId)!.splice(0);
       if (batch.length === 0) break;
       await this.publish(swapId, batch).catch((err: unknown) => this.deps.logger.error({ err, swapId }, 'board change not sent'));
+      this.sentAt.set(swapId, performance.now());
     }
     this.queues.delete(swapId);
+    this.sentAt.delete(swapId);
   }
 
   private async publish(swapId: number, batch: SwapEvent[]) {
     const { sequelize } = this.deps;
     const result = await sequelize.transaction(async (transaction) => {
-      const [row] = await sequelize.query<{ version: string }>(
-        `INSERT INTO swap_versions (swap_id, version) VALUES ($swapId, 1)
+      const [row] = await sequelize
+        .query<{ version: string }>(
+          `INSERT INTO swap_versions (swap_id, version) VALUES ($swapId, 1)
          ON CONFLICT (swap_id) DO UPDATE SET version = swap_versions.version + 1 RETURNING version`,
-        { bind: { swapId }, type: QueryTypes.SELECT, transaction },
-      ).catch((error: { parent?: { code?: string } }) => {
-        if (error.parent?.code === FOREIGN_KEY_VIOLATION) return [];
-        throw error;
-      });
+          { bind: { swapId }, type: QueryTypes.SELECT, transaction },
+        )
+        .catch((error: { parent?: { code?: string } }) => {
+          if (error.parent?.code === FOREIGN_KEY_VIOLATION) return [];
+          throw error;
+        });
       if (!row) return null; // the swap was deleted since: nobody's board shows it any more
       const swap = await Swap.findByPk(swapId, { transaction });
       if (!swap) return null;
       const ids = await recordActivities(batch, transaction);
       // Read while the counter row is locked, so the next number cannot carry an older roster; on the
       // transaction's own connection, so a busy pool cannot leave the lock held while it waits.
-      return { swap, version: Number(row.version), activityIds: ids, roster: await getRoster(swap, { withAddresses: false, transaction }) };
+      return {
+        swap,
+        version: Number(row.version),
+        activityIds: ids,
+        roster: await getRoster(swap, { withAddresses: false, transaction }),
+      };
     });
     if (!result) return;
-    const change: BoardChange = { swapId, version: result.version, activities: await activitiesById(result.activityIds), patch: patchFor(result.roster, batch) };
+    const change: BoardChange = {
+      swapId,
+      version: result.version,
+      activities: await activitiesById(result.activityIds),
+      patch: patchFor(result.roster, batch),
+    };
     this.io.to(boardRoom(result.swap.guildId, swapId)).emit('board:changed', change);
   }
 }
@@ -94,7 +118,8 @@ export class BoardFanout {
 /** The swap's current change number (0 before its first change). */
 export async function boardVersion(sequelize: AppDeps['sequelize'], swapId: number): Promise<number> {
   const [row] = await sequelize.query<{ version: string }>('SELECT version FROM swap_versions WHERE swap_id = $swapId', {
-    bind: { swapId }, type: QueryTypes.SELECT,
+    bind: { swapId },
+    type: QueryTypes.SELECT,
   });
   return row ? Number(row.version) : 0;
 }

@@ -1,0 +1,84 @@
+/**
+ * The board's fan-out under a burst: many measurements at once make a few board changes, at most one
+ * per swap per interval on this node, numbered without a gap, and together they carry every change.
+ * The fan-out sends to a recording stand-in for socket.io, so the times are those of the sending.
+ */
+import { performance } from 'node:perf_hooks';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { BoardChange, BoardPatch } from '../../shared/live-events';
+import type { RosterDto } from '../../shared/swap-types';
+import { BOARD_CHANGE_INTERVAL_MS, BoardFanout } from '../../server/board/board-fanout';
+import type { SwapEvent } from '../../server/board/board-activity';
+import type { LiveServer } from '../../server/live/live-types';
+import { createTestApp, type TestApp } from '../helpers/test-app';
+import { guildWithRoles } from '../helpers/factories';
+import { move, myBlocks, sewingSwap, type Roles } from '../api/swaps-support';
+
+let app: TestApp;
+let roles: Roles;
+beforeAll(async () => {
+  app = await createTestApp();
+  roles = await guildWithRoles(app);
+});
+afterAll(() => app.close());
+
+function recordingIo() {
+  const sent: { at: number; room: string; change: BoardChange }[] = [];
+  const io = {
+    to: (room: string) => ({
+      emit: (_event: string, change: BoardChange) => void sent.push({ at: performance.now(), room, change }),
+    }),
+  };
+  return { io: io as unknown as LiveServer, sent };
+}
+
+describe('board fan-out under a burst', () => {
+  it('sends at most one change per interval, numbered without a gap, carrying every changed row', async () => {
+    const { swap, makers } = await sewingSwap(app, roles, { pledges: [4, 4, 4] });
+    await move(roles.coordinator.agent, swap.id, 'collecting');
+    const blocks = (await Promise.all(makers.map((m) => myBlocks(m.agent, swap.id)))).flat();
+    for (const b of blocks) await roles.coordinator.agent.post(`/api/blocks/${b.id}/received`).send({}).expect(200);
+
+    const { io, sent } = recordingIo();
+    const fanout = new BoardFanout(io, app.deps);
+    app.deps.events.onAny((name, payload) => {
+      if ((payload as { swapId?: unknown }).swapId === swap.id) fanout.push({ name, payload } as SwapEvent);
+    });
+
+    const started = performance.now();
+    await Promise.all(
+      blocks.map((b) =>
+        roles.coordinator.agent.post(`/api/blocks/${b.id}/measurements`).send({ width: '9 1/2', height: '9 1/2' }).expect(201),
+      ),
+    );
+    const measuredActivities = () => sent.flatMap((s) => s.change.activities).filter((a) => a.kind === 'block.measured');
+    await expect.poll(() => measuredActivities().length, { timeout: 10_000 }).toBe(blocks.length);
+    const elapsed = performance.now() - started;
+
+    // Coalesced: far fewer changes than measurements, and never two within the interval.
+    expect(sent.length).toBeLessThan(blocks.length);
+    expect(sent.length).toBeLessThanOrEqual(1 + Math.ceil(elapsed / BOARD_CHANGE_INTERVAL_MS));
+    for (let i = 1; i < sent.length; i++)
+      expect(sent[i]!.at - sent[i - 1]!.at).toBeGreaterThanOrEqual(BOARD_CHANGE_INTERVAL_MS - 2);
+
+    // Numbered without a gap, each measurement told exactly once, each change carrying its makers' rows.
+    expect(sent.map((s) => s.change.version)).toEqual(sent.map((_, i) => sent[0]!.change.version + i));
+    expect(
+      measuredActivities()
+        .map((a) => a.blockId)
+        .sort(),
+    ).toEqual(blocks.map((b) => b.id).sort());
+    for (const { change } of sent) {
+      const subjects = new Set(change.activities.map((a) => a.subject?.userId));
+      for (const userId of subjects) expect(change.patch!.rows.map((r) => r.userId)).toContain(userId);
+    }
+
+    // Applied in order, the changes leave the board where the roster is.
+    const roster = (await roles.coordinator.agent.get(`/api/swaps/${swap.id}/roster`).expect(200)).body as RosterDto;
+    const board = new Map<number, BoardPatch['rows'][number]>();
+    for (const { change } of sent) for (const row of change.patch!.rows) board.set(row.userId, row);
+    // The roster answers coordinators with addresses; the board never carries them.
+    for (const { mailingAddress: _address, ...row } of roster.rows) expect(board.get(row.userId)).toEqual(row);
+    expect(sent.at(-1)!.change.patch!.totals).toEqual(roster.totals);
+  });
+});
