@@ -1,7 +1,8 @@
 import type { Request, RequestHandler, Response } from 'express';
-import type { z, ZodType } from 'zod';
+import type { z, ZodError, ZodType } from 'zod';
 import { zodFields } from '@shared/schemas/errors';
-import { ValidationError } from './errors';
+import { ID_TOO_LARGE } from '@shared/schemas/ids';
+import { NotFoundError, ValidationError } from './errors';
 
 type Part = 'params' | 'query' | 'body';
 /** The parsed type of an optional schema; `undefined` where the route declares none. */
@@ -29,6 +30,14 @@ export interface RouteInput<P, Q, B, A> {
 }
 
 /**
+ * A path naming an id too large to exist (at or above 2^31) is a path to nothing: 404, as for any
+ * other id that does not exist, never a database error.
+ */
+export function assertPathIdsExist(part: Part, error: ZodError) {
+  if (part === 'params' && error.issues.some((issue) => issue.message === ID_TOO_LARGE)) throw new NotFoundError(ID_TOO_LARGE);
+}
+
+/**
  * Parses the named parts of the request with their schemas; every field that fails is reported in
  * one validation error. The parsed values replace the raw ones on `req` as well.
  */
@@ -40,6 +49,7 @@ function parse(req: Request, schemas: Partial<Record<Part, ZodType>>, parts: rea
     if (!schema) continue;
     const result = schema.safeParse(req[part] ?? {});
     if (!result.success) {
+      assertPathIdsExist(part, result.error);
       Object.assign(fields, zodFields(result.error));
       continue;
     }

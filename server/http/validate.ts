@@ -1,16 +1,8 @@
 import type { RequestHandler } from 'express';
-import type { ZodError, ZodType } from 'zod';
-import { NotFoundError, ValidationError } from './errors';
+import type { ZodType } from 'zod';
+import { ValidationError } from './errors';
 import { zodFields } from '@shared/schemas/errors';
-import { ID_TOO_LARGE } from '@shared/schemas/ids';
-
-/**
- * A path naming an id too large to exist (at or above 2^31) is a path to nothing: 404, as for any
- * other id that does not exist, never a database error.
- */
-export function assertPathIdsExist(part: 'params' | 'query' | 'body', error: ZodError) {
-  if (part === 'params' && error.issues.some((issue) => issue.message === ID_TOO_LARGE)) throw new NotFoundError(ID_TOO_LARGE);
-}
+import { assertPathIdsExist } from './route';
 
 interface Schemas {
   body?: ZodType;
