@@ -105,16 +105,28 @@ export async function deliverMessage(deps: DeliveryDeps, id: number): Promise<De
   }
   if (check.send === 'rewritten') {
     const { subject, text, html } = check.mail;
-    await deps.pool.query(`UPDATE mail_messages SET subject = $2, text_body = $3, html_body = $4, updated_at = now() WHERE id = $1`, [id, subject.slice(0, 300), text, html]);
+    await deps.pool.query(
+      `UPDATE mail_messages SET subject = $2, text_body = $3, html_body = $4, updated_at = now() WHERE id = $1`,
+      [id, subject.slice(0, 300), text, html],
+    );
     Object.assign(row, { subject: subject.slice(0, 300), text_body: text, html_body: html });
   }
 
   const headers =
     row.category !== 'account' && row.user_id !== null
-      ? unsubscribeHeaders(deps.config.PUBLIC_URL, unsubscribeToken(deps.config.SESSION_SECRET, row.user_id, row.category as MailCategory))
+      ? unsubscribeHeaders(
+          deps.config.PUBLIC_URL,
+          unsubscribeToken(deps.config.SESSION_SECRET, row.user_id, row.category as MailCategory),
+        )
       : undefined;
   try {
-    const info = await deps.mailer.send({ to: row.to_address, subject: row.subject, text: row.text_body, html: row.html_body, headers });
+    const info = await deps.mailer.send({
+      to: row.to_address,
+      subject: row.subject,
+      text: row.text_body,
+      html: row.html_body,
+      headers,
+    });
     await finish('sent', null, info.messageId);
     return 'sent';
   } catch (error) {

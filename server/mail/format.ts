@@ -6,7 +6,14 @@ import type { Units } from '@shared/schemas/auth';
 export function mailDate(date: Date | string, timeZone: string, withTime = true): string {
   // Built from parts: ICU versions differ on commas in the long English form.
   const parts = new Intl.DateTimeFormat('en-GB', {
-    timeZone, weekday: 'long', day: 'numeric', month: 'long', year: 'numeric', hour: 'numeric', minute: '2-digit', hourCycle: 'h12',
+    timeZone,
+    weekday: 'long',
+    day: 'numeric',
+    month: 'long',
+    year: 'numeric',
+    hour: 'numeric',
+    minute: '2-digit',
+    hourCycle: 'h12',
   }).formatToParts(new Date(date));
   const part = (type: Intl.DateTimeFormatPartTypes) => parts.find((p) => p.type === type)?.value ?? '';
   const day = `${part('weekday')} ${part('day')} ${part('month')} ${part('year')}`;

@@ -41,7 +41,12 @@ const INSERT = `
  * Records each message once and queues its delivery; a key seen before is left alone. `writtenFor`
  * is the moment the words were worked out for (now, unless a sweep was run for another time).
  */
-export async function recordAndQueue(pool: pg.Pool, boss: PgBoss, records: OutgoingRecord[], writtenFor?: Date): Promise<RecordResult> {
+export async function recordAndQueue(
+  pool: pg.Pool,
+  boss: PgBoss,
+  records: OutgoingRecord[],
+  writtenFor?: Date,
+): Promise<RecordResult> {
   const result: RecordResult = { queued: 0, skipped: 0, existing: 0 };
   for (const r of records) {
     const client = await pool.connect();
@@ -49,7 +54,19 @@ export async function recordAndQueue(pool: pg.Pool, boss: PgBoss, records: Outgo
       await client.query('BEGIN');
       const status = r.skipReason ? 'skipped' : 'queued';
       const inserted = await client.query<{ id: number }>(INSERT, [
-        r.key, r.category, r.kind, r.guildId, r.swapId, r.userId, r.to, r.mail.subject.slice(0, 300), r.mail.text, r.mail.html, status, r.skipReason ?? null, writtenFor ?? null,
+        r.key,
+        r.category,
+        r.kind,
+        r.guildId,
+        r.swapId,
+        r.userId,
+        r.to,
+        r.mail.subject.slice(0, 300),
+        r.mail.text,
+        r.mail.html,
+        status,
+        r.skipReason ?? null,
+        writtenFor ?? null,
       ]);
       const id = inserted.rows[0]?.id;
       if (id !== undefined && status === 'queued') {

@@ -2,7 +2,18 @@
 import { renderMail } from '../render';
 import { recordAndQueue, type RecordResult } from '../outbox';
 import type { Guild, Swap } from '../../db/models';
-import { frameFor, giftName, guildMembers, loadSwap, recordsFor, swapUrl, type ComposeDeps, type Drafted, type MailConfig, type Recipient } from './context';
+import {
+  frameFor,
+  giftName,
+  guildMembers,
+  loadSwap,
+  recordsFor,
+  swapUrl,
+  type ComposeDeps,
+  type Drafted,
+  type MailConfig,
+  type Recipient,
+} from './context';
 import { swapView } from './swap-view';
 
 const NOTHING: RecordResult = { queued: 0, skipped: 0, existing: 0 };
@@ -33,12 +44,19 @@ export async function composeAnnouncement(deps: ComposeDeps, swapId: number, now
   const { swap, guild } = loaded;
   const members = await guildMembers(guild.id);
   const gift = await giftName(swap);
-  const records = await recordsFor('announcements', { guildId: guild.id, swapId: swap.id }, members, (r) => draftAnnouncement(deps.config, swap, guild, gift, r, now));
+  const records = await recordsFor('announcements', { guildId: guild.id, swapId: swap.id }, members, (r) =>
+    draftAnnouncement(deps.config, swap, guild, gift, r, now),
+  );
   return recordAndQueue(deps.pool, deps.boss, records, now);
 }
 
 /** One member's announcement as it reads now; null once sign-up is closed or they left the guild. */
-export async function announcementDraft(config: MailConfig, swapId: number, userId: number, now = new Date()): Promise<Drafted | null> {
+export async function announcementDraft(
+  config: MailConfig,
+  swapId: number,
+  userId: number,
+  now = new Date(),
+): Promise<Drafted | null> {
   const loaded = await loadSwap(swapId);
   if (!loaded || loaded.swap.state !== 'signup' || loaded.swap.signupClosesAt <= now) return null;
   const member = (await guildMembers(loaded.guild.id)).find((m) => m.id === userId);

@@ -33,7 +33,8 @@ export interface Recipient {
 const base = (config: Pick<Config, 'PUBLIC_URL'>) => config.PUBLIC_URL.replace(/\/$/, '');
 
 export const appUrl = (config: Pick<Config, 'PUBLIC_URL'>, path: string) => `${base(config)}${path}`;
-export const swapUrl = (config: Pick<Config, 'PUBLIC_URL'>, guildId: number, swapId: number) => appUrl(config, `/guilds/${guildId}/swaps/${swapId}`);
+export const swapUrl = (config: Pick<Config, 'PUBLIC_URL'>, guildId: number, swapId: number) =>
+  appUrl(config, `/guilds/${guildId}/swaps/${swapId}`);
 export const preferencesUrl = (config: Pick<Config, 'PUBLIC_URL'>) => appUrl(config, '/settings/email');
 
 /** The layout frame for a message in a category, with that person's unsubscribe link. */
@@ -75,7 +76,8 @@ export async function guildMembers(guildId: number, roles?: Role[]): Promise<Rec
 /** Who a gift swap's blocks go to, by name. */
 export async function giftName(swap: Swap): Promise<string | null> {
   if (swap.mode !== 'gift') return null;
-  if (swap.giftRecipientId) return (await User.findByPk(swap.giftRecipientId, { attributes: ['displayName'] }))?.displayName ?? null;
+  if (swap.giftRecipientId)
+    return (await User.findByPk(swap.giftRecipientId, { attributes: ['displayName'] }))?.displayName ?? null;
   return swap.giftRecipientName ?? null;
 }
 
@@ -101,7 +103,10 @@ export async function recordsFor(
   recipients: Recipient[],
   draft: (r: Recipient) => Drafted,
 ): Promise<OutgoingRecord[]> {
-  const off = await optedOut(recipients.map((r) => r.id), category);
+  const off = await optedOut(
+    recipients.map((r) => r.id),
+    category,
+  );
   return recipients.map((r) => {
     const d = draft(r);
     return {

@@ -76,7 +76,8 @@ export function changeLines(w: WeekCounts, timeZone: string): string[] {
   const lines = w.transitions.map(
     (t) => `Moved from ${swapStateShort[t.from_state!]} to ${swapStateShort[t.to_state]} on ${mailDate(t.at, timeZone, false)}.`,
   );
-  if (w.signups.joined) lines.push(`${plural(w.signups.joined, 'new sign-up')} (${plural(w.signups.joined_blocks, 'block')} pledged).`);
+  if (w.signups.joined)
+    lines.push(`${plural(w.signups.joined, 'new sign-up')} (${plural(w.signups.joined_blocks, 'block')} pledged).`);
   if (w.signups.withdrawn) lines.push(`${plural(w.signups.withdrawn, 'member')} withdrew.`);
   if (w.blocks.sewn) lines.push(`${plural(w.blocks.sewn, 'block')} marked sewn.`);
   if (w.blocks.handed_in) lines.push(`${plural(w.blocks.handed_in, 'block')} handed in.`);
@@ -93,8 +94,10 @@ export function changeLines(w: WeekCounts, timeZone: string): string[] {
 }
 
 function nextDeadline(swap: Swap, timeZone: string, now: Date): string | null {
-  if (swap.state === 'signup' && swap.signupClosesAt > now) return `sign-up closes ${inDays(daysUntil(swap.signupClosesAt, now, timeZone))}, ${mailDate(swap.signupClosesAt, timeZone, false)}`;
-  if (['signup', 'sewing', 'collecting'].includes(swap.state) && swap.dueAt > now) return `blocks due ${inDays(daysUntil(swap.dueAt, now, timeZone))}, ${mailDate(swap.dueAt, timeZone, false)}`;
+  if (swap.state === 'signup' && swap.signupClosesAt > now)
+    return `sign-up closes ${inDays(daysUntil(swap.signupClosesAt, now, timeZone))}, ${mailDate(swap.signupClosesAt, timeZone, false)}`;
+  if (['signup', 'sewing', 'collecting'].includes(swap.state) && swap.dueAt > now)
+    return `blocks due ${inDays(daysUntil(swap.dueAt, now, timeZone))}, ${mailDate(swap.dueAt, timeZone, false)}`;
   return null;
 }
 
@@ -150,7 +153,9 @@ async function digestForGuild(deps: ComposeDeps, guild: Guild, from: Date, now: 
 export async function composeDigests(deps: ComposeDeps, now = new Date()): Promise<RecordResult> {
   const from = new Date(now.getTime() - WEEK_MS);
   const total: RecordResult = { queued: 0, skipped: 0, existing: 0 };
-  const guildIds = (await Swap.findAll({ attributes: ['guildId'], where: { state: { [Op.ne]: 'draft' } }, group: ['guildId'] })).map((s) => s.guildId);
+  const guildIds = (
+    await Swap.findAll({ attributes: ['guildId'], where: { state: { [Op.ne]: 'draft' } }, group: ['guildId'] })
+  ).map((s) => s.guildId);
   for (const guild of await Guild.findAll({ where: { id: { [Op.in]: guildIds } }, order: [['id', 'ASC']] })) {
     const r = await digestForGuild(deps, guild, from, now);
     total.queued += r.queued;

@@ -4,7 +4,17 @@ import { Swap } from '../../db/models';
 import { plural } from '../format';
 import { renderMail } from '../render';
 import { recordAndQueue, type RecordResult } from '../outbox';
-import { frameFor, loadSwap, recordsFor, swapUrl, usersByIds, type ComposeDeps, type Drafted, type MailConfig, type Recipient } from './context';
+import {
+  frameFor,
+  loadSwap,
+  recordsFor,
+  swapUrl,
+  usersByIds,
+  type ComposeDeps,
+  type Drafted,
+  type MailConfig,
+  type Recipient,
+} from './context';
 import { composeReceipt } from './receipt';
 
 interface Share {
@@ -44,7 +54,11 @@ export interface DistributionDrafts {
  * Each recipient's notice as it reads now (only `onlyUserId`'s when given), or null when the return
  * is not confirmed. Used to compose and, at send time, to check a queued notice.
  */
-export async function distributionDrafts(config: MailConfig, swapId: number, onlyUserId?: number): Promise<DistributionDrafts | null> {
+export async function distributionDrafts(
+  config: MailConfig,
+  swapId: number,
+  onlyUserId?: number,
+): Promise<DistributionDrafts | null> {
   const loaded = await loadSwap(swapId);
   if (!loaded || !loaded.swap.distributionConfirmedAt || loaded.swap.state === 'cancelled') return null;
   const { swap, guild } = loaded;
@@ -94,6 +108,11 @@ export async function composeDistribution(deps: ComposeDeps, swapId: number): Pr
   for (const m of makers) await composeReceipt(deps, swapId, m.maker_id);
   const drafts = await distributionDrafts(deps.config, swapId);
   if (!drafts) return { queued: 0, skipped: 0, existing: 0 };
-  const records = await recordsFor('distribution', { guildId: drafts.guildId, swapId: drafts.swapId }, drafts.recipients, drafts.draft);
+  const records = await recordsFor(
+    'distribution',
+    { guildId: drafts.guildId, swapId: drafts.swapId },
+    drafts.recipients,
+    drafts.draft,
+  );
   return recordAndQueue(deps.pool, deps.boss, records);
 }

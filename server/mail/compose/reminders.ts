@@ -9,7 +9,16 @@ import { Guild, Swap } from '../../db/models';
 import { localDateKey, plural } from '../format';
 import { renderMail } from '../render';
 import { recordAndQueue, type RecordResult } from '../outbox';
-import { frameFor, recordsFor, swapUrl, usersByIds, type ComposeDeps, type Drafted, type MailConfig, type Recipient } from './context';
+import {
+  frameFor,
+  recordsFor,
+  swapUrl,
+  usersByIds,
+  type ComposeDeps,
+  type Drafted,
+  type MailConfig,
+  type Recipient,
+} from './context';
 import { swapView } from './swap-view';
 
 const DAY_MS = 86_400_000;
@@ -37,7 +46,12 @@ export async function debtsOf(swapId: number, guildId: number): Promise<Debt[]> 
       ORDER BY s.user_id`,
     { bind: { swapId, guildId }, type: QueryTypes.SELECT },
   );
-  return rows.map((r) => ({ userId: r.user_id, pledged: Number(r.pledged), handedIn: Number(r.handed_in), owed: Number(r.owed) }));
+  return rows.map((r) => ({
+    userId: r.user_id,
+    pledged: Number(r.pledged),
+    handedIn: Number(r.handed_in),
+    owed: Number(r.owed),
+  }));
 }
 
 /** True from `days` days before the deadline until the deadline; 0 days means no reminder. */
@@ -77,12 +91,27 @@ function draftReminder(config: MailConfig, swap: Swap, guild: Guild, which: Whic
   const template = which === 'signup' ? 'signup-reminder' : 'due-reminder';
   const text =
     which === 'signup'
-      ? { subject: `Sign-up for ${swap.title} closes ${view.signupClosesIn}`, heading: `Sign-up closes ${view.signupClosesIn}`, preheader: `You still owe ${owedText}.` }
-      : { subject: `${owedText} still to hand in for ${swap.title}, due ${view.dueIn}`, heading: `Blocks due ${view.dueIn}`, preheader: `You still have ${owedText} to hand in.` };
+      ? {
+          subject: `Sign-up for ${swap.title} closes ${view.signupClosesIn}`,
+          heading: `Sign-up closes ${view.signupClosesIn}`,
+          preheader: `You still owe ${owedText}.`,
+        }
+      : {
+          subject: `${owedText} still to hand in for ${swap.title}, due ${view.dueIn}`,
+          heading: `Blocks due ${view.dueIn}`,
+          preheader: `You still have ${owedText} to hand in.`,
+        };
   return {
     key: `swap:${swap.id}:${template}:${dateKey}:user:${r.id}`,
     kind: template,
-    mail: renderMail(template, data, frameFor(config, r.id, 'reminders', { ...text, reason: `You get this because you pledged blocks to a swap in ${guild.name}.` })),
+    mail: renderMail(
+      template,
+      data,
+      frameFor(config, r.id, 'reminders', {
+        ...text,
+        reason: `You get this because you pledged blocks to a swap in ${guild.name}.`,
+      }),
+    ),
   };
 }
 
@@ -101,7 +130,13 @@ async function remind(deps: ComposeDeps, swap: Swap, guild: Guild, which: Which,
  * One member's reminder as it reads now, or null when it no longer applies: the swap moved on, the
  * deadline passed or the member owes nothing. Used at send time to check a queued reminder.
  */
-export async function reminderDraft(config: MailConfig, swapId: number, userId: number, which: Which, now = new Date()): Promise<Drafted | null> {
+export async function reminderDraft(
+  config: MailConfig,
+  swapId: number,
+  userId: number,
+  which: Which,
+  now = new Date(),
+): Promise<Drafted | null> {
   const swap = await Swap.findByPk(swapId);
   if (!swap || !reminderApplies(swap, which, now)) return null;
   const guild = await Guild.findByPk(swap.guildId);
@@ -127,7 +162,9 @@ export async function composeReminders(deps: ComposeDeps, now = new Date()): Pro
       [Op.or]: [{ signupClosesAt: { [Op.between]: [now, horizon] } }, { dueAt: { [Op.between]: [now, horizon] } }],
     },
   });
-  const guilds = new Map((await Guild.findAll({ where: { id: { [Op.in]: [...new Set(swaps.map((s) => s.guildId))] } } })).map((g) => [g.id, g]));
+  const guilds = new Map(
+    (await Guild.findAll({ where: { id: { [Op.in]: [...new Set(swaps.map((s) => s.guildId))] } } })).map((g) => [g.id, g]),
+  );
   for (const swap of swaps) {
     const guild = guilds.get(swap.guildId);
     if (!guild) continue;

@@ -5,7 +5,17 @@ import { mailLength, mailSize, mailYards, plural } from '../format';
 import { pledgePlan, type PledgePlan } from '../cutting-plan';
 import { renderMail } from '../render';
 import { recordAndQueue, type RecordResult } from '../outbox';
-import { frameFor, loadSwap, recordsFor, swapUrl, usersByIds, type ComposeDeps, type Drafted, type MailConfig, type Recipient } from './context';
+import {
+  frameFor,
+  loadSwap,
+  recordsFor,
+  swapUrl,
+  usersByIds,
+  type ComposeDeps,
+  type Drafted,
+  type MailConfig,
+  type Recipient,
+} from './context';
 import { swapView } from './swap-view';
 
 /** The plan with every length written out in the reader's units. */
@@ -23,7 +33,12 @@ export function planView(plan: PledgePlan, units: Units) {
   };
 }
 
-async function confirmationDraft(config: MailConfig, swapId: number, userId: number, now: Date): Promise<{ guildId: number; swapId: number; user: Recipient; drafted: Drafted } | null> {
+async function confirmationDraft(
+  config: MailConfig,
+  swapId: number,
+  userId: number,
+  now: Date,
+): Promise<{ guildId: number; swapId: number; user: Recipient; drafted: Drafted } | null> {
   const [loaded, signup] = await Promise.all([loadSwap(swapId), Signup.findOne({ where: { swapId, userId, status: 'active' } })]);
   if (!loaded || !signup || signup.blocks < 1) return null;
   const { swap, guild } = loaded;
@@ -65,7 +80,12 @@ async function confirmationDraft(config: MailConfig, swapId: number, userId: num
 }
 
 /** One member's confirmation as it reads now; null once they withdrew or the swap moved past sewing. */
-export async function signupConfirmationDraft(config: MailConfig, swapId: number, userId: number, now = new Date()): Promise<Drafted | null> {
+export async function signupConfirmationDraft(
+  config: MailConfig,
+  swapId: number,
+  userId: number,
+  now = new Date(),
+): Promise<Drafted | null> {
   return (await confirmationDraft(config, swapId, userId, now))?.drafted ?? null;
 }
 
@@ -73,9 +93,19 @@ export async function signupConfirmationDraft(config: MailConfig, swapId: number
  * Confirms a member's current pledge. The key carries the pledge, so changing 4 → 5 blocks sends a
  * new plan while a repeated event for the same pledge sends nothing.
  */
-export async function composeSignupConfirmation(deps: ComposeDeps, swapId: number, userId: number, now = new Date()): Promise<RecordResult> {
+export async function composeSignupConfirmation(
+  deps: ComposeDeps,
+  swapId: number,
+  userId: number,
+  now = new Date(),
+): Promise<RecordResult> {
   const draft = await confirmationDraft(deps.config, swapId, userId, now);
   if (!draft) return { queued: 0, skipped: 0, existing: 0 };
-  const records = await recordsFor('signup-confirmations', { guildId: draft.guildId, swapId: draft.swapId }, [draft.user], () => draft.drafted);
+  const records = await recordsFor(
+    'signup-confirmations',
+    { guildId: draft.guildId, swapId: draft.swapId },
+    [draft.user],
+    () => draft.drafted,
+  );
   return recordAndQueue(deps.pool, deps.boss, records, now);
 }
