@@ -12,7 +12,7 @@ const API = `blockpost-api-${VERSION}`;
 const KEEP = [SHELL, ASSETS, API];
 
 const SHELL_URLS = ['/', '/manifest.webmanifest', '/blockpost-mark.svg', '/icons/icon-192.png'];
-const API_FALLBACK = [/^\/api\/me$/, /^\/api\/guilds\/\d+$/, /^\/api\/swaps\/\d+\/intake$/];
+const API_FALLBACK = [/^\/api\/session$/, /^\/api\/guilds\/\d+$/, /^\/api\/swaps\/\d+\/intake$/];
 
 self.addEventListener('install', (event) => {
   event.waitUntil(

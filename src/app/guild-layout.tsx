@@ -5,7 +5,7 @@ import { Loading, QueryError } from '@/components/ui/page';
 import { paths } from '@/lib/paths';
 
 const tabClass = ({ isActive }: { isActive: boolean }) =>
-  `inline-flex min-h-11 items-center border-b-4 px-3 font-semibold ${isActive ? 'border-madder text-walnut' : 'border-transparent text-indigo hover:border-walnut/20'}`;
+  `inline-flex min-h-11 items-center justify-center border-b-4 px-2 font-semibold sm:justify-start sm:px-3 ${isActive ? 'border-madder text-walnut' : 'border-transparent text-indigo hover:border-walnut/20'}`;
 
 /** The guild's name, the caller's role and the guild's sections. */
 export function GuildLayout() {
@@ -21,7 +21,7 @@ export function GuildLayout() {
       <div className="mb-6 print:hidden">
         <p className="text-walnut-soft">{roleLabels[guild.data.myRole]}</p>
         <h1 className="text-3xl font-bold text-indigo-deep sm:text-4xl">{guild.data.name}</h1>
-        <nav aria-label="Guild sections" className="mt-4 flex flex-wrap gap-1 border-b border-walnut/15">
+        <nav aria-label="Guild sections" className="mt-4 grid grid-cols-3 gap-x-1 border-b border-walnut/15 sm:flex sm:flex-wrap">
           <NavLink end to={paths.guild(guildId)} className={() => tabClass({ isActive: onSwaps })}>Swaps</NavLink>
           <NavLink to={paths.about(guildId)} className={tabClass}>About</NavLink>
           <NavLink to={paths.members(guildId)} className={tabClass}>Members</NavLink>

@@ -2,6 +2,7 @@ import { createBrowserRouter, Navigate, type RouteObject } from 'react-router';
 import { AppShell } from './app-shell';
 import { RedirectIfSignedIn, RequireSignedIn } from './guards';
 import { RouteError } from './route-error';
+import { Loading } from '@/components/ui/page';
 import { paths } from '@/lib/paths';
 import { useMe } from '@/entities/me/api/get-me';
 
@@ -23,6 +24,8 @@ async function photoMeasureInUnits() {
 export const routes: RouteObject[] = [
   {
     element: <AppShell />,
+    // Shown while the first page's code loads, so the frame appears at once and the router has a fallback.
+    hydrateFallbackElement: <AppShell hydrating />,
     errorElement: <RouteError />,
     children: [
       { index: true, lazy: () => import('./welcome-page').then((m) => ({ Component: m.WelcomePage })) },
@@ -40,7 +43,7 @@ export const routes: RouteObject[] = [
       {
         element: <RequireSignedIn />,
         children: [
-          { path: paths.guilds, lazy: () => import('@/features/guilds/components/guild-list-page').then((m) => ({ Component: m.GuildListPage })) },
+          { path: paths.guilds, lazy: () => import('./home-route').then((m) => ({ Component: m.HomeRoute })) },
           { path: paths.settings, lazy: () => import('@/features/auth/components/settings-page').then((m) => ({ Component: m.SettingsPage })) },
           { path: paths.mailPreferences, lazy: () => import('@/features/notifications/components/mail-preferences-page').then((m) => ({ Component: m.MailPreferencesPage })) },
           { path: paths.planner, lazy: () => import('./planner-route').then((m) => ({ Component: m.PlannerRoute })) },
@@ -83,6 +86,7 @@ export const routes: RouteObject[] = [
   // Label sheets print on their own, without the app's frame around them.
   {
     element: <RequireSignedIn />,
+    hydrateFallbackElement: <Loading />,
     errorElement: <RouteError />,
     children: [{ path: paths.swapLabels(), lazy: () => import('@/features/intake/components/labels-page').then((m) => ({ Component: m.LabelsPage })) }],
   },

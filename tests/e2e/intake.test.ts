@@ -321,7 +321,7 @@ describe('signing out', () => {
         });
         return { api: api.map((r) => new URL(r.url).pathname).sort(), packs };
       });
-    expect(await kept()).toEqual({ api: ['/api/guilds/' + guildId, '/api/me', `/api/swaps/${swapId}/intake`].sort(), packs: 1 });
+    expect(await kept()).toEqual({ api: ['/api/guilds/' + guildId, '/api/session', `/api/swaps/${swapId}/intake`].sort(), packs: 1 });
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.waitForURL((url) => url.pathname === '/sign-in');
     await page.getByRole('heading', { name: /sign in/i }).waitFor();

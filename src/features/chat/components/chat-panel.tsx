@@ -1,4 +1,7 @@
+import { useEffect } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
 import { Card } from '@/components/ui/card';
+import { markRoomSeen } from '@/entities/me/api/mark-room-seen';
 import { Alert } from '@/components/ui/alert';
 import { Loading, QueryError } from '@/components/ui/page';
 import { useLiveStatus } from '@/lib/socket';
@@ -23,6 +26,12 @@ export function ChatPanel({ roomId, title = 'Chat' }: { roomId: number; title?: 
   const room = useChatRoom(roomId);
   const live = useChatLive(roomId, room.data?.viewerId);
   const status = useLiveStatus();
+  const queryClient = useQueryClient();
+  // Opening the room and leaving it both count as having read it, for the home screen's unread counts.
+  useEffect(() => {
+    void markRoomSeen(queryClient, roomId);
+    return () => void markRoomSeen(queryClient, roomId);
+  }, [queryClient, roomId]);
   if (room.isPending) return <Loading label="Opening the chat…" />;
   if (room.isError) return <QueryError error={room.error} what="the chat" />;
   const others = live.viewers.filter((v) => v.userId !== room.data.viewerId).map((v) => v.displayName);
