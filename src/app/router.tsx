@@ -64,6 +64,7 @@ export const routes: RouteObject[] = [
                   { path: 'return', lazy: () => import('@/features/swaps/components/distribution-page').then((m) => ({ Component: m.DistributionPage })) },
                   { path: 'sheet', lazy: () => import('@/features/swaps/components/swap-sheet-page').then((m) => ({ Component: m.SwapSheetPage })) },
                   { path: 'edit', lazy: () => import('@/features/swaps/components/setup/swap-setup-page').then((m) => ({ Component: m.EditSwapPage })) },
+                  { path: 'design', lazy: () => import('@/features/design-wall/components/design-wall-page').then((m) => ({ Component: m.DesignWallPage })) },
                 ],
               },
               { path: 'members', lazy: () => import('@/features/guilds/components/members-page').then((m) => ({ Component: m.MembersPage })) },

@@ -17,6 +17,7 @@ export const paths = {
   swapRoster: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/roster`,
   swapReturn: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/return`,
   swapSheet: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/sheet`,
+  swapDesign: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/design`,
   sewDays: (guildId: number | string = ':guildId') => `/guilds/${guildId}/sew-days`,
   newSewDay: (guildId: number | string = ':guildId') => `/guilds/${guildId}/sew-days/new`,
   sewDay: (guildId: number | string = ':guildId', sewDayId: number | string = ':sewDayId') => `/guilds/${guildId}/sew-days/${sewDayId}`,

@@ -42,6 +42,11 @@ export function SwapLayout() {
           <NavLink to={paths.swapSheet(guildId, swapId)} className={tabClass}>
             Swap sheet
           </NavLink>
+          {['sewing', 'collecting', 'sorting', 'complete'].includes(s.state) && (
+            <NavLink to={paths.swapDesign(guildId, swapId)} className={tabClass}>
+              Design wall
+            </NavLink>
+          )}
           {(s.myPledge > 0 || s.canManage) && ['signup', 'sewing', 'collecting'].includes(s.state) && (
             <NavLink to={paths.swapLabels(guildId, swapId)} className={tabClass}>
               Labels
