@@ -23,6 +23,8 @@ import { boardRouter } from './board/board.routes';
 import { photoEstimatesRouter } from './photo-estimates/photo-estimates.routes';
 import { intakeRouter } from './intake/intake.routes';
 import { homeRouter } from './home/home.routes';
+import { designsRouter } from './designs/designs.routes';
+import { photoColourBackfillFeature } from './uploads/photo-colour';
 
 export type FeatureRouter = (deps: AppDeps) => Router;
 
@@ -53,10 +55,11 @@ export const featureRouters: FeatureRouter[] = [
   intakeRouter,
   photoEstimatesRouter,
   homeRouter,
+  designsRouter,
 ];
 
 /** The socket.io server with every live part: swap boards, sew-day and swap chat. */
 const liveFeature = liveStartup([boardLive(), chatLive]);
 
 // The photo store's owner check comes first: a store that is another install's stops the start untouched.
-export const featureStartups: FeatureStartup[] = [photoStoreFeature, liveFeature, mailJobsFeature];
+export const featureStartups: FeatureStartup[] = [photoStoreFeature, liveFeature, mailJobsFeature, photoColourBackfillFeature];
