@@ -8,14 +8,12 @@
  * names) and BENCH_PROFILE_DIR (a folder for the app's `node --cpu-prof` profile; summarise it with
  * `npx tsx bench/profile.ts <file>`) adjust it.
  */
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
 import { freePort } from '../scripts/lib/ports';
 import type { LoadOptions, LoadResult } from './load';
 import { clusterCpuSeconds, cpuSeconds, runNodeScript, startNodeServer, type NodeProcess } from './lib/processes';
 import { median, round, withSpread } from './lib/stats';
+import { startAppProcess } from './lib/app';
 import { seedSwap, signIn, type SeededSwap } from './lib/seed';
 
 type Row = Record<string, string | number>;
@@ -51,29 +49,9 @@ export async function runApiBench(
   const runs = opts.runs ?? 3;
   const cluster = await startThrowawayCluster('blockpost-bench-');
   const servers: Partial<Record<ServerKey, NodeProcess>> = {};
-  // Its own photo store: the app refuses one that belongs to another database.
-  const uploads = mkdtempSync(join(tmpdir(), 'blockpost-bench-uploads-'));
   try {
     const databaseUrl = await cluster.database('bench');
-    servers.app = await startNodeServer({
-      name: 'app',
-      script: 'server/index.ts',
-      port: await freePort(),
-      readyPath: '/api/health',
-      nodeArgs: opts.profileDir ? ['--cpu-prof', `--cpu-prof-dir=${opts.profileDir}`] : [],
-      env: {
-        NODE_ENV: 'production',
-        DATABASE_URL: databaseUrl,
-        SESSION_SECRET: 'bench-secret-bench-secret',
-        HOST: '127.0.0.1',
-        LOG_LEVEL: 'warn',
-        SERVE_CLIENT: 'false',
-        JOBS: 'false',
-        SMTP_URL: 'smtp://127.0.0.1:9',
-        LOGIN_RATE_LIMIT: '1000',
-        UPLOAD_DIR: uploads,
-      },
-    });
+    servers.app = await startAppProcess(databaseUrl, { profileDir: opts.profileDir });
     const bareEnv = { DATABASE_URL: databaseUrl, NODE_ENV: 'production' };
     servers.express = await startNodeServer({
       name: 'bare Express',
@@ -244,7 +222,6 @@ export async function runApiBench(
   } finally {
     for (const s of SERVERS) await servers[s]?.stop().catch(() => undefined);
     cluster.stop();
-    rmSync(uploads, { recursive: true, force: true });
   }
 }
 

@@ -6,6 +6,7 @@ import { writeFileSync } from 'node:fs';
 import { cpus, totalmem, release } from 'node:os';
 import { runBundleBench } from './bundle';
 import { runApiBench, type ApiBenchResult } from './api';
+import { runLiveBurstBench } from './live-burst';
 
 type Row = Record<string, string | number | undefined>;
 interface Section {
@@ -74,6 +75,11 @@ if (runLiveBench)
     'From the database commit to receipt on every socket; target p95 < 50 ms.',
     runLiveBench,
   );
+await section(
+  'Live board under a burst (app in its own process)',
+  '10 intake stations measure as fast as the app answers while 200 sockets watch the board. Commit → receipt is timed from the measurement’s recorded time (just before its commit) to each socket’s handler. Goals: at most one change per swap per 50 ms per node, p95 < 100 ms, no lost change, no version gap.',
+  () => runLiveBurstBench(),
+);
 await section(
   'Client bundle (gzip)',
   'Initial route JS target < 200 kB gzip; route chunks load on demand.',

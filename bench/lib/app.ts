@@ -1,0 +1,47 @@
+/** The app as production starts it (server/index.ts, NODE_ENV=production), in its own process for a benchmark. */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { freePort } from '../../scripts/lib/ports';
+import { startNodeServer, type NodeProcess } from './processes';
+
+/**
+ * Starts the app against `databaseUrl` with its own empty photo store. The job worker is off (it
+ * would try to send mail to nowhere) and logging is at warn, so no request writes a log line.
+ */
+export async function startAppProcess(databaseUrl: string, opts: { profileDir?: string } = {}): Promise<NodeProcess> {
+  // Its own photo store: the app refuses one that belongs to another database.
+  const uploads = mkdtempSync(join(tmpdir(), 'blockpost-bench-uploads-'));
+  const app = await startNodeServer({
+    name: 'app',
+    script: 'server/index.ts',
+    port: await freePort(),
+    readyPath: '/api/health',
+    nodeArgs: opts.profileDir ? ['--cpu-prof', `--cpu-prof-dir=${opts.profileDir}`] : [],
+    env: {
+      NODE_ENV: 'production',
+      DATABASE_URL: databaseUrl,
+      SESSION_SECRET: 'bench-secret-bench-secret',
+      HOST: '127.0.0.1',
+      LOG_LEVEL: 'warn',
+      SERVE_CLIENT: 'false',
+      JOBS: 'false',
+      SMTP_URL: 'smtp://127.0.0.1:9',
+      UPLOAD_DIR: uploads,
+      // The bench signs in many stations and viewers from one address.
+      LOGIN_RATE_LIMIT: '100000',
+      LOGIN_IP_RATE_LIMIT: '100000',
+      REGISTER_RATE_LIMIT: '100000',
+    },
+  }).catch((error: unknown) => {
+    rmSync(uploads, { recursive: true, force: true });
+    throw error;
+  });
+  return {
+    ...app,
+    async stop() {
+      await app.stop();
+      rmSync(uploads, { recursive: true, force: true });
+    },
+  };
+}
