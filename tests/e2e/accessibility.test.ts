@@ -107,9 +107,13 @@ it('can be walked through by keyboard alone: sign in with Tab and Enter', async 
   await page.waitForURL('**/guilds');
   await page.getByRole('heading', { name: 'Your guilds' }).waitFor();
   await page.getByRole('link', { name: /^Kestrel Hollow Quilters/ }).waitFor(); // the list loads after the heading
-  // Focus moved to the new page's content, so the next Tab reaches the first guild, not the header.
+  // Focus moved to the new page's content, so the next Tab reaches the page (what is next, then the guilds), not the header.
   expect(await page.evaluate(() => document.activeElement?.id)).toBe('main');
   await page.keyboard.press('Tab');
+  expect(await page.evaluate(() => Boolean(document.activeElement?.closest('main')))).toBe(true);
+  for (let i = 0; i < 40 && !/^Kestrel Hollow Quilters/.test((await page.evaluate(() => document.activeElement?.textContent)) ?? ''); i++) {
+    await page.keyboard.press('Tab');
+  }
   expect(await page.evaluate(() => document.activeElement?.textContent)).toMatch(/^Kestrel Hollow Quilters/);
   await page.keyboard.press('Enter');
   await page.getByRole('heading', { name: 'Kestrel Hollow Quilters' }).waitFor();

@@ -35,8 +35,8 @@ export function MembersPage() {
             <Alert tone="error">{problem}</Alert>
           </div>
         )}
-        <div className="overflow-x-auto">
-          <table className="w-full min-w-[36rem] border-collapse text-left">
+        <div>
+          <table className="stack-table w-full border-collapse text-left">
             <caption className="sr-only">Guild members and their roles</caption>
             <thead>
               <tr className="border-b-2 border-walnut/20">
@@ -60,8 +60,8 @@ export function MembersPage() {
               {members.data.map((m) => (
                 <tr key={m.userId} className="border-b border-walnut/10">
                   <td className="py-3 pr-4 font-semibold">{m.displayName}</td>
-                  <td className="py-3 pr-4 break-all">{m.email}</td>
-                  <td className="py-3 pr-4">
+                  <td data-label="E-mail" className="py-3 pr-4 break-all">{m.email}</td>
+                  <td data-label="Role" className="py-3 pr-4">
                     {isAdmin ? (
                       <select
                         aria-label={`Role of ${m.displayName}`}

@@ -28,8 +28,8 @@ export function BlockResults({ plan, count, fmt }: { plan: BlockPlan; count: num
             <summary className="min-h-11 cursor-pointer font-semibold text-indigo">
               {plan.grid.patches.length} patches: cut, finished and visible sizes
             </summary>
-            <div className="overflow-x-auto">
-              <table className="w-full min-w-[28rem]">
+            <div>
+              <table className="stack-table w-full">
                 <thead>
                   <tr className="border-b-2 border-walnut/20">
                     <th className={th}>Row, column</th>
@@ -41,12 +41,18 @@ export function BlockResults({ plan, count, fmt }: { plan: BlockPlan; count: num
                 <tbody>
                   {plan.grid.patches.map((p) => (
                     <tr key={`${p.row}-${p.col}`} className="border-b border-walnut/10">
-                      <td className={td}>
+                      <td data-label="Row, column" className={td}>
                         {p.row + 1}, {p.col + 1}
                       </td>
-                      <td className={td}>{size(p.cut)}</td>
-                      <td className={td}>{size(p.finished)}</td>
-                      <td className={td}>{size(p.visibleInUnfinished)}</td>
+                      <td data-label="Cut" className={td}>
+                        {size(p.cut)}
+                      </td>
+                      <td data-label="Finished" className={td}>
+                        {size(p.finished)}
+                      </td>
+                      <td data-label="Shows in the block" className={td}>
+                        {size(p.visibleInUnfinished)}
+                      </td>
                     </tr>
                   ))}
                 </tbody>
@@ -90,8 +96,8 @@ function CutList({ plan, count, fmt, collapsed }: { plan: BlockPlan; count: numb
         <summary className="min-h-11 cursor-pointer font-semibold text-indigo">
           {collapsed ? 'Show the patch-by-patch cut list' : 'Pieces, strips and yardage'}
         </summary>
-        <div className="overflow-x-auto">
-          <table className="w-full min-w-[28rem]">
+        <div>
+          <table className="stack-table w-full">
             <thead>
               <tr className="border-b-2 border-walnut/20">
                 <th className={th}>Piece</th>
@@ -103,11 +109,15 @@ function CutList({ plan, count, fmt, collapsed }: { plan: BlockPlan; count: numb
               {plan.cuts.map((c, i) => (
                 <tr key={i} className="border-b border-walnut/10">
                   <td className={td}>
-                    {c.what}
+                    <span className="font-semibold sm:font-normal">{c.what}</span>
                     {c.note && <span className="block text-base text-walnut-soft">{c.note}</span>}
                   </td>
-                  <td className={td}>{size(c)}</td>
-                  <td className={td}>{c.count}</td>
+                  <td data-label="Size" className={td}>
+                    {size(c)}
+                  </td>
+                  <td data-label="How many" className={td}>
+                    {c.count}
+                  </td>
                 </tr>
               ))}
             </tbody>

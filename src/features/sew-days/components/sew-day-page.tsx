@@ -1,5 +1,5 @@
-import { useState, type ReactNode } from 'react';
-import { Link, useParams } from 'react-router';
+import { useEffect, useState, type ReactNode } from 'react';
+import { Link, useLocation, useParams } from 'react-router';
 import { rsvpAnswers, rsvpLabels } from '@shared/schemas/sewdays';
 import { Card } from '@/components/ui/card';
 import { Alert } from '@/components/ui/alert';
@@ -26,13 +26,26 @@ export function SewDayPage({ renderChat }: SewDayPageProps) {
   const sewDay = useSewDay(sewDayId);
   const cancel = useCancelSewDay(guildId, sewDayId);
   const [problem, setProblem] = useState('');
+  const { hash } = useLocation();
+  const ready = sewDay.isSuccess;
+  // A link to "#chat" (from the home screen) lands on the chat once the page has drawn it.
+  useEffect(() => {
+    if (ready && hash === '#chat') document.getElementById('chat')?.scrollIntoView();
+  }, [ready, hash]);
   if (sewDay.isPending) return <Loading label="Loading the sew day…" />;
   if (sewDay.isError) return <QueryError error={sewDay.error} what="the sew day" />;
   const s = sewDay.data;
 
   return (
     <div className="space-y-6">
-      <p><Link className="font-semibold text-indigo underline" to={paths.sewDays(guildId)}>← All sew days</Link></p>
+      <p className="flex flex-wrap justify-between gap-x-4">
+        <Link className="inline-flex min-h-11 items-center font-semibold text-indigo underline" to={paths.sewDays(guildId)}>← All sew days</Link>
+        {s.chatRoomId && renderChat && (
+          <a className="inline-flex min-h-11 items-center font-semibold text-indigo underline" href="#chat">
+            Go to the chat ↓
+          </a>
+        )}
+      </p>
       {s.cancelledAt && <Alert tone="warning" title="Cancelled">This sew day was cancelled. It stays here so nobody turns up by mistake.</Alert>}
       <Card
         title={s.title}
@@ -92,7 +105,11 @@ export function SewDayPage({ renderChat }: SewDayPageProps) {
 
       <SewDayCautions />
       <SwapBoards guildId={guildId} />
-      {s.chatRoomId && renderChat?.(s.chatRoomId)}
+      {s.chatRoomId && renderChat && (
+        <div id="chat" className="scroll-mt-4">
+          {renderChat(s.chatRoomId)}
+        </div>
+      )}
     </div>
   );
 }

@@ -26,13 +26,13 @@ export function SwapBoards({ guildId }: { guildId: number }) {
             </span>
             <span className="flex gap-4">
               <Link
-                className="inline-flex min-h-11 items-center font-semibold text-indigo underline"
+                className="inline-flex min-h-11 min-w-11 items-center justify-center font-semibold text-indigo underline"
                 to={paths.swapBoard(guildId, s.id)}
               >
                 Live board<span className="sr-only"> of {s.title}</span>
               </Link>
               <Link
-                className="inline-flex min-h-11 items-center font-semibold text-indigo underline"
+                className="inline-flex min-h-11 min-w-11 items-center justify-center font-semibold text-indigo underline"
                 to={paths.swapChat(guildId, s.id)}
               >
                 Chat<span className="sr-only"> about {s.title}</span>

@@ -17,8 +17,8 @@ export function CuttingPlanView({ plan, showYardage = true }: { plan: CuttingPla
   }
   return (
     <div className="space-y-6">
-      <div className="relative overflow-x-auto">
-        <table className="w-full min-w-[22rem] border-collapse">
+      <div className="relative">
+        <table className="stack-table w-full border-collapse">
           <caption className="mb-2 text-left font-semibold">
             Cut list for {plan.blocks} block{plan.blocks === 1 ? '' : 's'} (cut sizes, seam allowance included)
           </caption>
@@ -33,10 +33,10 @@ export function CuttingPlanView({ plan, showYardage = true }: { plan: CuttingPla
           <tbody>
             {plan.cuts.map((c, i) => (
               <tr key={i} className="border-b border-walnut/10">
-                <td className={td}>{c.fabric}</td>
-                <td className={td}>{c.what}</td>
-                <td className={td}>{len(c.width)} × {len(c.height)}</td>
-                <td className={`${td} text-right font-semibold`}>{c.count}</td>
+                <td data-label="Fabric" className={td}>{c.fabric}</td>
+                <td data-label="Piece" className={td}>{c.what}</td>
+                <td data-label="Cut size" className={td}>{len(c.width)} × {len(c.height)}</td>
+                <td data-label="How many" className={`${td} text-right font-semibold`}>{c.count}</td>
               </tr>
             ))}
           </tbody>

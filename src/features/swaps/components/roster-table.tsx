@@ -157,8 +157,43 @@ export function RosterTable({ swap, rows }: { swap: SwapDto; rows: RosterRowDto[
         </p>
       </div>
 
-      <div className="relative overflow-x-auto">
-        <table className="w-full min-w-[48rem] border-collapse text-left">
+      {/* On a phone the header row is hidden (the rows become cards), so sorting has its own control. */}
+      <div className="flex flex-wrap items-end gap-3 sm:hidden">
+        <label className="block">
+          <span className="block font-semibold">Sort by</span>
+          <select
+            className="mt-1 min-h-11 rounded-lg border-2 border-walnut/30 bg-white px-3"
+            value={table.state.sorting[0]?.id ?? 'displayName'}
+            onChange={(e) => table.setSorting([{ id: e.target.value, desc: table.state.sorting[0]?.desc ?? false }])}
+          >
+            {table.getAllLeafColumns().map((c) => (
+              <option key={c.id} value={c.id}>
+                {typeof c.columnDef.header === 'string' ? c.columnDef.header : c.id}
+              </option>
+            ))}
+          </select>
+        </label>
+        <Button
+          variant="secondary"
+          onClick={() =>
+            table.setSorting([
+              { id: table.state.sorting[0]?.id ?? 'displayName', desc: !(table.state.sorting[0]?.desc ?? false) },
+            ])
+          }
+        >
+          {(table.state.sorting[0]?.id ?? 'displayName') === 'displayName'
+            ? table.state.sorting[0]?.desc
+              ? 'Z to A'
+              : 'A to Z'
+            : table.state.sorting[0]?.desc
+              ? 'Most first'
+              : 'Fewest first'}
+          <span className="sr-only">, tap to reverse</span>
+        </Button>
+      </div>
+
+      <div className="relative sm:overflow-x-auto" tabIndex={0} role="region" aria-label="Roster table">
+        <table className="stack-table w-full border-collapse text-left sm:min-w-[48rem]">
           <caption className="sr-only">Roster of members, their block counts and verdicts. Column headers sort.</caption>
           <thead>
             {table.getHeaderGroups().map((group) => (
@@ -196,11 +231,19 @@ export function RosterTable({ swap, rows }: { swap: SwapDto; rows: RosterRowDto[
                 <Fragment key={row.id}>
                   <tr className="border-b border-walnut/10 align-top">
                     {row.getAllCells().map((cell) => (
-                      <td key={cell.id} className={`py-3 pr-3 ${cell.column.id === 'displayName' ? STICKY : ''}`}>
+                      <td
+                        key={cell.id}
+                        data-label={
+                          cell.column.id === 'displayName' || typeof cell.column.columnDef.header !== 'string'
+                            ? undefined
+                            : cell.column.columnDef.header
+                        }
+                        className={`py-3 pr-3 ${cell.column.id === 'displayName' ? `${STICKY} text-lg` : ''}`}
+                      >
                         <table.FlexRender cell={cell} />
                       </td>
                     ))}
-                    <td className="py-1 text-right">
+                    <td className="py-1 sm:text-right">
                       <Button variant="quiet" aria-expanded={expanded} onClick={() => toggle(row.original.userId)}>
                         {expanded ? 'Hide' : 'Blocks'}
                         <span className="sr-only"> of {row.original.displayName}</span>

@@ -29,7 +29,7 @@ function YardageTable({ swap }: { swap: SwapDto }) {
   const fabrics = [...new Set(plans.flatMap((p) => p.fabrics.map((f) => f.fabric)))];
   if (fabrics.length === 0) return null;
   return (
-    <table className="w-full border-collapse text-left">
+    <table className="stack-table w-full border-collapse text-left">
       <caption className="mb-2 text-left text-xl font-semibold text-indigo-deep">Yardage by number of blocks</caption>
       <thead>
         <tr className="border-b-2 border-walnut/30">
@@ -50,7 +50,7 @@ function YardageTable({ swap }: { swap: SwapDto }) {
               {f}
             </th>
             {plans.map((p, i) => (
-              <td key={columns[i]} className="py-1 pr-3 text-right">
+              <td key={columns[i]} data-label={`${columns[i]} block${columns[i] === 1 ? '' : 's'}`} className="py-1 pr-3 text-right">
                 {yards(p.fabrics.find((x) => x.fabric === f)?.yards ?? 0)}
               </td>
             ))}
