@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { ActivityDto, BoardPatch } from '../../shared/live-events';
 import type { RosterDto, RosterRowDto } from '../../shared/swap-types';
-import { applyBoardPatch } from '../../src/entities/roster/api/apply-board-patch';
+import { applyBoardPatch, boardChangeStep } from '../../src/entities/roster/api/apply-board-patch';
 import { prependActivities } from '../../src/features/live-board/hooks/prepend-activities';
 
 const counts = { pledged: 0, sewn: 0, handedIn: 0, received: 0, measured: 0, returned: 0 };
@@ -87,5 +87,25 @@ describe('adding a change’s activity lines to the board’s list', () => {
   it('keeps at most the number asked for, dropping the oldest', () => {
     const list = prependActivities([line(2), line(1)], [line(4), line(3)], 3);
     expect(list.map((a) => a.id)).toEqual([4, 3, 2]);
+  });
+});
+
+describe('deciding what a numbered board change does to the cached roster', () => {
+  const change = (version: number, withPatch = true) => ({ version, patch: withPatch ? patch({}) : null });
+
+  it('patches the next change in line into the cached roster', () => {
+    expect(boardChangeStep(4, change(5), true)).toBe('patch');
+  });
+
+  it('ignores a change already seen, and every change before the view has joined', () => {
+    expect(boardChangeStep(5, change(5), true)).toBe('ignore');
+    expect(boardChangeStep(5, change(3), true)).toBe('ignore');
+    expect(boardChangeStep(null, change(1), true)).toBe('ignore');
+  });
+
+  it('fetches the roster again after a gap, for a change without a patch, or when nothing is cached', () => {
+    expect(boardChangeStep(4, change(6), true)).toBe('refetch');
+    expect(boardChangeStep(4, change(5, false), true)).toBe('refetch');
+    expect(boardChangeStep(4, change(5), false)).toBe('refetch');
   });
 });

@@ -11,3 +11,13 @@ export function applyBoardPatch(roster: RosterDto, patch: BoardPatch): RosterDto
   rows.sort((a, b) => a.displayName.localeCompare(b.displayName, undefined, { sensitivity: 'base' }) || a.userId - b.userId);
   return { swap: { ...roster.swap, ...patch.swap }, totals: patch.totals, rows };
 }
+
+/**
+ * What to do with a board change, given the last version this view has (null before it joined):
+ * `ignore` one it has already seen (or any before joining), `patch` the next one in line when it carries
+ * a patch and a roster is cached, and otherwise `refetch`, because something was missed.
+ */
+export function boardChangeStep(known: number | null, change: { version: number; patch: BoardPatch | null }, cached: boolean) {
+  if (known === null || change.version <= known) return 'ignore' as const;
+  return change.version === known + 1 && change.patch && cached ? ('patch' as const) : ('refetch' as const);
+}

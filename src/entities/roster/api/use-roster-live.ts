@@ -6,7 +6,7 @@ import { ApiError } from '@/lib/api-client';
 import { emitWithAck, getSocket } from '@/lib/socket';
 import { blockKeys } from '@/entities/block/api/block-keys';
 import { swapKeys } from '@/entities/swap/api/swap-keys';
-import { applyBoardPatch } from './apply-board-patch';
+import { applyBoardPatch, boardChangeStep } from './apply-board-patch';
 import { rosterKeys } from './roster-keys';
 
 export interface RosterLiveHandlers {
@@ -56,14 +56,15 @@ export function useRosterLive(swapId: number, handlers: RosterLiveHandlers = {})
         .catch((e: unknown) => setJoinError(e instanceof ApiError ? e.message : 'The live board could not connect.'));
     };
     const onChange = (change: BoardChange) => {
-      if (change.swapId !== swapId || version.current === null || change.version <= version.current) return;
-      const inLine = change.version === version.current + 1;
+      if (change.swapId !== swapId) return;
+      const cached = queryClient.getQueryData<RosterDto>(rosterKeys.detail(swapId));
+      const step = boardChangeStep(version.current, change, cached !== undefined);
+      if (step === 'ignore') return;
       version.current = change.version;
       void queryClient.invalidateQueries({ queryKey: swapKeys.detail(swapId), exact: true });
       void queryClient.invalidateQueries({ queryKey: blockKeys.lists(swapId) });
       void queryClient.invalidateQueries({ queryKey: blockKeys.all });
-      const cached = queryClient.getQueryData<RosterDto>(rosterKeys.detail(swapId));
-      if (!inLine || !change.patch || !cached) {
+      if (step === 'refetch' || !cached || !change.patch) {
         void refetch();
         return;
       }
