@@ -44,13 +44,27 @@ export interface InvitationDto {
   id: number;
   email: string;
   role: Role;
+  /** Anyone with the link may accept it, not only the account with this address. */
+  open: boolean;
   expiresAt: string;
   acceptedAt: string | null;
+}
+
+/** How many invitations may still be sent today, by the caller and by the whole guild. */
+export interface InvitationLimitsDto {
+  perInviterDay: number;
+  perGuildDay: number;
+  sentByYouToday: number;
+  sentByGuildToday: number;
+  /** What the caller may still send now: the smaller of the two allowances left. */
+  remaining: number;
+  validDays: number;
 }
 
 export interface InvitationPreviewDto {
   guildName: string;
   email: string;
   role: Role;
+  open: boolean;
   expiresAt: string;
 }

@@ -83,8 +83,17 @@ async function relatedRows(blocks: Block[], transaction?: Transaction): Promise<
 
 const iso = (d: Date | null | undefined) => d?.toISOString() ?? null;
 
-/** Full block answers for a list of blocks, with a fixed number of queries whatever the count. */
-export async function blockDtos(blocks: Block[], swap: Swap, transaction?: Transaction): Promise<BlockDto[]> {
+/** Who reads a block answer: the hand-in note is for the block's maker and the guild's officers only. */
+export interface BlockViewer {
+  userId: number;
+  canManage: boolean;
+}
+
+/**
+ * Full block answers for a list of blocks, with a fixed number of queries whatever the count. With a
+ * `viewer`, another maker's hand-in note (tracking numbers, addresses) is left out unless they manage the swap.
+ */
+export async function blockDtos(blocks: Block[], swap: Swap, transaction?: Transaction, viewer?: BlockViewer): Promise<BlockDto[]> {
   if (blocks.length === 0) return [];
   const related = await relatedRows(blocks, transaction);
   const names = new Map(related.users.map((u) => [u.id, u.displayName]));
@@ -116,7 +125,7 @@ export async function blockDtos(blocks: Block[], swap: Swap, transaction?: Trans
       verdict: b.verdict ?? null,
       trimmed: b.trimmed,
       accepted: isAccepted(b),
-      handIn: b.handInHow ? { how: b.handInHow, note: b.handInNote ?? null } : null,
+      handIn: b.handInHow ? { how: b.handInHow, note: !viewer || viewer.canManage || viewer.userId === b.makerId ? (b.handInNote ?? null) : null } : null,
       recipient,
       times: {
         sewn: iso(b.sewnAt),
@@ -133,7 +142,7 @@ export async function blockDtos(blocks: Block[], swap: Swap, transaction?: Trans
   });
 }
 
-export async function blockDto(block: Block, swap: Swap, transaction?: Transaction): Promise<BlockDto> {
-  const [dto] = await blockDtos([block], swap, transaction);
+export async function blockDto(block: Block, swap: Swap, transaction?: Transaction, viewer?: BlockViewer): Promise<BlockDto> {
+  const [dto] = await blockDtos([block], swap, transaction, viewer);
   return dto!;
 }

@@ -25,7 +25,7 @@ async function loadBlock(userId: number, blockId: number): Promise<{ block: Bloc
 /** The block's maker or an officer of its guild may read it. */
 export async function canReadBlock(userId: number, blockId: number): Promise<BlockAccess> {
   const { block, swap, role } = await loadBlock(userId, blockId);
-  return { ...readAccess(swap, role), block, isMaker: block.makerId === userId };
+  return { ...readAccess(swap, role, 'That block does not exist.'), block, isMaker: block.makerId === userId };
 }
 
 /** Sewn, handed in and the maker's own measurement: only the maker. */
@@ -38,5 +38,5 @@ export async function canActAsMaker(userId: number, blockId: number): Promise<Bl
 /** Received, ruler measurements and trimming: coordinators and admins. */
 export async function canManageBlock(userId: number, blockId: number): Promise<BlockAccess> {
   const { block, swap, role } = await loadBlock(userId, blockId);
-  return { swap, role: assertGuildRole(role, 'swaps:manage'), canManage: true, block, isMaker: block.makerId === userId };
+  return { swap, role: assertGuildRole(role, 'swaps:manage', 'That block does not exist.'), canManage: true, block, isMaker: block.makerId === userId };
 }

@@ -29,8 +29,9 @@ export function blocksRouter(deps: AppDeps) {
   });
 
   router.get('/blocks/:blockId', requireUser, params, async (req, res) => {
-    const { block } = await canReadBlock(currentUser(req).id, blockId(req));
-    res.json(await blocks.getBlock(block));
+    const userId = currentUser(req).id;
+    const { block, canManage } = await canReadBlock(userId, blockId(req));
+    res.json(await blocks.getBlock(block, { userId, canManage }));
   });
 
   router.get('/blocks/:blockId/measurements', requireUser, params, async (req, res) => {

@@ -6,7 +6,7 @@ import type { BlockDto } from '@shared/swap-types';
 import { Block, Swap } from '../db/models';
 import { ConflictError, ForbiddenError, NotFoundError } from '../http/errors';
 import type { AppDeps } from '../deps';
-import { blockDto, blockDtos } from './block-dto';
+import { blockDto, blockDtos, type BlockViewer } from './block-dto';
 import { idempotent, type Answer } from './idempotency';
 import { findBlockWithSwap } from './block-with-swap';
 
@@ -111,10 +111,10 @@ export async function markTrimmed(deps: Deps, blockId: number, actorId: number):
   return dto;
 }
 
-export async function getBlock(block: Block): Promise<BlockDto> {
+export async function getBlock(block: Block, viewer: BlockViewer): Promise<BlockDto> {
   // The policy loads the swap with the block; anyone else passes the block alone.
   const swap = block.swap ?? (await Swap.findByPk(block.swapId));
-  return blockDto(block, swap!);
+  return blockDto(block, swap!, undefined, viewer);
 }
 
 /**
@@ -133,5 +133,5 @@ export async function listBlocks(swap: Swap, viewer: { userId: number; canManage
     },
     order: [['makerId', 'ASC'], ['sequence', 'ASC']],
   });
-  return blockDtos(blocks, swap);
+  return blockDtos(blocks, swap, undefined, viewer);
 }

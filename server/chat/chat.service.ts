@@ -13,12 +13,19 @@ import { authorizeRoom, type RoomAccess } from './chat.policy';
 type ChatDeps = Pick<AppDeps, 'events' | 'sequelize' | 'config'>;
 
 export class RateLimitedError extends AppError {
-  constructor(readonly retryAfterSeconds: number) {
+  constructor(
+    readonly retryAfterSeconds: number,
+    what: 'sending' | 'editing' = 'sending',
+  ) {
+    const wait = `Wait ${retryAfterSeconds} second${retryAfterSeconds === 1 ? '' : 's'}`;
     super(
       429,
       'rate_limited',
-      `You are sending messages faster than the room allows (${CHAT_RATE_LIMIT} in ${CHAT_RATE_WINDOW_MS / 1000} seconds). ` +
-        `Wait ${retryAfterSeconds} second${retryAfterSeconds === 1 ? '' : 's'} and send it again; your message is still in the box.`,
+      what === 'sending'
+        ? `You are sending messages faster than the room allows (${CHAT_RATE_LIMIT} in ${CHAT_RATE_WINDOW_MS / 1000} seconds). ` +
+            `${wait} and send it again; your message is still in the box.`
+        : `You are editing messages faster than the room allows (${CHAT_RATE_LIMIT} in ${CHAT_RATE_WINDOW_MS / 1000} seconds). ` +
+            `${wait} and save it again; your change is still in the box.`,
       { retryAfterSeconds: String(retryAfterSeconds) },
     );
   }
@@ -98,13 +105,30 @@ async function loadMessage(messageId: number) {
   return message;
 }
 
-/** Only the author edits, and only a message still standing. */
+/**
+ * Only the author edits, and only a message still standing. Every edit is broadcast, so edits are
+ * rate limited like new messages (counted in PostgreSQL under the author's lock, on every node).
+ */
 export async function editMessage(deps: ChatDeps, userId: number, messageId: number, body: string): Promise<ChatMessageDto> {
   const message = await loadMessage(messageId);
-  const access = await authorizeRoom(userId, message.roomId);
+  const access = await authorizeRoom(userId, message.roomId, 'That message does not exist.');
   if (message.authorId !== userId) throw new ForbiddenError('You can edit only your own messages.');
   if (message.deletedAt) throw new ConflictError('That message was deleted, so it cannot be edited.', 'message_deleted');
-  await message.update({ body, editedAt: new Date() });
+  await deps.sequelize.transaction(async (transaction) => {
+    await deps.sequelize.query('SELECT pg_advisory_xact_lock(7314006, $userId)', { bind: { userId }, transaction });
+    const since = new Date(Date.now() - CHAT_RATE_WINDOW_MS);
+    await deps.sequelize.query('DELETE FROM chat_edits WHERE author_id = $userId AND created_at <= $since', { bind: { userId, since }, transaction });
+    const [recent] = (await deps.sequelize.query('SELECT created_at FROM chat_edits WHERE author_id = $userId ORDER BY created_at', {
+      bind: { userId },
+      transaction,
+    })) as [{ created_at: Date }[], unknown];
+    if (recent.length >= CHAT_RATE_LIMIT) {
+      const freeAt = new Date(recent[recent.length - CHAT_RATE_LIMIT]!.created_at).getTime() + CHAT_RATE_WINDOW_MS;
+      throw new RateLimitedError(Math.max(1, Math.ceil((freeAt - Date.now()) / 1000)), 'editing');
+    }
+    await deps.sequelize.query('INSERT INTO chat_edits (author_id, message_id) VALUES ($userId, $messageId)', { bind: { userId, messageId }, transaction });
+    await message.update({ body, editedAt: new Date() }, { transaction });
+  });
   const dto = await messageDto(message);
   deps.events.emit('chat.changed', { guildId: access.room.guildId, roomId: message.roomId, actorId: userId, change: 'edited', message: dto });
   return dto;
@@ -116,7 +140,7 @@ export async function editMessage(deps: ChatDeps, userId: number, messageId: num
  */
 export async function deleteMessage(deps: ChatDeps, userId: number, messageId: number): Promise<ChatMessageDto> {
   const message = await loadMessage(messageId);
-  const access = await authorizeRoom(userId, message.roomId);
+  const access = await authorizeRoom(userId, message.roomId, 'That message does not exist.');
   const own = message.authorId === userId;
   if (!own && !access.canModerate) throw new ForbiddenError('You can delete only your own messages; a guild admin can remove others.');
   if (message.deletedAt) throw new ConflictError('That message was already taken down.', 'message_deleted');

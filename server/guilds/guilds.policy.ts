@@ -1,6 +1,6 @@
 import type { Role } from '@shared/schemas/guilds';
 import { Membership } from '../db/models';
-import { ForbiddenError } from '../http/errors';
+import { ForbiddenError, NotFoundError } from '../http/errors';
 
 /** Everything a guild role may do. Anything not listed is denied. */
 export const guildPermissions = {
@@ -34,16 +34,20 @@ export function can(role: Role | null | undefined, action: GuildAction): boolean
   return (guildPermissions[action] as readonly Role[]).includes(role);
 }
 
-/** Checks an action against the caller's role in the guild (null: no active membership); throws 403 otherwise. */
-export function assertGuildRole(role: Role | null | undefined, action: GuildAction): Role {
-  if (!role) throw new ForbiddenError('You are not a member of this guild.');
+/**
+ * Checks an action against the caller's role in the guild. Someone outside the guild (no active
+ * membership) gets the same 404 as for an id that does not exist, with the same `missing` message,
+ * so ids cannot be probed for existence; a member whose role falls short gets 403.
+ */
+export function assertGuildRole(role: Role | null | undefined, action: GuildAction, missing = 'That guild does not exist.'): Role {
+  if (!role) throw new NotFoundError(missing);
   if (!can(role, action)) throw new ForbiddenError();
   return role;
 }
 
 /** Loads the caller's active membership and checks the action; throws 403 otherwise. */
-export async function authorizeGuild(userId: number, guildId: number, action: GuildAction): Promise<Membership> {
+export async function authorizeGuild(userId: number, guildId: number, action: GuildAction, missing?: string): Promise<Membership> {
   const membership = await Membership.findOne({ where: { userId, guildId, status: 'active' } });
-  assertGuildRole(membership?.role, action);
+  assertGuildRole(membership?.role, action, missing);
   return membership!;
 }

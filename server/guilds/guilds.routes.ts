@@ -78,11 +78,18 @@ export function guildsRouter(deps: AppDeps) {
       const user = currentUser(req);
       const membership = await authorizeGuild(user.id, guildId, 'invitations:create');
       const invitation = await guilds.invite(deps, {
-        guildId, inviter: user, inviterRole: membership.role, email: req.body.email, role: req.body.role,
+        guildId, inviter: user, inviterRole: membership.role, email: req.body.email, role: req.body.role, open: req.body.open,
       });
       res.status(201).json(invitation);
     },
   );
+
+  router.get('/:guildId/invitations/limits', validate({ params: guildParamsSchema }), async (req, res) => {
+    const { guildId } = req.params as unknown as GuildParams;
+    const user = currentUser(req);
+    await authorizeGuild(user.id, guildId, 'invitations:create');
+    res.json(await guilds.invitationLimits(deps, guildId, user.id));
+  });
 
   router.delete(
     '/:guildId/invitations/:invitationId',
@@ -105,7 +112,7 @@ export function invitationsRouter(deps: AppDeps) {
     res.json(await guilds.previewInvitation(String(req.params.token)));
   });
   router.post('/invitations/:token/accept', requireUser, validate({ params: invitationTokenParams }), async (req, res) => {
-    res.json(await guilds.acceptInvitation(deps, String(req.params.token), currentUser(req).id));
+    res.json(await guilds.acceptInvitation(deps, String(req.params.token), currentUser(req)));
   });
   return router;
 }

@@ -1,9 +1,10 @@
 import { Op, QueryTypes, type Transaction } from 'sequelize';
 import type { CreateGuildInput, Role, UpdateGuildInput } from '@shared/schemas/guilds';
-import type { GuildDto, InvitationDto, InvitationPreviewDto, MemberDto } from '@shared/types';
+import type { GuildDto, InvitationDto, InvitationLimitsDto, InvitationPreviewDto, MemberDto } from '@shared/types';
 import { Guild, Invitation, Membership, User } from '../db/models';
-import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '../http/errors';
+import { AppError, ConflictError, ForbiddenError, NotFoundError, ValidationError } from '../http/errors';
 import { hashToken, newToken } from '../auth/tokens';
+import { assertNameFreeInGuilds } from '../auth/display-names';
 import { invitationMail } from '../mail/account-messages';
 import { can } from './guilds.policy';
 import type { AppDeps } from '../deps';
@@ -127,16 +128,39 @@ export async function listInvitations(guildId: number): Promise<InvitationDto[]>
 }
 
 function invitationDto(i: Invitation): InvitationDto {
-  return { id: i.id, email: i.email, role: i.role, expiresAt: i.expiresAt.toISOString(), acceptedAt: i.acceptedAt?.toISOString() ?? null };
+  return { id: i.id, email: i.email, role: i.role, open: i.open, expiresAt: i.expiresAt.toISOString(), acceptedAt: i.acceptedAt?.toISOString() ?? null };
 }
 
-/** Records an invitation and e-mails its link; only the token's hash is kept. */
+const DAY_MS = 86_400_000;
+
+async function sentSince(where: { guildId?: number; invitedById?: number }, transaction?: Transaction) {
+  return Invitation.count({ where: { ...where, createdAt: { [Op.gt]: new Date(Date.now() - DAY_MS) } }, transaction });
+}
+
+/** The invitation allowances of the last 24 hours, for the caller and for the guild. */
+export async function invitationLimits(deps: Pick<AppDeps, 'config'>, guildId: number, userId: number, transaction?: Transaction): Promise<InvitationLimitsDto> {
+  const perInviterDay = deps.config.INVITES_PER_INVITER_DAY;
+  const perGuildDay = deps.config.INVITES_PER_GUILD_DAY;
+  const sentByYouToday = await sentSince({ invitedById: userId }, transaction);
+  const sentByGuildToday = await sentSince({ guildId }, transaction);
+  const remaining = Math.max(0, Math.min(perInviterDay - sentByYouToday, perGuildDay - sentByGuildToday));
+  return { perInviterDay, perGuildDay, sentByYouToday, sentByGuildToday, remaining, validDays: INVITATION_VALID_DAYS };
+}
+
+/**
+ * Records an invitation and e-mails its link; only the token's hash is kept. Invitations are
+ * rationed per inviter (across guilds) and per guild over 24 hours, and an address with an open
+ * invitation to the guild gets no second one, so nobody can use the guild to send mail in bulk.
+ */
 export async function invite(
   deps: Pick<AppDeps, 'mailer' | 'config' | 'logger'>,
-  opts: { guildId: number; inviter: Express.User; inviterRole: Role; email: string; role: Role },
+  opts: { guildId: number; inviter: Express.User; inviterRole: Role; email: string; role: Role; open?: boolean },
 ): Promise<InvitationDto> {
   if (opts.role !== 'member' && !can(opts.inviterRole, 'invitations:create-officer')) {
     throw new ForbiddenError('Only a guild admin can invite admins or coordinators.');
+  }
+  if (opts.open && !can(opts.inviterRole, 'invitations:create-officer')) {
+    throw new ForbiddenError('Only a guild admin can make an open link that anyone may use.');
   }
   const guild = await Guild.findByPk(opts.guildId);
   if (!guild) throw new NotFoundError('That guild does not exist.');
@@ -147,14 +171,34 @@ export async function invite(
   if (existing) throw new ConflictError('That person is already a member of this guild.', 'already_member');
 
   const { token, tokenHash } = newToken();
-  const expiresAt = new Date(Date.now() + INVITATION_VALID_DAYS * 86_400_000);
-  const invitation = await Invitation.create({
-    guildId: opts.guildId,
-    email: opts.email,
-    role: opts.role,
-    tokenHash,
-    invitedById: opts.inviter.id,
-    expiresAt,
+  const expiresAt = new Date(Date.now() + INVITATION_VALID_DAYS * DAY_MS);
+  const invitation = await Invitation.sequelize!.transaction(async (transaction) => {
+    // One invitation at a time per guild and per inviter, so the counts below cannot be raced past.
+    await Invitation.sequelize!.query('SELECT pg_advisory_xact_lock(hashtext($1)), pg_advisory_xact_lock(hashtext($2))', {
+      bind: [`invite:guild:${opts.guildId}`, `invite:user:${opts.inviter.id}`],
+      transaction,
+    });
+    const pending = await Invitation.findOne({
+      where: { guildId: opts.guildId, email: opts.email, acceptedAt: null, expiresAt: { [Op.gt]: new Date() } },
+      transaction,
+    });
+    if (pending) {
+      throw new ConflictError(
+        `${opts.email} already has an invitation waiting, valid until ${pending.expiresAt.toISOString().slice(0, 10)}. Withdraw it first to send a new one.`,
+        'invitation_pending',
+      );
+    }
+    const limits = await invitationLimits(deps, opts.guildId, opts.inviter.id, transaction);
+    if (limits.sentByYouToday >= limits.perInviterDay) {
+      throw new AppError(429, 'invitation_limit', `You have sent ${limits.perInviterDay} invitations in the last 24 hours, the most allowed. Try again tomorrow.`);
+    }
+    if (limits.sentByGuildToday >= limits.perGuildDay) {
+      throw new AppError(429, 'invitation_limit', `This guild has sent ${limits.perGuildDay} invitations in the last 24 hours, the most allowed. Try again tomorrow.`);
+    }
+    return Invitation.create(
+      { guildId: opts.guildId, email: opts.email, role: opts.role, open: opts.open ?? false, tokenHash, invitedById: opts.inviter.id, expiresAt },
+      { transaction },
+    );
   });
   const url = `${deps.config.PUBLIC_URL}/invitations/${encodeURIComponent(token)}`;
   await deps.mailer.send(
@@ -180,12 +224,31 @@ async function findOpenInvitation(token: string) {
 
 export async function previewInvitation(token: string): Promise<InvitationPreviewDto> {
   const invitation = await findOpenInvitation(token);
-  return { guildName: invitation.guild!.name, email: invitation.email, role: invitation.role, expiresAt: invitation.expiresAt.toISOString() };
+  return {
+    guildName: invitation.guild!.name,
+    email: invitation.email,
+    role: invitation.role,
+    open: invitation.open,
+    expiresAt: invitation.expiresAt.toISOString(),
+  };
 }
 
-/** The signed-in user joins with the invited role; a removed member comes back. */
-export async function acceptInvitation(deps: Pick<AppDeps, 'events'>, token: string, userId: number) {
+/**
+ * The signed-in user joins with the invited role; a removed member comes back. Only the account
+ * with the invited address may accept, unless an admin made the link open; a name another member
+ * of the guild already goes by is refused with a suggestion.
+ */
+export async function acceptInvitation(deps: Pick<AppDeps, 'events'>, token: string, user: Express.User) {
+  const userId = user.id;
   const invitation = await findOpenInvitation(token);
+  if (!invitation.open && invitation.email !== user.email) {
+    throw new AppError(
+      403,
+      'invitation_other_address',
+      `This invitation was sent to ${invitation.email}. Sign in with the account for that address to accept it, or ask the guild to invite ${user.email}.`,
+    );
+  }
+  await assertNameFreeInGuilds(userId, user.displayName, [invitation.guildId], user.email);
   const membership = await Invitation.sequelize!.transaction(async (transaction) => {
     const [spent] = await Invitation.update(
       { acceptedAt: new Date(), acceptedById: userId },

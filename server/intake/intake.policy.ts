@@ -16,7 +16,7 @@ async function loadSwap(swapId: number): Promise<Swap> {
 /** Coordinators and admins of the swap's guild; drafts have no blocks to take in. */
 export async function canRunIntake(userId: number, swapId: number): Promise<Swap> {
   const swap = await loadSwap(swapId);
-  const membership = await authorizeGuild(userId, swap.guildId, 'swaps:read');
+  const membership = await authorizeGuild(userId, swap.guildId, 'swaps:read', 'That swap does not exist.');
   if (!can(membership.role, 'intake:run')) throw new ForbiddenError('Only the swap’s coordinators and the guild’s admins take blocks in.');
   return swap;
 }
@@ -27,7 +27,7 @@ export async function canRunIntake(userId: number, swapId: number): Promise<Swap
  */
 export async function canPrintLabels(userId: number, swapId: number, maker: LabelsQuery['maker']): Promise<{ swap: Swap; makerId: number | null }> {
   const swap = await loadSwap(swapId);
-  const membership = await authorizeGuild(userId, swap.guildId, 'swaps:read');
+  const membership = await authorizeGuild(userId, swap.guildId, 'swaps:read', 'That swap does not exist.');
   const officer = can(membership.role, 'intake:run');
   if (swap.state === 'draft' && !officer) throw new NotFoundError('That swap does not exist.');
   const makerId = maker === 'me' ? userId : maker === 'all' ? null : maker;

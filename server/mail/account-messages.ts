@@ -15,10 +15,11 @@ export function invitationMail(opts: { to: string; guildName: string; inviterNam
       expires: `${mailDate(opts.expiresAt, 'UTC')} UTC`,
     },
     {
-      subject: `You are invited to ${opts.guildName} on Blockpost`,
-      preheader: `${opts.inviterName} invited you to join ${opts.guildName}.`,
-      heading: `Join ${opts.guildName}`,
-      reason: `You get this because ${opts.inviterName} entered this address in an invitation.`,
+      // Names are chosen by members: they stay out of the subject line, and are quoted in the body.
+      subject: 'An invitation to a quilt guild on Blockpost',
+      preheader: `“${opts.inviterName}” invited you to join the guild “${opts.guildName}”.`,
+      heading: 'An invitation to join a guild',
+      reason: `You get this because a member of the guild, “${opts.inviterName}”, entered this address in an invitation.`,
       unsubscribe: null,
       preferencesUrl: null,
     },

@@ -9,7 +9,7 @@ export type SewDayAction = 'sewdays:read' | 'sewdays:manage';
 export async function authorizeSewDay(userId: number, sewDayId: number, action: SewDayAction): Promise<{ sewDay: SewDay; membership: Membership }> {
   const sewDay = await SewDay.findByPk(sewDayId);
   if (!sewDay) throw new NotFoundError('That sew day does not exist.');
-  const membership = await authorizeGuild(userId, sewDay.guildId, action);
+  const membership = await authorizeGuild(userId, sewDay.guildId, action, 'That sew day does not exist.');
   return { sewDay, membership };
 }
 

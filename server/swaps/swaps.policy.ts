@@ -39,10 +39,10 @@ async function loadSwap(userId: number, swapId: number): Promise<{ swap: Swap; r
 }
 
 /** Active members of the guild; drafts only for coordinators and admins. */
-export function readAccess(swap: Swap, role: Role | null): SwapAccess {
-  const allowed = assertGuildRole(role, 'swaps:read');
+export function readAccess(swap: Swap, role: Role | null, missing = 'That swap does not exist.'): SwapAccess {
+  const allowed = assertGuildRole(role, 'swaps:read', missing);
   const canManage = can(allowed, 'swaps:manage');
-  if (swap.state === 'draft' && !canManage) throw new NotFoundError('That swap does not exist.');
+  if (swap.state === 'draft' && !canManage) throw new NotFoundError(missing);
   return { swap, role: allowed, canManage };
 }
 
@@ -55,7 +55,7 @@ export async function canReadSwap(userId: number, swapId: number): Promise<SwapA
 /** Coordinators and admins of the swap's guild. */
 export async function canManageSwap(userId: number, swapId: number): Promise<SwapAccess> {
   const { swap, role } = await loadSwap(userId, swapId);
-  return { swap, role: assertGuildRole(role, 'swaps:manage'), canManage: true };
+  return { swap, role: assertGuildRole(role, 'swaps:manage', 'That swap does not exist.'), canManage: true };
 }
 
 /** Members of the guild may sign up for its swaps. */

@@ -105,6 +105,14 @@ export function fromMulterError(error: unknown): unknown {
   if (error instanceof Error && /^Request (?:aborted|closed|error)$/.test(error.message)) {
     return new PhotoRejectedError(400, 'upload_interrupted', 'The upload stopped before it finished. Nothing was saved; please send the photos again.');
   }
+  // busboy refuses a part header it cannot read, such as a file name holding a NUL character.
+  if (error instanceof Error && error.message === 'Malformed part header') {
+    return new PhotoRejectedError(
+      400,
+      'bad_file_name',
+      'A photo’s file name holds characters that cannot be read (such as NUL). Rename the photo and send it again.',
+    );
+  }
   // busboy's own complaints (a malformed multipart body) carry no status.
   if (error instanceof Error && /multipart|boundary|Unexpected end of form/i.test(error.message)) {
     return new PhotoRejectedError(400, 'bad_upload', 'The upload arrived incomplete or malformed. Please send the photos again.');

@@ -33,14 +33,14 @@ async function loadPhoto(photoId: number): Promise<Photo> {
 /** Active members of the photo's guild, whatever their role. */
 export async function canSeePhoto(userId: number, photoId: number): Promise<Photo> {
   const photo = await loadPhoto(photoId);
-  await authorizeGuild(userId, photo.guildId, 'photos:read');
+  await authorizeGuild(userId, photo.guildId, 'photos:read', 'That photo does not exist, or it was removed.');
   return photo;
 }
 
 /** The uploader while still a member, or a coordinator or admin of the photo's guild. */
 export async function canRemovePhoto(userId: number, photoId: number): Promise<Photo> {
   const photo = await loadPhoto(photoId);
-  const membership = await authorizeGuild(userId, photo.guildId, 'photos:read');
+  const membership = await authorizeGuild(userId, photo.guildId, 'photos:read', 'That photo does not exist, or it was removed.');
   if (photo.uploadedById !== userId && !can(membership.role, 'photos:manage')) {
     throw new ForbiddenError('Only the person who posted this photo or a coordinator can remove it.');
   }

@@ -53,7 +53,12 @@ export type UpdateGuildInput = z.infer<typeof updateGuildSchema>;
 
 export type UpdateMemberInput = z.infer<typeof updateMemberSchema>;
 
-export const createInvitationSchema = z.object({ email: emailSchema, role: roleSchema.default('member') });
+export const createInvitationSchema = z.object({
+  email: emailSchema,
+  role: roleSchema.default('member'),
+  /** An open link: anyone signed in who has it may join (admins only). Otherwise only this address's account. */
+  open: z.boolean({ error: 'Say whether the link is open to anyone.' }).default(false),
+});
 export type CreateInvitationInput = z.input<typeof createInvitationSchema>;
 
 export const invitationTokenParams = z.object({

@@ -41,7 +41,7 @@ describe('guilds', () => {
     const changed = await g.admin.agent.patch(`/api/guilds/${g.guildId}/members/${extra.id}`).send({ role: 'coordinator' }).expect(200);
     expect(changed.body.role).toBe('coordinator');
     await g.admin.agent.delete(`/api/guilds/${g.guildId}/members/${extra.id}`).expect(204);
-    await extra.agent.get(`/api/guilds/${g.guildId}`).expect(403);
+    await extra.agent.get(`/api/guilds/${g.guildId}`).expect(404);
   });
 });
 
@@ -51,7 +51,7 @@ describe('invitations', () => {
     const sent = await g.admin.agent.post(`/api/guilds/${g.guildId}/invitations`).send({ email, role: 'coordinator' }).expect(201);
     expect(sent.body).toMatchObject({ email, role: 'coordinator', acceptedAt: null });
 
-    const mail = await waitForMail(email, (m) => /invited to/.test(m.subject));
+    const mail = await waitForMail(email, (m) => /invitation to a quilt guild/.test(m.subject));
     expect(mail.html).toContain('Accept the invitation');
     const link = linkIn(mail, /http:\/\/127\.0\.0\.1:3000\/invitations\/[\w-]+/);
     const token = link.split('/').pop()!;
@@ -105,14 +105,14 @@ describe('invitations', () => {
 describe('role matrix for guild routes', () => {
   type Who = 'admin' | 'coordinator' | 'member' | 'stranger' | 'signedOut';
   const cases: { name: string; call: (a: ReturnType<TestApp['agent']>) => supertest.Test; expect: Record<Who, number> }[] = [
-    { name: 'GET guild', call: (a) => a.get(`/api/guilds/${g.guildId}`), expect: { admin: 200, coordinator: 200, member: 200, stranger: 403, signedOut: 401 } },
-    { name: 'PATCH guild', call: (a) => a.patch(`/api/guilds/${g.guildId}`).send({ name: 'Renamed Quilters' }), expect: { admin: 200, coordinator: 403, member: 403, stranger: 403, signedOut: 401 } },
-    { name: 'GET members', call: (a) => a.get(`/api/guilds/${g.guildId}/members`), expect: { admin: 200, coordinator: 200, member: 200, stranger: 403, signedOut: 401 } },
-    { name: 'PATCH member role', call: (a) => a.patch(`/api/guilds/${g.guildId}/members/${g.member.id}`).send({ role: 'member' }), expect: { admin: 200, coordinator: 403, member: 403, stranger: 403, signedOut: 401 } },
-    { name: 'DELETE member (unknown user)', call: (a) => a.delete(`/api/guilds/${g.guildId}/members/999999`), expect: { admin: 404, coordinator: 403, member: 403, stranger: 403, signedOut: 401 } },
-    { name: 'GET invitations', call: (a) => a.get(`/api/guilds/${g.guildId}/invitations`), expect: { admin: 200, coordinator: 200, member: 403, stranger: 403, signedOut: 401 } },
+    { name: 'GET guild', call: (a) => a.get(`/api/guilds/${g.guildId}`), expect: { admin: 200, coordinator: 200, member: 200, stranger: 404, signedOut: 401 } },
+    { name: 'PATCH guild', call: (a) => a.patch(`/api/guilds/${g.guildId}`).send({ name: 'Renamed Quilters' }), expect: { admin: 200, coordinator: 403, member: 403, stranger: 404, signedOut: 401 } },
+    { name: 'GET members', call: (a) => a.get(`/api/guilds/${g.guildId}/members`), expect: { admin: 200, coordinator: 200, member: 200, stranger: 404, signedOut: 401 } },
+    { name: 'PATCH member role', call: (a) => a.patch(`/api/guilds/${g.guildId}/members/${g.member.id}`).send({ role: 'member' }), expect: { admin: 200, coordinator: 403, member: 403, stranger: 404, signedOut: 401 } },
+    { name: 'DELETE member (unknown user)', call: (a) => a.delete(`/api/guilds/${g.guildId}/members/999999`), expect: { admin: 404, coordinator: 403, member: 403, stranger: 404, signedOut: 401 } },
+    { name: 'GET invitations', call: (a) => a.get(`/api/guilds/${g.guildId}/invitations`), expect: { admin: 200, coordinator: 200, member: 403, stranger: 404, signedOut: 401 } },
     { name: 'POST invitation (bad body)', call: (a) => a.post(`/api/guilds/${g.guildId}/invitations`).send({ email: 'nope' }), expect: { admin: 400, coordinator: 400, member: 400, stranger: 400, signedOut: 401 } },
-    { name: 'DELETE invitation (unknown)', call: (a) => a.delete(`/api/guilds/${g.guildId}/invitations/999999`), expect: { admin: 404, coordinator: 404, member: 403, stranger: 403, signedOut: 401 } },
+    { name: 'DELETE invitation (unknown)', call: (a) => a.delete(`/api/guilds/${g.guildId}/invitations/999999`), expect: { admin: 404, coordinator: 404, member: 403, stranger: 404, signedOut: 401 } },
   ];
   for (const c of cases) {
     it(`${c.name}: each role gets the expected status`, async () => {

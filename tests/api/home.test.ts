@@ -93,7 +93,7 @@ describe('GET /api/me/next', () => {
     await g.member.agent.put(`/api/me/rooms/${room.id}/seen`).expect(204);
     expect((await next(g.member.agent)).unreadRooms.find((r) => r.roomId === room.id)).toBeUndefined();
     // Only someone who may read the room can mark it.
-    await g.stranger.agent.put(`/api/me/rooms/${room.id}/seen`).expect(403);
+    await g.stranger.agent.put(`/api/me/rooms/${room.id}/seen`).expect(404);
     await g.member.agent.put('/api/me/rooms/999999/seen').expect(404);
     await g.member.agent.put('/api/me/rooms/nope/seen').expect(400);
   });

@@ -49,7 +49,7 @@ describe('label sheet data', () => {
     const all = await roles.member.agent.get(`/api/swaps/${swapId}/labels?maker=all`).expect(403);
     expect(all.body.error.message).toMatch(/own blocks/);
     await roles.member.agent.get(`/api/swaps/${swapId}/labels?maker=${roles.coordinator.id}`).expect(403);
-    await roles.stranger.agent.get(`/api/swaps/${swapId}/labels`).expect(403);
+    await roles.stranger.agent.get(`/api/swaps/${swapId}/labels`).expect(404);
     const bad = await roles.member.agent.get(`/api/swaps/${swapId}/labels?maker=everyone`).expect(400);
     expect(bad.body.error.fields).toHaveProperty('maker');
   });

@@ -103,15 +103,15 @@ describe('who may measure from a photo', () => {
     // The member may not measure the coordinator's block either.
     await roles.member.agent.post(`/api/blocks/${coordinatorBlock}/photo-estimates`).send(bodyFor(shortScene)).expect(403);
 
-    const stranger = await roles.stranger.agent.post(`/api/blocks/${memberBlock}/photo-estimates`).send(bodyFor(shortScene)).expect(403);
-    expect(stranger.body.error.message).toMatch(/not a member of this guild/);
-    await roles.stranger.agent.get(`/api/blocks/${memberBlock}/photo-estimates`).expect(403);
+    const stranger = await roles.stranger.agent.post(`/api/blocks/${memberBlock}/photo-estimates`).send(bodyFor(shortScene)).expect(404);
+    expect(stranger.body.error.message).toBe('That block does not exist.');
+    await roles.stranger.agent.get(`/api/blocks/${memberBlock}/photo-estimates`).expect(404);
     await app.agent().post(`/api/blocks/${memberBlock}/photo-estimates`).send(bodyFor(shortScene)).expect(401);
     await roles.member.agent.post('/api/blocks/999999/photo-estimates').send(bodyFor(shortScene)).expect(404);
   });
 
   it('refuses a stranger before reading the body, so a bad body tells them nothing', async () => {
-    await roles.stranger.agent.post(`/api/blocks/${memberBlock}/photo-estimates`).send({ nonsense: true }).expect(403);
+    await roles.stranger.agent.post(`/api/blocks/${memberBlock}/photo-estimates`).send({ nonsense: true }).expect(404);
   });
 });
 

@@ -2,7 +2,7 @@
  * A role matrix over every API route, read from the Express router: a route added without an entry
  * here fails the first test. Each route is called signed out, as a stranger (the admin of another
  * guild), and as a member, coordinator and admin of the guild that owns the resource. Denied callers
- * get 401 (signed out) or 403/404 (stranger) or 403 (a role below the one needed); allowed callers get
+ * get 401 (signed out) or 404 (stranger, as for an id that does not exist) or 403 (a role below the one needed); allowed callers get
  * past authorisation (any answer but 401/403); nobody ever gets a 5xx.
  */
 import { randomUUID } from 'node:crypto';
@@ -74,6 +74,7 @@ const cases: Record<string, Case> = {
   'POST /api/auth/reset': { access: 'public', fresh: 'anonymous', path: () => '/api/auth/reset', body: () => ({ token: 'x'.repeat(43), password: PASSWORD }) },
   'GET /api/me': { access: 'user', path: () => '/api/me' },
   'PATCH /api/me': { access: 'user', path: () => '/api/me', body: () => ({ units: 'in' }) },
+  'POST /api/me/password': { access: 'user', fresh: 'user', path: () => '/api/me/password', body: () => ({ currentPassword: PASSWORD, newPassword: 'orchard-copper-thimble' }) },
   'GET /api/session': { access: 'public', path: () => '/api/session' },
   'GET /api/me/next': { access: 'user', path: () => '/api/me/next' },
   'PUT /api/me/rooms/:roomId/seen': { access: 'member', path: () => `/api/me/rooms/${ids.room}/seen` },
@@ -88,6 +89,7 @@ const cases: Record<string, Case> = {
   'DELETE /api/guilds/:guildId/members/:userId': { access: 'admin', path: () => `/api/guilds/${G()}/members/${NOPE}` },
   'GET /api/guilds/:guildId/invitations': { access: 'officer', path: () => `/api/guilds/${G()}/invitations` },
   'POST /api/guilds/:guildId/invitations': { access: 'officer', path: () => `/api/guilds/${G()}/invitations`, body: () => ({ email: uniqueEmail('inv'), role: 'member' }) },
+  'GET /api/guilds/:guildId/invitations/limits': { access: 'officer', path: () => `/api/guilds/${G()}/invitations/limits` },
   'DELETE /api/guilds/:guildId/invitations/:invitationId': { access: 'officer', path: () => `/api/guilds/${G()}/invitations/${NOPE}` },
   'GET /api/guilds/:guildId/sew-days': { access: 'member', path: () => `/api/guilds/${G()}/sew-days` },
   'POST /api/guilds/:guildId/sew-days': { access: 'officer', path: () => `/api/guilds/${G()}/sew-days`, body: () => sewDay },
@@ -199,7 +201,8 @@ describe('each role gets the expected answer', () => {
         if (status >= 500) return [`${role}: ${status}`];
         if (allowed.includes(role)) return status === 401 || status === 403 ? [`${role} should pass but got ${status}`] : [];
         if (role === 'signedOut') return status === 401 ? [] : [`signedOut should get 401, got ${status}`];
-        if (role === 'stranger') return status === 403 || status === 404 ? [] : [`stranger should get 403/404, got ${status}`];
+        // An outsider learns nothing from an id: 404 whether it exists or not (401/400 where no id is involved).
+        if (role === 'stranger') return status === 404 || status === 400 ? [] : [`stranger should get 404, got ${status}`];
         return status === 403 ? [] : [`${role} should get 403, got ${status}`];
       });
       expect(problems, JSON.stringify(got)).toEqual([]);

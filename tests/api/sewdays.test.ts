@@ -41,7 +41,7 @@ describe('scheduling', () => {
 
     const member = await g.member.agent.post(`/api/guilds/${g.guildId}/sew-days`).send(winterDay).expect(403);
     expect(member.body.error.code).toBe('forbidden');
-    await g.stranger.agent.post(`/api/guilds/${g.guildId}/sew-days`).send(winterDay).expect(403);
+    await g.stranger.agent.post(`/api/guilds/${g.guildId}/sew-days`).send(winterDay).expect(404);
     await app.agent().post(`/api/guilds/${g.guildId}/sew-days`).send(winterDay).expect(401);
   });
 
@@ -110,8 +110,8 @@ describe('answers', () => {
     );
     const bad = await g.member.agent.put(`/api/sew-days/${made.id}/rsvp`).send({ answer: 'perhaps' }).expect(400);
     expect(bad.body.error.fields.answer).toBe('Answer going, maybe or no.');
-    await g.stranger.agent.put(`/api/sew-days/${made.id}/rsvp`).send({ answer: 'going' }).expect(403);
-    await g.stranger.agent.get(`/api/sew-days/${made.id}`).expect(403);
+    await g.stranger.agent.put(`/api/sew-days/${made.id}/rsvp`).send({ answer: 'going' }).expect(404);
+    await g.stranger.agent.get(`/api/sew-days/${made.id}`).expect(404);
     await g.member.agent.get('/api/sew-days/999999').expect(404);
   });
 
@@ -158,8 +158,8 @@ describe('calendar file', () => {
     expect(cancelled.sequence).toBe(event.sequence + 1);
     expect(cancelled.component.getFirstPropertyValue('status')).toBe('CANCELLED');
 
-    await g.stranger.agent.get(`/api/sew-days/${made.id}/calendar.ics`).expect(403);
+    await g.stranger.agent.get(`/api/sew-days/${made.id}/calendar.ics`).expect(404);
     const outsider = await signedInUser(app);
-    await outsider.agent.get(`/api/sew-days/${made.id}/calendar.ics`).expect(403);
+    await outsider.agent.get(`/api/sew-days/${made.id}/calendar.ics`).expect(404);
   });
 });

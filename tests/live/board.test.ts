@@ -95,14 +95,14 @@ describe('live swap board', () => {
     expect(res.body.length).toBe(5);
     expect(res.body.map((a) => a.id)).toEqual([...res.body.map((a) => a.id)].sort((a, b) => b - a));
     expect(res.body[0]).toMatchObject({ kind: 'swap.updated', actor: { userId: g.coordinator.id } });
-    expect((await g.stranger.api('GET', `/swaps/${swapId}/activity`)).status).toBe(403);
+    expect((await g.stranger.api('GET', `/swaps/${swapId}/activity`)).status).toBe(404);
   });
 
   it('refuses a foreign-guild user and sends them nothing', async () => {
     const socket = await viewer(g.stranger);
     const seen = collect(socket, 'board:changed');
     const answer = await request<BoardJoined>(socket, 'board:join', { swapId });
-    expect(answer).toEqual({ error: { code: 'forbidden', message: 'You are not a member of this guild.' } });
+    expect(answer).toEqual({ error: { code: 'not_found', message: 'That swap does not exist.' } });
     const watcher = await viewer(g.member);
     await joinBoard(watcher);
     const arriving = nextEvent(watcher, 'board:changed');

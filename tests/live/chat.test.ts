@@ -152,7 +152,7 @@ describe('chat history', () => {
     expect(pages).toBe(3);
     expect(bodies).toEqual(Array.from({ length: 67 }, (_, i) => `Line ${67 - i}`));
     expect((await g.member.api('GET', `/chat/rooms/${id}/messages?limit=500`)).status).toBe(400);
-    expect((await g.stranger.api('GET', `/chat/rooms/${id}/messages`)).status).toBe(403);
+    expect((await g.stranger.api('GET', `/chat/rooms/${id}/messages`)).status).toBe(404);
   });
 });
 
@@ -160,11 +160,11 @@ describe('rooms, typing and presence', () => {
   it('refuses people from other guilds and rooms that do not exist', async () => {
     const socket = await connected(connect(node.url, g.stranger));
     sockets.push(socket);
-    expect(await request(socket, 'chat:join', { roomId })).toEqual({ error: { code: 'forbidden', message: 'You are not a member of this guild.' } });
+    expect(await request(socket, 'chat:join', { roomId })).toEqual({ error: { code: 'not_found', message: 'That chat room does not exist.' } });
     expect(await request(socket, 'chat:join', { roomId: 987654 })).toMatchObject({ error: { code: 'not_found' } });
     expect(await request(socket, 'message:send', { roomId, body: 'let me in' })).toMatchObject({ error: { code: 'forbidden' } });
     const outsider = await register(node.url);
-    expect((await outsider.api('POST', `/chat/rooms/${roomId}/messages`, { body: 'hello' })).status).toBe(403);
+    expect((await outsider.api('POST', `/chat/rooms/${roomId}/messages`, { body: 'hello' })).status).toBe(404);
   });
 
   it('shows who is typing to the others only, and who is here', async () => {
@@ -195,6 +195,6 @@ describe('rooms, typing and presence', () => {
     expect(first.status).toBe(200);
     expect(first.body).toMatchObject({ kind: 'swap', swapId, title: 'Harvest Stripes', canPost: true, canModerate: false });
     expect(again.body).toMatchObject({ id: first.body.id, canModerate: true });
-    expect((await g.stranger.api('GET', `/swaps/${swapId}/chat`)).status).toBe(403);
+    expect((await g.stranger.api('GET', `/swaps/${swapId}/chat`)).status).toBe(404);
   });
 });

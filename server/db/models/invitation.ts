@@ -13,6 +13,8 @@ export class Invitation extends Model<InferAttributes<Invitation>, InferCreation
   declare email: string;
   declare role: Role;
   declare tokenHash: string;
+  /** Anyone signed in may accept an open invitation; others only from the account with its address. */
+  declare open: CreationOptional<boolean>;
   declare invitedById: ForeignKey<User['id']> | null;
   declare expiresAt: Date;
   declare acceptedAt: CreationOptional<Date | null>;
@@ -28,6 +30,7 @@ export class Invitation extends Model<InferAttributes<Invitation>, InferCreation
         email: { type: DataTypes.STRING(254), allowNull: false },
         role: { type: DataTypes.STRING(16), allowNull: false },
         tokenHash: { type: DataTypes.STRING(64), allowNull: false, unique: true },
+        open: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         expiresAt: { type: DataTypes.DATE, allowNull: false },
         acceptedAt: { type: DataTypes.DATE, allowNull: true },
         acceptedById: { type: DataTypes.INTEGER, allowNull: true },
