@@ -8,6 +8,7 @@ import { randomBytes } from 'node:crypto';
 import { join, resolve } from 'node:path';
 import { clusterUrl, ensureDatabase, ensurePostgresBinaries, initCluster, startCluster, stopCluster } from './postgres';
 import { startMaildev, type MaildevHandle } from './maildev';
+import { startPaymentsFake, type PaymentsFake } from './payments-fake';
 import { startS3Fake, type S3FakeHandle } from './s3-fake';
 
 export const repoRoot = resolve(import.meta.dirname, '..', '..');
@@ -20,12 +21,14 @@ export interface LocalServices {
   stop(): Promise<void>;
 }
 
-/** A stable session secret per checkout, so restarts keep people signed in. */
-function sessionSecret() {
-  const file = join(dataDir, 'session-secret');
-  if (!existsSync(file)) writeFileSync(file, randomBytes(32).toString('hex'), { mode: 0o600 });
+/** A secret kept under .data/ so restarts keep it (sessions stay signed in, webhooks keep verifying). */
+function localSecret(name: string, make: () => string) {
+  const file = join(dataDir, name);
+  if (!existsSync(file)) writeFileSync(file, make(), { mode: 0o600 });
   return readFileSync(file, 'utf8').trim();
 }
+
+const sessionSecret = () => localSecret('session-secret', () => randomBytes(32).toString('hex'));
 
 /**
  * The database for local use: DATABASE_URL when set, else the cluster under .data/ (created and started
@@ -81,10 +84,35 @@ export async function startLocalServices(log: (msg: string) => void = console.lo
     log(`Photos go to the fake object store at ${s3.endpoint} (bucket "${s3.bucket}", files under .data/s3).`);
   }
 
+  // Payments: with no key of the real service, the local fake stands in for it (it moves no money).
+  let payments: PaymentsFake | null = null;
+  if (!process.env.STRIPE_SECRET_KEY) {
+    const port = Number(process.env.PAYMENTS_FAKE_PORT ?? 12111);
+    const appUrl = (process.env.PUBLIC_URL ?? `http://127.0.0.1:${process.env.PORT ?? 3000}`).replace(/\/$/, '');
+    const secret = localSecret('payments-webhook-secret', () => `whsec_${randomBytes(24).toString('hex')}`);
+    try {
+      payments = await startPaymentsFake({ port, endpoints: [{ url: `${appUrl}/api/payments/webhook`, secret }], log });
+    } catch (error) {
+      await s3?.stop();
+      await maildev?.stop();
+      database.stop();
+      throw new Error(`the local payments fake could not start on port ${port}: ${(error as Error).message}`, { cause: error });
+    }
+    Object.assign(env, {
+      STRIPE_SECRET_KEY: 'sk_test_blockpost_local',
+      STRIPE_WEBHOOK_SECRET: secret,
+      STRIPE_API_HOST: '127.0.0.1',
+      STRIPE_API_PORT: String(port),
+      STRIPE_API_PROTOCOL: 'http',
+    });
+    log(`Payments go to the local fake at ${payments.url} (a test checkout page; no money moves).`);
+  }
+
   return {
     env,
     maildevUrl: maildev ? `http://127.0.0.1:${maildev.webPort}` : null,
     async stop() {
+      await payments?.stop();
       await s3?.stop();
       await maildev?.stop();
       database.stop();

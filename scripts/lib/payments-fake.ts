@@ -147,7 +147,15 @@ export async function startPaymentsFake(opts: PaymentsFakeOptions = {}): Promise
 
   for (const e of opts.endpoints ?? []) {
     const id = newId('we');
-    endpoints.set(id, { id, object: 'webhook_endpoint', url: e.url, secret: e.secret, enabled_events: ['*'], status: 'enabled', created: now() });
+    endpoints.set(id, {
+      id,
+      object: 'webhook_endpoint',
+      url: e.url,
+      secret: e.secret,
+      enabled_events: ['*'],
+      status: 'enabled',
+      created: now(),
+    });
   }
 
   async function deliver(endpoint: Endpoint, event: { id: string; type: string }, payload: string) {
@@ -159,7 +167,11 @@ export async function startPaymentsFake(opts: PaymentsFakeOptions = {}): Promise
       try {
         const answer = await fetch(endpoint.url, {
           method: 'POST',
-          headers: { 'content-type': 'application/json; charset=utf-8', 'stripe-signature': signPayload(payload, endpoint.secret), 'user-agent': 'blockpost-payments-fake' },
+          headers: {
+            'content-type': 'application/json; charset=utf-8',
+            'stripe-signature': signPayload(payload, endpoint.secret),
+            'user-agent': 'blockpost-payments-fake',
+          },
           body: payload,
           signal: AbortSignal.timeout(10_000),
         });
@@ -174,12 +186,25 @@ export async function startPaymentsFake(opts: PaymentsFakeOptions = {}): Promise
   }
 
   function emit(type: string, object: unknown) {
-    const event = { id: newId('evt'), object: 'event', api_version: '2026-10-28.endive', created: now(), type, livemode: false, pending_webhooks: endpoints.size, request: { id: null, idempotency_key: null }, data: { object } };
+    const event = {
+      id: newId('evt'),
+      object: 'event',
+      api_version: '2026-10-28.endive',
+      created: now(),
+      type,
+      livemode: false,
+      pending_webhooks: endpoints.size,
+      request: { id: null, idempotency_key: null },
+      data: { object },
+    };
     const payload = JSON.stringify(event, null, 2);
     for (const endpoint of endpoints.values()) {
       if (!endpoint.enabled_events.includes('*') && !endpoint.enabled_events.includes(type)) continue;
       const previous = chains.get(endpoint.id) ?? Promise.resolve();
-      chains.set(endpoint.id, previous.then(() => deliver(endpoint, event, payload)));
+      chains.set(
+        endpoint.id,
+        previous.then(() => deliver(endpoint, event, payload)),
+      );
     }
   }
 
@@ -196,7 +221,8 @@ export async function startPaymentsFake(opts: PaymentsFakeOptions = {}): Promise
   api.use(express.urlencoded({ extended: true, limit: '100kb' }));
   api.use((req, res, next) => {
     const auth = req.get('authorization') ?? '';
-    if (!/^Bearer sk_test_\w{1,200}$/.test(auth)) return apiError(res, 401, 'Invalid API key provided: the local fake takes any key starting with sk_test_.');
+    if (!/^Bearer sk_test_\w{1,200}$/.test(auth))
+      return apiError(res, 401, 'Invalid API key provided: the local fake takes any key starting with sk_test_.');
     // The SDK retries POSTs with the same Idempotency-Key; answer a repeat with the first answer.
     const key = req.method === 'POST' ? req.get('idempotency-key') : undefined;
     if (key && idempotent.has(key)) {
@@ -216,7 +242,8 @@ export async function startPaymentsFake(opts: PaymentsFakeOptions = {}): Promise
   api.post('/checkout/sessions', (req, res) => {
     const body = req.body as Record<string, unknown>;
     if (body.mode !== 'payment') return apiError(res, 400, 'The local fake supports mode=payment only.', 'mode');
-    if (typeof body.success_url !== 'string' || !/^https?:\/\//.test(body.success_url)) return apiError(res, 400, 'Missing required param: success_url.', 'success_url');
+    if (typeof body.success_url !== 'string' || !/^https?:\/\//.test(body.success_url))
+      return apiError(res, 400, 'Missing required param: success_url.', 'success_url');
     const rawLines = Array.isArray(body.line_items) ? (body.line_items as Record<string, unknown>[]) : [];
     if (rawLines.length === 0) return apiError(res, 400, 'Missing required param: line_items.', 'line_items');
     const lines: LineItem[] = [];
@@ -226,9 +253,17 @@ export async function startPaymentsFake(opts: PaymentsFakeOptions = {}): Promise
       const product = (price.product_data ?? {}) as Record<string, unknown>;
       const unitAmount = Number(price.unit_amount);
       const quantity = Number(raw.quantity ?? 1);
-      if (!Number.isInteger(unitAmount) || unitAmount <= 0) return apiError(res, 400, `Invalid integer: line_items[${i}][price_data][unit_amount].`, `line_items[${i}][price_data][unit_amount]`);
-      if (!Number.isInteger(quantity) || quantity < 1) return apiError(res, 400, `Invalid integer: line_items[${i}][quantity].`, `line_items[${i}][quantity]`);
-      if (typeof price.currency !== 'string') return apiError(res, 400, `Missing required param: line_items[${i}][price_data][currency].`);
+      if (!Number.isInteger(unitAmount) || unitAmount <= 0)
+        return apiError(
+          res,
+          400,
+          `Invalid integer: line_items[${i}][price_data][unit_amount].`,
+          `line_items[${i}][price_data][unit_amount]`,
+        );
+      if (!Number.isInteger(quantity) || quantity < 1)
+        return apiError(res, 400, `Invalid integer: line_items[${i}][quantity].`, `line_items[${i}][quantity]`);
+      if (typeof price.currency !== 'string')
+        return apiError(res, 400, `Missing required param: line_items[${i}][price_data][currency].`);
       if (currency && price.currency !== currency) return apiError(res, 400, 'All line items must use the same currency.');
       currency = price.currency;
       lines.push({ name: typeof product.name === 'string' ? product.name : 'Item', unitAmount, quantity });
@@ -269,7 +304,8 @@ export async function startPaymentsFake(opts: PaymentsFakeOptions = {}): Promise
   api.post('/checkout/sessions/:id/expire', (req, res) => {
     const session = sessions.get(req.params.id!);
     if (!session) return apiError(res, 404, `No such checkout.session: '${req.params.id}'`);
-    if (session.status !== 'open') return apiError(res, 400, `Only open checkout sessions can be expired; this one is ${session.status}.`);
+    if (session.status !== 'open')
+      return apiError(res, 400, `Only open checkout sessions can be expired; this one is ${session.status}.`);
     expire(session);
     res.json(publicSession(session));
   });
@@ -278,13 +314,29 @@ export async function startPaymentsFake(opts: PaymentsFakeOptions = {}): Promise
     const body = req.body as Record<string, unknown>;
     const intent = typeof body.payment_intent === 'string' ? intents.get(body.payment_intent) : undefined;
     if (!intent) return apiError(res, 400, `No such payment_intent: '${String(body.payment_intent)}'`, 'payment_intent');
-    if (intent.status !== 'succeeded') return apiError(res, 400, 'This payment was never completed, so there is nothing to refund.');
+    if (intent.status !== 'succeeded')
+      return apiError(res, 400, 'This payment was never completed, so there is nothing to refund.');
     const left = intent.amount_received - intent.refunded;
     const amount = body.amount === undefined ? left : Number(body.amount);
     if (!Number.isInteger(amount) || amount <= 0) return apiError(res, 400, 'Invalid integer: amount.', 'amount');
-    if (amount > left) return apiError(res, 400, `Refund amount (${amount}) is greater than the unrefunded amount on the payment (${left}).`, 'amount');
+    if (amount > left)
+      return apiError(
+        res,
+        400,
+        `Refund amount (${amount}) is greater than the unrefunded amount on the payment (${left}).`,
+        'amount',
+      );
     intent.refunded += amount;
-    const refund: Refund = { id: newId('re'), object: 'refund', amount, currency: intent.currency, payment_intent: intent.id, status: 'pending', metadata: metadataOf(body.metadata), created: now() };
+    const refund: Refund = {
+      id: newId('re'),
+      object: 'refund',
+      amount,
+      currency: intent.currency,
+      payment_intent: intent.id,
+      status: 'pending',
+      metadata: metadataOf(body.metadata),
+      created: now(),
+    };
     refunds.set(refund.id, refund);
     emit('refund.created', { ...refund });
     // The real service settles a card refund a little later and says so with refund.updated.
@@ -309,9 +361,20 @@ export async function startPaymentsFake(opts: PaymentsFakeOptions = {}): Promise
 
   api.post('/webhook_endpoints', (req, res) => {
     const body = req.body as Record<string, unknown>;
-    if (typeof body.url !== 'string' || !/^https?:\/\//.test(body.url)) return apiError(res, 400, 'Missing required param: url.', 'url');
-    const events = Array.isArray(body.enabled_events) ? (body.enabled_events as unknown[]).filter((e): e is string => typeof e === 'string') : [];
-    const endpoint: Endpoint = { id: newId('we'), object: 'webhook_endpoint', url: body.url, secret: `whsec_${randomBytes(24).toString('hex')}`, enabled_events: events.length ? events : ['*'], status: 'enabled', created: now() };
+    if (typeof body.url !== 'string' || !/^https?:\/\//.test(body.url))
+      return apiError(res, 400, 'Missing required param: url.', 'url');
+    const events = Array.isArray(body.enabled_events)
+      ? (body.enabled_events as unknown[]).filter((e): e is string => typeof e === 'string')
+      : [];
+    const endpoint: Endpoint = {
+      id: newId('we'),
+      object: 'webhook_endpoint',
+      url: body.url,
+      secret: `whsec_${randomBytes(24).toString('hex')}`,
+      enabled_events: events.length ? events : ['*'],
+      status: 'enabled',
+      created: now(),
+    };
     endpoints.set(endpoint.id, endpoint);
     res.json(endpoint);
   });
@@ -322,7 +385,13 @@ export async function startPaymentsFake(opts: PaymentsFakeOptions = {}): Promise
     res.json({ id: req.params.id, object: 'webhook_endpoint', deleted: true });
   });
 
-  api.use((req, res) => apiError(res, 404, `Unrecognized request URL (${req.method}: ${req.path}). The local fake answers only the calls Blockpost makes.`));
+  api.use((req, res) =>
+    apiError(
+      res,
+      404,
+      `Unrecognized request URL (${req.method}: ${req.path}). The local fake answers only the calls Blockpost makes.`,
+    ),
+  );
   app.use('/v1', api);
 
   // The hosted checkout page, in the fake's own plain look and clearly marked as a test page.
@@ -349,15 +418,28 @@ ${body}
     if (!session) return res.status(404).send(page('Not found', '<h1>This checkout does not exist</h1>'));
     if (session.status === 'open' && session.expires_at <= now()) expire(session);
     if (session.status === 'expired') {
-      const back = session.cancel_url ? `<p><a class="button" href="${escapeHtml(session.cancel_url)}">Back to Blockpost</a></p>` : '';
+      const back = session.cancel_url
+        ? `<p><a class="button" href="${escapeHtml(session.cancel_url)}">Back to Blockpost</a></p>`
+        : '';
       return res.send(page('Expired', `<h1>This checkout has expired</h1><p>Start the payment again from Blockpost.</p>${back}`));
     }
     if (session.status === 'complete') {
-      return res.send(page('Paid', `<h1>Already paid</h1><p><a class="button" href="${escapeHtml(session.success_url.replace('{CHECKOUT_SESSION_ID}', session.id))}">Back to Blockpost</a></p>`));
+      return res.send(
+        page(
+          'Paid',
+          `<h1>Already paid</h1><p><a class="button" href="${escapeHtml(session.success_url.replace('{CHECKOUT_SESSION_ID}', session.id))}">Back to Blockpost</a></p>`,
+        ),
+      );
     }
-    const declined = req.query.declined === '1' ? '<p role="alert"><strong>The test payment was declined.</strong> Nothing was charged. Try again, or go back.</p>' : '';
+    const declined =
+      req.query.declined === '1'
+        ? '<p role="alert"><strong>The test payment was declined.</strong> Nothing was charged. Try again, or go back.</p>'
+        : '';
     const rows = session.lineItems
-      .map((l) => `<tr><td>${escapeHtml(l.name)}${l.quantity > 1 ? ` × ${l.quantity}` : ''}</td><td>${escapeHtml(money(l.unitAmount * l.quantity, session.currency))}</td></tr>`)
+      .map(
+        (l) =>
+          `<tr><td>${escapeHtml(l.name)}${l.quantity > 1 ? ` × ${l.quantity}` : ''}</td><td>${escapeHtml(money(l.unitAmount * l.quantity, session.currency))}</td></tr>`,
+      )
       .join('');
     const back = session.cancel_url ? `<a class="button" href="${escapeHtml(session.cancel_url)}">Back without paying</a>` : '';
     res.send(
@@ -377,7 +459,19 @@ ${back}`,
     if (!session || session.status !== 'open') return res.redirect(303, `/checkout/${encodeURIComponent(req.params.id!)}`);
     let intent = session.payment_intent ? intents.get(session.payment_intent) : undefined;
     if (!intent) {
-      intent = { id: newId('pi'), object: 'payment_intent', amount: session.amount_total, amount_received: 0, currency: session.currency, status: 'requires_payment_method', metadata: session.intentMetadata, last_payment_error: null, created: now(), livemode: false, refunded: 0 };
+      intent = {
+        id: newId('pi'),
+        object: 'payment_intent',
+        amount: session.amount_total,
+        amount_received: 0,
+        currency: session.currency,
+        status: 'requires_payment_method',
+        metadata: session.intentMetadata,
+        last_payment_error: null,
+        created: now(),
+        livemode: false,
+        refunded: 0,
+      };
       intents.set(intent.id, intent);
     }
     intent.status = 'succeeded';
@@ -397,7 +491,19 @@ ${back}`,
     if (!session || session.status !== 'open') return res.redirect(303, `/checkout/${encodeURIComponent(req.params.id!)}`);
     let intent = session.payment_intent ? intents.get(session.payment_intent) : undefined;
     if (!intent) {
-      intent = { id: newId('pi'), object: 'payment_intent', amount: session.amount_total, amount_received: 0, currency: session.currency, status: 'requires_payment_method', metadata: session.intentMetadata, last_payment_error: null, created: now(), livemode: false, refunded: 0 };
+      intent = {
+        id: newId('pi'),
+        object: 'payment_intent',
+        amount: session.amount_total,
+        amount_received: 0,
+        currency: session.currency,
+        status: 'requires_payment_method',
+        metadata: session.intentMetadata,
+        last_payment_error: null,
+        created: now(),
+        livemode: false,
+        refunded: 0,
+      };
       intents.set(intent.id, intent);
       session.payment_intent = intent.id;
     }

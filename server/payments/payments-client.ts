@@ -15,6 +15,11 @@ export function paymentsEnabled(config: PaymentsConfig): boolean {
   return Boolean(config.STRIPE_SECRET_KEY);
 }
 
+/** Test keys (and the local fake's) move no money; the screens say so. */
+export function paymentsTestMode(config: PaymentsConfig): boolean {
+  return Boolean(config.STRIPE_SECRET_KEY?.startsWith('sk_test_'));
+}
+
 export class PaymentsOffError extends AppError {
   constructor() {
     super(503, 'payments_off', 'Online payments are not set up on this Blockpost yet. Ask your guild’s treasurer how to pay.');
@@ -24,7 +29,11 @@ export class PaymentsOffError extends AppError {
 /** The payment service did not answer or refused: nothing was charged. */
 export class PaymentServiceError extends AppError {
   constructor(detail?: string) {
-    super(502, 'payment_service', `The payment service did not take the request${detail ? ` (${detail})` : ''}. Nothing was charged; please try again in a minute.`);
+    super(
+      502,
+      'payment_service',
+      `The payment service did not take the request${detail ? ` (${detail})` : ''}. Nothing was charged; please try again in a minute.`,
+    );
   }
 }
 

@@ -60,7 +60,10 @@ export interface GuildPaymentSettingsRow {
 }
 
 export async function guildSettings(db: Db, guildId: number): Promise<GuildPaymentSettingsRow | null> {
-  const { rows } = await db.query<GuildPaymentSettingsRow>('SELECT id, name, currency, dues_amount, dues_year FROM guilds WHERE id = $1', [guildId]);
+  const { rows } = await db.query<GuildPaymentSettingsRow>(
+    'SELECT id, name, currency, dues_amount, dues_year FROM guilds WHERE id = $1',
+    [guildId],
+  );
   return rows[0] ?? null;
 }
 
@@ -83,7 +86,10 @@ export async function duesPayments(db: Db, guildId: number, year: number, userId
 }
 
 /** Members signed up for a swap (active sign-ups), with whether any of their blocks went by post. */
-export async function swapParticipants(db: Db, swapId: number): Promise<{ user_id: number; display_name: string; by_post: boolean }[]> {
+export async function swapParticipants(
+  db: Db,
+  swapId: number,
+): Promise<{ user_id: number; display_name: string; by_post: boolean }[]> {
   const { rows } = await db.query<{ user_id: number; display_name: string; by_post: boolean }>(
     `SELECT su.user_id, u.display_name,
             EXISTS (SELECT 1 FROM blocks b WHERE b.swap_id = su.swap_id AND b.maker_id = su.user_id AND b.hand_in_how = 'post') AS by_post
@@ -115,7 +121,15 @@ export async function guildMembers(db: Db, guildId: number): Promise<{ user_id: 
 
 export async function insertPayment(
   db: Db,
-  p: { guildId: number; userId: number; swapId: number | null; kind: PaymentKind; year: number | null; amount: number; currency: string },
+  p: {
+    guildId: number;
+    userId: number;
+    swapId: number | null;
+    kind: PaymentKind;
+    year: number | null;
+    amount: number;
+    currency: string;
+  },
 ): Promise<PaymentRow> {
   const { rows } = await db.query<PaymentRow>(
     `INSERT INTO payments (guild_id, user_id, swap_id, kind, dues_year, amount, currency)
@@ -134,7 +148,10 @@ export async function deletePayments(db: Db, ids: number[]) {
 }
 
 /** Pending payments of the same person for the same thing, whose checkout should be closed first. */
-export async function pendingLike(db: Db, p: { userId: number; kinds: PaymentKind[]; swapId: number | null; guildId: number; year: number | null }) {
+export async function pendingLike(
+  db: Db,
+  p: { userId: number; kinds: PaymentKind[]; swapId: number | null; guildId: number; year: number | null },
+) {
   const { rows } = await db.query<PaymentRow>(
     `SELECT * FROM payments
       WHERE user_id = $1 AND kind = ANY($2::text[]) AND status = 'pending' AND guild_id = $3
@@ -146,11 +163,17 @@ export async function pendingLike(db: Db, p: { userId: number; kinds: PaymentKin
 
 /** Records an event id; false when it was seen before (a repeat changes nothing). */
 export async function recordEvent(db: Db, eventId: string, type: string): Promise<boolean> {
-  const { rowCount } = await db.query('INSERT INTO payment_events (event_id, type) VALUES ($1, $2) ON CONFLICT (event_id) DO NOTHING', [eventId, type]);
+  const { rowCount } = await db.query(
+    'INSERT INTO payment_events (event_id, type) VALUES ($1, $2) ON CONFLICT (event_id) DO NOTHING',
+    [eventId, type],
+  );
   return rowCount === 1;
 }
 
-export async function lockPayments(db: Db, where: { ids?: number[]; sessionId?: string; intentId?: string }): Promise<PaymentRow[]> {
+export async function lockPayments(
+  db: Db,
+  where: { ids?: number[]; sessionId?: string; intentId?: string },
+): Promise<PaymentRow[]> {
   const { rows } = await db.query<PaymentRow>(
     `SELECT * FROM payments
       WHERE ($1::int[] IS NOT NULL AND id = ANY($1::int[]))
@@ -165,7 +188,19 @@ export async function lockPayments(db: Db, where: { ids?: number[]; sessionId?: 
 export async function updatePayment(
   db: Db,
   id: number,
-  patch: Partial<Pick<PaymentRow, 'status' | 'status_reason' | 'payment_intent_id' | 'refund_id' | 'refund_error' | 'paid_at' | 'refunded_at' | 'refund_requested_at'>>,
+  patch: Partial<
+    Pick<
+      PaymentRow,
+      | 'status'
+      | 'status_reason'
+      | 'payment_intent_id'
+      | 'refund_id'
+      | 'refund_error'
+      | 'paid_at'
+      | 'refunded_at'
+      | 'refund_requested_at'
+    >
+  >,
 ) {
   const columns = Object.keys(patch) as (keyof typeof patch)[];
   if (columns.length === 0) return;
@@ -222,6 +257,9 @@ export async function paymentById(db: Db, id: number): Promise<PaymentRow | null
 }
 
 export async function userEmail(db: Db, userId: number): Promise<{ email: string; display_name: string } | null> {
-  const { rows } = await db.query<{ email: string; display_name: string }>('SELECT email, display_name FROM users WHERE id = $1', [userId]);
+  const { rows } = await db.query<{ email: string; display_name: string }>(
+    'SELECT email, display_name FROM users WHERE id = $1',
+    [userId],
+  );
   return rows[0] ?? null;
 }

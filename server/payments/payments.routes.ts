@@ -7,8 +7,15 @@ import { type z } from 'zod';
 import { guildParamsSchema } from '@shared/schemas/guilds';
 import { swapParamsSchema } from '@shared/schemas/swaps';
 import {
-  duesCheckoutSchema, formatMoney, guildPaymentsQuerySchema, myPaymentsQuerySchema, paymentKindLabels, paymentParamsSchema,
-  paymentStatusLabels, swapCheckoutSchema, type GuildPaymentsDto,
+  duesCheckoutSchema,
+  formatMoney,
+  guildPaymentsQuerySchema,
+  myPaymentsQuerySchema,
+  paymentKindLabels,
+  paymentParamsSchema,
+  paymentStatusLabels,
+  swapCheckoutSchema,
+  type GuildPaymentsDto,
 } from '@shared/schemas/payments';
 import { validate } from '../http/validate';
 import { currentUser, requireUser } from '../auth/require-user';
@@ -32,10 +39,33 @@ export function paymentsWebhookRouter(deps: AppDeps) {
 }
 
 function paymentsCsv(guildName: string, dto: GuildPaymentsDto) {
-  const header = ['Date', 'Member', 'What', 'Swap', 'Year', 'Amount', 'Currency', 'Status', 'Status (words)', 'Paid at', 'Refunded at', 'Note'];
+  const header = [
+    'Date',
+    'Member',
+    'What',
+    'Swap',
+    'Year',
+    'Amount',
+    'Currency',
+    'Status',
+    'Status (words)',
+    'Paid at',
+    'Refunded at',
+    'Note',
+  ];
   const rows = dto.payments.map((p) => [
-    p.createdAt, p.displayName, paymentKindLabels[p.kind], p.swapTitle ?? '', p.year ?? '', formatMoney(p.amount, p.currency).replace(/[^\d.,-]/g, ''),
-    p.currency.toUpperCase(), p.status, paymentStatusLabels[p.status], p.paidAt ?? '', p.refundedAt ?? '', p.refundError ?? p.statusReason ?? '',
+    p.createdAt,
+    p.displayName,
+    paymentKindLabels[p.kind],
+    p.swapTitle ?? '',
+    p.year ?? '',
+    formatMoney(p.amount, p.currency).replace(/[^\d.,-]/g, ''),
+    p.currency.toUpperCase(),
+    p.status,
+    paymentStatusLabels[p.status],
+    p.paidAt ?? '',
+    p.refundedAt ?? '',
+    p.refundError ?? p.statusReason ?? '',
   ]);
   return { fileName: `${slug(guildName)}-payments.csv`, body: csv(header, rows) };
 }
@@ -56,13 +86,18 @@ export function paymentsRouter(deps: AppDeps) {
     res.json(await payments.swapFees(deps, swapId, user.id, canManage));
   });
 
-  router.post('/swaps/:swapId/checkout', requireUser, validate({ params: swapParamsSchema, body: swapCheckoutSchema }), async (req, res) => {
-    const { swapId } = req.params as unknown as SwapParams;
-    const user = currentUser(req);
-    await canPaySwap(user.id, swapId);
-    const { kinds } = req.body as z.infer<typeof swapCheckoutSchema>;
-    res.json(await payments.startSwapCheckout(deps, swapId, user.id, kinds));
-  });
+  router.post(
+    '/swaps/:swapId/checkout',
+    requireUser,
+    validate({ params: swapParamsSchema, body: swapCheckoutSchema }),
+    async (req, res) => {
+      const { swapId } = req.params as unknown as SwapParams;
+      const user = currentUser(req);
+      await canPaySwap(user.id, swapId);
+      const { kinds } = req.body as z.infer<typeof swapCheckoutSchema>;
+      res.json(await payments.startSwapCheckout(deps, swapId, user.id, kinds));
+    },
+  );
 
   router.get('/guilds/:guildId/dues', requireUser, validate({ params: guildParamsSchema }), async (req, res) => {
     const { guildId } = req.params as unknown as GuildParams;
@@ -71,28 +106,38 @@ export function paymentsRouter(deps: AppDeps) {
     res.json(await payments.guildDues(deps, guildId, user.id, isTreasurer));
   });
 
-  router.post('/guilds/:guildId/dues/checkout', requireUser, validate({ params: guildParamsSchema, body: duesCheckoutSchema }), async (req, res) => {
-    const { guildId } = req.params as unknown as GuildParams;
-    const user = currentUser(req);
-    await canPayGuild(user.id, guildId);
-    res.json(await payments.startDuesCheckout(deps, guildId, user.id));
-  });
+  router.post(
+    '/guilds/:guildId/dues/checkout',
+    requireUser,
+    validate({ params: guildParamsSchema, body: duesCheckoutSchema }),
+    async (req, res) => {
+      const { guildId } = req.params as unknown as GuildParams;
+      const user = currentUser(req);
+      await canPayGuild(user.id, guildId);
+      res.json(await payments.startDuesCheckout(deps, guildId, user.id));
+    },
+  );
 
-  router.get('/guilds/:guildId/payments', requireUser, validate({ params: guildParamsSchema, query: guildPaymentsQuerySchema }), async (req, res) => {
-    const { guildId } = req.params as unknown as GuildParams;
-    await canTreasure(currentUser(req).id, guildId);
-    const { format, ...filters } = req.query as z.infer<typeof guildPaymentsQuerySchema>;
-    const dto = await payments.guildPayments(deps, guildId, filters);
-    if (format !== 'csv') return void res.json(dto);
-    const { rows } = await deps.pool.query<{ name: string }>('SELECT name FROM guilds WHERE id = $1', [guildId]);
-    const file = paymentsCsv(rows[0]?.name ?? 'guild', dto);
-    res
-      .status(200)
-      .set('Content-Type', 'text/csv; charset=utf-8')
-      .set('Content-Disposition', `attachment; filename="${file.fileName}"`)
-      .set('Cache-Control', 'no-store')
-      .send(file.body);
-  });
+  router.get(
+    '/guilds/:guildId/payments',
+    requireUser,
+    validate({ params: guildParamsSchema, query: guildPaymentsQuerySchema }),
+    async (req, res) => {
+      const { guildId } = req.params as unknown as GuildParams;
+      await canTreasure(currentUser(req).id, guildId);
+      const { format, ...filters } = req.query as z.infer<typeof guildPaymentsQuerySchema>;
+      const dto = await payments.guildPayments(deps, guildId, filters);
+      if (format !== 'csv') return void res.json(dto);
+      const { rows } = await deps.pool.query<{ name: string }>('SELECT name FROM guilds WHERE id = $1', [guildId]);
+      const file = paymentsCsv(rows[0]?.name ?? 'guild', dto);
+      res
+        .status(200)
+        .set('Content-Type', 'text/csv; charset=utf-8')
+        .set('Content-Disposition', `attachment; filename="${file.fileName}"`)
+        .set('Cache-Control', 'no-store')
+        .send(file.body);
+    },
+  );
 
   router.post(
     '/guilds/:guildId/payments/:paymentId/refund',

@@ -6,11 +6,20 @@
 import type Stripe from 'stripe';
 import type { AppDeps } from '../deps';
 import {
-  paymentKindLabels, type FeeLine, type FeeStanding, type GuildDuesDto, type GuildPaymentDto, type GuildPaymentsDto, type GuildPaymentsQuery,
-  type MyPaymentDto, type PaymentKind, type PaymentTotals, type SwapFeesDto,
+  paymentKindLabels,
+  type FeeLine,
+  type FeeStanding,
+  type GuildDuesDto,
+  type GuildPaymentDto,
+  type GuildPaymentsDto,
+  type GuildPaymentsQuery,
+  type MyPaymentDto,
+  type PaymentKind,
+  type PaymentTotals,
+  type SwapFeesDto,
 } from '@shared/schemas/payments';
 import { ConflictError, NotFoundError } from '../http/errors';
-import { callService, paymentsClient, paymentsEnabled } from './payments-client';
+import { callService, paymentsClient, paymentsEnabled, paymentsTestMode } from './payments-client';
 import * as q from './payments.queries';
 import type { PaymentListRow, PaymentRow } from './payments.queries';
 
@@ -27,11 +36,30 @@ export function standingOf(owed: boolean, rows: Pick<PaymentRow, 'status'>[]): F
 /** Still to pay: owed and neither paid nor waiting on the service. */
 const payable = (standing: FeeStanding) => standing === 'owed' || standing === 'failed';
 
-function feeLines(fees: { entry: number; postage: number }, who: { signed_up: boolean; by_post: boolean }, rows: PaymentRow[]): FeeLine[] {
+function feeLines(
+  fees: { entry: number; postage: number },
+  who: { signed_up: boolean; by_post: boolean },
+  rows: PaymentRow[],
+): FeeLine[] {
   const lines: FeeLine[] = [];
-  if (fees.entry > 0) lines.push({ kind: 'entry', amount: fees.entry, standing: standingOf(who.signed_up, rows.filter((r) => r.kind === 'entry')) });
+  if (fees.entry > 0)
+    lines.push({
+      kind: 'entry',
+      amount: fees.entry,
+      standing: standingOf(
+        who.signed_up,
+        rows.filter((r) => r.kind === 'entry'),
+      ),
+    });
   if (fees.postage > 0) {
-    lines.push({ kind: 'postage', amount: fees.postage, standing: standingOf(who.signed_up && who.by_post, rows.filter((r) => r.kind === 'postage')) });
+    lines.push({
+      kind: 'postage',
+      amount: fees.postage,
+      standing: standingOf(
+        who.signed_up && who.by_post,
+        rows.filter((r) => r.kind === 'postage'),
+      ),
+    });
   }
   return lines;
 }
@@ -42,7 +70,14 @@ export async function swapFees(deps: Deps, swapId: number, userId: number, canMa
   if (!swap) throw new NotFoundError('That swap does not exist.');
   const fees = { entry: swap.entry_fee, postage: swap.postage_fee };
   const [me, myRows] = await Promise.all([q.isSignedUp(deps.pool, swapId, userId), q.paymentsForSwap(deps.pool, swapId, userId)]);
-  const dto: SwapFeesDto = { swapId, currency: swap.currency, fees, enabled: paymentsEnabled(deps.config), mine: feeLines(fees, me, myRows) };
+  const dto: SwapFeesDto = {
+    swapId,
+    currency: swap.currency,
+    fees,
+    enabled: paymentsEnabled(deps.config),
+    testMode: paymentsTestMode(deps.config),
+    mine: feeLines(fees, me, myRows),
+  };
   if (canManage && (fees.entry > 0 || fees.postage > 0)) {
     const [people, all] = await Promise.all([q.swapParticipants(deps.pool, swapId), q.paymentsForSwap(deps.pool, swapId, null)]);
     dto.members = people.map((p) => {
@@ -60,12 +95,29 @@ export async function guildDues(deps: Deps, guildId: number, userId: number, isA
   const guild = await q.guildSettings(deps.pool, guildId);
   if (!guild) throw new NotFoundError('That guild does not exist.');
   const dues = guild.dues_amount && guild.dues_year ? { amount: guild.dues_amount, year: guild.dues_year } : null;
-  const dto: GuildDuesDto = { guildId, currency: guild.currency, dues, enabled: paymentsEnabled(deps.config), mine: 'not_owed' };
+  const dto: GuildDuesDto = {
+    guildId,
+    currency: guild.currency,
+    dues,
+    enabled: paymentsEnabled(deps.config),
+    testMode: paymentsTestMode(deps.config),
+    mine: 'not_owed',
+  };
   if (!dues) return dto;
   dto.mine = standingOf(true, await q.duesPayments(deps.pool, guildId, dues.year, userId));
   if (isAdmin) {
-    const [members, all] = await Promise.all([q.guildMembers(deps.pool, guildId), q.duesPayments(deps.pool, guildId, dues.year, null)]);
-    dto.members = members.map((m) => ({ userId: m.user_id, displayName: m.display_name, standing: standingOf(true, all.filter((r) => r.user_id === m.user_id)) }));
+    const [members, all] = await Promise.all([
+      q.guildMembers(deps.pool, guildId),
+      q.duesPayments(deps.pool, guildId, dues.year, null),
+    ]);
+    dto.members = members.map((m) => ({
+      userId: m.user_id,
+      displayName: m.display_name,
+      standing: standingOf(
+        true,
+        all.filter((r) => r.user_id === m.user_id),
+      ),
+    }));
   }
   return dto;
 }
@@ -86,11 +138,26 @@ async function openCheckout(
   lines: CheckoutLine[],
 ): Promise<{ url: string }> {
   const stripe = paymentsClient(deps.config);
-  await closeEarlierCheckouts(deps, stripe, ctx, lines.map((l) => l.kind));
+  await closeEarlierCheckouts(
+    deps,
+    stripe,
+    ctx,
+    lines.map((l) => l.kind),
+  );
 
   const rows: PaymentRow[] = [];
   for (const line of lines) {
-    rows.push(await q.insertPayment(deps.pool, { guildId: ctx.guildId, userId: ctx.userId, swapId: ctx.swapId, kind: line.kind, year: ctx.year, amount: line.amount, currency: ctx.currency }));
+    rows.push(
+      await q.insertPayment(deps.pool, {
+        guildId: ctx.guildId,
+        userId: ctx.userId,
+        swapId: ctx.swapId,
+        kind: line.kind,
+        year: ctx.year,
+        amount: line.amount,
+        currency: ctx.currency,
+      }),
+    );
   }
   const ids = rows.map((r) => r.id);
   const who = await q.userEmail(deps.pool, ctx.userId);
@@ -103,7 +170,10 @@ async function openCheckout(
       stripe.checkout.sessions.create(
         {
           mode: 'payment',
-          line_items: lines.map((l) => ({ quantity: 1, price_data: { currency: ctx.currency, unit_amount: l.amount, product_data: { name: l.label } } })),
+          line_items: lines.map((l) => ({
+            quantity: 1,
+            price_data: { currency: ctx.currency, unit_amount: l.amount, product_data: { name: l.label } },
+          })),
           success_url: `${base}/payments/return?session_id={CHECKOUT_SESSION_ID}&back=${back}`,
           cancel_url: `${base}/payments/return?cancelled=1&back=${back}`,
           client_reference_id: `user-${ctx.userId}`,
@@ -130,38 +200,66 @@ async function closeEarlierCheckouts(
   ctx: { guildId: number; userId: number; swapId: number | null; year: number | null },
   kinds: PaymentKind[],
 ) {
-  const earlier = await q.pendingLike(deps.pool, { userId: ctx.userId, kinds, swapId: ctx.swapId, guildId: ctx.guildId, year: ctx.year });
+  const earlier = await q.pendingLike(deps.pool, {
+    userId: ctx.userId,
+    kinds,
+    swapId: ctx.swapId,
+    guildId: ctx.guildId,
+    year: ctx.year,
+  });
   const sessions = new Set(earlier.map((r) => r.checkout_session_id).filter((s): s is string => Boolean(s)));
   for (const id of sessions) {
     const session = await callService(() => stripe.checkout.sessions.retrieve(id));
     if (session.status === 'complete') {
-      throw new ConflictError('Your earlier payment for this went through; we are waiting for the payment service to confirm it. Refresh this page in a minute.', 'payment_in_flight');
+      throw new ConflictError(
+        'Your earlier payment for this went through; we are waiting for the payment service to confirm it. Refresh this page in a minute.',
+        'payment_in_flight',
+      );
     }
     if (session.status === 'open') await callService(() => stripe.checkout.sessions.expire(id));
   }
-  for (const row of earlier) await q.updatePayment(deps.pool, row.id, { status: 'failed', status_reason: 'Replaced by a newer checkout.' });
+  for (const row of earlier)
+    await q.updatePayment(deps.pool, row.id, { status: 'failed', status_reason: 'Replaced by a newer checkout.' });
 }
 
 /** Checkout for the caller's unpaid swap fees (all of them, or the kinds asked for). */
-export async function startSwapCheckout(deps: Deps, swapId: number, userId: number, kinds?: ('entry' | 'postage')[]): Promise<{ url: string }> {
+export async function startSwapCheckout(
+  deps: Deps,
+  swapId: number,
+  userId: number,
+  kinds?: ('entry' | 'postage')[],
+): Promise<{ url: string }> {
   const swap = await q.swapFeeRow(deps.pool, swapId);
   if (!swap) throw new NotFoundError('That swap does not exist.');
-  if (swap.state === 'cancelled' || swap.state === 'complete') throw new ConflictError(`This swap is ${swap.state}; it takes no more payments.`, 'swap_closed');
+  if (swap.state === 'cancelled' || swap.state === 'complete')
+    throw new ConflictError(`This swap is ${swap.state}; it takes no more payments.`, 'swap_closed');
   const fees = { entry: swap.entry_fee, postage: swap.postage_fee };
   if (fees.entry === 0 && fees.postage === 0) throw new ConflictError('This swap has no fee to pay.', 'nothing_owed');
   const [me, rows] = await Promise.all([q.isSignedUp(deps.pool, swapId, userId), q.paymentsForSwap(deps.pool, swapId, userId)]);
-  if (!me.signed_up) throw new ConflictError('Sign up for the swap first; its fees are for members who take part.', 'not_signed_up');
-  const wanted = feeLines(fees, me, rows).filter((l) => payable(l.standing) && (!kinds || kinds.includes(l.kind as 'entry' | 'postage')));
+  if (!me.signed_up)
+    throw new ConflictError('Sign up for the swap first; its fees are for members who take part.', 'not_signed_up');
+  const wanted = feeLines(fees, me, rows).filter(
+    (l) => payable(l.standing) && (!kinds || kinds.includes(l.kind as 'entry' | 'postage')),
+  );
   if (wanted.length === 0) {
     const postageAsked = kinds?.includes('postage') && fees.postage > 0 && !me.by_post;
     throw new ConflictError(
-      postageAsked ? 'Return postage is only for members who send their blocks by post; hand a block in by post first.' : 'Nothing is left to pay for this swap.',
+      postageAsked
+        ? 'Return postage is only for members who send their blocks by post; hand a block in by post first.'
+        : 'Nothing is left to pay for this swap.',
       'nothing_owed',
     );
   }
   return openCheckout(
     deps,
-    { guildId: swap.guild_id, userId, swapId, year: null, currency: swap.currency, backPath: `/guilds/${swap.guild_id}/swaps/${swapId}/fees` },
+    {
+      guildId: swap.guild_id,
+      userId,
+      swapId,
+      year: null,
+      currency: swap.currency,
+      backPath: `/guilds/${swap.guild_id}/swaps/${swapId}/fees`,
+    },
     wanted.map((l) => ({ kind: l.kind, amount: l.amount, label: `${paymentKindLabels[l.kind]} — ${swap.title}` })),
   );
 }
@@ -172,7 +270,11 @@ export async function startDuesCheckout(deps: Deps, guildId: number, userId: num
   if (!guild) throw new NotFoundError('That guild does not exist.');
   if (!guild.dues_amount || !guild.dues_year) throw new ConflictError('The guild asks for no dues right now.', 'nothing_owed');
   const standing = standingOf(true, await q.duesPayments(deps.pool, guildId, guild.dues_year, userId));
-  if (!payable(standing)) throw new ConflictError(`Your ${guild.dues_year} dues are already ${standing === 'paid' ? 'paid' : 'on their way'}.`, 'nothing_owed');
+  if (!payable(standing))
+    throw new ConflictError(
+      `Your ${guild.dues_year} dues are already ${standing === 'paid' ? 'paid' : 'on their way'}.`,
+      'nothing_owed',
+    );
   return openCheckout(
     deps,
     { guildId, userId, swapId: null, year: guild.dues_year, currency: guild.currency, backPath: `/guilds/${guildId}/dues` },
@@ -212,7 +314,11 @@ function addTo(t: PaymentTotals, r: Pick<PaymentRow, 'status' | 'amount'>) {
 }
 
 /** Every payment of the guild with the filters applied, and totals per swap and per year. */
-export async function guildPayments(deps: Deps, guildId: number, filters: Omit<GuildPaymentsQuery, 'format'>): Promise<GuildPaymentsDto> {
+export async function guildPayments(
+  deps: Deps,
+  guildId: number,
+  filters: Omit<GuildPaymentsQuery, 'format'>,
+): Promise<GuildPaymentsDto> {
   const guild = await q.guildSettings(deps.pool, guildId);
   if (!guild) throw new NotFoundError('That guild does not exist.');
   const rows = await q.listForGuild(deps.pool, guildId, filters);
@@ -242,7 +348,11 @@ export async function guildPayments(deps: Deps, guildId: number, filters: Omit<G
   return {
     currency: guild.currency,
     payments,
-    totals: { all, bySwap: [...bySwap.values()].sort((a, b) => b.swapId - a.swapId), byYear: [...byYear.values()].sort((a, b) => b.year - a.year) },
+    totals: {
+      all,
+      bySwap: [...bySwap.values()].sort((a, b) => b.swapId - a.swapId),
+      byYear: [...byYear.values()].sort((a, b) => b.year - a.year),
+    },
   };
 }
 
@@ -251,7 +361,8 @@ export async function guildPayments(deps: Deps, guildId: number, filters: Omit<G
  * service's webhook says the refund went through; a refusal is kept for the treasurer to see.
  */
 export async function refundPayment(deps: Deps, payment: PaymentRow): Promise<void> {
-  if (payment.status !== 'paid' || !payment.payment_intent_id) throw new ConflictError('Only a paid payment can be refunded.', 'not_refundable');
+  if (payment.status !== 'paid' || !payment.payment_intent_id)
+    throw new ConflictError('Only a paid payment can be refunded.', 'not_refundable');
   const stripe = paymentsClient(deps.config);
   try {
     const refund = await callService(() =>
@@ -287,7 +398,8 @@ export async function refundSwapFees(deps: Deps, swapId: number, userId: number 
 export async function refundById(deps: Deps, guildId: number, paymentId: number): Promise<GuildPaymentDto> {
   const payment = await q.paymentById(deps.pool, paymentId);
   if (!payment || payment.guild_id !== guildId) throw new NotFoundError('That payment does not exist.');
-  if (payment.refund_requested_at && !payment.refund_error) throw new ConflictError('A refund of this payment is already on its way.', 'refund_requested');
+  if (payment.refund_requested_at && !payment.refund_error)
+    throw new ConflictError('A refund of this payment is already on its way.', 'refund_requested');
   await refundPayment(deps, payment);
   const list = await guildPayments(deps, guildId, {});
   const row = list.payments.find((p) => p.id === paymentId);

@@ -33,7 +33,10 @@ export interface WebhookResult {
 function idsFrom(metadata: Stripe.Metadata | null | undefined): number[] | undefined {
   const raw = metadata?.payment_ids ?? metadata?.payment_id;
   if (!raw) return undefined;
-  const ids = raw.split(',').map(Number).filter((n) => Number.isInteger(n) && n > 0);
+  const ids = raw
+    .split(',')
+    .map(Number)
+    .filter((n) => Number.isInteger(n) && n > 0);
   return ids.length ? ids : undefined;
 }
 
@@ -58,12 +61,22 @@ function readEvent(event: Stripe.Event): { where: Parameters<typeof q.lockPaymen
     case 'checkout.session.async_payment_failed':
       return { where: { sessionId: event.data.object.id }, change: { to: 'failed', reason: 'The payment did not go through.' } };
     case 'checkout.session.expired':
-      return { where: { sessionId: event.data.object.id }, change: { to: 'failed', reason: 'The checkout closed before anything was paid.' } };
+      return {
+        where: { sessionId: event.data.object.id },
+        change: { to: 'failed', reason: 'The checkout closed before anything was paid.' },
+      };
     case 'payment_intent.payment_failed': {
       const pi = event.data.object;
       const ids = idsFrom(pi.metadata);
       if (!ids) return null;
-      return { where: { ids }, change: { to: 'failed', intentId: pi.id, reason: (pi.last_payment_error?.message ?? 'The payment was declined.').slice(0, 300) } };
+      return {
+        where: { ids },
+        change: {
+          to: 'failed',
+          intentId: pi.id,
+          reason: (pi.last_payment_error?.message ?? 'The payment was declined.').slice(0, 300),
+        },
+      };
     }
     case 'refund.created':
     case 'refund.updated':
@@ -73,7 +86,10 @@ function readEvent(event: Stripe.Event): { where: Parameters<typeof q.lockPaymen
       if (!ids) return null;
       if (refund.status === 'succeeded') return { where: { ids }, change: { to: 'refunded', at } };
       if (refund.status === 'failed' || refund.status === 'canceled') {
-        return { where: { ids }, change: { to: 'paid', reason: `The refund did not go through (${refund.failure_reason ?? refund.status}).` } };
+        return {
+          where: { ids },
+          change: { to: 'paid', reason: `The refund did not go through (${refund.failure_reason ?? refund.status}).` },
+        };
       }
       return null;
     }
@@ -139,10 +155,17 @@ export async function handlePaymentEvent(deps: Deps, rawBody: Buffer, signature:
     if (to === 'pending') continue;
     // One notice per person and swap (a checkout can carry an entry fee and postage together).
     const groups = new Map<string, PaymentRow[]>();
-    for (const r of rows) groups.set(`${r.user_id}:${r.swap_id ?? 'dues'}`, [...(groups.get(`${r.user_id}:${r.swap_id ?? 'dues'}`) ?? []), r]);
+    for (const r of rows)
+      groups.set(`${r.user_id}:${r.swap_id ?? 'dues'}`, [...(groups.get(`${r.user_id}:${r.swap_id ?? 'dues'}`) ?? []), r]);
     for (const group of groups.values()) {
       const first = group[0]!;
-      deps.events.emit('payment.settled', { guildId: first.guild_id, userId: first.user_id, swapId: first.swap_id, paymentIds: group.map((r) => r.id), status: to });
+      deps.events.emit('payment.settled', {
+        guildId: first.guild_id,
+        userId: first.user_id,
+        swapId: first.swap_id,
+        paymentIds: group.map((r) => r.id),
+        status: to,
+      });
     }
   }
   deps.logger.info({ event: event.type, id: event.id, changed }, 'payment event');

@@ -43,7 +43,10 @@ export async function seedDemoIfEmpty(sequelize: Sequelize, config: Pick<Config,
   if ((await User.count()) > 0) return null;
   const passwordHash = await hashPassword(DEMO_SIGN_INS.password);
   const seeded = await sequelize.transaction(async (transaction) => {
-    const guild = await Guild.create({ name: 'Kestrel Hollow Quilters', timeZone: 'America/Chicago' }, { transaction });
+    const guild = await Guild.create(
+      { name: 'Kestrel Hollow Quilters', timeZone: 'America/Chicago', currency: 'usd', duesAmount: 3000, duesYear: new Date().getUTCFullYear() },
+      { transaction },
+    );
     const users = new Map<string, User>();
     for (const person of demoPeople) {
       const user = await User.create(

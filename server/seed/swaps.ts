@@ -23,6 +23,8 @@ interface SwapSeed {
   due: number;
   mode?: 'return' | 'gift';
   giftRecipientName?: string;
+  /** In cents (the demo guild pays in usd). */
+  fees?: { entry?: number; postage?: number };
 }
 
 type People = Map<string, User>;
@@ -55,6 +57,8 @@ async function createSwap(guildId: number, by: User, seed: SwapSeed, path: SwapS
       dueAt: daysFromNow(seed.due),
       mode: seed.mode ?? 'return',
       giftRecipientName: seed.giftRecipientName ?? null,
+      entryFee: seed.fees?.entry ?? 0,
+      postageFee: seed.fees?.postage ?? 0,
       state: path.at(-1)!,
       createdById: by.id,
     },
@@ -151,6 +155,7 @@ async function openSwap(guildId: number, people: People, transaction: Transactio
       quota: [4, 12],
       signupCloses: 12,
       due: 48,
+      fees: { entry: 500, postage: 400 },
     },
     ['draft', 'signup'],
     6,

@@ -37,7 +37,10 @@ export function isKnownCurrency(code: string): boolean {
 
 /** How many digits the currency's minor unit has: 2 for usd and eur, 0 for jpy. */
 export function minorDigits(currency: string): number {
-  return new Intl.NumberFormat('en', { style: 'currency', currency: currency.toUpperCase() }).resolvedOptions().maximumFractionDigits ?? 2;
+  return (
+    new Intl.NumberFormat('en', { style: 'currency', currency: currency.toUpperCase() }).resolvedOptions()
+      .maximumFractionDigits ?? 2
+  );
 }
 
 /** 1250 usd → "$12.50" (in the reader's locale when given). */
@@ -71,7 +74,10 @@ const minorUnits = (what: string) =>
     .number({ error: `Give ${what} as a whole number of the currency's smallest unit (cents).` })
     .int(`Give ${what} in the currency's smallest unit (cents), with no decimals.`)
     .min(0, `${what[0]!.toUpperCase()}${what.slice(1)} cannot be negative; use 0 for none.`)
-    .max(MAX_AMOUNT, `${what[0]!.toUpperCase()}${what.slice(1)} is larger than Blockpost allows (${MAX_AMOUNT} in the smallest unit).`);
+    .max(
+      MAX_AMOUNT,
+      `${what[0]!.toUpperCase()}${what.slice(1)} is larger than Blockpost allows (${MAX_AMOUNT} in the smallest unit).`,
+    );
 
 /** A swap's fees: 0 or absent means no fee. */
 export const swapFeesSchema = z
@@ -201,6 +207,8 @@ export interface SwapFeesDto {
   fees: { entry: number; postage: number };
   /** Payments are set up on this server (a key is configured). */
   enabled: boolean;
+  /** A test key (or the local fake): checkout pages take no real money. */
+  testMode: boolean;
   mine: FeeLine[];
   /** Officers only: every signed-up member's standing for each fee. */
   members?: { userId: number; displayName: string; entry: FeeStanding; postage: FeeStanding }[];
@@ -212,6 +220,7 @@ export interface GuildDuesDto {
   currency: string;
   dues: { amount: number; year: number } | null;
   enabled: boolean;
+  testMode: boolean;
   mine: FeeStanding;
   /** Admins only. */
   members?: { userId: number; displayName: string; standing: FeeStanding }[];

@@ -26,6 +26,7 @@ export function GuildLayout() {
           <NavLink to={paths.about(guildId)} className={tabClass}>About</NavLink>
           <NavLink to={paths.members(guildId)} className={tabClass}>Members</NavLink>
           <NavLink to={paths.sewDays(guildId)} className={tabClass}>Sew days</NavLink>
+          {(guild.data.dues || guild.data.myRole === 'admin') && <NavLink to={paths.guildDues(guildId)} className={tabClass}>Dues</NavLink>}
           {guild.data.myRole === 'admin' && <NavLink to={paths.mailLog(guildId)} className={tabClass}>E-mail</NavLink>}
         </nav>
       </div>

@@ -45,6 +45,8 @@ export const routes: RouteObject[] = [
         children: [
           { path: paths.guilds, lazy: () => import('./home-route').then((m) => ({ Component: m.HomeRoute })) },
           { path: paths.settings, lazy: () => import('@/features/auth/components/settings-page').then((m) => ({ Component: m.SettingsPage })) },
+          { path: paths.myPayments, lazy: () => import('@/features/payments/components/my-payments-page').then((m) => ({ Component: m.MyPaymentsPage })) },
+          { path: paths.paymentReturn, lazy: () => import('@/features/payments/components/payment-return-page').then((m) => ({ Component: m.PaymentReturnPage })) },
           { path: paths.mailPreferences, lazy: () => import('@/features/notifications/components/mail-preferences-page').then((m) => ({ Component: m.MailPreferencesPage })) },
           { path: paths.planner, lazy: () => import('./planner-route').then((m) => ({ Component: m.PlannerRoute })) },
           {
@@ -65,10 +67,13 @@ export const routes: RouteObject[] = [
                   { path: 'sheet', lazy: () => import('@/features/swaps/components/swap-sheet-page').then((m) => ({ Component: m.SwapSheetPage })) },
                   { path: 'edit', lazy: () => import('@/features/swaps/components/setup/swap-setup-page').then((m) => ({ Component: m.EditSwapPage })) },
                   { path: 'design', lazy: () => import('@/features/design-wall/components/design-wall-page').then((m) => ({ Component: m.DesignWallPage })) },
+                  { path: 'fees', lazy: () => import('@/features/payments/components/swap-fees-page').then((m) => ({ Component: m.SwapFeesPage })) },
                 ],
               },
               { path: 'members', lazy: () => import('@/features/guilds/components/members-page').then((m) => ({ Component: m.MembersPage })) },
               { path: 'mail', lazy: () => import('@/features/notifications/components/mail-log-page').then((m) => ({ Component: m.MailLogPage })) },
+              { path: 'dues', lazy: () => import('@/features/payments/components/dues-page').then((m) => ({ Component: m.DuesPage })) },
+              { path: 'payments', lazy: () => import('@/features/payments/components/treasurer-page').then((m) => ({ Component: m.TreasurerPage })) },
               { path: 'sew-days', lazy: () => import('@/features/sew-days/components/sew-days-page').then((m) => ({ Component: m.SewDaysPage })) },
               { path: 'sew-days/new', lazy: () => import('@/features/sew-days/components/new-sew-day-page').then((m) => ({ Component: m.NewSewDayPage })) },
               { path: 'sew-days/:sewDayId', lazy: sewDayWithChat },

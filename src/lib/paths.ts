@@ -32,6 +32,11 @@ export const paths = {
   mailPreferences: '/settings/email',
   unsubscribe: '/unsubscribe',
   mailLog: (guildId: number | string = ':guildId') => `/guilds/${guildId}/mail`,
+  guildDues: (guildId: number | string = ':guildId') => `/guilds/${guildId}/dues`,
+  guildPayments: (guildId: number | string = ':guildId') => `/guilds/${guildId}/payments`,
+  swapFees: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/fees`,
+  myPayments: '/settings/payments',
+  paymentReturn: '/payments/return',
 } as const;
 
 /** Where to go after signing in: only same-site paths are followed. */

@@ -45,7 +45,15 @@ async function press(url: string, button: 'pay' | 'decline') {
   return res.headers.get('location')!;
 }
 
-const myPayments = async (agent: Agent) => (await agent.get('/api/me/payments').expect(200)).body as { id: number; kind: string; status: string; amount: number; currency: string; swapId?: number }[];
+const myPayments = async (agent: Agent) =>
+  (await agent.get('/api/me/payments').expect(200)).body as {
+    id: number;
+    kind: string;
+    status: string;
+    amount: number;
+    currency: string;
+    swapId?: number;
+  }[];
 
 beforeAll(async () => {
   const port = await freePort();
@@ -53,7 +61,10 @@ beforeAll(async () => {
   fakeUrl = `http://127.0.0.1:${fakePort}`;
   // The app's webhook endpoint is registered with the fake the way it would be with the real service.
   const sdk = new Stripe('sk_test_blockpost', { host: '127.0.0.1', port: fakePort, protocol: 'http' });
-  const endpoint = await sdk.webhookEndpoints.create({ url: `http://127.0.0.1:${port}/api/payments/webhook`, enabled_events: ['*'] });
+  const endpoint = await sdk.webhookEndpoints.create({
+    url: `http://127.0.0.1:${port}/api/payments/webhook`,
+    enabled_events: ['*'],
+  });
   webhookSecret = endpoint.secret!;
   app = await createTestApp({
     PUBLIC_URL: `http://127.0.0.1:${port}`,
@@ -70,7 +81,10 @@ beforeAll(async () => {
   subscribePaymentRefunds(app.deps);
   jobs = await startMailJobs(app.deps, { schedule: false });
   roles = await guildWithRoles(app);
-  await roles.admin.agent.patch(`/api/guilds/${roles.guildId}`).send({ currency: 'cad', dues: { amount: 2500, year: 2027 } }).expect(200);
+  await roles.admin.agent
+    .patch(`/api/guilds/${roles.guildId}`)
+    .send({ currency: 'cad', dues: { amount: 2500, year: 2027 } })
+    .expect(200);
 });
 
 afterAll(async () => {
@@ -93,7 +107,11 @@ describe('guild dues', () => {
 
     const back = await press(checkout.body.url, 'pay');
     expect(back).toMatch(/\/payments\/return\?session_id=cs_test_/);
-    const paid = await until(() => myPayments(member.agent), (p) => p[0]?.status === 'paid', 'the dues to be paid');
+    const paid = await until(
+      () => myPayments(member.agent),
+      (p) => p[0]?.status === 'paid',
+      'the dues to be paid',
+    );
     expect(paid).toHaveLength(1);
     expect((await member.agent.get(`/api/guilds/${roles.guildId}/dues`).expect(200)).body.mine).toBe('paid');
 
@@ -130,7 +148,10 @@ describe('guild dues', () => {
   it('refuses bad settings with a message a person can act on', async () => {
     const bad = await roles.admin.agent.patch(`/api/guilds/${roles.guildId}`).send({ currency: 'xyz' }).expect(400);
     expect(bad.body.error.fields.currency).toMatch(/three-letter code/);
-    const negative = await roles.admin.agent.patch(`/api/guilds/${roles.guildId}`).send({ dues: { amount: -5, year: 2027 } }).expect(400);
+    const negative = await roles.admin.agent
+      .patch(`/api/guilds/${roles.guildId}`)
+      .send({ dues: { amount: -5, year: 2027 } })
+      .expect(400);
     expect(negative.body.error.message).toMatch(/cannot be negative|more than 0/);
     // Members have paid in cad: the currency stays.
     const change = await roles.admin.agent.patch(`/api/guilds/${roles.guildId}`).send({ currency: 'usd' }).expect(400);
@@ -142,7 +163,10 @@ describe('guild dues', () => {
 describe('swap fees', () => {
   it('charges the entry fee to members who signed up; postage only to those who post blocks', async () => {
     const swap = await createSwap(roles.coordinator.agent, roles.guildId, { fees: { entry: 500, postage: 300 } });
-    expect((await roles.coordinator.agent.get(`/api/swaps/${swap.id}`).expect(200)).body.fees).toEqual({ entry: 500, postage: 300 });
+    expect((await roles.coordinator.agent.get(`/api/swaps/${swap.id}`).expect(200)).body.fees).toEqual({
+      entry: 500,
+      postage: 300,
+    });
     await move(roles.coordinator.agent, swap.id, 'signup');
     const before = await roles.member.agent.get(`/api/swaps/${swap.id}/fees`).expect(200);
     expect(before.body.mine).toEqual([
@@ -155,7 +179,10 @@ describe('swap fees', () => {
     await roles.member.agent.post(`/api/swaps/${swap.id}/signups`).send({ blocks: 2 }).expect(200);
     const owed = await roles.member.agent.get(`/api/swaps/${swap.id}/fees`).expect(200);
     expect(owed.body.mine.map((l: { standing: string }) => l.standing)).toEqual(['owed', 'not_owed']);
-    const postage = await roles.member.agent.post(`/api/swaps/${swap.id}/checkout`).send({ kinds: ['postage'] }).expect(409);
+    const postage = await roles.member.agent
+      .post(`/api/swaps/${swap.id}/checkout`)
+      .send({ kinds: ['postage'] })
+      .expect(409);
     expect(postage.body.error.message).toMatch(/by post/);
 
     // A declined card leaves it unpaid (marked as not gone through); paying afterwards counts.
@@ -174,14 +201,26 @@ describe('swap fees', () => {
       'the entry fee to be paid',
     );
     const officers = await roles.coordinator.agent.get(`/api/swaps/${swap.id}/fees`).expect(200);
-    expect(officers.body.members.find((m: { userId: number }) => m.userId === roles.member.id)).toMatchObject({ entry: 'paid', postage: 'not_owed' });
+    expect(officers.body.members.find((m: { userId: number }) => m.userId === roles.member.id)).toMatchObject({
+      entry: 'paid',
+      postage: 'not_owed',
+    });
     expect(before.body.members).toBeUndefined();
     await roles.member.agent.post(`/api/swaps/${swap.id}/checkout`).send({}).expect(409);
 
     // Cancelling the swap refunds what was paid; the refund's state comes back by webhook.
     await move(roles.coordinator.agent, swap.id, 'cancelled');
-    const refunded = await until(() => myPayments(roles.member.agent), (p) => p.some((x) => x.swapId === swap.id && x.status === 'refunded'), 'the refund');
-    expect(refunded.filter((p) => p.swapId === swap.id).map((p) => p.status).sort()).toEqual(['refunded']);
+    const refunded = await until(
+      () => myPayments(roles.member.agent),
+      (p) => p.some((x) => x.swapId === swap.id && x.status === 'refunded'),
+      'the refund',
+    );
+    expect(
+      refunded
+        .filter((p) => p.swapId === swap.id)
+        .map((p) => p.status)
+        .sort(),
+    ).toEqual(['refunded']);
     await waitForMail(roles.member.email, (m) => m.subject.startsWith('Refund:'));
   });
 
@@ -192,13 +231,24 @@ describe('swap fees', () => {
     await maker.agent.post(`/api/swaps/${swap.id}/signups`).send({ blocks: 1 }).expect(200);
     const checkout = await maker.agent.post(`/api/swaps/${swap.id}/checkout`).send({}).expect(200);
     await press(checkout.body.url, 'pay');
-    await until(() => myPayments(maker.agent), (p) => p[0]?.status === 'paid', 'the fee to be paid');
+    await until(
+      () => myPayments(maker.agent),
+      (p) => p[0]?.status === 'paid',
+      'the fee to be paid',
+    );
     await maker.agent.delete(`/api/swaps/${swap.id}/signups/me`).expect(204);
-    await until(() => myPayments(maker.agent), (p) => p[0]?.status === 'refunded', 'the refund');
+    await until(
+      () => myPayments(maker.agent),
+      (p) => p[0]?.status === 'refunded',
+      'the refund',
+    );
   });
 
   it('refuses fees that are not whole amounts of the smallest unit', async () => {
-    const res = await roles.coordinator.agent.post(`/api/guilds/${roles.guildId}/swaps`).send({ ...(await import('./swaps-support')).swapBody({ fees: { entry: 4.5 } }) }).expect(400);
+    const res = await roles.coordinator.agent
+      .post(`/api/guilds/${roles.guildId}/swaps`)
+      .send({ ...(await import('./swaps-support')).swapBody({ fees: { entry: 4.5 } }) })
+      .expect(400);
     expect(res.body.error.fields['fees.entry']).toMatch(/no decimals/);
   });
 });
@@ -215,7 +265,12 @@ describe('the webhook', () => {
     const maker = await joinGuild(app, roles.guildId, 'member');
     const checkout = await maker.agent.post(`/api/guilds/${roles.guildId}/dues/checkout`).send({}).expect(200);
     const sessionId = checkout.body.url.split('/').pop();
-    const body = event('checkout.session.completed', { id: sessionId, object: 'checkout.session', payment_status: 'paid', payment_intent: 'pi_test_forged' });
+    const body = event('checkout.session.completed', {
+      id: sessionId,
+      object: 'checkout.session',
+      payment_status: 'paid',
+      payment_intent: 'pi_test_forged',
+    });
 
     expect((await post(body)).status).toBe(400);
     expect((await post(body, signPayload(body, 'whsec_not_the_secret'))).status).toBe(400);
@@ -230,16 +285,29 @@ describe('the webhook', () => {
     const maker = await joinGuild(app, roles.guildId, 'member');
     const checkout = await maker.agent.post(`/api/guilds/${roles.guildId}/dues/checkout`).send({}).expect(200);
     await press(checkout.body.url, 'pay');
-    const [payment] = await until(() => myPayments(maker.agent), (p) => p[0]?.status === 'paid', 'the dues to be paid');
+    const [payment] = await until(
+      () => myPayments(maker.agent),
+      (p) => p[0]?.status === 'paid',
+      'the dues to be paid',
+    );
     const sessionId = checkout.body.url.split('/').pop();
 
-    const refund = event('refund.updated', { id: 're_test_x', object: 'refund', status: 'succeeded', metadata: { payment_id: String(payment!.id) } }, 'evt_test_refund_once');
+    const refund = event(
+      'refund.updated',
+      { id: 're_test_x', object: 'refund', status: 'succeeded', metadata: { payment_id: String(payment!.id) } },
+      'evt_test_refund_once',
+    );
     const first = await post(refund, signPayload(refund, webhookSecret)).expect(200);
     expect(first.body).toMatchObject({ received: true, changed: 1 });
     const repeat = await post(refund, signPayload(refund, webhookSecret)).expect(200);
     expect(repeat.body).toMatchObject({ duplicate: true, changed: 0 });
 
-    const late = event('checkout.session.completed', { id: sessionId, object: 'checkout.session', payment_status: 'paid', payment_intent: 'pi_test_late' });
+    const late = event('checkout.session.completed', {
+      id: sessionId,
+      object: 'checkout.session',
+      payment_status: 'paid',
+      payment_intent: 'pi_test_late',
+    });
     expect((await post(late, signPayload(late, webhookSecret)).expect(200)).body.changed).toBe(0);
     expect((await myPayments(maker.agent))[0]!.status).toBe('refunded');
   });
@@ -250,7 +318,10 @@ describe('with payments switched off', () => {
     const off = await createTestApp();
     try {
       const r = await guildWithRoles(off);
-      await r.admin.agent.patch(`/api/guilds/${r.guildId}`).send({ dues: { amount: 1000, year: 2027 } }).expect(200);
+      await r.admin.agent
+        .patch(`/api/guilds/${r.guildId}`)
+        .send({ dues: { amount: 1000, year: 2027 } })
+        .expect(200);
       const dues = await r.member.agent.get(`/api/guilds/${r.guildId}/dues`).expect(200);
       expect(dues.body.enabled).toBe(false);
       const res = await r.member.agent.post(`/api/guilds/${r.guildId}/dues/checkout`).send({}).expect(503);

@@ -8,11 +8,26 @@ import type { Migration } from '../migrator';
  */
 export const up: Migration = async ({ context: { queryInterface, sequelize } }) => {
   await sequelize.transaction(async (transaction) => {
-    await queryInterface.addColumn('guilds', 'currency', { type: DataTypes.STRING(3), allowNull: false, defaultValue: 'usd' }, { transaction });
+    await queryInterface.addColumn(
+      'guilds',
+      'currency',
+      { type: DataTypes.STRING(3), allowNull: false, defaultValue: 'usd' },
+      { transaction },
+    );
     await queryInterface.addColumn('guilds', 'dues_amount', { type: DataTypes.INTEGER, allowNull: true }, { transaction });
     await queryInterface.addColumn('guilds', 'dues_year', { type: DataTypes.INTEGER, allowNull: true }, { transaction });
-    await queryInterface.addColumn('swaps', 'entry_fee', { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 }, { transaction });
-    await queryInterface.addColumn('swaps', 'postage_fee', { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 }, { transaction });
+    await queryInterface.addColumn(
+      'swaps',
+      'entry_fee',
+      { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+      { transaction },
+    );
+    await queryInterface.addColumn(
+      'swaps',
+      'postage_fee',
+      { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+      { transaction },
+    );
 
     await queryInterface.createTable(
       'payments',
@@ -69,8 +84,12 @@ export const down: Migration = async ({ context: { queryInterface, sequelize } }
   await sequelize.transaction(async (transaction) => {
     await queryInterface.dropTable('payment_events', { transaction });
     await queryInterface.dropTable('payments', { transaction });
-    await queryInterface.sequelize.query('ALTER TABLE swaps DROP CONSTRAINT IF EXISTS swaps_fees_check; ALTER TABLE guilds DROP CONSTRAINT IF EXISTS guilds_dues_check;', { transaction });
+    await queryInterface.sequelize.query(
+      'ALTER TABLE swaps DROP CONSTRAINT IF EXISTS swaps_fees_check; ALTER TABLE guilds DROP CONSTRAINT IF EXISTS guilds_dues_check;',
+      { transaction },
+    );
     for (const column of ['entry_fee', 'postage_fee']) await queryInterface.removeColumn('swaps', column, { transaction });
-    for (const column of ['currency', 'dues_amount', 'dues_year']) await queryInterface.removeColumn('guilds', column, { transaction });
+    for (const column of ['currency', 'dues_amount', 'dues_year'])
+      await queryInterface.removeColumn('guilds', column, { transaction });
   });
 };

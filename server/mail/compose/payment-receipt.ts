@@ -30,7 +30,11 @@ interface ReceiptRow {
   display_name: string;
 }
 
-export async function composePaymentReceipt(deps: ComposeDeps, paymentIds: number[], news: 'paid' | 'refunded'): Promise<RecordResult> {
+export async function composePaymentReceipt(
+  deps: ComposeDeps,
+  paymentIds: number[],
+  news: 'paid' | 'refunded',
+): Promise<RecordResult> {
   const nothing = { queued: 0, skipped: 0, existing: 0 };
   const { rows } = await deps.pool.query<ReceiptRow>(
     `SELECT p.id, p.kind, p.amount, p.currency, p.status, p.dues_year, p.guild_id, p.swap_id, p.user_id, p.paid_at, p.refunded_at,
@@ -46,11 +50,17 @@ export async function composePaymentReceipt(deps: ComposeDeps, paymentIds: numbe
   const total = current.reduce((sum, r) => sum + r.amount, 0);
   const when = news === 'paid' ? first.paid_at : first.refunded_at;
   const lines = current.map((r) => ({
-    label: r.kind === 'dues' ? `${paymentKindLabels.dues} ${r.dues_year ?? ''}`.trim() : `${paymentKindLabels[r.kind]}: ${r.swap_title ?? 'a swap'}`,
+    label:
+      r.kind === 'dues'
+        ? `${paymentKindLabels.dues} ${r.dues_year ?? ''}`.trim()
+        : `${paymentKindLabels[r.kind]}: ${r.swap_title ?? 'a swap'}`,
     amount: formatMoney(r.amount, r.currency),
   }));
   const reference = `BP-${current.map((r) => r.id).join('-')}`;
-  const subject = news === 'paid' ? `Receipt: ${formatMoney(total, first.currency)} paid to ${first.guild_name}` : `Refund: ${formatMoney(total, first.currency)} from ${first.guild_name}`;
+  const subject =
+    news === 'paid'
+      ? `Receipt: ${formatMoney(total, first.currency)} paid to ${first.guild_name}`
+      : `Refund: ${formatMoney(total, first.currency)} from ${first.guild_name}`;
   const mail = renderMail(
     'payment-receipt',
     {

@@ -34,6 +34,14 @@ export function SettingsPage() {
           </Link>
         </p>
       </Card>
+      <Card title="Payments">
+        <p>Dues and swap fees you paid through Blockpost, with their receipts and refunds.</p>
+        <p className="mt-3">
+          <Link className="font-semibold text-indigo underline" to={paths.myPayments}>
+            Your payments
+          </Link>
+        </p>
+      </Card>
     </div>
   );
 }

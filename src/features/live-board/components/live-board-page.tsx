@@ -7,6 +7,8 @@ import { useLiveStatus } from '@/lib/socket';
 import { paths } from '@/lib/paths';
 import { useActivity } from '../api/get-activity';
 import { useRoster } from '@/entities/roster/api/get-roster';
+import { useSwap } from '@/entities/swap/api/get-swap';
+import { SwapFeesPanel } from '@/entities/payment/components/swap-fees-panel';
 import { useBoardLive } from '../hooks/use-board-live';
 import { ActivityList } from './activity-list';
 import { BoardRows } from './board-rows';
@@ -28,6 +30,8 @@ export function LiveBoardPage() {
   const activity = useActivity(swapId);
   const live = useBoardLive(swapId);
   const status = useLiveStatus();
+  const details = useSwap(swapId);
+  const fees = details.data && (details.data.fees.entry > 0 || details.data.fees.postage > 0);
 
   if (roster.isPending) return <Loading label="Loading the board…" />;
   if (roster.isError) return <QueryError error={roster.error} what="the swap board" />;
@@ -65,6 +69,7 @@ export function LiveBoardPage() {
       <Card title={`Participants (${rows.length})`}>
         <BoardRows rows={rows} />
       </Card>
+      {fees && <SwapFeesPanel swapId={swapId} hasFees={details.data?.canManage === true} />}
       <Card title="Recent activity">
         {activity.isPending ? (
           <Loading />

@@ -4,6 +4,7 @@ import { Card } from '@/components/ui/card';
 import { EmptyState, Loading, QueryError } from '@/components/ui/page';
 import { rosterCsvUrl } from '../api/export-urls';
 import { useRoster } from '@/entities/roster/api/get-roster';
+import { SwapFeesPanel } from '@/entities/payment/components/swap-fees-panel';
 import { useRosterLive } from '@/entities/roster/api/use-roster-live';
 import { useSwap } from '@/entities/swap/api/get-swap';
 import { RosterTable } from './roster-table';
@@ -65,6 +66,7 @@ export function RosterPage() {
           <RosterTable swap={swap.data} rows={roster.data.rows} />
         )}
       </Card>
+      <SwapFeesPanel swapId={swapId} hasFees={swap.data.canManage && (swap.data.fees.entry > 0 || swap.data.fees.postage > 0)} />
     </div>
   );
 }

@@ -42,6 +42,11 @@ export function SwapLayout() {
           <NavLink to={paths.swapSheet(guildId, swapId)} className={tabClass}>
             Swap sheet
           </NavLink>
+          {(s.fees.entry > 0 || s.fees.postage > 0) && (
+            <NavLink to={paths.swapFees(guildId, swapId)} className={tabClass}>
+              Fees
+            </NavLink>
+          )}
           {['sewing', 'collecting', 'sorting', 'complete'].includes(s.state) && (
             <NavLink to={paths.swapDesign(guildId, swapId)} className={tabClass}>
               Design wall

@@ -8,6 +8,7 @@ import { createSwapSchema, type CreateSwapInput, type UpdateSwapInput } from '@s
 import { zodFields } from '@shared/schemas/errors';
 import type { SwapDto } from '@shared/swap-types';
 import { isoToZonedLocal, zonedLocalToIso } from '../../hooks/zoned-time';
+import { minorDigits, parseMoney } from '@shared/schemas/payments';
 
 export interface SetupValues {
   title: string;
@@ -39,12 +40,21 @@ export interface SetupValues {
   recipientKind: 'member' | 'name';
   giftRecipientId: string;
   giftRecipientName: string;
+  /** Fees as typed, in the guild's currency ("5" or "5.00"); empty is none. */
+  fees: { entry: string; postage: string; currency: string };
 }
 
 const DAY = 86_400_000;
 const cells = (n: number, value = '3 1/2') => Array.from({ length: n }, () => ({ value }));
 
-export function defaultValues(timeZone: string, now = Date.now()): SetupValues {
+/** A stored fee (minor units) as people type it: 500 usd → "5.00"; 0 → empty. */
+function feeText(amount: number, currency: string): string {
+  if (!amount) return '';
+  const digits = minorDigits(currency);
+  return (amount / 10 ** digits).toFixed(digits);
+}
+
+export function defaultValues(timeZone: string, currency = 'usd', now = Date.now()): SetupValues {
   const at18 = (days: number) => `${isoToZonedLocal(new Date(now + days * DAY).toISOString(), timeZone).slice(0, 10)}T18:00`;
   return {
     title: '',
@@ -66,6 +76,7 @@ export function defaultValues(timeZone: string, now = Date.now()): SetupValues {
     recipientKind: 'name',
     giftRecipientId: '',
     giftRecipientName: '',
+    fees: { entry: '', postage: '', currency },
   };
 }
 
@@ -76,9 +87,9 @@ function lengthText(x: number | undefined): string {
   return parseLength(text) === x ? text : String(x);
 }
 
-export function valuesFromSwap(swap: SwapDto): SetupValues {
+export function valuesFromSwap(swap: SwapDto, currency = 'usd'): SetupValues {
   const tz = swap.guild.timeZone;
-  const base = defaultValues(tz);
+  const base = defaultValues(tz, currency);
   const b = swap.block;
   const block = { ...base.block, kind: b.kind };
   if (b.kind === 'grid') {
@@ -113,6 +124,7 @@ export function valuesFromSwap(swap: SwapDto): SetupValues {
     recipientKind: swap.giftRecipient?.userId ? 'member' : 'name',
     giftRecipientId: swap.giftRecipient?.userId ? String(swap.giftRecipient.userId) : '',
     giftRecipientName: swap.giftRecipient && !swap.giftRecipient.userId ? swap.giftRecipient.name : '',
+    fees: { entry: feeText(swap.fees.entry, currency), postage: feeText(swap.fees.postage, currency), currency },
   };
 }
 
@@ -160,7 +172,14 @@ export function toBody(v: SetupValues, timeZone: string): CreateSwapInput {
     mode: v.mode,
     giftRecipientId: gift && v.recipientKind === 'member' && v.giftRecipientId ? Number(v.giftRecipientId) : null,
     giftRecipientName: gift && v.recipientKind === 'name' ? v.giftRecipientName : null,
+    // A fee that does not read as money is left out here; validateValues points at it.
+    fees: { entry: feeAmount(v.fees.entry, v.fees.currency) ?? 0, postage: feeAmount(v.fees.postage, v.fees.currency) ?? 0 },
   };
+}
+
+/** "5" or "5.00" → minor units; empty → 0; null when it is not an amount. */
+function feeAmount(text: string, currency: string): number | null {
+  return text.trim() === '' ? 0 : parseMoney(text, currency);
 }
 
 /** Once sewing starts only these may change (the server says the same). */
@@ -192,9 +211,14 @@ export function fieldName(path: string, kind: BlockKind): string {
 
 /** Every problem the shared schema finds, keyed by form field name. */
 export function validateValues(v: SetupValues, timeZone: string): Record<string, string> {
-  const parsed = createSwapSchema.safeParse(toBody(v, timeZone));
-  if (parsed.success) return {};
   const out: Record<string, string> = {};
+  for (const kind of ['entry', 'postage'] as const) {
+    if (feeAmount(v.fees[kind], v.fees.currency) === null) {
+      out[`fees.${kind}`] = `Give the fee as an amount such as 5 or 5.00 (${v.fees.currency.toUpperCase()}), or leave it empty for none.`;
+    }
+  }
+  const parsed = createSwapSchema.safeParse(toBody(v, timeZone));
+  if (parsed.success) return out;
   for (const [path, message] of Object.entries(zodFields(parsed.error))) out[fieldName(path, v.block.kind)] ??= message;
   return out;
 }

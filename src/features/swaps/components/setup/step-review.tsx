@@ -40,6 +40,11 @@ export function StepReview({ form, timeZone }: { form: UseFormReturn<SetupValues
         <Row label="Tolerance">± {v.tolerance} on each side; diagonals within {v.squareness}</Row>
         <Row label="Fabrics">{v.colourRules.filter((r) => r.role).map((r) => `${r.role}${r.note ? ` (${r.note})` : ''}`).join(' · ') || 'none named'}</Row>
         <Row label="Blocks per member">{v.quotaMin === v.quotaMax ? v.quotaMin : `${v.quotaMin} to ${v.quotaMax}`}</Row>
+        <Row label="Fees">
+          {[v.fees.entry.trim() && `entry ${v.fees.entry.trim()} ${v.fees.currency.toUpperCase()}`, v.fees.postage.trim() && `return postage ${v.fees.postage.trim()} ${v.fees.currency.toUpperCase()}`]
+            .filter(Boolean)
+            .join(' · ') || 'none'}
+        </Row>
         <Row label="Sign-up closes">{when(v.signupCloses)}</Row>
         <Row label="Blocks due">{when(v.due)}</Row>
         <Row label="Mode">{v.mode === 'gift' ? `Gift to ${v.recipientKind === 'name' ? v.giftRecipientName || 'a recipient not named yet' : 'a guild member'}` : 'Return to the makers'}</Row>

@@ -19,6 +19,7 @@ export function StepSchedule({
   const e = formState.errors;
   const mode = useWatch({ control: form.control, name: 'mode' });
   const recipientKind = useWatch({ control: form.control, name: 'recipientKind' });
+  const currency = useWatch({ control: form.control, name: 'fees.currency' }).toUpperCase();
   const members = useMembers(guildId);
   const number = { valueAsNumber: true } as const;
 
@@ -36,6 +37,29 @@ export function StepSchedule({
             {...register('quotaMin', number)}
           />
           <TextField label="Most" type="number" min={1} max={50} error={e.quotaMax?.message} {...register('quotaMax', number)} />
+        </fieldset>
+      )}
+      {!scheduleOnly && (
+        <fieldset className="grid gap-4 sm:grid-cols-2">
+          <legend className="mb-2 text-xl font-semibold text-indigo-deep">Fees (optional)</legend>
+          <TextField
+            label="Entry fee"
+            hint="Asked of every member who signs up; paid online. Leave empty for none."
+            inputMode="decimal"
+            maxLength={12}
+            unit={currency}
+            error={e.fees?.entry?.message}
+            {...register('fees.entry')}
+          />
+          <TextField
+            label="Return postage"
+            hint="Asked only of members who post their blocks in. Leave empty for none."
+            inputMode="decimal"
+            maxLength={12}
+            unit={currency}
+            error={e.fees?.postage?.message}
+            {...register('fees.postage')}
+          />
         </fieldset>
       )}
       <fieldset className="grid gap-4 sm:grid-cols-2">

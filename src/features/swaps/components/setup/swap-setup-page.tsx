@@ -36,17 +36,19 @@ export function NewSwapPage() {
   const guild = useGuild(guildId);
   if (guild.isPending) return <Loading />;
   if (guild.isError) return <QueryError error={guild.error} what="the guild" />;
-  return <SwapSetupForm guildId={guildId} timeZone={guild.data.timeZone} initial={defaultValues(guild.data.timeZone)} />;
+  return <SwapSetupForm guildId={guildId} timeZone={guild.data.timeZone} initial={defaultValues(guild.data.timeZone, guild.data.currency)} />;
 }
 
 /** Edit: /guilds/:guildId/swaps/:swapId/edit. */
 export function EditSwapPage() {
   const guildId = Number(useParams().guildId);
   const swap = useSwap(Number(useParams().swapId));
-  if (swap.isPending) return <Loading />;
+  const guild = useGuild(guildId);
+  if (swap.isPending || guild.isPending) return <Loading />;
   if (swap.isError) return <QueryError error={swap.error} what="the swap" />;
+  if (guild.isError) return <QueryError error={guild.error} what="the guild" />;
   return (
-    <SwapSetupForm guildId={guildId} timeZone={swap.data.guild.timeZone} initial={valuesFromSwap(swap.data)} swap={swap.data} />
+    <SwapSetupForm guildId={guildId} timeZone={swap.data.guild.timeZone} initial={valuesFromSwap(swap.data, guild.data.currency)} swap={swap.data} />
   );
 }
 
