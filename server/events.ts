@@ -1,11 +1,10 @@
 import { EventEmitter } from 'node:events';
 import type { Role } from '@shared/schemas/guilds';
+import type { BlockState, Verdict } from '@shared/vocabulary';
 import type { ChatMessageDto } from '@shared/schemas/chat';
 
 type SwapRef = { swapId: number; guildId: number };
 type Actor = { actorId: number };
-export type BlockEventState = 'pledged' | 'sewn' | 'handed_in' | 'received' | 'measured' | 'returned';
-export type VerdictName = 'true' | 'trim' | 'short' | 'skewed';
 
 /**
  * In-process domain events, emitted by services after their transaction commits. The live board and
@@ -20,12 +19,12 @@ export interface DomainEventMap {
   'signup.changed': SwapRef & Actor & { userId: number; blocks: number };
   'signup.withdrawn': SwapRef & Actor & { userId: number };
   /** sewn, handed in, received, trimmed, returned: any change of a block's state or recipient. */
-  'block.changed': SwapRef & Actor & { blockId: number; makerId: number; from: BlockEventState; to: BlockEventState };
+  'block.changed': SwapRef & Actor & { blockId: number; makerId: number; from: BlockState; to: BlockState };
   'block.measured': SwapRef &
-    Actor & { blockId: number; makerId: number; measurementId: number; verdict: VerdictName; source: 'ruler' | 'maker' | 'photo' };
+    Actor & { blockId: number; makerId: number; measurementId: number; verdict: Verdict; source: 'ruler' | 'maker' | 'photo' };
   'photo.added': SwapRef & Actor & { blockId: number; makerId: number; photoId: number };
   /** A photo estimate of a block's size was saved; it never changes the block's ruler verdict. */
-  'block.estimated': SwapRef & Actor & { blockId: number; makerId: number; estimateId: number; photoId: number; verdict: VerdictName };
+  'block.estimated': SwapRef & Actor & { blockId: number; makerId: number; estimateId: number; photoId: number; verdict: Verdict };
   'distribution.confirmed': SwapRef & Actor & { transfers: number };
   /** Sew days: scheduled, changed or cancelled by an officer; an RSVP given or changed. */
   'sewday.changed': { guildId: number; sewDayId: number; actorId: number; change: 'scheduled' | 'updated' | 'cancelled' };

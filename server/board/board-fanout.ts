@@ -101,7 +101,7 @@ export class BoardFanout {
         swap,
         version: Number(row.version),
         activityIds: ids,
-        roster: await getRoster(swap, { withAddresses: false, transaction }),
+        roster: await getRoster(this.deps, swap, { withAddresses: false, transaction }),
       };
     });
     if (!result) return;

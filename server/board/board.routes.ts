@@ -5,18 +5,19 @@ import { currentUser, requireUser } from '../auth/require-user';
 import { canReadSwap } from '../swaps/swaps.policy';
 import { listActivity } from './board-activity';
 import { getRoster } from './roster.service';
+import type { AppDeps } from '../deps';
 
 const readSwap = (req: Request, { params }: { params: { swapId: number } }) => canReadSwap(currentUser(req).id, params.swapId);
 
 /** The board's roster (addresses only for coordinators and admins) and its recent-activity list. */
-export function boardRouter() {
+export function boardRouter(deps: AppDeps) {
   const router = Router();
 
   router.get(
     '/swaps/:swapId/roster',
     requireUser,
     route({ params: swapParamsSchema, authorize: readSwap }, async ({ access: { swap, canManage } }, _req, res) => {
-      res.json(await getRoster(swap, { withAddresses: canManage }));
+      res.json(await getRoster(deps, swap, { withAddresses: canManage }));
     }),
   );
   router.get(

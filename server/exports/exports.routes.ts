@@ -5,18 +5,19 @@ import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { canManageSwap } from '../swaps/swaps.policy';
 import { distributionCsv, rosterCsv } from './exports.service';
+import type { AppDeps } from '../deps';
 
 const manageSwap = (req: Request, { params }: { params: { swapId: number } }) =>
   canManageSwap(currentUser(req).id, params.swapId);
 const coordinators = { params: swapParamsSchema, authorize: manageSwap };
 
-export function exportsRouter() {
+export function exportsRouter(deps: AppDeps) {
   const router = Router();
 
   router.get(
     '/swaps/:swapId/export/roster.csv',
     requireUser,
-    route(coordinators, async ({ access }, _req, res) => sendCsv(res, await rosterCsv(access.swap))),
+    route(coordinators, async ({ access }, _req, res) => sendCsv(res, await rosterCsv(deps, access.swap))),
   );
 
   router.get(

@@ -2,6 +2,7 @@
 import { stringify } from 'csv-stringify/sync';
 import { blockStateLabels } from '@shared/schemas/swaps';
 import type { Swap } from '../db/models';
+import type { AppDeps } from '../deps';
 import { ConflictError } from '../http/errors';
 import { confirmedTransfers } from '../distribution/distribution.service';
 import { buildRoster } from '../board/roster.service';
@@ -24,8 +25,8 @@ export function slug(title: string): string {
   return s.slice(0, 60) || 'swap';
 }
 
-export async function rosterCsv(swap: Swap): Promise<{ fileName: string; body: string }> {
-  const roster = await buildRoster(swap, { withAddresses: true });
+export async function rosterCsv(deps: Pick<AppDeps, 'sequelize'>, swap: Swap): Promise<{ fileName: string; body: string }> {
+  const roster = await buildRoster(deps, swap, { withAddresses: true });
   const header = [
     'Member', 'E-mail', 'Pledged', 'Sewn', 'Handed in', 'Received', 'Measured', 'Still owed',
     'True to size', 'Trim to size', 'Runs short', 'Out of square', 'Accepted', 'Returned', 'Blocks', 'Mailing address',
