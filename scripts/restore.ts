@@ -1,7 +1,10 @@
-/** `npm run restore <folder>`: replaces the database and the uploads with a backup's. Stop the app first. */
-import { join } from 'node:path';
+/**
+ * `npm run restore <folder>`: checks every file of the backup against its manifest, then replaces the
+ * database and the photos with the backup's. Stop the app first.
+ */
 import { restore } from './lib/backup';
-import { repoRoot, startLocalDatabase } from './lib/local-services';
+import { startLocalDatabase } from './lib/local-services';
+import { withPhotoStore } from './lib/photo-store-env';
 
 const source = process.argv[2];
 if (!source) {
@@ -10,8 +13,13 @@ if (!source) {
 }
 const database = await startLocalDatabase(() => {});
 try {
-  const manifest = restore({ databaseUrl: database.url, uploadDir: process.env.UPLOAD_DIR ?? join(repoRoot, 'uploads'), source });
-  console.log(`Restored the backup of ${manifest.createdAt} (${manifest.uploads} uploaded files).`);
+  const manifest = await withPhotoStore(process.env, (store) => restore({ databaseUrl: database.url, store, source }));
+  console.log(
+    `Restored the backup of ${manifest.createdAt} (${manifest.uploads} ${manifest.store === 's3' ? 'objects' : 'uploaded files'}, checksums verified).`,
+  );
+} catch (error) {
+  console.error((error as Error).message);
+  process.exitCode = 1;
 } finally {
   database.stop();
 }
