@@ -3,8 +3,10 @@ import type { BlockSpec } from './schemas/blocks';
 import type { BlockState, SwapMode, SwapState } from './schemas/swaps';
 import type { Role } from './schemas/guilds';
 import type { LatestPhotoEstimateDto } from './schemas/photo-estimates';
+import type { Verdict } from './vocabulary';
 
-export type VerdictName = 'true' | 'trim' | 'short' | 'skewed';
+/** The verdict of a measurement; its words, glyph and order are in shared/vocabulary.ts. */
+export type VerdictName = Verdict;
 export type MeasurementSource = 'ruler' | 'maker' | 'photo';
 
 export interface SizeDto {
@@ -40,10 +42,10 @@ export interface SwapDto extends SwapSummaryDto {
   signupReminderDays: number;
   dueReminderDays: number;
   giftRecipient: { userId: number | null; name: string } | null;
-  createdBy: { id: number; displayName: string } | null;
-  createdAt: string;
   /** In the guild currency's minor unit; 0 is no fee. */
   fees: { entry: number; postage: number };
+  createdBy: { id: number; displayName: string } | null;
+  createdAt: string;
   updatedAt: string;
   distributionConfirmedAt: string | null;
   /** true while state is signup and the close date has not passed */
@@ -60,6 +62,17 @@ export interface SwapTransitionDto {
   by: { id: number; displayName: string } | null;
   at: string;
   reason: string | null;
+}
+
+/** What a move of the swap would do, shown before the coordinator confirms it. */
+export interface TransitionPreviewDto {
+  to: SwapState;
+  /** people who will be e-mailed because of the move */
+  emails: number;
+  /** blocks pledged and not handed in yet */
+  owedBlocks: number;
+  /** what is unusual about the move now; `move_refused` when the move cannot be made at all */
+  warnings: { code: string; message: string }[];
 }
 
 export interface SignupDto {
@@ -87,6 +100,8 @@ export interface MeasurementDto {
   deviations: { width: number; height: number; diagonal?: number };
   note: string | null;
   at: string;
+  /** set when the measurement was undone; it stays in the history, and no longer decides the verdict */
+  withdrawnAt: string | null;
 }
 
 export interface BlockDto {
@@ -98,11 +113,20 @@ export interface BlockDto {
   /** verdict of the latest ruler measurement */
   verdict: VerdictName | null;
   trimmed: boolean;
-  /** true once the block counts for the return: true to size, or trimmed */
+  /** true once the block counts for the return: true to size, trimmed, or accepted by decision */
   accepted: boolean;
+  /** an officer accepted this off-size block anyway: why, who and when */
+  decision: { reason: string; by: { id: number; displayName: string } | null; at: string } | null;
   handIn: { how: 'in-person' | 'post'; note: string | null } | null;
   recipient: { id: number | null; displayName: string } | null;
-  times: { sewn: string | null; handedIn: string | null; received: string | null; measured: string | null; returned: string | null; trimmed: string | null };
+  times: {
+    sewn: string | null;
+    handedIn: string | null;
+    received: string | null;
+    measured: string | null;
+    returned: string | null;
+    trimmed: string | null;
+  };
   latest: { ruler: MeasurementDto | null; maker: MeasurementDto | null };
   photos: PhotoRefDto[];
   /** the latest estimate from a photo, kept apart from the ruler verdict */
@@ -174,6 +198,23 @@ export interface DistributionPlanDto {
   acceptedTotal: number;
   /** blocks left out: not arrived, not measured, runs short, out of square, or awaiting a trim */
   leftOut: { pending: number; rejected: number; untrimmed: number };
+}
+
+/** A person in the return; `id` is null only for a named gift recipient who is not a member. */
+export interface ReturnPersonDto {
+  id: number | null;
+  displayName: string;
+}
+
+/** One recipient's bundle for hand-out night; `code` is the short code on the block's label. */
+export interface DistributionByRecipientDto {
+  recipient: ReturnPersonDto;
+  blocks: { id: number; maker: { id: number; displayName: string }; code: string }[];
+}
+
+export interface DistributionByMakerDto {
+  maker: { id: number; displayName: string };
+  blocks: { id: number; recipient: ReturnPersonDto; code: string }[];
 }
 
 export interface DistributionResultDto {

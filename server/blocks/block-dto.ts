@@ -5,16 +5,17 @@ import { Block, type Measurement, type Swap } from '../db/models';
 import { hasPhotosTable, photoRef } from './photo-refs';
 import { LATEST_ESTIMATES, NEWEST_ESTIMATE_FIRST, latestEstimateDtos, type LatestEstimateRow } from './latest-estimate';
 
-export function isAccepted(block: Pick<Block, 'verdict' | 'trimmed' | 'state'>): boolean {
+/** True to size, trimmed to size, or accepted by an officer's decision. */
+export function isAccepted(block: Pick<Block, 'verdict' | 'trimmed' | 'state' | 'acceptedAt'>): boolean {
   if (block.state !== 'measured' && block.state !== 'returned') return false;
-  return block.verdict === 'true' || (block.verdict === 'trim' && block.trimmed);
+  return block.verdict === 'true' || (block.verdict === 'trim' && block.trimmed) || block.acceptedAt != null;
 }
 
 /** What a measurement answer is made of: a Measurement row, or the same fields read as JSON. */
 export type MeasurementFields = Pick<
   Measurement,
   'id' | 'blockId' | 'source' | 'width' | 'height' | 'diagonal1' | 'diagonal2' | 'verdict' | 'deviationWidth' | 'deviationHeight' | 'deviationDiagonal' | 'note' | 'createdAt'
-> & { measuredBy?: { id: number; displayName: string } | null };
+> & { measuredBy?: { id: number; displayName: string } | null; withdrawnAt?: Date | null };
 
 export function measurementDto(m: MeasurementFields): MeasurementDto {
   const diagonals: [number, number] | null = m.diagonal1 != null && m.diagonal2 != null ? [m.diagonal1, m.diagonal2] : null;
@@ -34,6 +35,7 @@ export function measurementDto(m: MeasurementFields): MeasurementDto {
     },
     note: m.note ?? null,
     at: m.createdAt.toISOString(),
+    withdrawnAt: m.withdrawnAt ? m.withdrawnAt.toISOString() : null,
   };
 }
 
@@ -63,7 +65,7 @@ function relatedSql(withPhotos: boolean) {
               m.width, m.height, m.diagonal1, m.diagonal2, m.verdict, m.deviation_width AS "deviationWidth",
               m.deviation_height AS "deviationHeight", m.deviation_diagonal AS "deviationDiagonal", m.note, m.created_at AS "createdAt"
          FROM measurements m LEFT JOIN users mu ON mu.id = m.measured_by_id
-        WHERE m.block_id = ANY($ids::int[])
+        WHERE m.block_id = ANY($ids::int[]) AND m.withdrawn_at IS NULL
         ORDER BY m.block_id, m.source, m.created_at DESC, m.id DESC) latest) AS measurements,
     ${withPhotos
       ? `(SELECT coalesce(json_agg(json_build_object('id', p.id, 'blockId', p.block_id) ORDER BY p.created_at, p.id), '[]')
@@ -75,7 +77,7 @@ function relatedSql(withPhotos: boolean) {
 async function relatedRows(blocks: Block[], transaction?: Transaction): Promise<RelatedJson> {
   const sequelize = Block.sequelize!;
   const ids = blocks.map((b) => b.id);
-  const userIds = [...new Set(blocks.flatMap((b) => [b.makerId, b.recipientId].filter((x): x is number => x != null)))];
+  const userIds = [...new Set(blocks.flatMap((b) => [b.makerId, b.recipientId, b.acceptedById].filter((x): x is number => x != null)))];
   const withPhotos = await hasPhotosTable(sequelize, transaction);
   const [row] = await sequelize.query<RelatedJson>(relatedSql(withPhotos), { bind: { ids, userIds }, type: QueryTypes.SELECT, transaction });
   return row!;
@@ -125,6 +127,14 @@ export async function blockDtos(blocks: Block[], swap: Swap, transaction?: Trans
       verdict: b.verdict ?? null,
       trimmed: b.trimmed,
       accepted: isAccepted(b),
+      decision:
+        b.acceptedAt && b.acceptedReason
+          ? {
+              reason: b.acceptedReason,
+              by: b.acceptedById ? { id: b.acceptedById, displayName: names.get(b.acceptedById) ?? 'A former member' } : null,
+              at: b.acceptedAt.toISOString(),
+            }
+          : null,
       handIn: b.handInHow ? { how: b.handInHow, note: !viewer || viewer.canManage || viewer.userId === b.makerId ? (b.handInNote ?? null) : null } : null,
       recipient,
       times: {

@@ -1,6 +1,6 @@
 /** Block routes: a swap's block list, the maker's steps, the coordinator's intake and measuring. */
 import { Router, type Request, type Response } from 'express';
-import { blockParamsSchema, handInSchema, measurementBodySchema, receiveSchema } from '@shared/schemas/blocks';
+import { acceptBlockSchema, blockParamsSchema, handInManySchema, handInSchema, measurementBodySchema, receiveSchema } from '@shared/schemas/blocks';
 import { blocksQuerySchema, swapParamsSchema, type BlocksQuery } from '@shared/schemas/swaps';
 import { validate } from '../http/validate';
 import { currentUser, requireUser } from '../auth/require-user';
@@ -10,6 +10,9 @@ import type { AppDeps } from '../deps';
 import * as blocks from './blocks.service';
 import { listMeasurements, recordMeasurement } from './measurements.service';
 import type { Answer } from './idempotency';
+import { route } from '../http/route';
+import { acceptByDecision, undoLastStep } from './block-steps';
+import { handInMany } from './hand-in-many';
 
 const blockId = (req: Request) => (req.params as unknown as { blockId: number }).blockId;
 const params = validate({ params: blockParamsSchema });
@@ -68,6 +71,30 @@ export function blocksRouter(deps: AppDeps) {
     const { canManage, isMaker } = await canReadBlock(userId, blockId(req));
     reply(res, await recordMeasurement(deps, blockId(req), { userId, displayName, canManage, isMaker }, req.body));
   });
+
+  router.post(
+    '/swaps/:swapId/handed-in',
+    requireUser,
+    route({ params: swapParamsSchema, body: handInManySchema, authorize: (req, { params }) => canReadSwap(currentUser(req).id, params.swapId) }, async ({ body, access }, req, res) => {
+      res.json(await handInMany(deps, access.swap, currentUser(req).id, body));
+    }),
+  );
+
+  router.post(
+    '/blocks/:blockId/undo',
+    requireUser,
+    route({ params: blockParamsSchema, authorize: (req, { params }) => canReadBlock(currentUser(req).id, params.blockId) }, async ({ params, access }, req, res) => {
+      res.json(await undoLastStep(deps, params.blockId, { userId: currentUser(req).id, canManage: access.canManage }));
+    }),
+  );
+
+  router.post(
+    '/blocks/:blockId/accept',
+    requireUser,
+    route({ params: blockParamsSchema, body: acceptBlockSchema, authorize: (req, { params }) => canManageBlock(currentUser(req).id, params.blockId) }, async ({ params, body }, req, res) => {
+      res.json(await acceptByDecision(deps, params.blockId, currentUser(req).id, body));
+    }),
+  );
 
   return router;
 }

@@ -9,6 +9,7 @@ import type { AppDeps } from '../deps';
 import { blockDto, blockDtos, type BlockViewer } from './block-dto';
 import { idempotent, type Answer } from './idempotency';
 import { findBlockWithSwap } from './block-with-swap';
+import { recordStep, snapshotOf } from './step-log';
 
 type Deps = Pick<AppDeps, 'events'>;
 
@@ -45,7 +46,9 @@ export async function markBlockSewn(deps: Deps, blockId: number, actorId: number
   const { block, swap } = await lockedBlock(blockId, transaction);
   assertSwapIn(swap, ['signup', 'sewing', 'collecting'], 'marked sewn');
   if (block.state !== 'pledged') return { block, swap };
+  const was = snapshotOf(block);
   await block.update({ state: 'sewn', sewnAt: new Date() }, { transaction });
+  await recordStep(transaction, { blockId, action: 'sewn', byId: actorId, before: was });
   return { block, swap, after: changed(deps, swap, block, actorId, 'pledged') };
 }
 
@@ -68,10 +71,12 @@ export async function handIn(deps: Deps, blockId: number, actorId: number, input
     }
     const from = block.state;
     const now = new Date();
+    const was = snapshotOf(block);
     await block.update(
       { state: 'handed_in', handInHow: input.how, handInNote: input.note || null, handedInAt: block.handedInAt ?? now, sewnAt: block.sewnAt ?? now },
       { transaction },
     );
+    await recordStep(transaction, { blockId, action: 'handed_in', byId: actorId, before: was });
     return { dto: await blockDto(block, swap, transaction), after: from !== 'handed_in' ? changed(deps, swap, block, actorId, from) : undefined };
   });
   after?.();
@@ -89,7 +94,9 @@ export function receive(deps: Deps, blockId: number, actorId: number, clientId?:
     }
     const from = block.state;
     const now = new Date();
+    const was = snapshotOf(block);
     await block.update({ state: 'received', receivedAt: now, receivedById: actorId, sewnAt: block.sewnAt ?? now }, { transaction });
+    await recordStep(transaction, { blockId, action: 'received', byId: actorId, before: was });
     return { status: 200, body: await blockDto(block, swap, transaction), after: changed(deps, swap, block, actorId, from) };
   });
 }
@@ -104,7 +111,9 @@ export async function markTrimmed(deps: Deps, blockId: number, actorId: number):
       throw new ConflictError('Only a measured block with the verdict “Trim to size” can be marked trimmed.', 'not_trim');
     }
     if (block.trimmed) return { dto: await blockDto(block, swap, transaction), after: undefined };
+    const was = snapshotOf(block);
     await block.update({ trimmed: true, trimmedAt: new Date() }, { transaction });
+    await recordStep(transaction, { blockId, action: 'trimmed', byId: actorId, before: was });
     return { dto: await blockDto(block, swap, transaction), after: changed(deps, swap, block, actorId, 'measured') };
   });
   after?.();

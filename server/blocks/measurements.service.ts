@@ -12,6 +12,7 @@ import type { AppDeps } from '../deps';
 import { blockDto, measurementDto } from './block-dto';
 import { idempotent, type Answer } from './idempotency';
 import { assertSwapIn, lockedBlock } from './blocks.service';
+import { recordStep, snapshotOf } from './step-log';
 
 type Deps = Pick<AppDeps, 'events'>;
 
@@ -80,8 +81,13 @@ export function recordMeasurement(
     );
     const from = block.state;
     if (source === 'ruler') {
-      // A new ruler measurement replaces the verdict; an earlier trim no longer applies to it.
-      await block.update({ state: 'measured', verdict, measuredAt: row.createdAt, trimmed: false, trimmedAt: null }, { transaction });
+      // A new ruler measurement replaces the verdict; an earlier trim or decision no longer applies to it.
+      const before = snapshotOf(block);
+      await block.update(
+        { state: 'measured', verdict, measuredAt: row.createdAt, trimmed: false, trimmedAt: null, acceptedAt: null, acceptedById: null, acceptedReason: null },
+        { transaction },
+      );
+      await recordStep(transaction, { blockId, action: 'measured', byId: actor.userId, before, measurementId: row.id });
     }
     // The INSERT returned every column as stored, and the one who measured is the signed-in actor.
     const measuredBy = { id: actor.userId, displayName: actor.displayName };

@@ -1,11 +1,11 @@
 /** Planning and confirming the return of blocks (coordinators and admins). */
 import { Router, type Request } from 'express';
-import { confirmDistributionSchema, swapParamsSchema } from '@shared/schemas/swaps';
+import { confirmDistributionSchema, distributionQuerySchema, swapParamsSchema } from '@shared/schemas/swaps';
 import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { canManageSwap } from '../swaps/swaps.policy';
 import type { AppDeps } from '../deps';
-import { confirmReturn, planReturn } from './distribution.service';
+import { confirmReturn, distributionListing, planReturn } from './distribution.service';
 
 const manageSwap = (req: Request, { params }: { params: { swapId: number } }) =>
   canManageSwap(currentUser(req).id, params.swapId);
@@ -28,6 +28,17 @@ export function distributionRouter(deps: AppDeps) {
       { params: swapParamsSchema, body: confirmDistributionSchema, authorize: manageSwap },
       async ({ params, body }, req, res) => {
         res.json(await confirmReturn(deps, params.swapId, currentUser(req).id, body));
+      },
+    ),
+  );
+
+  router.get(
+    '/swaps/:swapId/distribution',
+    requireUser,
+    route(
+      { params: swapParamsSchema, query: distributionQuerySchema, authorize: manageSwap },
+      async ({ query, access }, _req, res) => {
+        res.json(await distributionListing(deps.config, access.swap, query.by));
       },
     ),
   );

@@ -5,12 +5,20 @@
  */
 import { Op, type Transaction } from 'sequelize';
 import { planDistribution } from '@shared/quilt';
-import type { ConfirmDistributionInput } from '@shared/schemas/swaps';
-import type { DistributionPlanDto, DistributionResultDto, TransferDto } from '@shared/swap-types';
+import type { ConfirmDistributionInput, DistributionQuery } from '@shared/schemas/swaps';
+import type {
+  DistributionByMakerDto,
+  DistributionByRecipientDto,
+  DistributionPlanDto,
+  DistributionResultDto,
+  TransferDto,
+} from '@shared/swap-types';
 import { Block, Swap, User } from '../db/models';
 import { ConflictError, NotFoundError } from '../http/errors';
 import { isAccepted } from '../blocks/block-dto';
 import type { AppDeps } from '../deps';
+import type { Config } from '../config';
+import { referenceKey, signBlock } from '../intake/references';
 
 type Deps = Pick<AppDeps, 'events'>;
 
@@ -23,7 +31,10 @@ interface Pool {
 async function acceptedPool(swap: Swap, transaction?: Transaction): Promise<Pool> {
   const blocks = await Block.findAll({
     where: { swapId: swap.id },
-    order: [['makerId', 'ASC'], ['sequence', 'ASC']],
+    order: [
+      ['makerId', 'ASC'],
+      ['sequence', 'ASC'],
+    ],
     transaction,
     ...(transaction ? { lock: transaction.LOCK.UPDATE } : {}),
   });
@@ -41,29 +52,42 @@ async function acceptedPool(swap: Swap, transaction?: Transaction): Promise<Pool
 }
 
 function giftName(swap: Swap, names: Map<number, string>) {
-  return swap.giftRecipientId ? (names.get(swap.giftRecipientId) ?? 'A former member') : (swap.giftRecipientName ?? 'The gift recipient');
+  return swap.giftRecipientId
+    ? (names.get(swap.giftRecipientId) ?? 'A former member')
+    : (swap.giftRecipientName ?? 'The gift recipient');
 }
 
 function named(swap: Swap, names: Map<number, string>, t: { from: number; to: number | null; count: number }): TransferDto {
   return {
     ...t,
     fromName: names.get(t.from) ?? 'A former member',
-    toName: t.to === null || (swap.mode === 'gift' && t.to === swap.giftRecipientId) ? giftName(swap, names) : (names.get(t.to) ?? 'A former member'),
+    toName:
+      t.to === null || (swap.mode === 'gift' && t.to === swap.giftRecipientId)
+        ? giftName(swap, names)
+        : (names.get(t.to) ?? 'A former member'),
   };
 }
 
 function assertPlannable(swap: Swap) {
   if (swap.state !== 'collecting' && swap.state !== 'sorting') {
-    throw new ConflictError(`The return can be planned while the swap is collecting or sorting; it is ${swap.state} now.`, 'swap_state');
+    throw new ConflictError(
+      `The return can be planned while the swap is collecting or sorting; it is ${swap.state} now.`,
+      'swap_state',
+    );
   }
-  if (swap.distributionConfirmedAt) throw new ConflictError('The return of blocks is already confirmed.', 'distribution_confirmed');
+  if (swap.distributionConfirmedAt)
+    throw new ConflictError('The return of blocks is already confirmed.', 'distribution_confirmed');
 }
 
 /** Proposes who sends how many accepted blocks to whom. Changes nothing. */
 export async function planReturn(swap: Swap): Promise<DistributionPlanDto> {
   assertPlannable(swap);
   const pool = await acceptedPool(swap);
-  const makers = [...pool.accepted].map(([id, blocks]) => ({ id, displayName: pool.names.get(id) ?? 'A former member', accepted: blocks.length }));
+  const makers = [...pool.accepted].map(([id, blocks]) => ({
+    id,
+    displayName: pool.names.get(id) ?? 'A former member',
+    accepted: blocks.length,
+  }));
   const acceptedTotal = makers.reduce((s, m) => s + m.accepted, 0);
   let transfers: TransferDto[];
   let shortfall: DistributionPlanDto['shortfall'] = [];
@@ -72,7 +96,11 @@ export async function planReturn(swap: Swap): Promise<DistributionPlanDto> {
   } else {
     const plan = planDistribution(makers.map((m) => ({ id: String(m.id), accepted: m.accepted })));
     transfers = plan.transfers.map((t) => named(swap, pool.names, { from: Number(t.from), to: Number(t.to), count: t.count }));
-    shortfall = plan.shortfall.map((s) => ({ id: Number(s.id), displayName: pool.names.get(Number(s.id)) ?? 'A former member', missing: s.missing }));
+    shortfall = plan.shortfall.map((s) => ({
+      id: Number(s.id),
+      displayName: pool.names.get(Number(s.id)) ?? 'A former member',
+      missing: s.missing,
+    }));
   }
   return { mode: swap.mode, transfers, shortfall, makers, acceptedTotal, leftOut: pool.leftOut };
 }
@@ -86,14 +114,16 @@ function conservationProblem(swap: Swap, pool: Pool, transfers: ConfirmDistribut
   for (const t of transfers) {
     if (!pool.accepted.has(t.from)) return `${name(t.from)} has no accepted blocks to send.`;
     const key = `${t.from}>${t.to}`;
-    if (pairs.has(key)) return `The transfer from ${name(t.from)} to ${t.to === null ? giftName(swap, pool.names) : name(t.to)} is listed twice; combine the lines.`;
+    if (pairs.has(key))
+      return `The transfer from ${name(t.from)} to ${t.to === null ? giftName(swap, pool.names) : name(t.to)} is listed twice; combine the lines.`;
     pairs.add(key);
     sent.set(t.from, (sent.get(t.from) ?? 0) + t.count);
     received.set(t.to, (received.get(t.to) ?? 0) + t.count);
   }
   for (const [maker, blocks] of pool.accepted) {
     const s = sent.get(maker) ?? 0;
-    if (s !== blocks.length) return `${name(maker)} has ${blocks.length} accepted block${blocks.length === 1 ? '' : 's'} but the transfers send ${s}.`;
+    if (s !== blocks.length)
+      return `${name(maker)} has ${blocks.length} accepted block${blocks.length === 1 ? '' : 's'} but the transfers send ${s}.`;
   }
   if (swap.mode === 'gift') {
     const target = swap.giftRecipientId ?? null;
@@ -107,7 +137,8 @@ function conservationProblem(swap: Swap, pool: Pool, transfers: ConfirmDistribut
   }
   for (const [maker, blocks] of pool.accepted) {
     const r = received.get(maker) ?? 0;
-    if (r !== blocks.length) return `${name(maker)} should receive ${blocks.length} block${blocks.length === 1 ? '' : 's'} but the transfers give ${r}.`;
+    if (r !== blocks.length)
+      return `${name(maker)} should receive ${blocks.length} block${blocks.length === 1 ? '' : 's'} but the transfers give ${r}.`;
   }
   return null;
 }
@@ -116,16 +147,23 @@ function conservationProblem(swap: Swap, pool: Pool, transfers: ConfirmDistribut
  * Checks the (possibly hand-edited) transfers and assigns concrete blocks: each becomes `returned`
  * with its recipient. All or nothing, in one transaction.
  */
-export async function confirmReturn(deps: Deps, swapId: number, actorId: number, input: ConfirmDistributionInput): Promise<DistributionResultDto> {
+export async function confirmReturn(
+  deps: Deps,
+  swapId: number,
+  actorId: number,
+  input: ConfirmDistributionInput,
+): Promise<DistributionResultDto> {
   const result = await Swap.sequelize!.transaction(async (transaction) => {
     const swap = await Swap.findByPk(swapId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!swap) throw new NotFoundError('That swap does not exist.');
     if (swap.state !== 'sorting') {
       throw new ConflictError(`Confirm the return while the swap is sorting; it is ${swap.state} now.`, 'swap_state');
     }
-    if (swap.distributionConfirmedAt) throw new ConflictError('The return of blocks is already confirmed.', 'distribution_confirmed');
+    if (swap.distributionConfirmedAt)
+      throw new ConflictError('The return of blocks is already confirmed.', 'distribution_confirmed');
     const pool = await acceptedPool(swap, transaction);
-    if (pool.accepted.size === 0) throw new ConflictError('No block is accepted yet, so there is nothing to return.', 'nothing_accepted');
+    if (pool.accepted.size === 0)
+      throw new ConflictError('No block is accepted yet, so there is nothing to return.', 'nothing_accepted');
     const problem = conservationProblem(swap, pool, input.transfers);
     if (problem) throw new ConflictError(problem, 'distribution_invalid');
 
@@ -148,7 +186,15 @@ export async function confirmReturn(deps: Deps, swapId: number, actorId: number,
   deps.events.emit('distribution.confirmed', { swapId, guildId: swap.guildId, actorId, transfers: input.transfers.length });
   for (const blocks of pool.accepted.values()) {
     for (const b of blocks) {
-      deps.events.emit('block.changed', { swapId, guildId: swap.guildId, actorId, blockId: b.id, makerId: b.makerId, from: 'measured', to: 'returned' });
+      deps.events.emit('block.changed', {
+        swapId,
+        guildId: swap.guildId,
+        actorId,
+        blockId: b.id,
+        makerId: b.makerId,
+        from: 'measured',
+        to: 'returned',
+      });
     }
   }
   return {
@@ -167,7 +213,11 @@ export async function confirmedTransfers(swap: Swap): Promise<{ from: string; to
       { model: User, as: 'maker', attributes: ['id', 'displayName'] },
       { model: User, as: 'recipient', attributes: ['id', 'displayName'] },
     ],
-    order: [['makerId', 'ASC'], ['recipientId', 'ASC'], ['sequence', 'ASC']],
+    order: [
+      ['makerId', 'ASC'],
+      ['recipientId', 'ASC'],
+      ['sequence', 'ASC'],
+    ],
   });
   const rows = new Map<string, { from: string; to: string; count: number; blocks: string[] }>();
   for (const b of blocks) {
@@ -179,4 +229,57 @@ export async function confirmedTransfers(swap: Swap): Promise<{ from: string; to
     rows.set(key, row);
   }
   return [...rows.values()].map((r) => ({ ...r, blocks: r.blocks.join(' ') }));
+}
+
+/**
+ * The confirmed return for hand-out night: each recipient's bundle (or each maker's blocks), every
+ * block with its maker and the short code printed on its label. Empty until the return is confirmed.
+ */
+export async function distributionListing(
+  config: Pick<Config, 'SESSION_SECRET'>,
+  swap: Swap,
+  by: DistributionQuery['by'],
+): Promise<DistributionByRecipientDto[] | DistributionByMakerDto[]> {
+  const blocks = await Block.findAll({
+    where: { swapId: swap.id, state: 'returned' },
+    include: [
+      { model: User, as: 'maker', attributes: ['id', 'displayName'] },
+      { model: User, as: 'recipient', attributes: ['id', 'displayName'] },
+    ],
+    order: [['id', 'ASC']],
+  });
+  const key = referenceKey(config.SESSION_SECRET);
+  const person = (id: number | null, user: User | null | undefined, fallback: string) => ({
+    id,
+    displayName: user?.displayName ?? fallback,
+  });
+  const gift = swap.giftRecipientName || 'The gift recipient';
+  const rows = blocks.map((b) => ({
+    id: b.id,
+    sequence: b.sequence,
+    code: signBlock(key, swap.id, b.id).shortCode,
+    maker: { id: b.makerId as number, displayName: b.maker?.displayName ?? 'A former member' },
+    recipient: b.recipientId === null ? { id: null, displayName: gift } : person(b.recipientId, b.recipient, 'A former member'),
+  }));
+  const byName = (a: { displayName: string }, b: { displayName: string }) => a.displayName.localeCompare(b.displayName, 'en');
+  const bySequence = (
+    a: { maker: { displayName: string }; sequence: number },
+    b: { maker: { displayName: string }; sequence: number },
+  ) => byName(a.maker, b.maker) || a.sequence - b.sequence;
+  if (by === 'maker') {
+    const groups = new Map<number, DistributionByMakerDto>();
+    for (const r of rows.sort(bySequence)) {
+      const g = groups.get(r.maker.id) ?? { maker: r.maker, blocks: [] };
+      g.blocks.push({ id: r.id, recipient: r.recipient, code: r.code });
+      groups.set(r.maker.id, g);
+    }
+    return [...groups.values()].sort((a, b) => byName(a.maker, b.maker));
+  }
+  const groups = new Map<number | null, DistributionByRecipientDto>();
+  for (const r of rows.sort(bySequence)) {
+    const g = groups.get(r.recipient.id) ?? { recipient: r.recipient, blocks: [] };
+    g.blocks.push({ id: r.id, maker: r.maker, code: r.code });
+    groups.set(r.recipient.id, g);
+  }
+  return [...groups.values()].sort((a, b) => byName(a.recipient, b.recipient));
 }

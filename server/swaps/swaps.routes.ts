@@ -1,7 +1,14 @@
 /** Swap routes: set-up, states and sign-ups. */
 import { Router, type Request } from 'express';
 import { guildParamsSchema } from '@shared/schemas/guilds';
-import { createSwapSchema, signupSchema, swapParamsSchema, transitionSchema, updateSwapSchema } from '@shared/schemas/swaps';
+import {
+  createSwapSchema,
+  signupSchema,
+  swapParamsSchema,
+  transitionPreviewQuerySchema,
+  transitionSchema,
+  updateSwapSchema,
+} from '@shared/schemas/swaps';
 import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { authorizeGuild, can } from '../guilds/guilds.policy';
@@ -76,6 +83,17 @@ export function swapsRouter(deps: AppDeps) {
     route({ params: swapParamsSchema, authorize: readSwap }, async ({ params }, _req, res) => {
       res.json(await swaps.listTransitions(params.swapId));
     }),
+  );
+
+  router.get(
+    '/swaps/:swapId/transitions/preview',
+    requireUser,
+    route(
+      { params: swapParamsSchema, query: transitionPreviewQuerySchema, authorize: manageSwap },
+      async ({ params, query }, _req, res) => {
+        res.json(await swaps.previewTransition(params.swapId, query.to));
+      },
+    ),
   );
 
   router.post(

@@ -1,11 +1,20 @@
 /** Setting up swaps and moving them through their states. */
-import { Op, type Transaction } from 'sequelize';
+import { Op, QueryTypes, type Transaction } from 'sequelize';
 import { QuiltInputError } from '@shared/quilt';
 import { blockSizes, type BlockSpec } from '@shared/schemas/blocks';
-import { scheduleFields, swapMoves, swapRuleProblems, type CreateSwap, type SwapState, type UpdateSwap } from '@shared/schemas/swaps';
+import {
+  isStepBack,
+  scheduleFields,
+  swapMoves,
+  swapRuleProblems,
+  type CreateSwap,
+  type SwapState,
+  type UpdateSwap,
+} from '@shared/schemas/swaps';
 import type { Role } from '@shared/schemas/guilds';
-import type { SwapDto, SwapSummaryDto, SwapTransitionDto } from '@shared/swap-types';
-import { Block, Membership, Signup, Swap, SwapTransition, User } from '../db/models';
+import type { SwapDto, SwapSummaryDto, SwapTransitionDto, TransitionPreviewDto } from '@shared/swap-types';
+import { Block, Guild, Membership, Signup, Swap, SwapTransition, User } from '../db/models';
+import { daysUntil, inDays, mailDate } from '../mail/format';
 import { ConflictError, NotFoundError, ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { signupStats, summaryDto, swapDto, transitionDto } from './swap-dto';
@@ -38,7 +47,10 @@ function specColumns(block: BlockSpec) {
 async function assertGiftRecipient(guildId: number, userId: number | null | undefined, transaction?: Transaction) {
   if (!userId) return;
   const member = await Membership.findOne({ where: { guildId, userId, status: 'active' }, transaction });
-  if (!member) throw new ValidationError('The gift recipient must be a member of this guild.', { giftRecipientId: 'Choose a member of this guild.' });
+  if (!member)
+    throw new ValidationError('The gift recipient must be a member of this guild.', {
+      giftRecipientId: 'Choose a member of this guild.',
+    });
 }
 
 /** Creates a swap as a draft and records its creation in the history. */
@@ -63,9 +75,9 @@ export async function createSwap(deps: Deps, guildId: number, viewer: Viewer, in
         mode: input.mode,
         giftRecipientId: input.mode === 'gift' ? (input.giftRecipientId ?? null) : null,
         giftRecipientName: input.mode === 'gift' && !input.giftRecipientId ? (input.giftRecipientName?.trim() ?? null) : null,
-        createdById: viewer.userId,
         entryFee: input.fees?.entry ?? 0,
         postageFee: input.fees?.postage ?? 0,
+        createdById: viewer.userId,
       },
       { transaction },
     );
@@ -80,9 +92,15 @@ export async function createSwap(deps: Deps, guildId: number, viewer: Viewer, in
 export async function listSwaps(guildId: number, viewer: Viewer): Promise<SwapSummaryDto[]> {
   const swaps = await Swap.findAll({
     where: { guildId, ...(viewer.canManage ? {} : { state: { [Op.ne]: 'draft' } }) },
-    order: [['createdAt', 'DESC'], ['id', 'DESC']],
+    order: [
+      ['createdAt', 'DESC'],
+      ['id', 'DESC'],
+    ],
   });
-  const stats = await signupStats(swaps.map((s) => s.id), viewer.userId);
+  const stats = await signupStats(
+    swaps.map((s) => s.id),
+    viewer.userId,
+  );
   return swaps.map((s) => summaryDto(s, stats.get(s.id)));
 }
 
@@ -132,15 +150,15 @@ export async function updateSwap(deps: Deps, swapId: number, viewer: Viewer, pat
         ...(patch.colourRules ? { colourRules: patch.colourRules.map((r) => ({ role: r.role, note: r.note })) } : {}),
         ...(patch.signupReminderDays !== undefined ? { signupReminderDays: patch.signupReminderDays } : {}),
         ...(patch.dueReminderDays !== undefined ? { dueReminderDays: patch.dueReminderDays } : {}),
-        quotaMin: merged.quota.min,
         ...(patch.fees?.entry !== undefined ? { entryFee: patch.fees.entry } : {}),
         ...(patch.fees?.postage !== undefined ? { postageFee: patch.fees.postage } : {}),
+        quotaMin: merged.quota.min,
         quotaMax: merged.quota.max,
         signupClosesAt: merged.signupClosesAt,
         dueAt: merged.dueAt,
         mode: merged.mode,
         giftRecipientId: merged.mode === 'gift' ? (merged.giftRecipientId ?? null) : null,
-        giftRecipientName: merged.mode === 'gift' && !merged.giftRecipientId ? (merged.giftRecipientName?.trim() || null) : null,
+        giftRecipientName: merged.mode === 'gift' && !merged.giftRecipientId ? merged.giftRecipientName?.trim() || null : null,
       },
       { transaction },
     );
@@ -187,6 +205,17 @@ async function moveProblem(swap: Swap, to: SwapState, transaction: Transaction):
     const measured = await countBlocks('measured');
     if (measured === 0) return 'No block has been received and measured yet, so there is nothing to sort.';
   }
+  if (from === 'signup' && to === 'draft') {
+    const signedUp = await Signup.count({ where: { swapId: swap.id, status: 'active' }, transaction });
+    if (signedUp > 0) {
+      return `${signedUp} member${signedUp === 1 ? ' has' : 's have'} signed up already, so the swap cannot go back to draft; keep sign-up open or cancel the swap.`;
+    }
+  }
+  if (from === 'collecting' && to === 'sewing') {
+    const inHand = await countBlocks(['received', 'measured', 'returned']);
+    if (inHand > 0)
+      return `${inHand} block${inHand === 1 ? ' has' : 's have'} been taken in already, so the swap cannot go back to sewing.`;
+  }
   if (from === 'sorting' && to === 'collecting' && swap.distributionConfirmedAt) {
     return 'The return of blocks is already confirmed; the swap cannot go back to collecting.';
   }
@@ -197,7 +226,13 @@ async function moveProblem(swap: Swap, to: SwapState, transaction: Transaction):
 }
 
 /** Moves the swap to another state after checking the move; records who asked and when. */
-export async function transitionSwap(deps: Deps, swapId: number, viewer: Viewer, to: SwapState, reason?: string): Promise<SwapDto> {
+export async function transitionSwap(
+  deps: Deps,
+  swapId: number,
+  viewer: Viewer,
+  to: SwapState,
+  reason?: string,
+): Promise<SwapDto> {
   const { swap, from } = await Swap.sequelize!.transaction(async (transaction) => {
     const current = await Swap.findByPk(swapId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!current) throw new NotFoundError('That swap does not exist.');
@@ -205,7 +240,10 @@ export async function transitionSwap(deps: Deps, swapId: number, viewer: Viewer,
     if (problem) throw new ConflictError(problem, 'transition_refused');
     const previous = current.state;
     await current.update({ state: to }, { transaction });
-    await SwapTransition.create({ swapId, fromState: previous, toState: to, byId: viewer.userId, reason: reason || null }, { transaction });
+    await SwapTransition.create(
+      { swapId, fromState: previous, toState: to, byId: viewer.userId, reason: reason || null },
+      { transaction },
+    );
     return { swap: current, from: previous };
   });
   deps.events.emit('swap.transitioned', { swapId, guildId: swap.guildId, actorId: viewer.userId, from, to });
@@ -216,7 +254,104 @@ export async function listTransitions(swapId: number): Promise<SwapTransitionDto
   const rows = await SwapTransition.findAll({
     where: { swapId },
     include: [{ model: User, as: 'by', attributes: ['id', 'displayName'] }],
-    order: [['at', 'ASC'], ['id', 'ASC']],
+    order: [
+      ['at', 'ASC'],
+      ['id', 'ASC'],
+    ],
   });
   return rows.map(transitionDto);
+}
+
+type Warning = TransitionPreviewDto['warnings'][number];
+
+/** Members who would get the announcement: not announced to before, and not switched off. */
+async function announcementAudience(swap: Swap, transaction: Transaction): Promise<number> {
+  const [row] = await Swap.sequelize!.query<{ n: string }>(
+    `SELECT count(*) AS n FROM memberships m
+      WHERE m.guild_id = $guildId AND m.status = 'active'
+        AND NOT EXISTS (SELECT 1 FROM mail_messages mm WHERE mm.idempotency_key = 'swap:' || $swapId || ':announcement:user:' || m.user_id)
+        AND NOT EXISTS (SELECT 1 FROM mail_preferences p WHERE p.user_id = m.user_id AND p.category = 'announcements' AND p.enabled = false)`,
+    { bind: { guildId: swap.guildId, swapId: swap.id }, type: QueryTypes.SELECT, transaction },
+  );
+  return Number(row?.n ?? 0);
+}
+
+const blocksText = (n: number) => `${n} block${n === 1 ? '' : 's'}`;
+
+/**
+ * What moving the swap to `to` would do, without doing it: how many people get an e-mail, how many
+ * blocks are still owed, and what is unusual (a refused move comes back as the `move_refused` warning).
+ */
+export async function previewTransition(swapId: number, to: SwapState, now = new Date()): Promise<TransitionPreviewDto> {
+  return Swap.sequelize!.transaction(async (transaction) => {
+    const swap = await Swap.findByPk(swapId, { transaction });
+    if (!swap) throw new NotFoundError('That swap does not exist.');
+    const counts = await Swap.sequelize!.query<{ state: string; verdict: string | null; trimmed: boolean; n: string }>(
+      `SELECT state, verdict, trimmed, count(*) AS n FROM blocks WHERE swap_id = $swapId GROUP BY state, verdict, trimmed`,
+      { bind: { swapId }, type: QueryTypes.SELECT, transaction },
+    );
+    const count = (match: (r: (typeof counts)[number]) => boolean) =>
+      counts.filter(match).reduce((sum, r) => sum + Number(r.n), 0);
+    const owedBlocks = count((r) => r.state === 'pledged' || r.state === 'sewn');
+    const warnings: Warning[] = [];
+    const problem = await moveProblem(swap, to, transaction);
+    if (problem) warnings.push({ code: 'move_refused', message: problem });
+    const from = swap.state;
+    const due = swap.dueAt.getTime() > now.getTime();
+    const tz = (await Guild.findByPk(swap.guildId, { attributes: ['timeZone'], transaction }))?.timeZone ?? 'UTC';
+    const dueText = `${mailDate(swap.dueAt, tz, false)} (${inDays(daysUntil(swap.dueAt, now, tz))})`;
+
+    if (from === 'signup' && to === 'sewing' && swap.signupClosesAt.getTime() > now.getTime()) {
+      warnings.push({
+        code: 'before_signup_close',
+        message: 'Sign-up was meant to stay open longer; nobody can sign up or change a pledge once sewing starts.',
+      });
+    }
+    if (to === 'sorting') {
+      if (owedBlocks > 0)
+        warnings.push({
+          code: 'blocks_owed',
+          message: `${blocksText(owedBlocks)} ${owedBlocks === 1 ? 'is' : 'are'} still owed by makers and will not take part in the return.`,
+        });
+      const onTheWay = count((r) => r.state === 'handed_in');
+      if (onTheWay > 0)
+        warnings.push({
+          code: 'blocks_not_received',
+          message: `${blocksText(onTheWay)} ${onTheWay === 1 ? 'is' : 'are'} marked handed in but not taken in yet.`,
+        });
+      if (due)
+        warnings.push({ code: 'before_due_date', message: `Blocks are not due until ${dueText}; makers may still be sewing.` });
+    }
+    if (to === 'sorting' || to === 'complete') {
+      const unmeasured = count((r) => r.state === 'received');
+      if (unmeasured > 0)
+        warnings.push({
+          code: 'unmeasured_blocks',
+          message: `${blocksText(unmeasured)} taken in ${unmeasured === 1 ? 'is' : 'are'} not measured yet.`,
+        });
+    }
+    if (to === 'complete') {
+      const left = count((r) => r.state === 'measured');
+      if (left > 0)
+        warnings.push({
+          code: 'blocks_left_out',
+          message: `${blocksText(left)} did not take part in the return (runs short, out of square or not trimmed); decide with their makers what happens to them.`,
+        });
+    }
+    if (to === 'collecting' && from === 'sewing' && owedBlocks > 0 && due) {
+      warnings.push({
+        code: 'before_due_date',
+        message: `Blocks are not due until ${dueText}; makers can still hand them in while collecting.`,
+      });
+    }
+    if (isStepBack(from, to)) {
+      warnings.push({
+        code: 'step_back',
+        message: `This takes the swap back from ${from} to ${to}; the history keeps who did it and when.`,
+      });
+    }
+    if (to === 'cancelled') warnings.push({ code: 'cannot_undo', message: 'A cancelled swap cannot be reopened.' });
+    const emails = to === 'signup' && !problem ? await announcementAudience(swap, transaction) : 0;
+    return { to, emails, owedBlocks, warnings };
+  });
 }

@@ -5,7 +5,6 @@
 import { z } from 'zod';
 import { lengthSchema } from '@shared/quilt';
 import { blockSpecSchema } from './blocks';
-import { idParam } from './ids';
 import { swapFeesSchema } from './payments';
 import { idParam } from './ids';
 
@@ -39,10 +38,12 @@ export const swapPath: readonly SwapState[] = ['draft', 'signup', 'sewing', 'col
 /** Every move a coordinator may ask for; the server checks each move's conditions too. */
 export const swapMoves: Readonly<Record<SwapState, readonly SwapState[]>> = {
   draft: ['signup', 'cancelled'],
-  signup: ['sewing', 'cancelled'],
+  // Back to draft only while nobody has signed up (the server checks).
+  signup: ['sewing', 'draft', 'cancelled'],
   // Reopening sign-up is allowed while nobody has started handing blocks in.
   sewing: ['collecting', 'signup', 'cancelled'],
-  collecting: ['sorting', 'cancelled'],
+  // Back to sewing only while no block has been taken in (the server checks).
+  collecting: ['sorting', 'sewing', 'cancelled'],
   // A late block can still be taken in before the return is confirmed.
   sorting: ['complete', 'collecting', 'cancelled'],
   complete: [],
@@ -52,24 +53,17 @@ export const swapMoves: Readonly<Record<SwapState, readonly SwapState[]>> = {
 export const moveLabels: Partial<Record<`${SwapState}>${SwapState}`, string>> = {
   'draft>signup': 'Open sign-up',
   'signup>sewing': 'Close sign-up and start sewing',
+  'signup>draft': 'Back to draft',
   'sewing>signup': 'Reopen sign-up',
   'sewing>collecting': 'Start collecting blocks',
   'collecting>sorting': 'Start sorting',
+  'collecting>sewing': 'Back to sewing',
   'sorting>collecting': 'Back to collecting',
   'sorting>complete': 'Mark the swap complete',
 };
 
-export const blockStates = ['pledged', 'sewn', 'handed_in', 'received', 'measured', 'returned'] as const;
-export type BlockState = (typeof blockStates)[number];
-
-export const blockStateLabels: Record<BlockState, string> = {
-  pledged: 'Pledged',
-  sewn: 'Sewn',
-  handed_in: 'Handed in',
-  received: 'Received',
-  measured: 'Measured',
-  returned: 'Returned',
-};
+// A block's states, their words and order: one list for engine, server and client.
+export { blockStates, blockStateLabels, type BlockState } from '../vocabulary';
 
 export const swapModes = ['return', 'gift'] as const;
 export type SwapMode = (typeof swapModes)[number];
@@ -85,21 +79,37 @@ const isoDate = (what: string) =>
     .refine((d) => d.getUTCFullYear() >= 2000 && d.getUTCFullYear() <= 2200, { message: `${what} is not a sensible date.` });
 
 export const colourRuleSchema = z.object({
-  role: z.string({ error: 'Name the fabric role, such as light or dark.' }).trim().min(1, 'Name the fabric role, such as light or dark.').max(40, 'Keep the role under 40 characters.'),
+  role: z
+    .string({ error: 'Name the fabric role, such as light or dark.' })
+    .trim()
+    .min(1, 'Name the fabric role, such as light or dark.')
+    .max(40, 'Keep the role under 40 characters.'),
   note: z.string().trim().max(300, 'Keep the note under 300 characters.').default(''),
 });
 
 // Without defaults: a PATCH must hold only what the caller sent (zod 4 applies defaults inside optional).
 const swapFields = {
-  title: z.string({ error: 'Give the swap a title.' }).trim().min(2, 'Give the swap a title of at least 2 characters.').max(120, 'Keep the title under 120 characters.'),
+  title: z
+    .string({ error: 'Give the swap a title.' })
+    .trim()
+    .min(2, 'Give the swap a title of at least 2 characters.')
+    .max(120, 'Keep the title under 120 characters.'),
   description: z.string().trim().max(4000, 'Keep the description under 4000 characters.'),
   block: blockSpecSchema,
   tolerance: inchesUpTo(2, 'The tolerance'),
   squareness: inchesUpTo(2, 'The squareness limit'),
   colourRules: z.array(colourRuleSchema).max(12, 'Use at most 12 colour rules.'),
   quota: z.object({
-    min: z.number({ error: 'Give the fewest blocks a member may pledge.' }).int('Use a whole number.').min(1, 'At least 1 block.').max(50, 'At most 50 blocks.'),
-    max: z.number({ error: 'Give the most blocks a member may pledge.' }).int('Use a whole number.').min(1, 'At least 1 block.').max(50, 'At most 50 blocks.'),
+    min: z
+      .number({ error: 'Give the fewest blocks a member may pledge.' })
+      .int('Use a whole number.')
+      .min(1, 'At least 1 block.')
+      .max(50, 'At most 50 blocks.'),
+    max: z
+      .number({ error: 'Give the most blocks a member may pledge.' })
+      .int('Use a whole number.')
+      .min(1, 'At least 1 block.')
+      .max(50, 'At most 50 blocks.'),
   }),
   signupClosesAt: isoDate('the sign-up close'),
   dueAt: isoDate('the due date'),
@@ -110,6 +120,8 @@ const swapFields = {
   giftRecipientId: z.number().int().positive().nullable().optional(),
   /** … or a name, such as a charity */
   giftRecipientName: z.string().trim().max(120, 'Keep the name under 120 characters.').nullable().optional(),
+  /** Entry fee and return postage in the guild currency's minor unit (cents); 0 or absent is none. */
+  fees: swapFeesSchema,
 };
 
 /** Defaults for a new swap: ±⅛″ tolerance and ¼″ between diagonals (DESIGN defaults). */
@@ -122,8 +134,7 @@ const createFields = {
   signupReminderDays: swapFields.signupReminderDays.default(7),
   dueReminderDays: swapFields.dueReminderDays.default(2),
   mode: swapFields.mode.default('return'),
-  /** Entry fee and return postage in the guild currency's minor unit (cents); 0 or absent is none. */
-  fees: swapFeesSchema,
+  fees: swapFields.fees.optional(),
 };
 
 export type SwapShape = {
@@ -136,7 +147,6 @@ export type SwapShape = {
 };
 
 /** Problems across fields as `{ field: message }`; also run on a PATCH merged onto the stored swap. */
-  fees: swapFields.fees.optional(),
 export function swapRuleProblems(s: SwapShape): Record<string, string> {
   const problems: Record<string, string> = {};
   if (s.quota.max < s.quota.min) problems['quota.max'] = 'The most blocks cannot be fewer than the fewest.';
@@ -150,7 +160,8 @@ export function swapRuleProblems(s: SwapShape): Record<string, string> {
 }
 
 function checkSwapRules(s: SwapShape, ctx: z.RefinementCtx) {
-  for (const [field, message] of Object.entries(swapRuleProblems(s))) ctx.addIssue({ code: 'custom', path: field.split('.'), message });
+  for (const [field, message] of Object.entries(swapRuleProblems(s)))
+    ctx.addIssue({ code: 'custom', path: field.split('.'), message });
 }
 
 export const createSwapSchema = z.object(createFields).strict().superRefine(checkSwapRules);
@@ -167,7 +178,14 @@ export type UpdateSwapInput = z.input<typeof updateSwapSchema>;
 export type UpdateSwap = z.output<typeof updateSwapSchema>;
 
 /** Fields that may still change once sewing has started (the block and its tolerance may not). */
-export const scheduleFields = ['title', 'description', 'signupClosesAt', 'dueAt', 'signupReminderDays', 'dueReminderDays'] as const;
+export const scheduleFields = [
+  'title',
+  'description',
+  'signupClosesAt',
+  'dueAt',
+  'signupReminderDays',
+  'dueReminderDays',
+] as const;
 
 export const transitionSchema = z
   .object({
@@ -177,9 +195,24 @@ export const transitionSchema = z
   .strict();
 export type TransitionInput = z.infer<typeof transitionSchema>;
 
+/** `GET /swaps/:swapId/transitions/preview?to=`: what a move would do, before it is made. */
+export const transitionPreviewQuerySchema = z
+  .object({ to: z.enum(swapStates, { error: `Choose one of: ${swapStates.join(', ')}.` }) })
+  .strict();
+export type TransitionPreviewQuery = z.infer<typeof transitionPreviewQuerySchema>;
+
+/** True when a move goes back along the path (a step taken back), not forward or to cancelled. */
+export function isStepBack(from: SwapState | null, to: SwapState): boolean {
+  return from !== null && to !== 'cancelled' && swapPath.indexOf(to) < swapPath.indexOf(from);
+}
+
 export const signupSchema = z
   .object({
-    blocks: z.number({ error: 'Say how many blocks you will make.' }).int('Use a whole number of blocks.').min(1, 'Pledge at least 1 block.').max(50, 'At most 50 blocks.'),
+    blocks: z
+      .number({ error: 'Say how many blocks you will make.' })
+      .int('Use a whole number of blocks.')
+      .min(1, 'Pledge at least 1 block.')
+      .max(50, 'At most 50 blocks.'),
   })
   .strict();
 export type SignupInput = z.infer<typeof signupSchema>;
@@ -198,10 +231,19 @@ export const transferSchema = z.object({
   from: z.number({ error: 'Each transfer needs the maker who sends.' }).int().positive(),
   /** null only in gift mode to a named (non-member) recipient */
   to: z.number({ error: 'Each transfer needs the member who receives.' }).int().positive().nullable(),
-  count: z.number({ error: 'Each transfer needs a number of blocks.' }).int('Use a whole number of blocks.').min(1, 'Send at least 1 block, or remove the line.'),
+  count: z
+    .number({ error: 'Each transfer needs a number of blocks.' })
+    .int('Use a whole number of blocks.')
+    .min(1, 'Send at least 1 block, or remove the line.'),
 });
 
 export const confirmDistributionSchema = z
   .object({ transfers: z.array(transferSchema).min(1, 'There is nothing to confirm.').max(5000) })
   .strict();
 export type ConfirmDistributionInput = z.infer<typeof confirmDistributionSchema>;
+
+/** `GET /swaps/:swapId/distribution?by=recipient|maker`: the confirmed return, grouped. */
+export const distributionQuerySchema = z
+  .object({ by: z.enum(['recipient', 'maker'], { error: 'by is "recipient" or "maker".' }).default('recipient') })
+  .strict();
+export type DistributionQuery = z.infer<typeof distributionQuerySchema>;

@@ -11,6 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles, PASSWORD, signedInUser, uniqueEmail } from '../helpers/factories';
 import { listRoutes } from '../../server/http/list-routes';
+import { paymentsOverrides } from '../helpers/payments';
 import { createSwap, move, receiveAndMeasure, swapBody } from './swaps-support';
 
 type Role = 'signedOut' | 'stranger' | 'member' | 'coordinator' | 'admin';
@@ -31,7 +32,7 @@ let g: Awaited<ReturnType<typeof guildWithRoles>>;
 const ids = { swap: 0, block: 0, photo: 0, photoToDelete: 0, sewDay: 0, room: 0, message: 0, messageToDelete: 0, token: '' };
 
 beforeAll(async () => {
-  app = await createTestApp();
+  app = await createTestApp(paymentsOverrides());
   g = await guildWithRoles(app);
   const swap = await createSwap(g.coordinator.agent, g.guildId);
   ids.swap = swap.id;
@@ -110,6 +111,11 @@ const cases: Record<string, Case> = {
   'GET /api/swaps/:swapId': { access: 'member', path: () => `/api/swaps/${ids.swap}` },
   'PATCH /api/swaps/:swapId': { access: 'officer', path: () => `/api/swaps/${ids.swap}`, body: () => ({ title: 'Renamed in the matrix' }) },
   'GET /api/swaps/:swapId/transitions': { access: 'member', path: () => `/api/swaps/${ids.swap}/transitions` },
+  'GET /api/swaps/:swapId/transitions/preview': { access: 'officer', path: () => `/api/swaps/${ids.swap}/transitions/preview?to=sorting` },
+  'GET /api/swaps/:swapId/distribution': { access: 'officer', path: () => `/api/swaps/${ids.swap}/distribution?by=recipient` },
+  'POST /api/swaps/:swapId/handed-in': { access: 'member', path: () => `/api/swaps/${ids.swap}/handed-in`, body: () => ({ blockIds: [ids.block], how: 'in-person' }) },
+  'POST /api/blocks/:blockId/undo': { access: 'officer', path: () => `/api/blocks/${ids.block}/undo` },
+  'POST /api/blocks/:blockId/accept': { access: 'officer', path: () => `/api/blocks/${ids.block}/accept`, body: () => ({ reason: 'Close enough for the raffle quilt' }) },
   'POST /api/swaps/:swapId/transitions': { access: 'officer', path: () => `/api/swaps/${ids.swap}/transitions`, body: () => ({ to: 'draft' }) },
   'POST /api/swaps/:swapId/signups': { access: 'member', path: () => `/api/swaps/${ids.swap}/signups`, body: () => ({ blocks: 1 }) },
   'GET /api/swaps/:swapId/signups/me': { access: 'member', path: () => `/api/swaps/${ids.swap}/signups/me` },
@@ -139,6 +145,15 @@ const cases: Record<string, Case> = {
   'PUT /api/swaps/:swapId/design': { access: 'member', path: () => `/api/swaps/${ids.swap}/design`, body: () => ({ columns: 1, rows: 1, cells: [{ blockId: null, rotation: 0 }] }) },
   'POST /api/swaps/:swapId/design/arrange': { access: 'member', path: () => `/api/swaps/${ids.swap}/design/arrange`, body: () => ({}) },
   'DELETE /api/photos/:photoId': { access: ['member', 'coordinator', 'admin'], path: () => `/api/photos/${ids.photoToDelete}` },
+  // Without a signature the payment service's webhook refuses everyone alike (400), signed in or not.
+  'POST /api/payments/webhook': { access: 'public', path: () => '/api/payments/webhook', body: () => ({ id: 'evt_test_unsigned' }) },
+  'GET /api/me/payments': { access: 'user', path: () => '/api/me/payments' },
+  'GET /api/swaps/:swapId/fees': { access: 'member', path: () => `/api/swaps/${ids.swap}/fees` },
+  'POST /api/swaps/:swapId/checkout': { access: 'member', path: () => `/api/swaps/${ids.swap}/checkout`, body: () => ({}) },
+  'GET /api/guilds/:guildId/dues': { access: 'member', path: () => `/api/guilds/${G()}/dues` },
+  'POST /api/guilds/:guildId/dues/checkout': { access: 'member', path: () => `/api/guilds/${G()}/dues/checkout`, body: () => ({}) },
+  'GET /api/guilds/:guildId/payments': { access: 'admin', path: () => `/api/guilds/${G()}/payments` },
+  'POST /api/guilds/:guildId/payments/:paymentId/refund': { access: 'admin', path: () => `/api/guilds/${G()}/payments/${NOPE}/refund` },
   'GET /api/me/mail-preferences': { access: 'user', path: () => '/api/me/mail-preferences' },
   'PATCH /api/me/mail-preferences': { access: 'user', path: () => '/api/me/mail-preferences', body: () => ({ reminders: true }) },
   'GET /api/unsubscribe': { access: 'public', path: () => `/api/unsubscribe?token=${'z'.repeat(40)}` },

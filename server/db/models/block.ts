@@ -29,6 +29,10 @@ export class Block extends Model<InferAttributes<Block>, InferCreationAttributes
   declare receivedAt: CreationOptional<Date | null>;
   declare measuredAt: CreationOptional<Date | null>;
   declare returnedAt: CreationOptional<Date | null>;
+  /** set when an officer accepted an off-size block anyway, with the reason */
+  declare acceptedAt: CreationOptional<Date | null>;
+  declare acceptedById: CreationOptional<number | null>;
+  declare acceptedReason: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare swap?: NonAttribute<Swap>;
@@ -53,6 +57,9 @@ export class Block extends Model<InferAttributes<Block>, InferCreationAttributes
         receivedAt: { type: DataTypes.DATE, allowNull: true },
         measuredAt: { type: DataTypes.DATE, allowNull: true },
         returnedAt: { type: DataTypes.DATE, allowNull: true },
+        acceptedAt: { type: DataTypes.DATE, allowNull: true },
+        acceptedById: { type: DataTypes.INTEGER, allowNull: true },
+        acceptedReason: { type: DataTypes.STRING(500), allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -26,6 +26,9 @@ export class Measurement extends Model<InferAttributes<Measurement>, InferCreati
   declare deviationHeight: number;
   declare deviationDiagonal: CreationOptional<number | null>;
   declare note: CreationOptional<string | null>;
+  /** set when the measurement was undone; it stays in the history */
+  declare withdrawnAt: CreationOptional<Date | null>;
+  declare withdrawnById: CreationOptional<number | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare measuredBy?: NonAttribute<User | null>;
@@ -45,6 +48,8 @@ export class Measurement extends Model<InferAttributes<Measurement>, InferCreati
         deviationHeight: signedInches('deviationHeight'),
         deviationDiagonal: signedInches('deviationDiagonal', true),
         note: { type: DataTypes.STRING(500), allowNull: true },
+        withdrawnAt: { type: DataTypes.DATE, allowNull: true },
+        withdrawnById: { type: DataTypes.INTEGER, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

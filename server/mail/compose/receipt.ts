@@ -14,7 +14,17 @@ import { Block, Measurement, type Swap } from '../../db/models';
 import { mailLength, mailSize, plural } from '../format';
 import { renderMail } from '../render';
 import { recordAndQueue, type RecordResult } from '../outbox';
-import { frameFor, loadSwap, recordsFor, swapUrl, usersByIds, type ComposeDeps, type Drafted, type MailConfig, type Recipient } from './context';
+import {
+  frameFor,
+  loadSwap,
+  recordsFor,
+  swapUrl,
+  usersByIds,
+  type ComposeDeps,
+  type Drafted,
+  type MailConfig,
+  type Recipient,
+} from './context';
 import { swapView } from './swap-view';
 
 const IN_HAND = ['received', 'measured', 'returned'];
@@ -61,7 +71,12 @@ export interface ReceiptDraft {
  * The maker's receipt as it reads now, or null when none of their blocks is in hand. Used both to
  * compose the notice and, at send time, to check that a queued notice still says what is true.
  */
-export async function receiptDraft(config: MailConfig, swapId: number, makerId: number, now = new Date()): Promise<ReceiptDraft | null> {
+export async function receiptDraft(
+  config: MailConfig,
+  swapId: number,
+  makerId: number,
+  now = new Date(),
+): Promise<ReceiptDraft | null> {
   const loaded = await loadSwap(swapId);
   if (!loaded) return null;
   const { swap, guild } = loaded;
@@ -73,13 +88,16 @@ export async function receiptDraft(config: MailConfig, swapId: number, makerId: 
 
   const latest = new Map<number, Measurement>();
   const measurements = await Measurement.findAll({
-    where: { blockId: { [Op.in]: inHand.map((b) => b.id) }, source: 'ruler' },
-    order: [['createdAt', 'ASC'], ['id', 'ASC']],
+    where: { blockId: { [Op.in]: inHand.map((b) => b.id) }, source: 'ruler', withdrawnAt: null },
+    order: [
+      ['createdAt', 'ASC'],
+      ['id', 'ASC'],
+    ],
   });
   for (const m of measurements) latest.set(m.blockId, m);
 
   const fingerprint = createHash('sha256')
-    .update(inHand.map((b) => `${b.id}:${b.verdict ?? '-'}:${b.trimmed ? 1 : 0}`).join('|'))
+    .update(inHand.map((b) => `${b.id}:${b.verdict ?? '-'}:${b.trimmed ? 1 : 0}${b.acceptedAt ? ':a' : ''}`).join('|'))
     .digest('hex')
     .slice(0, 12);
   // Asking for more blocks makes sense only while they can still be handed in.
@@ -96,11 +114,15 @@ export async function receiptDraft(config: MailConfig, swapId: number, makerId: 
       glyph: label ? label.glyph : '•',
       verdictStyle: b.verdict ? `verdict_${b.verdict}` : 'verdict_none',
       measured: m && b.verdict && b.verdict !== 'true' ? mailSize(m, r.units) : null,
-      advice: adviceFor(b.verdict, b.trimmed, swap, r.units, view.due),
+      advice: b.acceptedAt
+        ? 'Your coordinator accepted it as it is, so it takes part in the return. Nothing for you to do.'
+        : adviceFor(b.verdict, b.trimmed, swap, r.units, view.due),
     };
   });
   const needWork = !swap.distributionConfirmedAt
-    ? inHand.filter((b) => (b.verdict === 'trim' && !b.trimmed) || b.verdict === 'short' || b.verdict === 'skewed').length
+    ? inHand.filter(
+        (b) => !b.acceptedAt && ((b.verdict === 'trim' && !b.trimmed) || b.verdict === 'short' || b.verdict === 'skewed'),
+      ).length
     : 0;
   const drafted: Drafted = {
     key: `swap:${swap.id}:receipt:user:${r.id}:${fingerprint}`,
@@ -112,7 +134,8 @@ export async function receiptDraft(config: MailConfig, swapId: number, makerId: 
         swapTitle: swap.title,
         receivedText: plural(inHand.length, 'block'),
         measuredCount,
-        measuredText: measuredCount === inHand.length ? (inHand.length === 1 ? 'it' : `all ${inHand.length}`) : String(measuredCount),
+        measuredText:
+          measuredCount === inHand.length ? (inHand.length === 1 ? 'it' : `all ${inHand.length}`) : String(measuredCount),
         blocks,
         unfinished: view.unfinished,
         owed,
@@ -122,7 +145,10 @@ export async function receiptDraft(config: MailConfig, swapId: number, makerId: 
         url: swapUrl(config, guild.id, swap.id),
       },
       frameFor(config, r.id, 'receipts', {
-        subject: needWork > 0 ? `Your blocks for ${swap.title}: ${plural(needWork, 'block needs', 'blocks need')} a look` : `Your blocks for ${swap.title} have arrived`,
+        subject:
+          needWork > 0
+            ? `Your blocks for ${swap.title}: ${plural(needWork, 'block needs', 'blocks need')} a look`
+            : `Your blocks for ${swap.title} have arrived`,
         preheader: `${plural(inHand.length, 'block')} received, ${measuredCount} measured.`,
         heading: 'Your blocks have arrived',
         reason: `You get this because you made blocks for a swap in ${guild.name}.`,
@@ -133,9 +159,19 @@ export async function receiptDraft(config: MailConfig, swapId: number, makerId: 
 }
 
 /** Composes the maker's receipt notice, if anything has changed since the last one. */
-export async function composeReceipt(deps: ComposeDeps, swapId: number, makerId: number, now = new Date()): Promise<RecordResult> {
+export async function composeReceipt(
+  deps: ComposeDeps,
+  swapId: number,
+  makerId: number,
+  now = new Date(),
+): Promise<RecordResult> {
   const draft = await receiptDraft(deps.config, swapId, makerId, now);
   if (!draft) return { queued: 0, skipped: 0, existing: 0 };
-  const records = await recordsFor('receipts', { guildId: draft.guildId, swapId: draft.swapId }, [draft.maker], () => draft.drafted);
+  const records = await recordsFor(
+    'receipts',
+    { guildId: draft.guildId, swapId: draft.swapId },
+    [draft.maker],
+    () => draft.drafted,
+  );
   return recordAndQueue(deps.pool, deps.boss, records, now);
 }

@@ -1,0 +1,70 @@
+/** A maker hands several of their blocks in at once: all of them, or none if one cannot be. */
+import type { HandInManyInput } from '@shared/schemas/blocks';
+import type { BlockDto } from '@shared/swap-types';
+import { isBlockStateBefore } from '@shared/vocabulary';
+import { Block, type Swap } from '../db/models';
+import { ConflictError, ValidationError } from '../http/errors';
+import type { AppDeps } from '../deps';
+import { blockDtos } from './block-dto';
+import { assertSwapIn, lockedBlock } from './blocks.service';
+import { recordStep, snapshotOf } from './step-log';
+
+type Deps = Pick<AppDeps, 'events'>;
+
+/**
+ * Marks each chosen block handed in, the same way one block is; blocks already handed in keep their
+ * first hand-in time. Every block must be the caller's own, in this swap, and not taken in yet.
+ */
+export async function handInMany(deps: Deps, swap: Swap, actorId: number, input: HandInManyInput): Promise<BlockDto[]> {
+  const ids = [...new Set(input.blockIds)].sort((a, b) => a - b);
+  const { dtos, changes } = await Block.sequelize!.transaction(async (transaction) => {
+    const done: Block[] = [];
+    const changes: { blockId: number; from: Block['state'] }[] = [];
+    // Locked in id order, so two overlapping requests cannot wait on each other.
+    for (const id of ids) {
+      const { block, swap: own } = await lockedBlock(id, transaction);
+      // Someone else's block, or one of another swap, is a mistake in the list, not a matter of rights.
+      if (own.id !== swap.id || block.makerId !== actorId) {
+        throw new ValidationError('Choose only your own blocks of this swap.', {
+          blockIds: `Block ${id} is not one of your blocks in this swap.`,
+        });
+      }
+      assertSwapIn(own, ['signup', 'sewing', 'collecting'], 'handed in');
+      if (!isBlockStateBefore(block.state, 'received')) {
+        throw new ConflictError(
+          `Block ${block.sequence} has already been taken in, so its hand-in cannot change.`,
+          'already_received',
+        );
+      }
+      const from = block.state;
+      const now = new Date();
+      const was = snapshotOf(block);
+      await block.update(
+        {
+          state: 'handed_in',
+          handInHow: input.how,
+          handInNote: input.note || null,
+          handedInAt: block.handedInAt ?? now,
+          sewnAt: block.sewnAt ?? now,
+        },
+        { transaction },
+      );
+      await recordStep(transaction, { blockId: id, action: 'handed_in', byId: actorId, before: was });
+      if (from !== 'handed_in') changes.push({ blockId: id, from });
+      done.push(block);
+    }
+    return { dtos: await blockDtos(done, swap, transaction), changes };
+  });
+  for (const c of changes) {
+    deps.events.emit('block.changed', {
+      swapId: swap.id,
+      guildId: swap.guildId,
+      actorId,
+      blockId: c.blockId,
+      makerId: actorId,
+      from: c.from,
+      to: 'handed_in',
+    });
+  }
+  return dtos;
+}
