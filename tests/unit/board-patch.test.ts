@@ -1,7 +1,11 @@
+import { QueryClient } from '@tanstack/react-query';
 import { describe, expect, it } from 'vitest';
 import type { ActivityDto, BoardPatch } from '../../shared/live-events';
 import type { RosterDto, RosterRowDto } from '../../shared/swap-types';
 import { applyBoardPatch, boardChangeStep } from '../../src/entities/roster/api/apply-board-patch';
+import { markStaleAfterChange } from '../../src/entities/roster/api/mark-stale-after-change';
+import { blockKeys } from '../../src/entities/block/api/block-keys';
+import { swapKeys } from '../../src/entities/swap/api/swap-keys';
 import { prependActivities } from '../../src/features/live-board/hooks/prepend-activities';
 
 const counts = { pledged: 0, sewn: 0, handedIn: 0, received: 0, measured: 0, returned: 0 };
@@ -107,5 +111,51 @@ describe('deciding what a numbered board change does to the cached roster', () =
     expect(boardChangeStep(4, change(6), true)).toBe('refetch');
     expect(boardChangeStep(4, change(5, false), true)).toBe('refetch');
     expect(boardChangeStep(4, change(5), false)).toBe('refetch');
+  });
+});
+
+describe('marking what else shows a board change as stale', () => {
+  const withBlocks = (userId: number, ids: number[]) =>
+    ({ ...row(userId, `Maker ${userId}`), blocks: ids.map((id) => ({ id })) }) as RosterRowDto;
+
+  function cache() {
+    const queryClient = new QueryClient();
+    queryClient.setQueryData(swapKeys.detail(7), { id: 7, state: 'collecting', pledged: 0 });
+    queryClient.setQueryData(blockKeys.list(7, 'mine'), [{ id: 21 }, { id: 22 }]);
+    queryClient.setQueryData(blockKeys.list(7, 'all'), [{ id: 21 }, { id: 22 }, { id: 31 }]);
+    queryClient.setQueryData(blockKeys.measurements(21), []);
+    queryClient.setQueryData(blockKeys.measurements(31), []);
+    const stale = () =>
+      queryClient
+        .getQueryCache()
+        .getAll()
+        .filter((q) => q.state.isInvalidated)
+        .map((q) => q.queryKey.join(' '))
+        .sort();
+    return { queryClient, stale };
+  }
+
+  it('marks the touched block, the lists holding it and the officers’ full list, not the rest', async () => {
+    const { queryClient, stale } = cache();
+    await markStaleAfterChange(queryClient, 7, patch({ rows: [withBlocks(9, [31])] }));
+    expect(stale()).toEqual(['swaps block 31 measurements', 'swaps detail 7 blocks all']);
+  });
+
+  it('marks the swap when its state or pledges moved', async () => {
+    const { queryClient, stale } = cache();
+    await markStaleAfterChange(queryClient, 7, patch({ swap: { ...roster([]).swap, state: 'sorting' } }));
+    expect(stale()).toContain('swaps detail 7');
+  });
+
+  it('marks everything of the swap when the change carries no patch (something was missed)', async () => {
+    const { queryClient, stale } = cache();
+    await markStaleAfterChange(queryClient, 7, null);
+    expect(stale()).toEqual([
+      'swaps block 21 measurements',
+      'swaps block 31 measurements',
+      'swaps detail 7',
+      'swaps detail 7 blocks all',
+      'swaps detail 7 blocks mine',
+    ]);
   });
 });

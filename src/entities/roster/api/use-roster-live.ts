@@ -4,9 +4,8 @@ import type { BoardChange, BoardJoined } from '@shared/live-events';
 import type { RosterDto } from '@shared/swap-types';
 import { ApiError } from '@/lib/api-client';
 import { emitWithAck, getSocket } from '@/lib/socket';
-import { blockKeys } from '@/entities/block/api/block-keys';
-import { swapKeys } from '@/entities/swap/api/swap-keys';
 import { applyBoardPatch, boardChangeStep } from './apply-board-patch';
+import { markStaleAfterChange } from './mark-stale-after-change';
 import { rosterKeys } from './roster-keys';
 
 export interface RosterLiveHandlers {
@@ -24,8 +23,8 @@ const following = new Map<number, number>();
 /**
  * Keeps every cached view of a swap's roster current from the board's live changes. Each change
  * carries the swap's next number: the next one in line is patched in with setQueryData (and the
- * swap's block queries marked stale, so an open block refetches); an older one is ignored; a gap (or
- * a reconnect) means something was missed, so the roster is fetched again.
+ * swap and blocks it touched marked stale, so their open views refetch); an older one is ignored; a
+ * gap (or a reconnect) means something was missed, so the roster is fetched again.
  */
 export function useRosterLive(swapId: number, handlers: RosterLiveHandlers = {}) {
   const queryClient = useQueryClient();
@@ -61,9 +60,7 @@ export function useRosterLive(swapId: number, handlers: RosterLiveHandlers = {})
       const step = boardChangeStep(version.current, change, cached !== undefined);
       if (step === 'ignore') return;
       version.current = change.version;
-      void queryClient.invalidateQueries({ queryKey: swapKeys.detail(swapId), exact: true });
-      void queryClient.invalidateQueries({ queryKey: blockKeys.lists(swapId) });
-      void queryClient.invalidateQueries({ queryKey: blockKeys.all });
+      void markStaleAfterChange(queryClient, swapId, step === 'patch' ? change.patch : null);
       if (step === 'refetch' || !cached || !change.patch) {
         void refetch();
         return;
