@@ -62,7 +62,12 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
   const { config, logger } = deps;
   const boss = await startBoss(config, logger, { schedule: opts.schedule ?? true });
   const composeDeps: ComposeDeps = { pool: deps.pool, config, logger, boss };
-  const delivery = { pool: deps.pool, mailer: opts.mailer ?? deps.mailer, config };
+  const delivery = {
+    pool: deps.pool,
+    mailer: opts.mailer ?? deps.mailer,
+    config,
+    later: (messageId: number, seconds: number) => boss.send(queues.send, { messageId }, { startAfter: seconds }),
+  };
   let closed = false;
 
   const compose = async (job: ComposeJob): Promise<RecordResult> => {
@@ -75,17 +80,20 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
         return composeReceipt(composeDeps, job.swapId, job.userId);
       case 'distribution':
         return composeDistribution(composeDeps, job.swapId);
+      case 'payment-receipt':
+        return composePaymentReceipt(composeDeps, job.paymentIds, job.news);
     }
   };
   const sweep = async (now = new Date()) => {
     const reminders = await composeReminders(composeDeps, now);
     return { ...reminders, requeued: await requeueStalled(deps.pool, boss) };
-      case 'payment-receipt':
-        return composePaymentReceipt(composeDeps, job.paymentIds, job.news);
   };
   const digest = (now = new Date()) => composeDigests(composeDeps, now);
   const enqueue = (job: ComposeJob, delaySeconds = 0) =>
-    boss.send(queues.compose, job, { singletonKey: singletonKey(job), ...(delaySeconds > 0 ? { startAfter: delaySeconds } : {}) });
+    boss.send(queues.compose, job, {
+      singletonKey: singletonKey(job),
+      ...(delaySeconds > 0 ? { startAfter: delaySeconds } : {}),
+    });
 
   if (opts.workers ?? true) {
     const work = { batchSize: 1, pollingIntervalSeconds: config.JOBS_POLL_SECONDS };
@@ -96,7 +104,8 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
           const outcome = await deliverMessage(delivery, job!.data.messageId);
           logger.debug({ messageId: job!.data.messageId, outcome }, 'mail delivery');
         } catch (error) {
-          if (error instanceof RetryableDeliveryError) logger.warn({ messageId: job!.data.messageId, reason: error.message }, 'mail delivery failed; will retry');
+          if (error instanceof RetryableDeliveryError)
+            logger.warn({ messageId: job!.data.messageId, reason: error.message }, 'mail delivery failed; will retry');
           throw error;
         }
       });
@@ -126,10 +135,21 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
     };
     deps.events.on('swap.transitioned', (e) => (e.to === 'signup' ? on({ kind: 'announcement', swapId: e.swapId }) : undefined));
     deps.events.on('signup.changed', (e) => on({ kind: 'signup-confirmation', swapId: e.swapId, userId: e.userId }, delay));
-    deps.events.on('block.changed', (e) => (e.to === 'received' ? on({ kind: 'receipt', swapId: e.swapId, userId: e.makerId }, delay) : undefined));
+    // A block taken in, or one of its steps undone after it was taken in, changes what the receipt says.
+    const inHand = ['received', 'measured'];
+    deps.events.on('block.changed', (e) =>
+      inHand.includes(e.to) || inHand.includes(e.from)
+        ? on({ kind: 'receipt', swapId: e.swapId, userId: e.makerId }, delay)
+        : undefined,
+    );
     // Makers' own and photo estimates are not the coordinator's verdict; only the ruler's counts.
-    deps.events.on('block.measured', (e) => (e.source === 'ruler' ? on({ kind: 'receipt', swapId: e.swapId, userId: e.makerId }, delay) : undefined));
+    deps.events.on('block.measured', (e) =>
+      e.source === 'ruler' ? on({ kind: 'receipt', swapId: e.swapId, userId: e.makerId }, delay) : undefined,
+    );
     deps.events.on('distribution.confirmed', (e) => on({ kind: 'distribution', swapId: e.swapId }));
+    deps.events.on('payment.settled', (e) =>
+      e.status === 'failed' ? undefined : on({ kind: 'payment-receipt', paymentIds: e.paymentIds, news: e.status }),
+    );
   }
 
   return {
@@ -139,7 +159,6 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
     sweep,
     digest,
     async close() {
-    deps.events.on('payment.settled', (e) => (e.status === 'failed' ? undefined : on({ kind: 'payment-receipt', paymentIds: e.paymentIds, news: e.status })));
       closed = true;
       // Graceful: running jobs finish (or are left for another worker once they expire).
       await boss.stop({ graceful: true, wait: true, timeout: 10_000 });
