@@ -1,6 +1,6 @@
 /**
- * The coordinator's Roster page follows the swap's live changes like the board does: a block
- * measured in another session shows on the open page without a reload.
+ * Swap pages follow the swap's live changes like the board does: a block measured in another
+ * session shows on the coordinator's open Roster page and on the maker's swap overview without a reload.
  */
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { BrowserContext } from 'playwright-core';
@@ -52,4 +52,27 @@ it('updates the open Roster page when another session measures a block', async (
   expect(await page.evaluate(() => (window as unknown as { stayedOpen?: boolean }).stayedOpen)).toBe(true);
   // The rows came with the live changes themselves: the roster was not fetched again.
   expect(rosterFetches).toHaveLength(2);
+});
+
+it('shows the maker, on the swap overview, the verdict on their block as the coordinator gives it', async () => {
+  const g = await liveGuild(server.url);
+  const { swapId, blockIds } = await collectingSwap(g.coordinator, g.guildId, [g.member], 1);
+  const blockId = blockIds.get(g.member.id)![0]!;
+
+  const page = await pageWithSession(browser, g.member.cookie, server.url);
+  const blockFetches: string[] = [];
+  page.on('request', (r) => {
+    if (new URL(r.url()).pathname === `/api/swaps/${swapId}/blocks`) blockFetches.push(r.url());
+  });
+  await page.goto(`${server.url}/guilds/${g.guildId}/swaps/${swapId}`);
+  await page.getByText('Not measured yet').first().waitFor();
+  await page.evaluate(() => ((window as unknown as { stayedOpen: boolean }).stayedOpen = true));
+  const before = blockFetches.length;
+
+  expect((await g.coordinator.api('POST', `/blocks/${blockId}/received`, {})).status).toBe(200);
+  expect((await g.coordinator.api('POST', `/blocks/${blockId}/measurements`, { width: '9', height: '9 1/2' })).status).toBe(201);
+
+  await page.getByText('Runs short').first().waitFor({ timeout: 5000 });
+  expect(blockFetches.length).toBeGreaterThan(before);
+  expect(await page.evaluate(() => (window as unknown as { stayedOpen?: boolean }).stayedOpen)).toBe(true);
 });
