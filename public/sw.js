@@ -50,7 +50,8 @@ async function cacheFirst(request, cacheName) {
 async function networkFirst(request, cacheName, key = request, wait = 4000) {
   const cache = await caches.open(cacheName);
   const network = fetch(request).then((response) => {
-    if (response.ok) cache.put(key, response.clone());
+    // 204 (the session probe of a signed-out visitor) keeps nothing worth keeping.
+    if (response.ok && response.status !== 204) cache.put(key, response.clone());
     return response;
   });
   network.catch(() => undefined); // a late failure after the kept copy answered is not an error

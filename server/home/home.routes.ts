@@ -7,7 +7,7 @@ import { getMe } from '../auth/auth.service';
 import { markRoomSeen, nextForMe } from './home.service';
 
 /**
- * The client's session probe (who is signed in, or null: a visitor is not an error, so it answers 200),
+ * The client's session probe (who is signed in, or 204 No Content: a visitor is not an error, so it is no 401),
  * the home screen's "what is next for me" across every guild, and the note that a chat room was read.
  */
 export function homeRouter(deps: AppDeps) {
@@ -16,7 +16,9 @@ export function homeRouter(deps: AppDeps) {
   router.get(
     '/session',
     route({}, async (_input, req, res) => {
-      res.json(req.user ? ((await getMe(req.user.id)) ?? null) : null);
+      const me = req.user ? await getMe(req.user.id) : null;
+      if (me) res.json(me);
+      else res.status(204).end();
     }),
   );
 

@@ -16,9 +16,8 @@ afterAll(() => app.close());
 const next = async (agent: Roles['member']['agent']) => (await agent.get('/api/me/next').expect(200)).body as NextForMeDto;
 
 describe('GET /api/session', () => {
-  it('answers 200 with null for a visitor and the account when signed in', async () => {
-    const visitor = await app.agent().get('/api/session').expect(200);
-    expect(visitor.body).toBeNull();
+  it('answers 204 to a visitor and the account when signed in', async () => {
+    await app.agent().get('/api/session').expect(204);
     const me = await g.member.agent.get('/api/session').expect(200);
     expect(me.body.user.id).toBe(g.member.id);
   });

@@ -1,13 +1,17 @@
 /**
  * Forms on a phone never lose what was typed: the Cutting planner keeps its last good results and
  * every input through typos, keeps its inputs in the page address, reads bare numbers as millimetres
- * in millimetre mode, and says exactly what each field allows.
+ * in millimetre mode, and says exactly what each field allows. Intake on a phone goes width, Next,
+ * height, Save with the on-screen keyboard.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import supertest from 'supertest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { launchBrowser } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
 import { PASSWORD, uniqueEmail } from '../helpers/factories';
+import { swapBody } from '../api/swaps-support';
+import type { IntakePackDto } from '../../shared/schemas/intake';
 import type { RunningServer } from '../../server/index';
 
 let server: RunningServer;
@@ -116,5 +120,83 @@ describe('Cutting planner', () => {
     await page.getByLabel('Column cut widths').fill('2 1/2, , 2');
     await page.getByText('Entry 2 is empty: type a length there or remove the extra comma.').waitFor();
     expect(await page.getByLabel('Column cut widths').inputValue()).toBe('2 1/2, , 2');
+  });
+});
+
+describe('Intake on a phone', () => {
+  let phone: BrowserContext;
+  let agent: ReturnType<typeof supertest.agent>;
+  let path: string;
+  let code: string;
+  beforeAll(async () => {
+    agent = supertest.agent(server.url).set('X-Requested-With', 'blockpost');
+    const email = uniqueEmail('phone-intake');
+    await agent.post('/api/auth/register').send({ email, password: PASSWORD, displayName: 'Ottoline Brackley' }).expect(201);
+    const guildId = (await agent.post('/api/guilds').send({ name: 'Weir Lane Stitchers' }).expect(201)).body.id as number;
+    const swapId = (
+      await agent
+        .post(`/api/guilds/${guildId}/swaps`)
+        .send(swapBody({ title: 'Phone Nine-Patch' }))
+        .expect(201)
+    ).body.id as number;
+    await agent.post(`/api/swaps/${swapId}/transitions`).send({ to: 'signup' }).expect(200);
+    await agent.post(`/api/swaps/${swapId}/signups`).send({ blocks: 1 }).expect(200);
+    for (const to of ['sewing', 'collecting']) await agent.post(`/api/swaps/${swapId}/transitions`).send({ to }).expect(200);
+    const pack = (await agent.get(`/api/swaps/${swapId}/intake`).expect(200)).body as IntakePackDto;
+    code = pack.blocks[0]!.shortCode;
+    path = `/guilds/${guildId}/swaps/${swapId}/intake`;
+    phone = await launchBrowser({ viewport: { width: 390, height: 844 } });
+    const page = await phone.newPage();
+    await page.goto(`${server.url}/sign-in?next=${encodeURIComponent(path)}`);
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Password').fill(PASSWORD);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL((url) => url.pathname === path);
+    await page.close();
+  });
+  afterAll(async () => {
+    await phone?.close();
+  });
+
+  async function openCard() {
+    const page = await phone.newPage();
+    await page.goto(`${server.url}${path}`);
+    await page.getByText('width, Next, height, Save').first().waitFor();
+    await page.getByLabel('Short code from the label').fill(code);
+    await page.keyboard.press('Enter');
+    await page.getByLabel('Width').waitFor();
+    return page;
+  }
+
+  it('moves from width to height with the keyboard’s Next key and records with its Save key', async () => {
+    const page = await openCard();
+    const width = page.getByLabel('Width');
+    expect(await width.getAttribute('enterkeyhint')).toBe('next');
+    expect(await width.getAttribute('inputmode')).toBe('text'); // fractions need a space and a slash
+    expect(await page.getByLabel('Height').getAttribute('enterkeyhint')).toBe('done');
+    await width.fill('9 1/2');
+    await width.press('Enter');
+    await expect.poll(() => page.getByLabel('Height').evaluate((el) => el === document.activeElement)).toBe(true);
+    expect(await page.getByText('Type the height').count()).toBe(0); // Next did not try to record half a measurement
+    await page.keyboard.type('9 1/2');
+    await page.keyboard.press('Enter');
+    // 9½″ against the swap's 9½″ ± ⅛″ (3 × 3″ finished + ½″ seams, common practice, no source).
+    await page.getByText('True to size').first().waitFor();
+    await page.close();
+  });
+
+  it('reads bare numbers as millimetres for a person who works in millimetres', async () => {
+    await agent.patch('/api/me').send({ units: 'mm' }).expect(200);
+    const page = await openCard();
+    const width = page.getByLabel('Width');
+    expect(await width.getAttribute('inputmode')).toBe('decimal');
+    expect(await page.locator('[id$="-unit"]', { hasText: 'mm' }).count()).toBeGreaterThanOrEqual(2);
+    // 9½″ is 241.3 mm (1 in = 25.4 mm exactly, NIST SP 811, Appendix B.8).
+    await width.fill('241.3');
+    await width.press('Enter');
+    await page.keyboard.type('241.3');
+    await page.keyboard.press('Enter');
+    await page.getByText('True to size').first().waitFor();
+    await page.close();
   });
 });

@@ -3,10 +3,10 @@ import type { MeDto } from '@shared/types';
 import { api, ApiError } from '@/lib/api-client';
 import { meKeys } from './me-keys';
 
-/** The signed-in person, or null when signed out (asked of the session probe, which answers a visitor with 200 null, not a logged 401). */
+/** The signed-in person, or null when signed out (asked of the session probe, which answers a visitor with 204, not a logged 401). */
 export async function getMe(): Promise<MeDto | null> {
   try {
-    return await api.get<MeDto | null>('/session', { allowUnauthenticated: true });
+    return (await api.get<MeDto | undefined>('/session', { allowUnauthenticated: true })) ?? null;
   } catch (error) {
     if (error instanceof ApiError && error.status === 401) return null;
     throw error;

@@ -48,7 +48,12 @@ function Station({ pack, userId, units }: { pack: IntakePack; userId: number; un
     <div>
       <PageHeader
         title={`Intake: ${pack.swap.title}`}
-        lead="Scan a label or type its short code, then measure: width, Tab, height, Enter. The next label is ready at once."
+        lead={
+          <>
+            Scan a label or type its short code, then measure: <span className="hidden sm:inline">width, Tab, height, Enter</span>
+            <span className="sm:hidden">width, Next, height, Save</span>. The next label is ready at once.
+          </>
+        }
         actions={
           <Link to={`${paths.swapLabels(guildId, pack.swap.id)}?maker=all`} className={buttonClass('secondary')}>
             Print labels

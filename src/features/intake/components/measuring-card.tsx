@@ -1,4 +1,4 @@
-import { useForm } from 'react-hook-form';
+import { useForm, type Resolver } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { formatLength } from '@shared/quilt';
 import {
@@ -11,6 +11,18 @@ import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
 import { VerdictBadge } from '@/entities/block/components/verdict-badge';
 
+/** No unit letters or quote marks: a bare number, which in millimetre mode means millimetres. */
+const BARE = /^[^a-z"'″“”′’]*$/i;
+
+/** In millimetre mode a bare number is read as millimetres before the shared schema reads it. */
+function inUnits(values: MeasuringFormInput, units: 'in' | 'mm'): MeasuringFormInput {
+  if (units === 'in') return values;
+  const mm = (text: string) => (text.trim() !== '' && BARE.test(text) ? `${text.trim()} mm` : text);
+  return { width: mm(values.width), height: mm(values.height), diagonal1: mm(values.diagonal1), diagonal2: mm(values.diagonal2) };
+}
+
+const schemaResolver = zodResolver(measuringFormSchema);
+
 interface Props {
   block: IntakeBlockDto;
   target: { width: number; height: number };
@@ -22,14 +34,20 @@ interface Props {
 
 /**
  * Keyboard-first: the width box has focus, Tab to the height, Enter records (diagonals are optional),
- * Escape closes the card. Lengths in any form: 9 1/2, 9½″, 9.5, 241 mm.
+ * Escape closes the card. On a phone the keyboard's Next key (Enter in the width box) moves to the
+ * height and its Save key records. Lengths in any form: 9 1/2, 9½″, 9.5, 241 mm; a bare number is in
+ * the person's unit.
  */
 export function MeasuringCard({ block, target, tolerance, units, onMeasured, onCancel }: Props) {
+  const resolver: Resolver<MeasuringFormInput, unknown, MeasuringFormOutput> = (values, context, options) =>
+    schemaResolver(inUnits(values, units), context, options);
   const form = useForm<MeasuringFormInput, unknown, MeasuringFormOutput>({
-    resolver: zodResolver(measuringFormSchema),
+    resolver,
     defaultValues: { width: '', height: '', diagonal1: '', diagonal2: '' },
   });
   const { errors } = form.formState;
+  // Fractions need a space and a slash, which the number pad lacks; millimetres need only digits and a point.
+  const inputMode = units === 'mm' ? 'decimal' : 'text';
   const size = `${formatLength(target.width, { unit: units })} × ${formatLength(target.height, { unit: units })}`;
   return (
     <section aria-labelledby="measuring-title" className="seam rounded-card border-2 border-indigo bg-card p-5">
@@ -55,18 +73,29 @@ export function MeasuringCard({ block, target, tolerance, units, onMeasured, onC
           <TextField
             label="Width"
             autoFocus
-            inputMode="decimal"
+            inputMode={inputMode}
             autoComplete="off"
+            autoCapitalize="off"
             enterKeyHint="next"
+            unit={units}
             className="text-2xl"
             error={errors.width?.message}
+            onKeyDown={(e) => {
+              // The phone keyboard's Next key: on to the height rather than recording half a measurement.
+              if (e.key === 'Enter' && !e.nativeEvent.isComposing) {
+                e.preventDefault();
+                form.setFocus('height');
+              }
+            }}
             {...form.register('width')}
           />
           <TextField
             label="Height"
-            inputMode="decimal"
+            inputMode={inputMode}
             autoComplete="off"
+            autoCapitalize="off"
             enterKeyHint="done"
+            unit={units}
             className="text-2xl"
             error={errors.height?.message}
             {...form.register('height')}
@@ -77,14 +106,16 @@ export function MeasuringCard({ block, target, tolerance, units, onMeasured, onC
           <div className="grid grid-cols-2 gap-3">
             <TextField
               label="Diagonal 1"
-              inputMode="decimal"
+              inputMode={inputMode}
+              unit={units}
               autoComplete="off"
               error={errors.diagonal1?.message}
               {...form.register('diagonal1')}
             />
             <TextField
               label="Diagonal 2"
-              inputMode="decimal"
+              inputMode={inputMode}
+              unit={units}
               autoComplete="off"
               error={errors.diagonal2?.message}
               {...form.register('diagonal2')}
@@ -96,7 +127,8 @@ export function MeasuringCard({ block, target, tolerance, units, onMeasured, onC
           <Button variant="quiet" onClick={onCancel}>
             Not now
           </Button>
-          <span className="text-base text-walnut-soft">Enter records · Esc closes</span>
+          <span className="hidden text-base text-walnut-soft sm:inline">Enter records · Esc closes</span>
+          <span className="text-base text-walnut-soft sm:hidden">Width, Next, height, Save</span>
         </div>
       </form>
     </section>
