@@ -7,7 +7,8 @@ import type { Role } from '@shared/schemas/guilds';
 import type { Block, Swap } from '../db/models';
 import { assertGuildRole } from '../guilds/guilds.policy';
 import { ForbiddenError, NotFoundError } from '../http/errors';
-import { readAccess, takeViewerRole, viewerRoleSql, type SwapAccess } from '../swaps/swaps.policy';
+import { readAccess, takeViewerRole, type SwapAccess } from '../swaps/swaps.policy';
+import { viewerRole } from '../swaps/swaps.queries';
 import { findBlockWithSwap } from './block-with-swap';
 
 export interface BlockAccess extends SwapAccess {
@@ -17,7 +18,10 @@ export interface BlockAccess extends SwapAccess {
 
 /** The block with its swap and the caller's role in the swap's guild, in one query. */
 async function loadBlock(userId: number, blockId: number): Promise<{ block: Block; swap: Swap; role: Role | null }> {
-  const found = await findBlockWithSwap(blockId, { extraSwapColumns: `${viewerRoleSql(userId, 's')} AS "swap.viewerRole"` });
+  const found = await findBlockWithSwap(blockId, {
+    extraSwapColumns: `${viewerRole('s')} AS "swap.viewerRole"`,
+    bind: { viewerId: userId },
+  });
   if (!found) throw new NotFoundError('That block does not exist.');
   return { ...found, role: takeViewerRole(found.swap) };
 }

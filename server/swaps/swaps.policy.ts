@@ -8,6 +8,7 @@ import type { Role } from '@shared/schemas/guilds';
 import { Swap } from '../db/models';
 import { assertGuildRole, can } from '../guilds/guilds.policy';
 import { ForbiddenError, NotFoundError } from '../http/errors';
+import { viewerRole } from './swaps.queries';
 
 export interface SwapAccess {
   swap: Swap;
@@ -15,25 +16,19 @@ export interface SwapAccess {
   canManage: boolean;
 }
 
-/**
- * The caller's role in the guild of the swap aliased `swapAlias`, read in the same query as the swap:
- * memberships hold one row per guild and user, and the subquery gives null without an active one.
- */
-export function viewerRoleSql(userId: number, swapAlias: string) {
-  return `(SELECT m.role FROM memberships m WHERE m.guild_id = "${swapAlias}"."guild_id"
-             AND m.user_id = ${Swap.sequelize!.escape(userId)} AND m.status = 'active')`;
-}
-
-/** Takes the role read by viewerRole off the swap, so the instance holds only its own columns. */
+/** Takes the role read by the viewerRole subquery off the swap, so the instance holds only its own columns. */
 export function takeViewerRole(swap: Swap): Role | null {
-  const values = swap.dataValues as unknown as Record<string, unknown>;
+  const values: Record<string, unknown> = swap.dataValues;
   const role = (values.viewerRole ?? null) as Role | null;
   delete values.viewerRole;
   return role;
 }
 
 async function loadSwap(userId: number, swapId: number): Promise<{ swap: Swap; role: Role | null }> {
-  const swap = await Swap.findByPk(swapId, { attributes: { include: [[literal(viewerRoleSql(userId, 'Swap')), 'viewerRole']] } });
+  const swap = await Swap.findByPk(swapId, {
+    attributes: { include: [[literal(viewerRole('Swap')), 'viewerRole']] },
+    bind: { viewerId: userId },
+  });
   if (!swap) throw new NotFoundError('That swap does not exist.');
   return { swap, role: takeViewerRole(swap) };
 }
