@@ -23,6 +23,8 @@ import { boardRouter } from './board/board.routes';
 import { photoEstimatesRouter } from './photo-estimates/photo-estimates.routes';
 import { intakeRouter } from './intake/intake.routes';
 import { homeRouter } from './home/home.routes';
+import { paymentsRouter } from './payments/payments.routes';
+import { paymentsFeature } from './payments/payments.startup';
 import { designsRouter } from './designs/designs.routes';
 import { photoColourBackfillFeature } from './uploads/photo-colour';
 
@@ -55,6 +57,7 @@ export const featureRouters: FeatureRouter[] = [
   intakeRouter,
   photoEstimatesRouter,
   homeRouter,
+  paymentsRouter,
   designsRouter,
 ];
 
@@ -62,4 +65,4 @@ export const featureRouters: FeatureRouter[] = [
 const liveFeature = liveStartup([boardLive(), chatLive]);
 
 // The photo store's owner check comes first: a store that is another install's stops the start untouched.
-export const featureStartups: FeatureStartup[] = [photoStoreFeature, liveFeature, mailJobsFeature, photoColourBackfillFeature];
+export const featureStartups: FeatureStartup[] = [photoStoreFeature, liveFeature, mailJobsFeature, paymentsFeature, photoColourBackfillFeature];
