@@ -2,8 +2,7 @@
  * Payments routes. The webhook router is mounted before the JSON parser, the session and the CSRF
  * check: the service posts raw, signed bodies with no session and no CSRF header.
  */
-import express, { Router } from 'express';
-import { type z } from 'zod';
+import express, { Router, type Request } from 'express';
 import { guildParamsSchema } from '@shared/schemas/guilds';
 import { swapParamsSchema } from '@shared/schemas/swaps';
 import {
@@ -17,16 +16,13 @@ import {
   swapCheckoutSchema,
   type GuildPaymentsDto,
 } from '@shared/schemas/payments';
-import { validate } from '../http/validate';
+import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { csv, slug } from '../exports/exports.service';
 import type { AppDeps } from '../deps';
 import { canPayGuild, canPaySwap, canTreasure } from './payments.policy';
 import * as payments from './payments.service';
 import { handlePaymentEvent } from './payments.webhook';
-
-type GuildParams = z.infer<typeof guildParamsSchema>;
-type SwapParams = z.infer<typeof swapParamsSchema>;
 
 /** POST /api/payments/webhook: raw body, signature header, no session, no CSRF header. */
 export function paymentsWebhookRouter(deps: AppDeps) {
@@ -72,82 +68,100 @@ function paymentsCsv(guildName: string, dto: GuildPaymentsDto) {
 
 export function paymentsRouter(deps: AppDeps) {
   const router = Router();
-  router.use('/payments', requireUser);
+  const me = (req: Request) => currentUser(req).id;
 
-  router.get('/me/payments', requireUser, validate({ query: myPaymentsQuerySchema }), async (req, res) => {
-    const { session } = req.query as z.infer<typeof myPaymentsQuerySchema>;
-    res.json(await payments.myPayments(deps, currentUser(req).id, session));
-  });
+  router.get(
+    '/me/payments',
+    requireUser,
+    route({ query: myPaymentsQuerySchema }, async ({ query }, req, res) => {
+      res.json(await payments.myPayments(deps, me(req), query.session));
+    }),
+  );
 
-  router.get('/swaps/:swapId/fees', requireUser, validate({ params: swapParamsSchema }), async (req, res) => {
-    const { swapId } = req.params as unknown as SwapParams;
-    const user = currentUser(req);
-    const { canManage } = await canPaySwap(user.id, swapId);
-    res.json(await payments.swapFees(deps, swapId, user.id, canManage));
-  });
+  router.get(
+    '/swaps/:swapId/fees',
+    requireUser,
+    route(
+      { params: swapParamsSchema, authorize: (req, { params }) => canPaySwap(me(req), params.swapId) },
+      async ({ params, access }, req, res) => {
+        res.json(await payments.swapFees(deps, params.swapId, me(req), access.canManage));
+      },
+    ),
+  );
 
   router.post(
     '/swaps/:swapId/checkout',
     requireUser,
-    validate({ params: swapParamsSchema, body: swapCheckoutSchema }),
-    async (req, res) => {
-      const { swapId } = req.params as unknown as SwapParams;
-      const user = currentUser(req);
-      await canPaySwap(user.id, swapId);
-      const { kinds } = req.body as z.infer<typeof swapCheckoutSchema>;
-      res.json(await payments.startSwapCheckout(deps, swapId, user.id, kinds));
-    },
+    route(
+      { params: swapParamsSchema, body: swapCheckoutSchema, authorize: (req, { params }) => canPaySwap(me(req), params.swapId) },
+      async ({ params, body }, req, res) => {
+        res.json(await payments.startSwapCheckout(deps, params.swapId, me(req), body.kinds));
+      },
+    ),
   );
 
-  router.get('/guilds/:guildId/dues', requireUser, validate({ params: guildParamsSchema }), async (req, res) => {
-    const { guildId } = req.params as unknown as GuildParams;
-    const user = currentUser(req);
-    const { isTreasurer } = await canPayGuild(user.id, guildId);
-    res.json(await payments.guildDues(deps, guildId, user.id, isTreasurer));
-  });
+  router.get(
+    '/guilds/:guildId/dues',
+    requireUser,
+    route(
+      { params: guildParamsSchema, authorize: (req, { params }) => canPayGuild(me(req), params.guildId) },
+      async ({ params, access }, req, res) => {
+        res.json(await payments.guildDues(deps, params.guildId, me(req), access.isTreasurer));
+      },
+    ),
+  );
 
   router.post(
     '/guilds/:guildId/dues/checkout',
     requireUser,
-    validate({ params: guildParamsSchema, body: duesCheckoutSchema }),
-    async (req, res) => {
-      const { guildId } = req.params as unknown as GuildParams;
-      const user = currentUser(req);
-      await canPayGuild(user.id, guildId);
-      res.json(await payments.startDuesCheckout(deps, guildId, user.id));
-    },
+    route(
+      {
+        params: guildParamsSchema,
+        body: duesCheckoutSchema,
+        authorize: (req, { params }) => canPayGuild(me(req), params.guildId),
+      },
+      async ({ params }, req, res) => {
+        res.json(await payments.startDuesCheckout(deps, params.guildId, me(req)));
+      },
+    ),
   );
 
   router.get(
     '/guilds/:guildId/payments',
     requireUser,
-    validate({ params: guildParamsSchema, query: guildPaymentsQuerySchema }),
-    async (req, res) => {
-      const { guildId } = req.params as unknown as GuildParams;
-      await canTreasure(currentUser(req).id, guildId);
-      const { format, ...filters } = req.query as z.infer<typeof guildPaymentsQuerySchema>;
-      const dto = await payments.guildPayments(deps, guildId, filters);
-      if (format !== 'csv') return void res.json(dto);
-      const { rows } = await deps.pool.query<{ name: string }>('SELECT name FROM guilds WHERE id = $1', [guildId]);
-      const file = paymentsCsv(rows[0]?.name ?? 'guild', dto);
-      res
-        .status(200)
-        .set('Content-Type', 'text/csv; charset=utf-8')
-        .set('Content-Disposition', `attachment; filename="${file.fileName}"`)
-        .set('Cache-Control', 'no-store')
-        .send(file.body);
-    },
+    route(
+      {
+        params: guildParamsSchema,
+        query: guildPaymentsQuerySchema,
+        authorize: (req, { params }) => canTreasure(me(req), params.guildId),
+      },
+      async ({ params, query }, _req, res) => {
+        const { format, ...filters } = query;
+        const dto = await payments.guildPayments(deps, params.guildId, filters);
+        if (format !== 'csv') return void res.json(dto);
+        const file = paymentsCsv(dto.guildName, dto);
+        res
+          .status(200)
+          .set('Content-Type', 'text/csv; charset=utf-8')
+          .set('Content-Disposition', `attachment; filename="${file.fileName}"`)
+          .set('Cache-Control', 'no-store')
+          .send(file.body);
+      },
+    ),
   );
 
   router.post(
     '/guilds/:guildId/payments/:paymentId/refund',
     requireUser,
-    validate({ params: guildParamsSchema.extend(paymentParamsSchema.shape) }),
-    async (req, res) => {
-      const { guildId, paymentId } = req.params as unknown as GuildParams & z.infer<typeof paymentParamsSchema>;
-      await canTreasure(currentUser(req).id, guildId);
-      res.json(await payments.refundById(deps, guildId, paymentId));
-    },
+    route(
+      {
+        params: guildParamsSchema.extend(paymentParamsSchema.shape),
+        authorize: (req, { params }) => canTreasure(me(req), params.guildId),
+      },
+      async ({ params }, _req, res) => {
+        res.json(await payments.refundById(deps, params.guildId, params.paymentId));
+      },
+    ),
   );
 
   return router;

@@ -346,6 +346,7 @@ export async function guildPayments(
     refundError: r.refund_error,
   }));
   return {
+    guildName: guild.name,
     currency: guild.currency,
     payments,
     totals: {

@@ -182,6 +182,7 @@ export interface PaymentTotals {
 }
 
 export interface GuildPaymentsDto {
+  guildName: string;
   currency: string;
   payments: GuildPaymentDto[];
   totals: {
