@@ -84,3 +84,50 @@ it('never answers 5xx and never writes anything for a refused body', async () =>
   expect(failures).toEqual([]);
   expect(sent).toBe(routes.length * 20);
 }, 240_000);
+
+// Long runs of each kind of character the length reader accepts: before the linear reader and the
+// 40-character bound, 100,000 dots and one bad character held the server for seconds.
+const pathological: Record<string, string> = {
+  dots: `${'.'.repeat(100_000)}x`,
+  digits: `${'9'.repeat(100_000)}x`,
+  spaces: `8${' '.repeat(100_000)}x`,
+  hyphens: `8${'-'.repeat(100_000)}x`,
+  commas: `8${','.repeat(100_000)}x`,
+  nestedFractions: `1${'/2'.repeat(50_000)}`,
+  mixedNumbers: `${'8 1/2 '.repeat(16_000)}x`,
+  unitWords: `8 ${'in.'.repeat(30_000)}`,
+  vulgarFractions: '½'.repeat(50_000),
+  superscripts: `³${'⁄₁₆'.repeat(20_000)}`,
+  dotsThenUnit: `${'.'.repeat(100_000)}in.x`,
+};
+
+/** Every body field that reaches the length reader or another pattern, as a route and a body builder. */
+const parserFields: { route: string; path: () => string; body: (text: string) => unknown; method?: 'post' | 'patch' }[] = [
+  { route: 'measurement width', path: () => `/api/blocks/${ids.blockId}/measurements`, body: (t) => ({ width: t, height: '9 1/2' }) },
+  { route: 'measurement height', path: () => `/api/blocks/${ids.blockId}/measurements`, body: (t) => ({ width: '9 1/2', height: t }) },
+  { route: 'measurement diagonal', path: () => `/api/blocks/${ids.blockId}/measurements`, body: (t) => ({ width: '9 1/2', height: '9 1/2', diagonals: [t, '13 7/16'] }) },
+  { route: 'swap tolerance', path: () => `/api/swaps/${ids.swapId}`, method: 'patch', body: (t) => ({ tolerance: t }) },
+  { route: 'swap squareness', path: () => `/api/swaps/${ids.swapId}`, method: 'patch', body: (t) => ({ squareness: t }) },
+  { route: 'grid column', path: () => `/api/guilds/${ids.guildId}/swaps`, body: (t) => ({ title: 'Fuzz', block: { kind: 'grid', columns: [t], rows: [3.5], seam: 0.25 } }) },
+  { route: 'seam allowance', path: () => `/api/guilds/${ids.guildId}/swaps`, body: (t) => ({ title: 'Fuzz', block: { kind: 'grid', columns: [3.5], rows: [3.5], seam: t } }) },
+  { route: 'unit finished size', path: () => `/api/guilds/${ids.guildId}/swaps`, body: (t) => ({ title: 'Fuzz', block: { kind: 'hst', finished: t } }) },
+  { route: 'photo reference size', path: () => `/api/blocks/${ids.blockId}/photo-estimates`, body: (t) => ({ reference: { size: t } }) },
+  { route: 'sew day start', path: () => `/api/guilds/${ids.guildId}/sew-days`, body: (t) => ({ title: 'Fuzz day', startsAt: t, endsAt: '2027-05-01T12:00', place: 'Hall' }) },
+  { route: 'sew day video link', path: () => `/api/guilds/${ids.guildId}/sew-days`, body: (t) => ({ title: 'Fuzz day', startsAt: '2027-05-01T10:00', endsAt: '2027-05-01T12:00', videoUrl: `https://${t}` }) },
+  { route: 'guild time zone', path: () => `/api/guilds/${ids.guildId}`, method: 'patch', body: (t) => ({ timeZone: t }) },
+  { route: 'invitation e-mail', path: () => `/api/guilds/${ids.guildId}/invitations`, body: (t) => ({ email: `${t}@example.test` }) },
+  { route: 'intake short code', path: () => '/api/intake/resolve', body: (t) => ({ swapId: ids.swapId, shortCode: t }) },
+];
+
+it('refuses pathological text on every field that reaches a parser, while health answers alongside', async () => {
+  const problems: string[] = [];
+  for (const field of parserFields) {
+    for (const [kind, text] of Object.entries(pathological)) {
+      const send = g.admin.agent[field.method ?? 'post'](field.path()).set('Content-Type', 'application/json').send(JSON.stringify(field.body(text)));
+      const [res, health] = await Promise.all([send, app.agent().get('/api/health')]);
+      if (res.status !== 400) problems.push(`${field.route} / ${kind}: ${res.status} ${JSON.stringify(res.body).slice(0, 160)}`);
+      if (health.status !== 200) problems.push(`${field.route} / ${kind}: health answered ${health.status}`);
+    }
+  }
+  expect(problems).toEqual([]);
+}, 120_000);

@@ -85,7 +85,7 @@ describe('resolving a label', () => {
     expect(res.body.error.code).toBe('other_swap');
     expect(res.body.error.message).not.toContain('Private Stars');
     // …and that guild's swap is not theirs to run intake on.
-    await resolve(roles.coordinator.agent, { swapId: theirs.id, reference: labels.labels[0]!.reference }).expect(403);
+    await resolve(roles.coordinator.agent, { swapId: theirs.id, reference: labels.labels[0]!.reference }).expect(404);
   });
 
   it('is for officers only, and checks its body', async () => {

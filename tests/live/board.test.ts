@@ -157,6 +157,6 @@ describe('live swap board', () => {
     await arriving;
     await pause(100);
     expect(seen).toEqual([]);
-    expect(await request(socket, 'board:join', { swapId })).toMatchObject({ error: { code: 'forbidden' } });
+    expect(await request(socket, 'board:join', { swapId })).toMatchObject({ error: { code: 'not_found' } });
   });
 });

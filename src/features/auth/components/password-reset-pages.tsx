@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Link, useSearchParams } from 'react-router';
 import { z } from 'zod';
@@ -10,6 +10,7 @@ import { Alert } from '@/components/ui/alert';
 import { applyServerErrors } from '@/components/ui/form-errors';
 import { paths } from '@/lib/paths';
 import { useRequestReset, useResetPassword } from '../api/auth-mutations';
+import { PasswordStrengthMeter } from './password-strength-meter';
 import { AuthFrame } from './auth-frame';
 
 export function ForgotPasswordPage() {
@@ -48,7 +49,8 @@ export function ResetPasswordPage() {
   const token = params.get('token') ?? '';
   const reset = useResetPassword();
   const [formError, setFormError] = useState('');
-  const { register, handleSubmit, setError, formState } = useForm<z.infer<typeof newPasswordSchema>>({ resolver: zodResolver(newPasswordSchema) });
+  const { register, handleSubmit, setError, formState, control } = useForm<z.infer<typeof newPasswordSchema>>({ resolver: zodResolver(newPasswordSchema) });
+  const password = useWatch({ control, name: 'password' });
   const onSubmit = handleSubmit(async (values) => {
     setFormError('');
     try {
@@ -73,7 +75,10 @@ export function ResetPasswordPage() {
       ) : (
         <form onSubmit={onSubmit} noValidate className="space-y-4">
           {formError && <Alert tone="error">{formError}</Alert>}
-          <TextField label="New password" type="password" hint="At least 10 characters." autoComplete="new-password" error={formState.errors.password?.message} {...register('password')} />
+          <div>
+            <TextField label="New password" type="password" hint="At least 10 characters." autoComplete="new-password" error={formState.errors.password?.message} {...register('password')} />
+            <PasswordStrengthMeter password={password ?? ''} />
+          </div>
           <TextField label="New password again" type="password" autoComplete="new-password" error={formState.errors.confirm?.message} {...register('confirm')} />
           <Button type="submit" className="w-full" pending={reset.isPending} pendingLabel="Saving…">Save the new password</Button>
         </form>

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Link, useNavigate, useSearchParams } from 'react-router';
 import { registerSchema, type RegisterInput } from '@shared/schemas/auth';
@@ -10,13 +10,15 @@ import { applyServerErrors } from '@/components/ui/form-errors';
 import { paths, safeNext } from '@/lib/paths';
 import { useRegister } from '../api/auth-mutations';
 import { AuthFrame } from './auth-frame';
+import { PasswordStrengthMeter } from './password-strength-meter';
 
 export function RegisterPage() {
   const [params] = useSearchParams();
   const navigate = useNavigate();
   const registration = useRegister();
   const [formError, setFormError] = useState('');
-  const { register, handleSubmit, setError, formState } = useForm<RegisterInput>({ resolver: zodResolver(registerSchema) });
+  const { register, handleSubmit, setError, formState, control } = useForm<RegisterInput>({ resolver: zodResolver(registerSchema) });
+  const [password, email, displayName] = useWatch({ control, name: ['password', 'email', 'displayName'] });
 
   const onSubmit = handleSubmit(async (values) => {
     setFormError('');
@@ -45,7 +47,10 @@ export function RegisterPage() {
         {formError && <Alert tone="error">{formError}</Alert>}
         <TextField label="Your name" hint="As your guild knows you." autoComplete="name" error={formState.errors.displayName?.message} {...register('displayName')} />
         <TextField label="E-mail" type="email" autoComplete="email" error={formState.errors.email?.message} {...register('email')} />
-        <TextField label="Password" type="password" hint="At least 10 characters." autoComplete="new-password" error={formState.errors.password?.message} {...register('password')} />
+        <div>
+          <TextField label="Password" type="password" hint="At least 10 characters." autoComplete="new-password" error={formState.errors.password?.message} {...register('password')} />
+          <PasswordStrengthMeter password={password ?? ''} personal={[email ?? '', displayName ?? '']} />
+        </div>
         <Button type="submit" className="w-full" pending={registration.isPending} pendingLabel="Creating your account…">
           Create account
         </Button>

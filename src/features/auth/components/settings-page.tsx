@@ -12,6 +12,7 @@ import { Loading, PageHeader } from '@/components/ui/page';
 import { applyServerErrors } from '@/components/ui/form-errors';
 import { useMe } from '@/entities/me/api/get-me';
 import { useUpdateProfile } from '../api/auth-mutations';
+import { ChangePasswordCard } from './change-password-card';
 
 export function SettingsPage() {
   const me = useMe();
@@ -26,6 +27,7 @@ export function SettingsPage() {
           mailingAddress: me.data.user.mailingAddress ?? '',
         }}
       />
+      <ChangePasswordCard email={me.data.user.email} displayName={me.data.user.displayName} />
       <Card title="E-mail">
         <p>Choose which messages Blockpost sends you: announcements, reminders, receipts and more.</p>
         <p className="mt-3">
