@@ -1,6 +1,6 @@
 /** CSV exports of the roster and the confirmed return, built with csv-stringify. */
 import { stringify } from 'csv-stringify/sync';
-import { blockStateLabels } from '@shared/schemas/swaps';
+import { VERDICTS, VERDICT_LABELS, blockStateLabels } from '@shared/vocabulary';
 import type { Swap } from '../db/models';
 import type { AppDeps } from '../deps';
 import { ConflictError } from '../http/errors';
@@ -21,20 +21,49 @@ export function csv(header: string[], rows: (string | number | null | undefined)
 
 /** "Harvest Stripes" → "harvest-stripes", for file names. */
 export function slug(title: string): string {
-  const s = title.normalize('NFKD').replace(/[\u0300-\u036f]/g, '').toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, ''); // runs are single hyphens by now
+  const s = title
+    .normalize('NFKD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-|-$/g, ''); // runs are single hyphens by now
   return s.slice(0, 60) || 'swap';
 }
 
 export async function rosterCsv(deps: Pick<AppDeps, 'sequelize'>, swap: Swap): Promise<{ fileName: string; body: string }> {
   const roster = await buildRoster(deps, swap, { withAddresses: true });
   const header = [
-    'Member', 'E-mail', 'Pledged', 'Sewn', 'Handed in', 'Received', 'Measured', 'Still owed',
-    'True to size', 'Trim to size', 'Runs short', 'Out of square', 'Accepted', 'Returned', 'Blocks', 'Mailing address',
+    'Member',
+    'E-mail',
+    'Pledged',
+    'Sewn',
+    'Handed in',
+    'Received',
+    'Measured',
+    'Still owed',
+    ...VERDICTS.map((v) => VERDICT_LABELS[v].label),
+    'Accepted',
+    'Returned',
+    'Blocks',
+    'Mailing address',
   ];
   const rows = roster.rows.map((r) => [
-    r.displayName, r.email, r.pledged, r.sewn, r.handedIn, r.received, r.measured, r.owed,
-    r.verdicts.true, r.verdicts.trim, r.verdicts.short, r.verdicts.skewed, r.accepted, r.returned,
-    r.blocks.map((b) => `#${b.sequence} ${blockStateLabels[b.state]}${b.verdict ? ` (${b.verdict}${b.trimmed ? ', trimmed' : ''})` : ''}`).join('; '),
+    r.displayName,
+    r.email,
+    r.pledged,
+    r.sewn,
+    r.handedIn,
+    r.received,
+    r.measured,
+    r.owed,
+    ...VERDICTS.map((v) => r.verdicts[v]),
+    r.accepted,
+    r.returned,
+    r.blocks
+      .map(
+        (b) => `#${b.sequence} ${blockStateLabels[b.state]}${b.verdict ? ` (${b.verdict}${b.trimmed ? ', trimmed' : ''})` : ''}`,
+      )
+      .join('; '),
     r.mailingAddress ?? '',
   ]);
   return { fileName: `${slug(swap.title)}-swap-${swap.id}-roster.csv`, body: csv(header, rows) };
@@ -42,9 +71,15 @@ export async function rosterCsv(deps: Pick<AppDeps, 'sequelize'>, swap: Swap): P
 
 export async function distributionCsv(swap: Swap): Promise<{ fileName: string; body: string }> {
   if (!swap.distributionConfirmedAt) {
-    throw new ConflictError('The return of blocks is not confirmed yet; plan and confirm it first.', 'distribution_not_confirmed');
+    throw new ConflictError(
+      'The return of blocks is not confirmed yet; plan and confirm it first.',
+      'distribution_not_confirmed',
+    );
   }
   const transfers = await confirmedTransfers(swap);
   const rows = transfers.map((t) => [t.from, t.to, t.count, t.blocks]);
-  return { fileName: `${slug(swap.title)}-swap-${swap.id}-distribution.csv`, body: csv(['From (maker)', 'To (recipient)', 'Blocks', 'Block numbers'], rows) };
+  return {
+    fileName: `${slug(swap.title)}-swap-${swap.id}-distribution.csv`,
+    body: csv(['From (maker)', 'To (recipient)', 'Blocks', 'Block numbers'], rows),
+  };
 }
