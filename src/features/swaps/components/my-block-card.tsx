@@ -11,6 +11,8 @@ import { ApiError } from '@/lib/api-client';
 import { paths } from '@/lib/paths';
 import { useHandIn } from '../api/hand-in';
 import { useMarkSewn } from '../api/mark-sewn';
+import { useUndoBlock } from '@/entities/block/api/undo-block';
+import { useUndoWindow } from '@/lib/use-undo-window';
 import { invalidateSwapData } from '@/entities/block/api/block-keys';
 import { MeasureForm } from './measure-form';
 import { BlockStateText } from './state-badge';
@@ -28,6 +30,8 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
   const [note, setNote] = useState(block.handIn?.note ?? '');
   const [open, setOpen] = useState<'hand-in' | 'measure' | null>(null);
   const [problem, setProblem] = useState('');
+  const undo = useUndoBlock(swap.id);
+  const undoWindow = useUndoWindow<string>();
   const active = ['signup', 'sewing', 'collecting'].includes(swap.state);
   const report = (e: unknown) => setProblem(e instanceof ApiError ? e.message : 'That did not work. Please try again.');
 
@@ -60,7 +64,13 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
         )}
         {block.recipient && (
           <p>
-            Goes to <span className="font-semibold">{block.recipient.displayName}</span>.
+            In the return, this block of yours goes to <span className="font-semibold">{block.recipient.displayName}</span>.
+          </p>
+        )}
+        {block.decision && (
+          <p>
+            <span className="font-semibold">Accepted by decision</span> of the coordinator: “{block.decision.reason}”. It counts
+            for the return as it is.
           </p>
         )}
         {block.state === 'measured' && !block.accepted && (
@@ -73,6 +83,22 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
           </p>
         )}
         {problem && <Alert tone="error">{problem}</Alert>}
+        {undoWindow.current && (
+          <div role="status" className="flex flex-wrap items-center gap-3 rounded-lg bg-linen p-3">
+            <span>{undoWindow.current}.</span>
+            <Button
+              variant="secondary"
+              pending={undo.isPending}
+              pendingLabel="Undoing…"
+              onClick={() => {
+                setProblem('');
+                undo.mutate(block.id, { onSuccess: () => undoWindow.clear(), onError: report });
+              }}
+            >
+              Undo
+            </Button>
+          </div>
+        )}
 
         {block.photos.length > 0 && (
           <PhotoGallery photos={block.photos} subject={`Block ${block.sequence} by ${block.maker.displayName}`} />
@@ -99,7 +125,10 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
                 pending={sewn.isPending}
                 onClick={() => {
                   setProblem('');
-                  sewn.mutate(block.id, { onError: report });
+                  sewn.mutate(block.id, {
+                    onError: report,
+                    onSuccess: () => undoWindow.offer(`Block ${block.sequence} marked sewn`),
+                  });
                 }}
               >
                 Mark sewn
@@ -132,7 +161,13 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
               setProblem('');
               handIn.mutate(
                 { blockId: block.id, how, ...(note.trim() ? { note } : {}) },
-                { onError: report, onSuccess: () => setOpen(null) },
+                {
+                  onError: report,
+                  onSuccess: () => {
+                    setOpen(null);
+                    undoWindow.offer(`Block ${block.sequence} handed in`);
+                  },
+                },
               );
             }}
           >

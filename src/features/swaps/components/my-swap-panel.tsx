@@ -11,6 +11,7 @@ import { usePledge } from '../api/pledge';
 import { useWithdraw } from '../api/withdraw';
 import { useCuttingPlan } from '../hooks/use-cutting-plan';
 import { CuttingPlanView } from './cutting-plan-view';
+import { HandInSeveral } from './hand-in-several';
 import { MyBlockCard } from './my-block-card';
 
 function PledgeForm({ swap }: { swap: SwapDto }) {
@@ -137,6 +138,11 @@ export function MySwapPanel({ swap }: { swap: SwapDto }) {
             <section>
               <h3 className="text-xl font-semibold text-indigo-deep">Your blocks</h3>
               {blocks.isError && <Alert tone="error">Your blocks could not be loaded.</Alert>}
+              {['sewing', 'collecting'].includes(swap.state) && mine.length > 1 && (
+                <div className="mt-3">
+                  <HandInSeveral swap={swap} blocks={mine} onUndone={() => void blocks.refetch()} />
+                </div>
+              )}
               <ul className="mt-3 grid gap-4 lg:grid-cols-2">
                 {mine.map((b) => (
                   <MyBlockCard key={b.id} swap={swap} block={b} />
