@@ -27,7 +27,7 @@ describe('installing the web app', () => {
     const kept = /const API_FALLBACK = \[(.*)\];/.exec(sw)![1]!;
     const patterns = [...kept.matchAll(/\/(\^.*?\$)\//g)].map((m) => new RegExp(m[1]!.replace(/\\\\/g, '\\')));
     const matches = (path: string) => patterns.some((re) => re.test(path));
-    expect(['/api/me', '/api/guilds/4', '/api/swaps/7/intake'].every(matches)).toBe(true);
+    expect(['/api/session', '/api/guilds/4', '/api/swaps/7/intake'].every(matches)).toBe(true);
     for (const path of [
       '/api/swaps/7/roster',
       '/api/swaps/7/labels',
