@@ -35,7 +35,14 @@ function person(people: People, email: string): User {
   return user;
 }
 
-async function createSwap(guildId: number, by: User, seed: SwapSeed, path: SwapState[], startedDaysAgo: number, transaction: Transaction) {
+async function createSwap(
+  guildId: number,
+  by: User,
+  seed: SwapSeed,
+  path: SwapState[],
+  startedDaysAgo: number,
+  transaction: Transaction,
+) {
   const sizes = blockSizes(seed.block);
   const swap = await Swap.create(
     {
@@ -68,7 +75,13 @@ async function createSwap(guildId: number, by: User, seed: SwapSeed, path: SwapS
   const step = path.length > 1 ? startedDaysAgo / path.length : 0;
   for (const [i, to] of path.entries()) {
     await SwapTransition.create(
-      { swapId: swap.id, fromState: i === 0 ? null : path[i - 1]!, toState: to, byId: by.id, at: daysFromNow(-startedDaysAgo + i * step) },
+      {
+        swapId: swap.id,
+        fromState: i === 0 ? null : path[i - 1]!,
+        toState: to,
+        byId: by.id,
+        at: daysFromNow(-startedDaysAgo + i * step),
+      },
       { transaction },
     );
   }
@@ -85,7 +98,15 @@ async function pledge(swap: Swap, maker: User, count: number, transaction: Trans
 
 type Size = { width: number; height: number; diagonals?: [number, number] };
 
-async function measure(swap: Swap, block: Block, by: User, size: Size, source: 'ruler' | 'maker', at: Date, transaction: Transaction) {
+async function measure(
+  swap: Swap,
+  block: Block,
+  by: User,
+  size: Size,
+  source: 'ruler' | 'maker',
+  at: Date,
+  transaction: Transaction,
+) {
   const { verdict, deviations } = checkBlock({
     target: { width: swap.unfinishedWidth, height: swap.unfinishedHeight },
     tolerance: swap.tolerance,
@@ -114,7 +135,14 @@ async function measure(swap: Swap, block: Block, by: User, size: Size, source: '
 }
 
 /** Moves a block along its life up to `state`, with plausible dates a few days apart. */
-async function advance(block: Block, state: 'sewn' | 'handed_in' | 'received', by: User, daysAgo: number, transaction: Transaction, hand?: { how: 'in-person' | 'post'; note?: string }) {
+async function advance(
+  block: Block,
+  state: 'sewn' | 'handed_in' | 'received',
+  by: User,
+  daysAgo: number,
+  transaction: Transaction,
+  hand?: { how: 'in-person' | 'post'; note?: string },
+) {
   const at = (d: number) => daysFromNow(-daysAgo + d);
   await block.update(
     {
@@ -146,7 +174,8 @@ async function openSwap(guildId: number, people: People, transaction: Transactio
     june,
     {
       title: 'Migrating Geese Border',
-      description: 'Flying geese for a shared border round. Aim them all the same way; the border is pieced at the spring sew day.',
+      description:
+        'Flying geese for a shared border round. Aim them all the same way; the border is pieced at the spring sew day.',
       block: { kind: 'flying-geese', finished: { width: 6, height: 3 }, method: 'no-waste' },
       colourRules: [
         { role: 'goose', note: 'warm mid-tones: rust, ochre, brick' },
@@ -172,7 +201,8 @@ async function collectingSwap(guildId: number, people: People, transaction: Tran
     theo,
     {
       title: 'Lantern Row Nine-Patch',
-      description: 'Simple nine-patches for two lap quilts for the library reading corner. Dark corners and centre, light in between.',
+      description:
+        'Simple nine-patches for two lap quilts for the library reading corner. Dark corners and centre, light in between.',
       block: NINE_PATCH,
       colourRules: [
         { role: 'dark', note: 'deep indigo to storm blue; small prints welcome' },
@@ -198,13 +228,22 @@ async function collectingSwap(guildId: number, people: People, transaction: Tran
   const june = await b('june@demo.test', 2);
   const recent = (d: number) => daysFromNow(-d);
   const ruler = (block: Block, size: Size, d: number) => measure(swap, block, theo, size, 'ruler', recent(d), transaction);
-  const take = async (block: Block, d: number, hand?: { how: 'in-person' | 'post'; note?: string }) => advance(block, 'received', theo, d, transaction, hand);
+  const take = async (block: Block, d: number, hand?: { how: 'in-person' | 'post'; note?: string }) =>
+    advance(block, 'received', theo, d, transaction, hand);
 
   // Priya: one true, one sewn, one still pledged; she measured her sewn block herself.
   await take(priya[0]!, 9);
   await ruler(priya[0]!, { width: 9.5, height: 9.5, diagonals: [13.4375, 13.4375] }, 5);
   await advance(priya[1]!, 'sewn', theo, 3, transaction);
-  await measure(swap, priya[1]!, person(people, 'member@demo.test'), { width: 9.4375, height: 9.5 }, 'maker', recent(2), transaction);
+  await measure(
+    swap,
+    priya[1]!,
+    person(people, 'member@demo.test'),
+    { width: 9.4375, height: 9.5 },
+    'maker',
+    recent(2),
+    transaction,
+  );
   // Walt: one runs short, re-measured (history kept); one handed in by post.
   await take(walt[0]!, 10);
   await ruler(walt[0]!, { width: 9.25, height: 9.375 }, 6);
@@ -238,7 +277,8 @@ async function collectingSwap(guildId: number, people: People, transaction: Tran
   return [...priya.slice(0, 2), ...walt, ...rosa, ...kwame, ...hana, ...lou, ...ines, ...june];
 }
 
-async function completeSwap(guildId: number, people: People, transaction: Transaction) {
+/** The finished swap, its blocks returned to their new owners (who lay them out on the design wall); returns those blocks. */
+async function completeSwap(guildId: number, people: People, transaction: Transaction): Promise<Block[]> {
   const dot = person(people, 'dot@demo.test');
   const swap = await createSwap(
     guildId,
@@ -259,32 +299,55 @@ async function completeSwap(guildId: number, people: People, transaction: Transa
     130,
     transaction,
   );
-  const makers = ['admin@demo.test', 'coordinator@demo.test', 'member@demo.test', 'walt@demo.test', 'hana@demo.test', 'bea@demo.test'];
-  const sizes: Size[] = [{ width: 6.5, height: 6.5 }, { width: 6.5625, height: 6.5 }, { width: 6.25, height: 6.5 }];
+  const makers = [
+    'admin@demo.test',
+    'coordinator@demo.test',
+    'member@demo.test',
+    'walt@demo.test',
+    'hana@demo.test',
+    'bea@demo.test',
+  ];
+  const sizes: Size[] = [
+    { width: 6.5, height: 6.5 },
+    { width: 6.5625, height: 6.5 },
+    { width: 6.25, height: 6.5 },
+  ];
   const accepted = new Map<number, Block[]>();
   for (const [i, email] of makers.entries()) {
     const blocks = await pledge(swap, person(people, email), 2, transaction);
     for (const [j, block] of blocks.entries()) {
       await advance(block, 'received', dot, 80, transaction);
       // Every fifth block runs short; the rest are true to size.
-      const verdict = await measure(swap, block, dot, sizes[(i * 2 + j) % 5 === 4 ? 2 : j]!, 'ruler', daysFromNow(-74), transaction);
+      const verdict = await measure(
+        swap,
+        block,
+        dot,
+        sizes[(i * 2 + j) % 5 === 4 ? 2 : j]!,
+        'ruler',
+        daysFromNow(-74),
+        transaction,
+      );
       if (verdict === 'true') accepted.set(block.makerId, [...(accepted.get(block.makerId) ?? []), block]);
     }
   }
   const plan = planDistribution([...accepted].map(([id, blocks]) => ({ id: String(id), accepted: blocks.length })));
   const returnedAt = daysFromNow(-60);
+  const returned: Block[] = [];
   for (const t of plan.transfers) {
     for (const block of accepted.get(Number(t.from))!.splice(0, t.count)) {
       await block.update({ state: 'returned', recipientId: Number(t.to), returnedAt }, { transaction });
+      returned.push(block);
     }
   }
   await swap.update({ distributionConfirmedAt: returnedAt, distributionConfirmedById: dot.id }, { transaction });
+  return returned;
 }
 
 /** Seeds the three demo swaps; returns the blocks that should get a demo photo. */
 export async function seedDemoSwaps(guildId: number, people: People, transaction: Transaction): Promise<Block[]> {
-  await completeSwap(guildId, people, transaction);
+  // The returned blocks get photos too, so each member's design wall shows real tiles.
+  const returned = await completeSwap(guildId, people, transaction);
   const photographed = await collectingSwap(guildId, people, transaction);
   await openSwap(guildId, people, transaction);
-  return photographed;
+  return [...returned, ...photographed];
 }

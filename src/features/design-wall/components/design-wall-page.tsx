@@ -45,7 +45,12 @@ import { SettingPanel } from './setting-panel';
 import { TileFace } from './tile-face';
 import { blockLabel, WallBoard } from './wall-board';
 
-type SaveState = { kind: 'idle' } | { kind: 'saving' } | { kind: 'saved'; at: string } | { kind: 'error'; message: string };
+type SaveState =
+  | { kind: 'idle' }
+  | { kind: 'pending' }
+  | { kind: 'saving' }
+  | { kind: 'saved'; at: string }
+  | { kind: 'error'; message: string };
 const AUTOSAVE_MS = 800;
 
 export function DesignWallPage() {
@@ -66,7 +71,7 @@ function DesignWall({ swapId, initial }: { swapId: number; initial: DesignDto })
   const [saveState, setSaveState] = useState<SaveState>(
     initial.savedAt ? { kind: 'saved', at: initial.savedAt } : { kind: 'idle' },
   );
-  const [spread, setSpread] = useState<{ score: number; before: number; previous: Layout['cells'] } | null>(null);
+  const [spread, setSpread] = useState<{ score: number; before: number; previous: Layout['cells']; moved: boolean } | null>(null);
   const [printUrl, setPrintUrl] = useState<string | null>(null);
   const [shared, setShared] = useState<string | null>(null);
   const cellRefs = useRef<(HTMLButtonElement | null)[]>([]);
@@ -123,6 +128,7 @@ function DesignWall({ swapId, initial }: { swapId: number; initial: DesignDto })
     if (next === layout) return;
     changed.current = true;
     setLayout(next);
+    setSaveState({ kind: 'pending' });
     if (message) setAnnounce(message);
   };
 
@@ -206,8 +212,10 @@ function DesignWall({ swapId, initial }: { swapId: number; initial: DesignDto })
     setSpread(null);
     arrange.mutate(toBody(layout), {
       onSuccess: (r) => {
-        setSpread({ score: r.score, before: r.before, previous: layout.cells });
-        update({ ...layout, cells: r.cells }, 'Blocks rearranged to spread the colours.');
+        const moved = r.cells.some((c, i) => c.blockId !== layout.cells[i]?.blockId);
+        setSpread({ score: r.score, before: r.before, previous: layout.cells, moved });
+        if (moved) update({ ...layout, cells: r.cells }, 'Blocks rearranged to spread the colours.');
+        else setAnnounce('The blocks stay where they are.');
       },
     });
   };
@@ -249,7 +257,7 @@ function DesignWall({ swapId, initial }: { swapId: number; initial: DesignDto })
             </p>
           </div>
           <p role="status" className="font-semibold">
-            {saveState.kind === 'saving' && 'Saving…'}
+            {(saveState.kind === 'saving' || saveState.kind === 'pending') && 'Saving…'}
             {saveState.kind === 'saved' &&
               `✓ Saved ${new Date(saveState.at).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}`}
             {saveState.kind === 'idle' && 'Not saved yet: changes save by themselves.'}

@@ -89,9 +89,7 @@ function Cell({ index, cell, props, style }: { index: number; cell: DesignCell; 
         ) : (
           <span className="text-sm text-walnut-soft">{picked !== null ? 'Put here' : 'Empty'}</span>
         )}
-        {cell.pinned && (
-          <span className="absolute top-0 left-0 bg-card/90 px-1 text-sm font-semibold text-walnut">📌 Pinned</span>
-        )}
+        {cell.pinned && <span className="absolute top-0 left-0 bg-card/90 px-1 text-sm font-semibold text-walnut">Pinned</span>}
         {isPicked && <span className="absolute top-0 right-0 bg-madder px-1 text-sm font-semibold text-white">Moving</span>}
       </button>
     </div>
