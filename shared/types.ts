@@ -12,10 +12,13 @@ export interface MembershipDto {
   guildId: number;
   guildName: string;
   role: Role;
+  /** the guild's default unit, which applies to the person there until they choose one of their own */
+  defaultUnit: Units;
 }
 
 export interface MeDto {
-  user: UserDto & { mailingAddress: string | null };
+  /** unitsChosen: false while the person follows each guild's default unit */
+  user: UserDto & { mailingAddress: string | null; unitsChosen: boolean };
   memberships: MembershipDto[];
 }
 
@@ -27,6 +30,8 @@ export interface GuildDto {
   currency: string;
   /** Yearly dues in the currency's minor unit, or null when the guild asks for none. */
   dues: { amount: number; year: number } | null;
+  /** what a bare number means for members who have not chosen a unit of their own */
+  defaultUnit: Units;
   createdAt: string;
   myRole: Role;
   memberCount: number;

@@ -44,13 +44,13 @@ export async function getMe(userId: number): Promise<MeDto | null> {
   if (!user) return null;
   const memberships = await Membership.findAll({
     where: { userId, status: 'active' },
-    include: [{ model: Guild, as: 'guild', attributes: ['id', 'name'] }],
+    include: [{ model: Guild, as: 'guild', attributes: ['id', 'name', 'defaultUnit'] }],
     order: [['createdAt', 'ASC']],
   });
   return {
     // The mailing address is private: it goes to its owner here, and to coordinators of swaps they join.
-    user: { ...toSessionUser(user), mailingAddress: user.mailingAddress ?? null },
-    memberships: memberships.map((m) => ({ guildId: m.guildId, guildName: m.guild!.name, role: m.role })),
+    user: { ...toSessionUser(user), mailingAddress: user.mailingAddress ?? null, unitsChosen: user.unitsChosen },
+    memberships: memberships.map((m) => ({ guildId: m.guildId, guildName: m.guild!.name, role: m.role, defaultUnit: m.guild!.defaultUnit })),
   };
 }
 
@@ -64,7 +64,9 @@ export async function updateProfile(userId: number, input: ProfileUpdateInput) {
     );
     await assertNameFreeInGuilds(userId, input.displayName, guildIds, user.email);
   }
-  await user.update(input);
+  // Choosing a unit overrides every guild's default; clearing it (null) follows the guilds again.
+  const { units, ...rest } = input;
+  await user.update({ ...rest, ...(units === undefined ? {} : units === null ? { units: 'in', unitsChosen: false } : { units, unitsChosen: true }) });
   return toSessionUser(user);
 }
 

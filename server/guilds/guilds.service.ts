@@ -28,6 +28,7 @@ function guildDto(guild: Guild, myRole: Role): Omit<GuildDto, 'memberCount'> {
     timeZone: guild.timeZone,
     currency: guild.currency,
     dues: guild.duesAmount && guild.duesYear ? { amount: guild.duesAmount, year: guild.duesYear } : null,
+    defaultUnit: guild.defaultUnit,
     createdAt: guild.createdAt.toISOString(),
     myRole,
   };

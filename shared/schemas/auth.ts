@@ -86,7 +86,8 @@ export type Units = z.infer<typeof unitsSchema>;
 export const profileUpdateSchema = z
   .object({
     displayName: displayNameSchema.optional(),
-    units: unitsSchema.optional(),
+    /** null: no unit of my own, follow each guild's default */
+    units: unitsSchema.nullable().optional(),
     mailingAddress: z.string().trim().max(500, 'Keep the address under 500 characters.').nullable().optional(),
   })
   .strict();

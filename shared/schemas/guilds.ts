@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { emailSchema } from './auth';
+import { emailSchema, unitsSchema } from './auth';
 import { idParam } from './ids';
 import { idParam } from './ids';
 import { guildPaymentFields } from './payments';
@@ -47,6 +47,7 @@ export const updateMemberSchema = z.object({ role: roleSchema });
 export const updateGuildSchema = createGuildSchema
   .partial()
   .extend(guildPaymentFields)
+  .extend({ defaultUnit: unitsSchema.optional() })
   .strict()
   .refine((o) => Object.keys(o).length > 0, { message: 'Nothing to change.' });
 export type UpdateGuildInput = z.infer<typeof updateGuildSchema>;

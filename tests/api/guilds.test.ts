@@ -18,7 +18,7 @@ describe('guilds', () => {
     const created = await agent.post('/api/guilds').send({ name: 'Thimble Lane Bee', timeZone: 'Europe/Dublin' }).expect(201);
     expect(created.body).toMatchObject({ name: 'Thimble Lane Bee', myRole: 'admin', memberCount: 1, timeZone: 'Europe/Dublin' });
     const me = await agent.get('/api/me').expect(200);
-    expect(me.body.memberships).toEqual([{ guildId: created.body.id, guildName: 'Thimble Lane Bee', role: 'admin' }]);
+    expect(me.body.memberships).toEqual([{ guildId: created.body.id, guildName: 'Thimble Lane Bee', role: 'admin', defaultUnit: 'in' }]);
   });
 
   it('refuses a guild without a usable name or with an unknown time zone', async () => {

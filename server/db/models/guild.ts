@@ -1,4 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import type { Units } from '@shared/schemas/auth';
 
 export class Guild extends Model<InferAttributes<Guild>, InferCreationAttributes<Guild>> {
   declare id: CreationOptional<number>;
@@ -10,6 +11,8 @@ export class Guild extends Model<InferAttributes<Guild>, InferCreationAttributes
   /** Yearly dues in the currency's minor unit, and the membership year they are for (both or neither). */
   declare duesAmount: CreationOptional<number | null>;
   declare duesYear: CreationOptional<number | null>;
+  /** What a bare number means to members who have not chosen a unit of their own. */
+  declare defaultUnit: CreationOptional<Units>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -22,6 +25,7 @@ export class Guild extends Model<InferAttributes<Guild>, InferCreationAttributes
         currency: { type: DataTypes.STRING(3), allowNull: false, defaultValue: 'usd' },
         duesAmount: { type: DataTypes.INTEGER, allowNull: true },
         duesYear: { type: DataTypes.INTEGER, allowNull: true },
+        defaultUnit: { type: DataTypes.STRING(2), allowNull: false, defaultValue: 'in' },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

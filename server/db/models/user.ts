@@ -7,6 +7,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare displayName: string;
   declare passwordHash: string;
   declare units: CreationOptional<Units>;
+  /** False until the person picks a unit: each guild's default unit applies to them there until then. */
+  declare unitsChosen: CreationOptional<boolean>;
   /** Private: shown only to coordinators of swaps the user joined. */
   declare mailingAddress: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
@@ -20,6 +22,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         displayName: { type: DataTypes.STRING(80), allowNull: false },
         passwordHash: { type: DataTypes.STRING(255), allowNull: false },
         units: { type: DataTypes.STRING(2), allowNull: false, defaultValue: 'in' },
+        unitsChosen: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         mailingAddress: { type: DataTypes.TEXT, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
