@@ -295,7 +295,7 @@ function DesignWall({ swapId, initial }: { swapId: number; initial: DesignDto })
           <Button onClick={runSpread} pending={arrange.isPending} pendingLabel="Spreading…" disabled={blocks.length < 2}>
             Spread the colours
           </Button>
-          {spread && (
+          {spread?.moved && (
             <Button
               variant="secondary"
               onClick={() => (update({ ...layout, cells: spread.previous }, 'Arrangement put back.'), setSpread(null))}
