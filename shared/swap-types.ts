@@ -139,7 +139,6 @@ export interface RosterBlockDto {
   state: BlockState;
   verdict: VerdictName | null;
   trimmed: boolean;
-  recipientId: number | null;
   handIn: { how: 'in-person' | 'post'; note: string | null } | null;
   photos: PhotoRefDto[];
   /** the latest estimate from a photo, kept apart from the ruler verdict */

@@ -11,11 +11,11 @@ import { photoRef } from '../blocks/photo-refs';
 import { latestEstimateDto, type LatestEstimateRow } from '../blocks/latest-estimate';
 import { ROSTER } from './board.queries';
 
-// Asked a dozen times per block: a rank lookup rather than two searches of the list of states.
+// A rank lookup rather than two searches of the list of states.
 const reached = (state: BlockState, step: BlockState) => blockStateRank[state] >= blockStateRank[step];
 
 /** A block as the roster query returns it: the answer's plain fields, the rest still to shape. */
-interface BlockJson extends Pick<RosterBlockDto, 'id' | 'sequence' | 'state' | 'verdict' | 'trimmed' | 'recipientId'> {
+interface BlockJson extends Pick<RosterBlockDto, 'id' | 'sequence' | 'state' | 'verdict' | 'trimmed' | 'acceptedByDecision'> {
   handInHow: 'in-person' | 'post' | null;
   handInNote: string | null;
   photoIds: number[];
@@ -42,15 +42,42 @@ const emptyCounts = (): RosterCounts => ({
   verdicts: { true: 0, trim: 0, short: 0, skewed: 0 },
 });
 
-function count(into: RosterCounts & { accepted: number }, b: Pick<BlockJson, 'state' | 'verdict' | 'trimmed'>) {
+type Tally = RosterCounts & { accepted: number };
+const SEWN = blockStateRank.sewn;
+const HANDED_IN = blockStateRank.handed_in;
+const RECEIVED = blockStateRank.received;
+const MEASURED = blockStateRank.measured;
+
+/** Adds one block to a member's counts, looking its state's rank up once. */
+function count(into: Tally, b: Pick<BlockJson, 'state' | 'verdict' | 'trimmed' | 'acceptedByDecision'>) {
+  const rank = blockStateRank[b.state];
   into.pledged += 1;
-  if (reached(b.state, 'sewn')) into.sewn += 1;
-  if (reached(b.state, 'handed_in')) into.handedIn += 1;
-  if (reached(b.state, 'received')) into.received += 1;
-  if (reached(b.state, 'measured')) into.measured += 1;
+  if (rank < SEWN) return;
+  into.sewn += 1;
+  if (rank < HANDED_IN) return;
+  into.handedIn += 1;
+  if (rank < RECEIVED) return;
+  into.received += 1;
+  if (rank < MEASURED) return;
+  into.measured += 1;
   if (b.state === 'returned') into.returned += 1;
-  if (b.verdict && reached(b.state, 'measured')) into.verdicts[b.verdict] += 1;
-  if (reached(b.state, 'measured') && (b.verdict === 'true' || (b.verdict === 'trim' && b.trimmed))) into.accepted += 1;
+  if (b.verdict) into.verdicts[b.verdict] += 1;
+  if (b.verdict === 'true' || (b.verdict === 'trim' && b.trimmed) || b.acceptedByDecision) into.accepted += 1;
+}
+
+/** Adds a member's counts to the swap's totals, so each block is counted once. */
+function addTally(into: Tally, from: Tally) {
+  into.pledged += from.pledged;
+  into.sewn += from.sewn;
+  into.handedIn += from.handedIn;
+  into.received += from.received;
+  into.measured += from.measured;
+  into.returned += from.returned;
+  into.accepted += from.accepted;
+  into.verdicts.true += from.verdicts.true;
+  into.verdicts.trim += from.verdicts.trim;
+  into.verdicts.short += from.verdicts.short;
+  into.verdicts.skewed += from.verdicts.skewed;
 }
 
 export interface RosterData extends RosterDto {
@@ -73,17 +100,15 @@ export async function buildRoster(
   const totals = { ...emptyCounts(), accepted: 0, members: signups.length };
   const rows = signups.map((s) => {
     const counts = { ...emptyCounts(), accepted: 0 };
-    for (const b of s.own) {
-      count(counts, b);
-      count(totals, b);
-    }
+    for (const b of s.own) count(counts, b);
+    addTally(totals, counts);
     const rosterBlocks: RosterBlockDto[] = s.own.map((b) => ({
       id: b.id,
       sequence: b.sequence,
       state: b.state,
       verdict: reached(b.state, 'measured') ? b.verdict : null,
       trimmed: b.trimmed,
-      recipientId: b.recipientId,
+      acceptedByDecision: b.acceptedByDecision,
       handIn: b.handInHow ? { how: b.handInHow, note: b.handInNote } : null,
       photos: b.photoIds.map((id) => photoRef(id)),
       // Beside the ruler verdict, never in it: an estimate from a photo decides nothing.
