@@ -8,6 +8,7 @@ import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { launchBrowser, pageWithSession } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
+import { seriousViolations } from '../helpers/axe';
 import type { RunningServer } from '../../server/index';
 import { addMember, liveGuild, type Person } from '../live/live-helpers';
 import { collectingSwap, moveSwap, receiveAndMeasure } from '../live/swap-setup';
@@ -97,7 +98,14 @@ it('places, moves, turns, shows values, spreads the colours, saves, and keeps it
   await page.goto(wallUrl);
   await page.getByRole('heading', { name: 'Design wall' }).waitFor();
   // Two blocks of the member's own and two returned to them, laid out 2 × 2.
-  await expect.poll(() => page.getByRole('grid').getByRole('button').count()).toBe(4);
+  await expect
+    .poll(() =>
+      page
+        .getByRole('group', { name: /^Design wall:/ })
+        .getByRole('button')
+        .count(),
+    )
+    .toBe(4);
   expect(
     await page
       .getByText(/Finished top:/)
@@ -181,7 +189,14 @@ it('places, moves, turns, shows values, spreads the colours, saves, and keeps it
 
   await page.reload();
   await page.getByRole('heading', { name: 'Design wall' }).waitFor();
-  await expect.poll(() => page.getByRole('grid').getByRole('button').count()).toBe(4);
+  await expect
+    .poll(() =>
+      page
+        .getByRole('group', { name: /^Design wall:/ })
+        .getByRole('button')
+        .count(),
+    )
+    .toBe(4);
   expect(await Promise.all([1, 2].flatMap((r) => [1, 2].map((c) => labelOf(page, r, c))))).toEqual(saved);
   expect(await page.getByLabel('Sashing width (finished)').inputValue()).toBe('2');
   expect(
@@ -197,9 +212,17 @@ it('works on a 360 px phone: tap a tile, tap a cell', async () => {
   const page = await pageWithSession(phone, member.cookie, server.url);
   await page.goto(wallUrl);
   await page.getByRole('heading', { name: 'Design wall' }).waitFor();
-  await expect.poll(() => page.getByRole('grid').getByRole('button').count()).toBe(4);
+  await expect
+    .poll(() =>
+      page
+        .getByRole('group', { name: /^Design wall:/ })
+        .getByRole('button')
+        .count(),
+    )
+    .toBe(4);
   const scrollWidth = await page.evaluate(() => document.documentElement.scrollWidth);
   expect(scrollWidth).toBeLessThanOrEqual(360);
+  expect(await seriousViolations(page)).toEqual([]);
   const a = await labelOf(page, 2, 1);
   const b = await labelOf(page, 2, 2);
   await cell(page, 2, 1).click();

@@ -146,10 +146,8 @@ export function WallBoard(props: BoardProps) {
       >
         {borderLayers}
         <div
-          role="grid"
+          role="group"
           aria-label={`Design wall: ${l.rows} rows of ${l.columns} cells`}
-          aria-rowcount={l.rows}
-          aria-colcount={l.columns}
           className={`absolute grid ${s > 0 ? '' : 'gap-0.5 bg-walnut/20'}`}
           style={{
             left: `${(borderTotal / W) * 100}%`,
