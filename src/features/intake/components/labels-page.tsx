@@ -24,13 +24,14 @@ export function LabelsPage() {
   const [params, setParams] = useSearchParams();
   const parsedSheet = labelSheetSchema.safeParse(params.get('sheet'));
   const sheetId: LabelSheetId = parsedSheet.success ? parsedSheet.data : defaultSheet(navigator.language);
-  const maker = params.get('maker') ?? 'me';
+  const viewer = useMe();
+  const officer = viewer.data?.memberships.some((m) => m.guildId === guildId && m.role !== 'member') ?? false;
+  // Officers print for the whole swap, so they start on every maker's blocks.
+  const maker = params.get('maker') ?? (officer ? 'all' : 'me');
   const skip = Math.max(0, Math.trunc(Number(params.get('skip')) || 0));
   const outlines = params.get('outlines') === '1';
-  const viewer = useMe();
   const labels = useLabels(swapId, maker);
   const sheet = sheetById(sheetId);
-  const officer = viewer.data?.memberships.some((m) => m.guildId === guildId && m.role !== 'member') ?? false;
 
   const set = (key: string, value: string | null) =>
     setParams(

@@ -1,14 +1,16 @@
-import { useMemo, useState } from 'react';
-import { useParams } from 'react-router';
+import { useEffect, useMemo, useState } from 'react';
+import { useBlocker, useParams } from 'react-router';
 import type { BlockDto, DistributionPlanDto, SwapDto, TransferDto } from '@shared/swap-types';
 import { Alert } from '@/components/ui/alert';
 import { Button, buttonClass } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Loading, QueryError } from '@/components/ui/page';
 import { ApiError } from '@/lib/api-client';
 import { formatInZone } from '@/lib/dates';
 import { useConfirmDistribution } from '../api/confirm-distribution';
 import { distributionCsvUrl } from '../api/export-urls';
+import { useDistributionByRecipient } from '../api/get-distribution';
 import { useBlocks } from '@/entities/block/api/get-blocks';
 import { useSwap } from '@/entities/swap/api/get-swap';
 import { usePlanDistribution } from '../api/plan-distribution';
@@ -31,19 +33,63 @@ function problems(plan: DistributionPlanDto, counts: number[]): string[] {
   return out;
 }
 
+interface SavedPlan {
+  plan: DistributionPlanDto;
+  counts: number[];
+  madeAt: string;
+}
+
+/** The plan and its hand edits are kept on this device until the return is confirmed, so moving to sorting loses nothing. */
+const planStoreKey = (swapId: number) => `blockpost:return-plan:${swapId}`;
+
+function readSavedPlan(swapId: number): SavedPlan | null {
+  try {
+    const raw = window.sessionStorage.getItem(planStoreKey(swapId));
+    return raw ? (JSON.parse(raw) as SavedPlan) : null;
+  } catch {
+    return null;
+  }
+}
+
 function Planner({ swap }: { swap: SwapDto }) {
   const plan = usePlanDistribution(swap.id);
   const confirm = useConfirmDistribution(swap.id);
-  const [counts, setCounts] = useState<number[]>([]);
+  const [saved] = useState(() => readSavedPlan(swap.id));
+  const [data, setData] = useState<DistributionPlanDto | null>(saved?.plan ?? null);
+  const [madeAt, setMadeAt] = useState<string | null>(saved?.madeAt ?? null);
+  const [counts, setCounts] = useState<number[]>(saved?.counts ?? []);
   const [problem, setProblem] = useState('');
-  const data = plan.data;
+  const [asking, setAsking] = useState(false);
   const issues = useMemo(() => (data ? problems(data, counts) : []), [data, counts]);
   const canConfirm = swap.state === 'sorting';
+  const edited = Boolean(data && data.transfers.some((t, i) => counts[i] !== t.count));
+  const recipients = data ? new Set(data.transfers.map((t) => t.to ?? 'gift')).size : 0;
+  const sharedOut = counts.reduce((sum, c) => sum + (Number.isFinite(c) ? c : 0), 0);
+
+  useEffect(() => {
+    if (!data || !madeAt) return;
+    window.sessionStorage.setItem(planStoreKey(swap.id), JSON.stringify({ plan: data, counts, madeAt } satisfies SavedPlan));
+  }, [swap.id, data, counts, madeAt]);
+
+  // Leaving with hand edits not confirmed asks first (another page in the app, or closing the tab).
+  const blocker = useBlocker(
+    ({ currentLocation, nextLocation }) => edited && !confirm.isSuccess && currentLocation.pathname !== nextLocation.pathname,
+  );
+  useEffect(() => {
+    if (!edited || confirm.isSuccess) return;
+    const warn = (e: BeforeUnloadEvent) => e.preventDefault();
+    window.addEventListener('beforeunload', warn);
+    return () => window.removeEventListener('beforeunload', warn);
+  }, [edited, confirm.isSuccess]);
 
   const makePlan = () => {
     setProblem('');
     plan.mutate(undefined, {
-      onSuccess: (p) => setCounts(p.transfers.map((t) => t.count)),
+      onSuccess: (p) => {
+        setData(p);
+        setMadeAt(new Date().toISOString());
+        setCounts(p.transfers.map((t) => t.count));
+      },
       onError: (e) => setProblem(e instanceof ApiError ? e.message : 'The plan could not be made.'),
     });
   };
@@ -53,7 +99,16 @@ function Planner({ swap }: { swap: SwapDto }) {
     const transfers = data.transfers.map((t, i) => ({ from: t.from, to: t.to, count: counts[i] ?? t.count }));
     confirm.mutate(
       { transfers },
-      { onError: (e) => setProblem(e instanceof ApiError ? e.message : 'The return could not be confirmed.') },
+      {
+        onSuccess: () => {
+          setAsking(false);
+          window.sessionStorage.removeItem(planStoreKey(swap.id));
+        },
+        onError: (e) => {
+          setAsking(false);
+          setProblem(e instanceof ApiError ? e.message : 'The return could not be confirmed.');
+        },
+      },
     );
   };
 
@@ -71,6 +126,12 @@ function Planner({ swap }: { swap: SwapDto }) {
         <Button onClick={makePlan} pending={plan.isPending} pendingLabel="Planning…">
           {data ? 'Plan again' : 'Make a plan'}
         </Button>
+        {data && madeAt && (
+          <p className="text-walnut-soft">
+            Plan made {formatInZone(madeAt, swap.guild.timeZone)}
+            {edited ? ', with your changes' : ''}. If blocks were measured or trimmed since, plan again.
+          </p>
+        )}
         {data && (
           <>
             <p>
@@ -129,22 +190,128 @@ function Planner({ swap }: { swap: SwapDto }) {
                 </ul>
               </Alert>
             )}
-            <Button
-              onClick={doConfirm}
-              disabled={!canConfirm || issues.length > 0 || data.transfers.length === 0}
+            <Button onClick={() => setAsking(true)} disabled={!canConfirm || issues.length > 0 || data.transfers.length === 0}>
+              Confirm the return
+            </Button>
+            <ConfirmDialog
+              open={asking}
+              title="Confirm the return?"
+              confirmLabel="Confirm the return"
+              onConfirm={doConfirm}
+              onCancel={() => setAsking(false)}
               pending={confirm.isPending}
               pendingLabel="Confirming…"
             >
-              Confirm the return
-            </Button>
+              <ul className="list-disc space-y-1 pl-6">
+                <li>
+                  {sharedOut} block{sharedOut === 1 ? ' goes' : 's go'} to {recipients} recipient{recipients === 1 ? '' : 's'}, as
+                  in the table.
+                </li>
+                <li>
+                  Each recipient who is a member is e-mailed how many blocks come to them ({recipients}{' '}
+                  {recipients === 1 ? 'person' : 'people'}).
+                </li>
+                <li>After this, blocks cannot be measured, trimmed or accepted any more, and the return cannot be changed.</li>
+              </ul>
+              {edited && (
+                <Alert tone="warning" title="You changed the plan">
+                  The counts you typed are what will be confirmed.
+                </Alert>
+              )}
+              {data.shortfall.length > 0 && (
+                <Alert tone="warning">Not everyone gets as many blocks as they handed in (see above).</Alert>
+              )}
+            </ConfirmDialog>
           </>
         )}
       </div>
+      <ConfirmDialog
+        open={blocker.state === 'blocked'}
+        title="Leave the plan?"
+        confirmLabel="Leave"
+        cancelLabel="Stay here"
+        onConfirm={() => blocker.proceed?.()}
+        onCancel={() => blocker.reset?.()}
+      >
+        <p>
+          You changed the plan and have not confirmed it. Your changes stay on this device until you make a new plan or confirm
+          it.
+        </p>
+      </ConfirmDialog>
     </Card>
   );
 }
 
+/** What happens to a block left out of the return (common practice, no source: it goes back to its maker). */
+function leftOutWords(b: BlockDto): string {
+  const why =
+    b.verdict === 'trim'
+      ? 'was not trimmed to size in time'
+      : b.verdict === 'skewed'
+        ? 'is out of square'
+        : b.verdict === 'short'
+          ? 'runs short'
+          : 'was not measured';
+  return `${why}; it goes back to its maker, ${b.maker.displayName}.`;
+}
+
+/** One section per recipient with each block's label code and a box to tick as it goes into the bundle. */
+function BundleSheet({ swap, blocks }: { swap: SwapDto; blocks: BlockDto[] }) {
+  const bundles = useDistributionByRecipient(swap.id);
+  const sequence = new Map(blocks.map((b) => [b.id, b.sequence]));
+  const leftOut = blocks.filter((b) => b.state === 'measured' || b.state === 'received');
+  if (bundles.isPending) return <Loading label="Loading the bundles…" />;
+  if (bundles.isError) return <QueryError error={bundles.error} what="the bundles" />;
+  return (
+    <div className="space-y-5">
+      <p className="hidden print:block">
+        {swap.title}: bundles for hand-out night, confirmed {formatInZone(swap.distributionConfirmedAt!, swap.guild.timeZone)}.
+      </p>
+      {bundles.data.map((bundle) => (
+        <section
+          key={bundle.recipient.id ?? 'gift'}
+          className="break-inside-avoid rounded-lg border-2 border-walnut/20 p-4"
+          aria-label={`Bundle for ${bundle.recipient.displayName}`}
+        >
+          <h3 className="text-xl font-semibold">
+            For {bundle.recipient.displayName}: {bundle.blocks.length} block{bundle.blocks.length === 1 ? '' : 's'}
+          </h3>
+          <ul className="mt-2 space-y-1">
+            {bundle.blocks.map((b) => (
+              <li key={b.id}>
+                <label className="inline-flex min-h-11 cursor-pointer items-center gap-3">
+                  <input type="checkbox" className="size-6 accent-indigo" />
+                  <span className="font-mono text-lg tracking-wider">{b.code}</span>
+                  <span>
+                    block {sequence.get(b.id) ?? ''} by {b.maker.displayName}
+                  </span>
+                </label>
+              </li>
+            ))}
+          </ul>
+        </section>
+      ))}
+      {leftOut.length > 0 && (
+        <section
+          className="break-inside-avoid rounded-lg border-2 border-dashed border-madder/50 p-4"
+          aria-label="Blocks not in the return"
+        >
+          <h3 className="text-xl font-semibold">Not in the return: {leftOut.length}</h3>
+          <ul className="mt-2 list-disc space-y-1 pl-6">
+            {leftOut.map((b) => (
+              <li key={b.id}>
+                Block {b.sequence} by {b.maker.displayName} {leftOutWords(b)}
+              </li>
+            ))}
+          </ul>
+        </section>
+      )}
+    </div>
+  );
+}
+
 function Confirmed({ swap, blocks }: { swap: SwapDto; blocks: BlockDto[] }) {
+  const [view, setView] = useState<'recipient' | 'maker'>('recipient');
   const pairs = new Map<string, { from: string; to: string; seqs: number[] }>();
   for (const b of blocks.filter((x) => x.state === 'returned')) {
     const key = `${b.maker.id}>${b.recipient?.id ?? 'gift'}`;
@@ -152,23 +319,43 @@ function Confirmed({ swap, blocks }: { swap: SwapDto; blocks: BlockDto[] }) {
     p.seqs.push(b.sequence);
     pairs.set(key, p);
   }
+  const tab = (which: 'recipient' | 'maker', label: string) => (
+    <Button variant={view === which ? 'primary' : 'secondary'} aria-pressed={view === which} onClick={() => setView(which)}>
+      {label}
+    </Button>
+  );
   return (
     <Card
       title="The return is confirmed"
       actions={
-        <a className={buttonClass('secondary')} href={distributionCsvUrl(swap.id)} download>
-          Download the return (CSV)
-        </a>
+        <div className="flex flex-wrap gap-2 print:hidden">
+          <Button variant="secondary" onClick={() => window.print()}>
+            Print the bundle sheet
+          </Button>
+          <a className={buttonClass('secondary')} href={distributionCsvUrl(swap.id)} download>
+            Download the return (CSV)
+          </a>
+        </div>
       }
     >
-      <p>Confirmed {formatInZone(swap.distributionConfirmedAt!, swap.guild.timeZone)}.</p>
-      <ul className="mt-3 list-disc space-y-1 pl-6">
-        {[...pairs.values()].map((p) => (
-          <li key={`${p.from}>${p.to}`}>
-            {p.from} → {p.to}: {p.seqs.length} block{p.seqs.length === 1 ? '' : 's'} (#{p.seqs.join(', #')})
-          </li>
-        ))}
-      </ul>
+      <p className="print:hidden">Confirmed {formatInZone(swap.distributionConfirmedAt!, swap.guild.timeZone)}.</p>
+      <div className="mt-3 flex flex-wrap gap-2 print:hidden" role="group" aria-label="List the return">
+        {tab('recipient', 'By recipient (hand-out night)')}
+        {tab('maker', 'By maker')}
+      </div>
+      <div className="mt-4">
+        {view === 'recipient' ? (
+          <BundleSheet swap={swap} blocks={blocks} />
+        ) : (
+          <ul className="list-disc space-y-1 pl-6">
+            {[...pairs.values()].map((p) => (
+              <li key={`${p.from}>${p.to}`}>
+                {p.from} → {p.to}: {p.seqs.length} block{p.seqs.length === 1 ? '' : 's'} (numbers {p.seqs.join(', ')})
+              </li>
+            ))}
+          </ul>
+        )}
+      </div>
     </Card>
   );
 }

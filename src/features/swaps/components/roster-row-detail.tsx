@@ -13,6 +13,10 @@ import { useMeasurements } from '@/entities/block/api/get-measurements';
 import { useReceiveBlock } from '@/entities/block/api/receive-block';
 import { invalidateSwapData } from '@/entities/block/api/block-keys';
 import { useTrimBlock } from '../api/trim-block';
+import { useAcceptBlock } from '../api/accept-block';
+import { useUndoBlock } from '@/entities/block/api/undo-block';
+import { useUndoWindow } from '@/lib/use-undo-window';
+import { TextField } from '@/components/ui/fields';
 import { MeasureForm } from './measure-form';
 import { sizeText } from './lengths';
 import { BlockStateText } from './state-badge';
@@ -31,6 +35,7 @@ function History({ swap, blockId }: { swap: SwapDto; blockId: number }) {
           <time dateTime={m.at}>{formatInZone(m.at, swap.guild.timeZone)}</time> {sizeText(m)}
           <VerdictBadge verdict={m.verdict} source={m.source} />
           {m.measuredBy && <span className="text-walnut-soft">by {m.measuredBy.displayName}</span>}
+          {m.withdrawnAt && <span className="font-semibold text-madder-deep">withdrawn (undone)</span>}
         </li>
       ))}
     </ol>
@@ -41,7 +46,17 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
   const queryClient = useQueryClient();
   const receive = useReceiveBlock(swap.id);
   const trim = useTrimBlock(swap.id);
-  const [panel, setPanel] = useState<'measure' | 'history' | null>(null);
+  const [panel, setPanel] = useState<'measure' | 'history' | 'accept' | null>(null);
+  const accept = useAcceptBlock(swap.id);
+  const undo = useUndoBlock(swap.id);
+  const undoWindow = useUndoWindow<string>();
+  const [reason, setReason] = useState('');
+  const [reasonError, setReasonError] = useState('');
+  const offAndOpen =
+    block.state === 'measured' &&
+    !block.acceptedByDecision &&
+    block.verdict !== 'true' &&
+    !(block.verdict === 'trim' && block.trimmed);
   const [problem, setProblem] = useState('');
   const report = (e: unknown) => setProblem(e instanceof ApiError ? e.message : 'That did not work. Please try again.');
   const intake = swap.canManage && ['sewing', 'collecting', 'sorting'].includes(swap.state) && !swap.distributionConfirmedAt;
@@ -53,6 +68,11 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
         <BlockStateText state={block.state} />
         {block.verdict ? <VerdictBadge verdict={block.verdict} trimmed={block.trimmed} /> : <NoVerdict />}
         {block.photoEstimate && <VerdictBadge verdict={block.photoEstimate.verdict} source="photo" />}
+        {block.acceptedByDecision && (
+          <span className="rounded-full bg-lichen/15 px-3 py-1 font-semibold text-lichen-deep">
+            <span aria-hidden="true">✓ </span>Accepted by decision
+          </span>
+        )}
         {block.handIn && (
           <span className="text-walnut-soft">
             {block.handIn.how === 'post' ? 'Posted' : 'Handed in at a meeting'}
@@ -63,6 +83,26 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
       {problem && (
         <div className="mt-2">
           <Alert tone="error">{problem}</Alert>
+        </div>
+      )}
+      {undoWindow.current && (
+        <div role="status" className="mt-2 flex flex-wrap items-center gap-3 rounded-lg bg-linen p-3">
+          <span>{undoWindow.current}.</span>
+          <Button
+            variant="secondary"
+            pending={undo.isPending}
+            pendingLabel="Undoing…"
+            onClick={() => {
+              setProblem('');
+              undo.mutate(block.id, { onSuccess: () => undoWindow.clear(), onError: report });
+            }}
+          >
+            Undo
+            <span className="sr-only">
+              {' '}
+              on block {block.sequence} of {maker}
+            </span>
+          </Button>
         </div>
       )}
       {block.photos.length > 0 && (
@@ -98,7 +138,10 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
               pending={receive.isPending}
               onClick={() => {
                 setProblem('');
-                receive.mutate(block.id, { onError: report });
+                receive.mutate(block.id, {
+                  onError: report,
+                  onSuccess: () => undoWindow.offer(`Block ${block.sequence} of ${maker} taken in`),
+                });
               }}
             >
               Mark received
@@ -127,10 +170,26 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
               pending={trim.isPending}
               onClick={() => {
                 setProblem('');
-                trim.mutate(block.id, { onError: report });
+                trim.mutate(block.id, {
+                  onError: report,
+                  onSuccess: () => undoWindow.offer(`Block ${block.sequence} of ${maker} marked trimmed`),
+                });
               }}
             >
               Mark trimmed to size
+            </Button>
+          )}
+          {intake && offAndOpen && (
+            <Button
+              variant="secondary"
+              aria-expanded={panel === 'accept'}
+              onClick={() => setPanel(panel === 'accept' ? null : 'accept')}
+            >
+              Accept anyway…
+              <span className="sr-only">
+                {' '}
+                block {block.sequence} of {maker}
+              </span>
             </Button>
           )}
           <Button
@@ -144,8 +203,50 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
       )}
       {panel === 'measure' && (
         <div className="mt-3 rounded-lg bg-linen p-4">
-          <MeasureForm swap={swap} blockId={block.id} source="ruler" label={`Measure block ${block.sequence} of ${maker}`} />
+          <MeasureForm
+            swap={swap}
+            blockId={block.id}
+            source="ruler"
+            label={`Measure block ${block.sequence} of ${maker}`}
+            onSaved={() => undoWindow.offer(`Block ${block.sequence} of ${maker} measured`)}
+          />
         </div>
+      )}
+      {panel === 'accept' && (
+        <form
+          className="mt-3 space-y-3 rounded-lg bg-linen p-4"
+          onSubmit={(e) => {
+            e.preventDefault();
+            setProblem('');
+            setReasonError('');
+            if (reason.trim().length < 3) return setReasonError('Say in a few words why the block is accepted.');
+            accept.mutate(
+              { blockId: block.id, reason: reason.trim() },
+              {
+                onSuccess: () => {
+                  setPanel(null);
+                  setReason('');
+                  undoWindow.offer(`Block ${block.sequence} of ${maker} accepted by decision`);
+                },
+                onError: (err) =>
+                  err instanceof ApiError && err.fields.reason ? setReasonError(err.fields.reason) : report(err),
+              },
+            );
+          }}
+        >
+          <p>The block takes part in the return as if it were true to size. The maker and other officers see your reason.</p>
+          <TextField
+            label="Why it is accepted"
+            hint="For example: only a little short; the sashing hides it."
+            value={reason}
+            maxLength={500}
+            error={reasonError}
+            onChange={(e) => setReason(e.target.value)}
+          />
+          <Button type="submit" pending={accept.isPending} pendingLabel="Accepting…">
+            Accept block {block.sequence}
+          </Button>
+        </form>
       )}
       {panel === 'history' && (
         <div className="mt-3">

@@ -39,6 +39,16 @@ export function SwapLayout() {
               Return of blocks
             </NavLink>
           )}
+          {s.state !== 'draft' && (
+            <NavLink to={paths.swapBoard(guildId, swapId)} className={tabClass}>
+              Live board
+            </NavLink>
+          )}
+          {s.state !== 'draft' && (
+            <NavLink to={paths.swapChat(guildId, swapId)} className={tabClass}>
+              Swap chat
+            </NavLink>
+          )}
           <NavLink to={paths.swapSheet(guildId, swapId)} className={tabClass}>
             Swap sheet
           </NavLink>
