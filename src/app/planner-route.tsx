@@ -1,8 +1,9 @@
 import { PlannerPage } from '@/features/planner/components/planner-page';
 import { useMe } from '@/entities/me/api/get-me';
+import { unitsFor } from '@/entities/me/api/units';
 
-/** The planner starts in the units the person chose in their settings. */
+/** The planner starts in the person's unit: their own choice, or their guilds' default. */
 export function PlannerRoute() {
   const me = useMe();
-  return <PlannerPage defaultUnits={me.data?.user.units ?? 'in'} />;
+  return <PlannerPage defaultUnits={unitsFor(me.data)} />;
 }

@@ -1,4 +1,4 @@
-import { createBrowserRouter, Navigate, type RouteObject } from 'react-router';
+import { createBrowserRouter, Navigate, useParams, type RouteObject } from 'react-router';
 import { AppShell } from './app-shell';
 import { RedirectIfSignedIn, RequireSignedIn } from './guards';
 import { RouteError } from './route-error';

@@ -200,3 +200,31 @@ describe('Intake on a phone', () => {
     await page.close();
   });
 });
+
+describe('A guild that works in millimetres', () => {
+  it('starts its members in millimetres until they choose a unit of their own, and lets its admin switch it', async () => {
+    const agent = supertest.agent(server.url).set('X-Requested-With', 'blockpost');
+    const email = uniqueEmail('mm-guild');
+    await agent.post('/api/auth/register').send({ email, password: PASSWORD, displayName: 'Henrietta Voss' }).expect(201);
+    const guildId = (await agent.post('/api/guilds').send({ name: 'Ashgrove Metric Quilters' }).expect(201)).body.id as number;
+    const context = await launchBrowser({ viewport: { width: 360, height: 740 } });
+    const page = await context.newPage();
+    await page.goto(`${server.url}/sign-in?next=${encodeURIComponent(`/guilds/${guildId}/about`)}`);
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Password').fill(PASSWORD);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.getByRole('heading', { name: 'Lengths in this guild' }).waitFor();
+    await page.getByRole('radio', { name: /Millimetres/ }).check();
+    await page.getByText('Saved.').waitFor();
+
+    await page.goto(`${server.url}/planner`);
+    expect(await page.getByRole('radio', { name: 'Millimetres' }).isChecked()).toBe(true);
+    expect(await page.getByLabel('Usable width of fabric (WOF)').inputValue()).toBe('1066.8'); // 42″ (NIST SP 811: 25.4 mm to the inch)
+
+    // A unit of one's own wins over the guild's.
+    await agent.patch('/api/me').send({ units: 'in' }).expect(200);
+    await page.goto(`${server.url}/planner`);
+    expect(await page.getByRole('radio', { name: 'Inches' }).isChecked()).toBe(true);
+    await context.close();
+  });
+});

@@ -4,6 +4,7 @@ import { Card } from '@/components/ui/card';
 import { Loading, QueryError } from '@/components/ui/page';
 import { paths } from '@/lib/paths';
 import { useGuild } from '@/entities/guild/api/get-guild';
+import { DefaultUnitCard } from './default-unit-card';
 
 /** The guild's front page until other sections fill it. */
 export function GuildOverview() {
@@ -12,16 +13,19 @@ export function GuildOverview() {
   if (guild.isPending) return <Loading />;
   if (guild.isError) return <QueryError error={guild.error} what="the guild" />;
   return (
-    <Card title="About this guild">
-      <p>
-        You are {roleLabels[guild.data.myRole].toLowerCase()} here. {guild.data.memberCount} members · deadlines shown in{' '}
-        {guild.data.timeZone}.
-      </p>
-      <p className="mt-3">
-        <Link className="font-semibold text-indigo underline" to={paths.members(guildId)}>
-          See the members
-        </Link>
-      </p>
-    </Card>
+    <div className="space-y-6">
+      <Card title="About this guild">
+        <p>
+          You are {roleLabels[guild.data.myRole].toLowerCase()} here. {guild.data.memberCount} members · deadlines shown in{' '}
+          {guild.data.timeZone}.
+        </p>
+        <p className="mt-3">
+          <Link className="font-semibold text-indigo underline" to={paths.members(guildId)}>
+            See the members
+          </Link>
+        </p>
+      </Card>
+      {guild.data.myRole === 'admin' && <DefaultUnitCard guild={guild.data} />}
+    </div>
   );
 }

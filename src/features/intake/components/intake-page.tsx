@@ -7,6 +7,7 @@ import { EmptyState, Loading, PageHeader, QueryError } from '@/components/ui/pag
 import { paths } from '@/lib/paths';
 import { useIntakePack, type IntakePack } from '../api/get-intake-pack';
 import { useMe } from '@/entities/me/api/get-me';
+import { unitsFor } from '@/entities/me/api/units';
 import { useIntakeQueue } from '../hooks/use-intake-queue';
 import { useIntakeStation } from '../hooks/use-intake-station';
 import { useOnline } from '../hooks/use-online';

@@ -15,9 +15,10 @@ import { EstimateHistory } from './estimate-history';
 import { EstimateResult } from './estimate-result';
 import { lengthIn, type Units } from './estimate-look';
 
-function readSize(text: string): { value: number | null; error?: string } {
+/** The reference square's side; a bare number is in the person's unit. */
+function readSize(text: string, units: Units): { value: number | null; error?: string } {
   try {
-    const value = parseLength(text);
+    const value = parseLength(text, { bareUnit: units });
     if (value <= 0) return { value: null, error: 'Enter a size greater than zero.' };
     if (value > MAX_REFERENCE_SIZE) return { value: null, error: `Use a square of at most ${MAX_REFERENCE_SIZE}″.` };
     return { value };
@@ -48,8 +49,8 @@ export function PhotoMeasurePage({ units = 'in' }: { units?: Units }) {
 
 function MeasureView({ data, photo, units }: { data: PhotoEstimatesDto; photo: PhotoEstimatesDto['photos'][number]; units: Units }) {
   const marks = useCornerMarks(photo.width, photo.height);
-  const [sizeText, setSizeText] = useState(String(DEFAULT_REFERENCE_SIZE));
-  const size = readSize(sizeText);
+  const [sizeText, setSizeText] = useState(() => (units === 'mm' ? String((DEFAULT_REFERENCE_SIZE * 254) / 10) : String(DEFAULT_REFERENCE_SIZE)));
+  const size = readSize(sizeText, units);
   const len = lengthIn(units);
   const { block, swap } = data;
   const next = marks.next !== null ? MARKS[marks.next]! : null;
@@ -116,8 +117,9 @@ function MeasureView({ data, photo, units }: { data: PhotoEstimatesDto; photo: P
             <TextField
               wrapperClassName="mt-4"
               label="Size of the reference square"
-              hint="The side of the square you marked: 6, 12, 6″ or 152 mm."
+              hint={units === 'mm' ? 'The side of the square you marked: 152.4, 304.8 or 6″.' : 'The side of the square you marked: 6, 12, 6″ or 152 mm.'}
               inputMode="decimal"
+              unit={units}
               value={sizeText}
               onChange={(e) => setSizeText(e.target.value)}
               error={size.error}
