@@ -139,6 +139,8 @@ export interface RosterBlockDto {
   state: BlockState;
   verdict: VerdictName | null;
   trimmed: boolean;
+  /** an officer accepted it anyway, with a reason (the block's own answer says why) */
+  acceptedByDecision: boolean;
   handIn: { how: 'in-person' | 'post'; note: string | null } | null;
   photos: PhotoRefDto[];
   /** the latest estimate from a photo, kept apart from the ruler verdict */
