@@ -5,6 +5,7 @@ import { RouteError } from './route-error';
 import { Loading } from '@/components/ui/page';
 import { paths } from '@/lib/paths';
 import { useMe } from '@/entities/me/api/get-me';
+import { unitsFor } from '@/entities/me/api/units';
 
 /** The sew-day page with the sew day's chat composed in (features do not import each other). */
 async function sewDayWithChat() {
@@ -18,7 +19,7 @@ async function sewDayWithChat() {
 /** The measuring view in the person's chosen units. */
 async function photoMeasureInUnits() {
   const { PhotoMeasurePage } = await import('@/features/photo-measure/components/photo-measure-page');
-  return { Component: () => <PhotoMeasurePage units={useMe().data?.user.units ?? 'in'} /> };
+  return { Component: () => <PhotoMeasurePage units={unitsFor(useMe().data, Number(useParams().guildId))} /> };
 }
 
 export const routes: RouteObject[] = [

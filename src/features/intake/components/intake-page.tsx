@@ -21,14 +21,15 @@ import { VerdictPanel } from './verdict-panel';
 
 /** The coordinator's intake view for one swap: scan or type, measure, next — with or without a network. */
 export function IntakePage() {
-  const swapId = Number(useParams().swapId);
+  const { swapId: swapParam, guildId } = useParams();
+  const swapId = Number(swapParam);
   const viewer = useMe();
   const pack = useIntakePack(swapId);
   if (viewer.isPending || pack.isPending) return <Loading label="Getting the swap ready for intake…" />;
   if (viewer.isError) return <QueryError error={viewer.error} what="your account" />;
   if (!viewer.data) return <Loading label="Getting the swap ready for intake…" />; // signed out: the page guard sends them to sign in
   if (pack.isError) return <QueryError error={pack.error} what="this swap’s intake" />;
-  return <Station pack={pack.data} userId={viewer.data.user.id} units={viewer.data.user.units} />;
+  return <Station pack={pack.data} userId={viewer.data.user.id} units={unitsFor(viewer.data, Number(guildId))} />;
 }
 
 const RECEIVING = ['sewing', 'collecting'];
