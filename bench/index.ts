@@ -80,6 +80,13 @@ await section(
   '10 intake stations measure as fast as the app answers while 200 sockets watch the board. Commit → receipt is timed from the measurement’s recorded time (just before its commit) to each socket’s handler. Goals: at most one change per swap per 50 ms per node, p95 < 100 ms, no lost change, no version gap.',
   () => runLiveBurstBench(),
 );
+const runPhotoBurstBench = await optional<() => Promise<Row[]>>('./photo-burst.ts', 'runPhotoBurstBench');
+if (runPhotoBurstBench)
+  await section(
+    'Photos: a burst of large uploads beside everyone else (app in its own process, load in another)',
+    'Health latency with no burst, then while 12 uploads of 4 photos of 10000 × 10000 px arrive at once (health asked 20 times a second by the load process). Photos are re-encoded in a bounded queue outside transactions; a full queue answers 503 with Retry-After and the upload is sent again. Goal: health p95 during the burst stays under 250 ms.',
+    runPhotoBurstBench,
+  );
 await section(
   'Client bundle (gzip)',
   'Initial route JS target < 200 kB gzip; route chunks load on demand.',
