@@ -42,5 +42,27 @@ export async function canActAsMaker(userId: number, blockId: number): Promise<Bl
 /** Received, ruler measurements and trimming: coordinators and admins. */
 export async function canManageBlock(userId: number, blockId: number): Promise<BlockAccess> {
   const { block, swap, role } = await loadBlock(userId, blockId);
-  return { swap, role: assertGuildRole(role, 'swaps:manage', 'That block does not exist.'), canManage: true, block, isMaker: block.makerId === userId };
+  return {
+    swap,
+    role: assertGuildRole(role, 'swaps:manage', 'That block does not exist.'),
+    canManage: true,
+    block,
+    isMaker: block.makerId === userId,
+  };
+}
+
+export type MeasuringAs = 'ruler' | 'maker';
+
+/**
+ * Which measurement the caller records: the ruler one (coordinators and admins) or the maker's own
+ * (the block's maker). Without `asked`, officers record the ruler one and the maker their own.
+ */
+export function measuringAs(access: BlockAccess, asked?: MeasuringAs): MeasuringAs {
+  const source = asked ?? (access.canManage ? 'ruler' : 'maker');
+  if (source === 'ruler' && !access.canManage) {
+    throw new ForbiddenError('Only a coordinator or admin records the ruler measurement; yours is saved as the maker’s own.');
+  }
+  if (source === 'maker' && !access.isMaker)
+    throw new ForbiddenError('Only the block’s maker can record the maker’s own measurement.');
+  return source;
 }

@@ -7,11 +7,12 @@ import { checkBlock } from '@shared/quilt';
 import type { MeasurementBody } from '@shared/schemas/blocks';
 import type { BlockDto, MeasurementDto } from '@shared/swap-types';
 import { type Block, Measurement, type Swap, User } from '../db/models';
-import { ConflictError, ForbiddenError } from '../http/errors';
+import { ConflictError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { blockDto, measurementDto } from './block-dto';
 import { idempotent, type Answer } from './idempotency';
 import { assertSwapIn, lockedBlock } from './blocks.service';
+import type { MeasuringAs } from './blocks.policy';
 import { recordStep, snapshotOf } from './step-log';
 
 type Deps = Pick<AppDeps, 'events'>;
@@ -32,19 +33,17 @@ export function verdictFor(swap: Swap, m: { width: number; height: number; diago
 }
 
 /**
- * Records a measurement. A ruler measurement (officers) needs the block received and moves it to
- * `measured`; a maker's own measurement (the maker) changes no state.
+ * Records a measurement as `actor.source`, which the policy settled (blocks.policy.ts measuringAs).
+ * A ruler measurement needs the block received and moves it to `measured`; a maker's own measurement
+ * changes no state.
  */
 export function recordMeasurement(
   deps: Deps,
   blockId: number,
-  actor: { userId: number; displayName: string; canManage: boolean; isMaker: boolean },
+  actor: { userId: number; displayName: string; source: MeasuringAs },
   body: MeasurementBody,
 ): Promise<Answer<MeasurementAnswer>> {
-  const source = body.source ?? (actor.canManage ? 'ruler' : 'maker');
-  if (source === 'ruler' && !actor.canManage) throw new ForbiddenError('Only a coordinator or admin records the ruler measurement; yours is saved as the maker’s own.');
-  if (source === 'maker' && !actor.isMaker) throw new ForbiddenError('Only the block’s maker can record the maker’s own measurement.');
-
+  const { source } = actor;
   return idempotent({ clientId: body.clientId, userId: actor.userId, blockId, action: `measurement:${source}` }, async (transaction) => {
     const { block, swap } = await lockedBlock(blockId, transaction);
     if (source === 'ruler') {
