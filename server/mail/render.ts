@@ -91,7 +91,14 @@ function template(name: string, flavour: 'html' | 'text'): Handlebars.TemplateDe
 
 /** Collapses the blank lines Handlebars blocks leave in plain text, keeping paragraph breaks. */
 function tidyText(text: string) {
-  return `${text.replace(/[ \t]+\n/g, '\n').replace(/\n{3,}/g, '\n\n').trim()}\n`;
+  // Trailing spaces and tabs go line by line: a pattern hunting them across the whole text can take
+  // quadratic time on a long run of spaces that ends in something else.
+  const lines = text.split('\n').map((line) => {
+    let end = line.length;
+    while (end > 0 && (line[end - 1] === ' ' || line[end - 1] === '\t')) end -= 1;
+    return line.slice(0, end);
+  });
+  return `${lines.join('\n').replace(/\n{3,}/g, '\n\n').trim()}\n`;
 }
 
 /** Renders one message's HTML and text versions inside the shared layout. */
