@@ -221,8 +221,16 @@ describe('A guild that works in millimetres', () => {
     expect(await page.getByRole('radio', { name: 'Millimetres' }).isChecked()).toBe(true);
     expect(await page.getByLabel('Usable width of fabric (WOF)').inputValue()).toBe('1066.8'); // 42″ (NIST SP 811: 25.4 mm to the inch)
 
-    // A unit of one's own wins over the guild's.
-    await agent.patch('/api/me').send({ units: 'in' }).expect(200);
+    // Saving Settings without touching the unit keeps following the guild; choosing one wins over the guild's.
+    await page.goto(`${server.url}/settings`);
+    const unit = page.getByLabel('Show lengths in');
+    expect(await unit.inputValue()).toBe('');
+    await page.getByRole('button', { name: 'Save', exact: true }).click();
+    await page.getByText('Saved.').waitFor();
+    expect((await agent.get('/api/me').expect(200)).body.user.unitsChosen).toBe(false);
+    await unit.selectOption('in');
+    await page.getByRole('button', { name: 'Save', exact: true }).click();
+    await expect.poll(async () => (await agent.get('/api/me').expect(200)).body.user.unitsChosen).toBe(true);
     await page.goto(`${server.url}/planner`);
     expect(await page.getByRole('radio', { name: 'Inches' }).isChecked()).toBe(true);
     await context.close();

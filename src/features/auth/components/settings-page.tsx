@@ -23,7 +23,8 @@ export function SettingsPage() {
       <ProfileForm
         defaults={{
           displayName: me.data.user.displayName,
-          units: me.data.user.units,
+          // Not chosen yet: each guild's own unit applies, and saving the form keeps it that way.
+          units: me.data.user.unitsChosen ? me.data.user.units : null,
           mailingAddress: me.data.user.mailingAddress ?? '',
         }}
       />
@@ -71,12 +72,14 @@ function ProfileForm({ defaults }: { defaults: ProfileUpdateInput }) {
         <TextField label="Your name" error={formState.errors.displayName?.message} {...register('displayName')} />
         <SelectField
           label="Show lengths in"
+          hint="A number typed without a unit is read in this unit too."
           options={[
+            { value: '', label: 'As each of my guilds chooses' },
             { value: 'in', label: 'Inches and fractions (8½″)' },
             { value: 'mm', label: 'Millimetres (215.9 mm)' },
           ]}
           error={formState.errors.units?.message}
-          {...register('units')}
+          {...register('units', { setValueAs: (v: string | null) => (v === '' || v === null ? null : v) })}
         />
         <TextArea
           label="Mailing address for posted blocks"
