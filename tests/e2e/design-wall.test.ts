@@ -18,6 +18,7 @@ let laptop: BrowserContext;
 let phone: BrowserContext;
 let member: Person;
 let wallUrl = '';
+let swapId = 0;
 const SHOTS = process.env.WALL_SCREENSHOTS;
 
 // Two-colour photos (a light and a dark half) so each block has its own colour and lightness.
@@ -65,7 +66,9 @@ beforeAll(async () => {
     await addMember(server.url, g.guildId, 'member', 'Rosa Reyes'),
     await addMember(server.url, g.guildId, 'member', 'Ivy Okafor'),
   ];
-  const { swapId, blockIds } = await collectingSwap(g.coordinator, g.guildId, makers, 2);
+  const made = await collectingSwap(g.coordinator, g.guildId, makers, 2);
+  swapId = made.swapId;
+  const blockIds = made.blockIds;
   let n = 0;
   for (const maker of makers) {
     for (const id of blockIds.get(maker.id)!) {
@@ -205,6 +208,22 @@ it('places, moves, turns, shows values, spreads the colours, saves, and keeps it
       .first()
       .textContent(),
   ).toContain('24″ × 24″');
+
+  // Keep and share: a PNG download, and the picture posted to the swap chat as a photo.
+  const [download] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByRole('button', { name: 'Download as a picture (PNG)' }).click(),
+  ]);
+  expect(download.suggestedFilename()).toMatch(/^design-wall-.+\.png$/);
+  await page.getByRole('button', { name: 'Share to the swap chat' }).click();
+  await page.getByText('Shared to the swap chat as a photo.').waitFor();
+  const room = await member.api<{ id: number }>('GET', `/swaps/${swapId}/chat`);
+  const history = await member.api<{ messages: { body: string; photos: unknown[] }[] }>(
+    'GET',
+    `/chat/rooms/${room.body.id}/messages`,
+  );
+  const shared = history.body.messages.find((m) => m.body.startsWith('My design wall for'));
+  expect(shared?.photos).toHaveLength(1);
   await page.close();
 });
 
