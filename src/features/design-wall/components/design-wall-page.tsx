@@ -23,7 +23,7 @@ import { useArrangeDesign } from '../api/arrange-design';
 import { useShareToChat } from '../api/share-to-chat';
 import { useGreyPhotos } from '../hooks/use-grey-photos';
 import { blockShapes } from '../lib/block-drawing';
-import { sizeText } from '../lib/format';
+import { len, sizeText } from '../lib/format';
 import {
   indexOfBlock,
   isPlain,
@@ -444,7 +444,7 @@ function DesignWall({ swapId, initial }: { swapId: number; initial: DesignDto })
         <h1 className="text-2xl font-bold">{initial.swap.title}: design wall</h1>
         <p>
           Finished top {sizeText(plan.finished)} · {layout.columns} × {layout.rows} blocks
-          {layout.sashing > 0 ? `, ${layout.sashing}″ sashing` : ''}
+          {layout.sashing > 0 ? `, ${len(layout.sashing)} sashing` : ''}
           {layout.borders.length ? `, ${layout.borders.length} ${layout.borders.length === 1 ? 'border' : 'borders'}` : ''}
         </p>
         {printUrl && <img src={printUrl} alt="" className="my-2 max-h-[55vh] w-auto" />}
