@@ -26,6 +26,11 @@ export function AcceptInvitationPage({ signedIn }: { signedIn: boolean }) {
           You are invited as <strong>{roleLabels[preview.data.role].toLowerCase()}</strong>. The invitation was sent to{' '}
           <strong className="break-all">{preview.data.email}</strong>.
         </p>
+        <p className="mt-2">
+          {preview.data.open
+            ? 'It is an open link: anyone with an account who has it may join.'
+            : 'Only the account with that e-mail address can accept it: create or sign in to that account.'}
+        </p>
         {accept.isError && (
           <div className="mt-4">
             <Alert tone="error">{accept.error instanceof ApiError ? accept.error.message : 'That did not work. Please try again.'}</Alert>
