@@ -3,7 +3,10 @@ import type { ActivityDto } from '@shared/live-events';
 import type { DomainEventMap, DomainEventName } from '../events';
 import { Activity } from '../db/models';
 
-export type SwapEvent = { name: DomainEventName; payload: DomainEventMap[DomainEventName] & { swapId: number; guildId: number; actorId?: number } };
+export type SwapEvent = {
+  name: DomainEventName;
+  payload: DomainEventMap[DomainEventName] & { swapId: number; guildId: number; actorId?: number };
+};
 
 type Detail = Activity['detail'];
 
@@ -28,7 +31,11 @@ function describe({ name, payload }: SwapEvent): { subjectId: number | null; blo
       if (p.to === 'measured' && p.from !== 'measured') return null;
       return { subjectId: num('makerId'), blockId: num('blockId'), detail: { from: String(p.from), to: String(p.to) } };
     case 'block.measured':
-      return { subjectId: num('makerId'), blockId: num('blockId'), detail: { verdict: String(p.verdict), source: String(p.source) } };
+      return {
+        subjectId: num('makerId'),
+        blockId: num('blockId'),
+        detail: { verdict: String(p.verdict), source: String(p.source) },
+      };
     case 'photo.added':
       return { subjectId: num('makerId'), blockId: num('blockId'), detail: { photoId: num('photoId') } };
     case 'distribution.confirmed':
@@ -38,27 +45,47 @@ function describe({ name, payload }: SwapEvent): { subjectId: number | null; blo
   }
 }
 
-/** Keeps one activity row per event worth a line; returns their ids. */
-export async function recordActivities(events: SwapEvent[], transaction: Transaction): Promise<number[]> {
-  const rows = events.flatMap((e) => {
+/**
+ * Keeps one activity line per event worth one and answers them as the board shows them, newest
+ * first, in a single statement: the lines go in with their block's number read on the way, and come
+ * back with the names of who acted and whom it was about.
+ */
+export async function recordActivityLines(events: SwapEvent[], transaction: Transaction): Promise<ActivityDto[]> {
+  const lines = events.flatMap((e) => {
     const d = describe(e);
     if (!d) return [];
-    return [{ guildId: e.payload.guildId, swapId: e.payload.swapId, kind: e.name, actorId: e.payload.actorId ?? null, ...d }];
+    return [
+      {
+        guild_id: e.payload.guildId,
+        swap_id: e.payload.swapId,
+        kind: e.name,
+        actor_id: e.payload.actorId ?? null,
+        subject_id: d.subjectId,
+        block_id: d.blockId,
+        detail: d.detail,
+      },
+    ];
   });
-  if (rows.length === 0) return [];
-  // The block's number within its maker's set reads better than its id.
-  const blockIds = rows.map((r) => r.blockId).filter((id): id is number => id !== null);
-  if (blockIds.length) {
-    const seq = await Activity.sequelize!.query<{ id: number; sequence: number }>('SELECT id, sequence FROM blocks WHERE id = ANY($ids::int[])', {
-      bind: { ids: blockIds }, type: QueryTypes.SELECT, transaction,
-    });
-    for (const r of rows) {
-      const found = seq.find((s) => s.id === r.blockId);
-      if (found) r.detail = { ...r.detail, sequence: found.sequence };
-    }
-  }
-  const created = await Activity.bulkCreate(rows, { transaction, returning: true });
-  return created.map((a) => a.id);
+  if (lines.length === 0) return [];
+  const numbered = lines.map((line, n) => ({ n, ...line }));
+  const rows = await Activity.sequelize!.query<ActivityRow>(
+    `WITH input AS (
+       SELECT * FROM jsonb_to_recordset($lines::jsonb)
+                AS l(n int, guild_id int, swap_id int, kind text, actor_id int, subject_id int, block_id int, detail jsonb)),
+     inserted AS (
+       INSERT INTO swap_activities (guild_id, swap_id, kind, actor_id, subject_id, block_id, detail, created_at)
+       SELECT l.guild_id, l.swap_id, l.kind, l.actor_id, l.subject_id, l.block_id,
+              CASE WHEN b.id IS NULL THEN l.detail ELSE l.detail || jsonb_build_object('sequence', b.sequence) END, $at
+         FROM input l LEFT JOIN blocks b ON b.id = l.block_id
+        ORDER BY l.n
+       RETURNING *)
+     SELECT a.id, a.swap_id, a.kind, a.actor_id, au.display_name AS actor_name, a.subject_id, su.display_name AS subject_name,
+            a.block_id, a.detail, a.created_at
+       FROM inserted a LEFT JOIN users au ON au.id = a.actor_id LEFT JOIN users su ON su.id = a.subject_id
+      ORDER BY a.id DESC`,
+    { bind: { lines: JSON.stringify(numbered), at: new Date() }, type: QueryTypes.SELECT, transaction },
+  );
+  return rows.map(toDto);
 }
 
 interface ActivityRow {
@@ -95,16 +122,12 @@ function toDto(r: ActivityRow): ActivityDto {
 
 /** The latest activity of a swap, newest first. */
 export async function listActivity(swapId: number, limit: number): Promise<ActivityDto[]> {
-  const rows = await Activity.sequelize!.query<ActivityRow>(`${select} WHERE a.swap_id = $swapId ORDER BY a.id DESC LIMIT $limit`, {
-    bind: { swapId, limit }, type: QueryTypes.SELECT,
-  });
-  return rows.map(toDto);
-}
-
-export async function activitiesById(ids: number[]): Promise<ActivityDto[]> {
-  if (ids.length === 0) return [];
-  const rows = await Activity.sequelize!.query<ActivityRow>(`${select} WHERE a.id = ANY($ids::int[]) ORDER BY a.id DESC`, {
-    bind: { ids }, type: QueryTypes.SELECT,
-  });
+  const rows = await Activity.sequelize!.query<ActivityRow>(
+    `${select} WHERE a.swap_id = $swapId ORDER BY a.id DESC LIMIT $limit`,
+    {
+      bind: { swapId, limit },
+      type: QueryTypes.SELECT,
+    },
+  );
   return rows.map(toDto);
 }

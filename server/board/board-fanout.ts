@@ -5,7 +5,7 @@ import { Swap } from '../db/models';
 import { getRoster } from './roster.service';
 import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
-import { activitiesById, recordActivities, type SwapEvent } from './board-activity';
+import { recordActivityLines, type SwapEvent } from './board-activity';
 import { boardRoom } from '../live/rooms';
 
 const FOREIGN_KEY_VIOLATION = '23503';
@@ -80,11 +80,14 @@ export class BoardFanout {
 
   private async publish(swapId: number, batch: SwapEvent[]) {
     const { sequelize } = this.deps;
+    // Five round trips: BEGIN, the next number with the swap, the activity lines, the roster, COMMIT.
     const result = await sequelize.transaction(async (transaction) => {
       const [row] = await sequelize
-        .query<{ version: string }>(
-          `INSERT INTO swap_versions (swap_id, version) VALUES ($swapId, 1)
-         ON CONFLICT (swap_id) DO UPDATE SET version = swap_versions.version + 1 RETURNING version`,
+        .query<Record<string, unknown> & { version: string }>(
+          `WITH bumped AS (
+             INSERT INTO swap_versions (swap_id, version) VALUES ($swapId, 1)
+             ON CONFLICT (swap_id) DO UPDATE SET version = swap_versions.version + 1 RETURNING version)
+           SELECT bumped.version, ${swapColumns()} FROM bumped JOIN swaps "Swap" ON "Swap"."id" = $swapId`,
           { bind: { swapId }, type: QueryTypes.SELECT, transaction },
         )
         .catch((error: { parent?: { code?: string } }) => {
@@ -92,15 +95,15 @@ export class BoardFanout {
           throw error;
         });
       if (!row) return null; // the swap was deleted since: nobody's board shows it any more
-      const swap = await Swap.findByPk(swapId, { transaction });
-      if (!swap) return null;
-      const ids = await recordActivities(batch, transaction);
+      const { version, ...values } = row;
+      const swap = Swap.build(values as never, { isNewRecord: false, raw: true });
+      const activities = await recordActivityLines(batch, transaction);
       // Read while the counter row is locked, so the next number cannot carry an older roster; on the
       // transaction's own connection, so a busy pool cannot leave the lock held while it waits.
       return {
         swap,
-        version: Number(row.version),
-        activityIds: ids,
+        version: Number(version),
+        activities,
         roster: await getRoster(this.deps, swap, { withAddresses: false, transaction }),
       };
     });
@@ -108,11 +111,20 @@ export class BoardFanout {
     const change: BoardChange = {
       swapId,
       version: result.version,
-      activities: await activitiesById(result.activityIds),
+      activities: result.activities,
       patch: patchFor(result.roster, batch),
     };
     this.io.to(boardRoom(result.swap.guildId, swapId)).emit('board:changed', change);
   }
+}
+
+let swapSelectList: string | undefined;
+/** Every column of the swap aliased "Swap", named as its attributes, so a row builds the instance. */
+function swapColumns() {
+  swapSelectList ??= Object.entries(Swap.getAttributes())
+    .map(([name, a]) => `"Swap"."${a.field ?? name}" AS "${name}"`)
+    .join(', ');
+  return swapSelectList;
 }
 
 /** The swap's current change number (0 before its first change). */
