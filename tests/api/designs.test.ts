@@ -237,3 +237,37 @@ describe('GET /api/photos/:photoId/colour', () => {
     expect(after).toEqual(before);
   });
 });
+
+describe('a gift swap', () => {
+  it('lets coordinators and admins lay out the whole gift; members place only their own blocks', async () => {
+    const { swap, makers: gifters } = await sewingSwap(app, roles, {
+      pledges: [2, 1],
+      body: { mode: 'gift', giftRecipientName: 'Riverside Hospice comfort quilts' },
+    });
+    await move(roles.coordinator.agent, swap.id, 'collecting');
+    const all: number[] = [];
+    for (const maker of gifters) {
+      for (const block of await myBlocks(maker.agent, swap.id)) {
+        all.push(block.id);
+        await receiveAndMeasure(roles.coordinator.agent, block.id, { width: 9.5, height: 9.5 });
+      }
+    }
+    await move(roles.coordinator.agent, swap.id, 'sorting');
+    const plan = await roles.coordinator.agent.post(`/api/swaps/${swap.id}/distribution/plan`).expect(200);
+    const transfers = (plan.body.transfers as { from: number; to: number | null; count: number }[]).map(
+      ({ from, to, count }) => ({ from, to, count }),
+    );
+    await roles.coordinator.agent.post(`/api/swaps/${swap.id}/distribution/confirm`).send({ transfers }).expect(200);
+
+    const admin = await roles.admin.agent.get(`/api/swaps/${swap.id}/design`).expect(200);
+    expect((admin.body.blocks as { id: number }[]).map((b) => b.id).sort()).toEqual([...all].sort());
+    const member = await roles.member.agent.get(`/api/swaps/${swap.id}/design`).expect(200);
+    const own = (await myBlocks(roles.member.agent, swap.id)).map((b) => b.id);
+    expect((member.body.blocks as { id: number }[]).map((b) => b.id).sort()).toEqual(own.sort());
+    const other = all.find((id) => !own.includes(id))!;
+    await roles.member.agent
+      .put(`/api/swaps/${swap.id}/design`)
+      .send({ columns: 1, rows: 1, cells: [{ blockId: other, rotation: 0 }] })
+      .expect(400);
+  });
+});
