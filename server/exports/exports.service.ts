@@ -61,7 +61,8 @@ export async function rosterCsv(deps: Pick<AppDeps, 'sequelize'>, swap: Swap): P
     r.returned,
     r.blocks
       .map(
-        (b) => `#${b.sequence} ${blockStateLabels[b.state]}${b.verdict ? ` (${b.verdict}${b.trimmed ? ', trimmed' : ''})` : ''}`,
+        (b) =>
+          `#${b.sequence} ${blockStateLabels[b.state]}${b.verdict ? ` (${VERDICT_LABELS[b.verdict].label}${b.trimmed ? ', trimmed' : ''}${b.acceptedByDecision ? ', accepted by decision' : ''})` : ''}`,
       )
       .join('; '),
     r.mailingAddress ?? '',

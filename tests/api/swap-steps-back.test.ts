@@ -184,6 +184,11 @@ describe('small steps: undo, accept, several at once', () => {
     expect(toFirst.blocks.find((x) => x.id === b1!.id)!.code).toBe(sheet.labels.find((l) => l.blockId === b1!.id)!.shortCode);
     const byMaker = (await roles.coordinator.agent.get(`/api/swaps/${swap.id}/distribution?by=maker`).expect(200)).body;
     expect(byMaker.find((x: { maker: { id: number } }) => x.maker.id === makers[0]!.id).blocks).toHaveLength(2);
+    // The export uses the screen's words for verdicts.
+    const csv = (await roles.coordinator.agent.get(`/api/swaps/${swap.id}/export/roster.csv`).expect(200)).text;
+    expect(csv).toContain('#2 Returned (Runs short, accepted by decision)');
+    expect(csv).toContain('#1 Returned (True to size)');
+    expect(csv).not.toMatch(/\((true|short|skewed|trim)[,)]/);
     await roles.coordinator.agent.get(`/api/swaps/${swap.id}/distribution?by=colour`).expect(400);
     await roles.member.agent.get(`/api/swaps/${swap.id}/distribution`).expect(403);
   });

@@ -24,13 +24,21 @@ export function SpecCard({ swap }: { swap: SwapDto }) {
             <dt className="font-semibold">Unfinished</dt>
             <dd>{sizeText(swap.unfinished)} (cut edge to cut edge)</dd>
             <dt className="font-semibold">Finished</dt>
-            <dd>{sizeText(swap.finished)} in the quilt, with {len(swap.seam)} seams</dd>
+            <dd>
+              {sizeText(swap.finished)} in the quilt, with {len(swap.seam)} seams
+            </dd>
             <dt className="font-semibold">Tolerance</dt>
-            <dd>± {len(swap.tolerance)} on each side; diagonals within {len(swap.squareness)} of each other</dd>
+            <dd>
+              ± {len(swap.tolerance)} on each side; diagonals within {len(swap.squareness)} of each other
+            </dd>
             <dt className="font-semibold">Blocks each</dt>
             <dd>{swap.quota.min === swap.quota.max ? swap.quota.min : `${swap.quota.min} to ${swap.quota.max}`}</dd>
             <dt className="font-semibold">Afterwards</dt>
-            <dd>{swap.mode === 'gift' ? `Every block goes to ${swap.giftRecipient?.name ?? 'the recipient'}` : 'Each maker gets back as many blocks as they had accepted, made by others'}</dd>
+            <dd>
+              {swap.mode === 'gift'
+                ? `Every block goes to ${swap.giftRecipient?.name ?? 'the recipient'}`
+                : 'Each maker gets back as many blocks as they had accepted, made by others'}
+            </dd>
           </dl>
           {swap.colourRules.length > 0 && (
             <div>
@@ -46,8 +54,20 @@ export function SpecCard({ swap }: { swap: SwapDto }) {
             </div>
           )}
           <div className="space-y-1">
-            <Deadline label="Sign-up closes" iso={swap.signupClosesAt} timeZone={tz} />
-            <Deadline label="Blocks due" iso={swap.dueAt} timeZone={tz} />
+            <Deadline
+              label="Sign-up closes"
+              iso={swap.signupClosesAt}
+              timeZone={tz}
+              over={!['draft', 'signup'].includes(swap.state)}
+              overLabel="Sign-up closed"
+            />
+            <Deadline
+              label="Blocks due"
+              iso={swap.dueAt}
+              timeZone={tz}
+              over={['sorting', 'complete', 'cancelled'].includes(swap.state)}
+              overLabel="Blocks were due"
+            />
           </div>
         </div>
       </div>

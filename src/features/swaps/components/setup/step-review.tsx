@@ -1,4 +1,5 @@
 import { useWatch, type UseFormReturn } from 'react-hook-form';
+import { formatLength, parseLength } from '@shared/quilt';
 import { blockKindLabels, blockSizes } from '@shared/schemas/blocks';
 import { formatInZone } from '@/lib/dates';
 import { useCuttingPlan } from '../../hooks/use-cutting-plan';
@@ -6,6 +7,15 @@ import { zonedLocalToIso } from '../../hooks/zoned-time';
 import { CuttingPlanView } from '../cutting-plan-view';
 import { sizeText } from '../lengths';
 import { parseBlock, type SetupValues } from './setup-values';
+
+/** Typed text such as "1/8" read back as a length with its inch mark (⅛″); left as typed if it does not read. */
+function asLength(text: string): string {
+  try {
+    return formatLength(parseLength(text));
+  } catch {
+    return text;
+  }
+}
 
 function Row({ label, children }: { label: string; children: React.ReactNode }) {
   return (
@@ -36,18 +46,34 @@ export function StepReview({ form, timeZone }: { form: UseFormReturn<SetupValues
     <div className="space-y-6">
       <dl>
         <Row label="Title">{v.title || <em>not set</em>}</Row>
-        <Row label="Block">{blockKindLabels[v.block.kind]} · {size}</Row>
-        <Row label="Tolerance">± {v.tolerance} on each side; diagonals within {v.squareness}</Row>
-        <Row label="Fabrics">{v.colourRules.filter((r) => r.role).map((r) => `${r.role}${r.note ? ` (${r.note})` : ''}`).join(' · ') || 'none named'}</Row>
+        <Row label="Block">
+          {blockKindLabels[v.block.kind]} · {size}
+        </Row>
+        <Row label="Tolerance">
+          ± {asLength(v.tolerance)} on each side; diagonals within {asLength(v.squareness)} of each other
+        </Row>
+        <Row label="Fabrics">
+          {v.colourRules
+            .filter((r) => r.role)
+            .map((r) => `${r.role}${r.note ? ` (${r.note})` : ''}`)
+            .join(' · ') || 'none named'}
+        </Row>
         <Row label="Blocks per member">{v.quotaMin === v.quotaMax ? v.quotaMin : `${v.quotaMin} to ${v.quotaMax}`}</Row>
         <Row label="Fees">
-          {[v.fees.entry.trim() && `entry ${v.fees.entry.trim()} ${v.fees.currency.toUpperCase()}`, v.fees.postage.trim() && `return postage ${v.fees.postage.trim()} ${v.fees.currency.toUpperCase()}`]
+          {[
+            v.fees.entry.trim() && `entry ${v.fees.entry.trim()} ${v.fees.currency.toUpperCase()}`,
+            v.fees.postage.trim() && `return postage ${v.fees.postage.trim()} ${v.fees.currency.toUpperCase()}`,
+          ]
             .filter(Boolean)
             .join(' · ') || 'none'}
         </Row>
         <Row label="Sign-up closes">{when(v.signupCloses)}</Row>
         <Row label="Blocks due">{when(v.due)}</Row>
-        <Row label="Mode">{v.mode === 'gift' ? `Gift to ${v.recipientKind === 'name' ? v.giftRecipientName || 'a recipient not named yet' : 'a guild member'}` : 'Return to the makers'}</Row>
+        <Row label="Mode">
+          {v.mode === 'gift'
+            ? `Gift to ${v.recipientKind === 'name' ? v.giftRecipientName || 'a recipient not named yet' : 'a guild member'}`
+            : 'Return to the makers'}
+        </Row>
       </dl>
       {plan && (
         <section>
