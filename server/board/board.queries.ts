@@ -5,6 +5,8 @@
  * JSON array: one query and one connection whatever the size of the swap, and JSON is quicker to
  * read than a row per block. The swap's blocks, their photos and their latest photo estimates are
  * each read once and joined, rather than looked up block by block (half the database's time).
+ * by_maker is MATERIALIZED so it is computed once: before a new swap's rows have statistics the
+ * planner would otherwise re-aggregate it for every member (seconds for 600 members).
  */
 export const ROSTER = `WITH swap_blocks AS (SELECT * FROM blocks WHERE swap_id = $swapId),
        block_photos AS (
@@ -14,7 +16,7 @@ export const ROSTER = `WITH swap_blocks AS (SELECT * FROM blocks WHERE swap_id =
          SELECT DISTINCT ON (e.block_id) e.id, e.block_id, e.verdict, e.width, e.height, e.expected_error, e.borderline, e.created_at
            FROM photo_estimates e JOIN swap_blocks b ON b.id = e.block_id
           ORDER BY e.block_id, e.created_at DESC, e.id DESC),
-       by_maker AS (
+       by_maker AS MATERIALIZED (
          SELECT b.maker_id, json_agg(json_build_object(
                   'id', b.id, 'sequence', b.sequence, 'state', b.state, 'verdict', b.verdict, 'trimmed', b.trimmed,
                   'acceptedByDecision', b.accepted_at IS NOT NULL, 'handInHow', b.hand_in_how, 'handInNote', b.hand_in_note,
