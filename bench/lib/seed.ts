@@ -104,6 +104,8 @@ export async function seedSwap(
        SELECT id, $2, 'ruler', 11, 11, verdict, 0, 0, now(), now() FROM done`,
       [half, coordinator.userId],
     );
+    // A live database has statistics on its tables; freshly bulk-loaded ones have none until autovacuum runs.
+    await client.query('ANALYZE');
     return {
       swapId: swap.id,
       members: size.members,
