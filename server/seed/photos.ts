@@ -5,7 +5,6 @@
  */
 import sharp from 'sharp';
 import type { Sequelize } from 'sequelize';
-import type { Config } from '../config';
 import { storePhotos, type PhotoStoreDeps } from '../uploads/photo-store';
 
 export const demoDesigns = ['nine-patch', 'pinwheel', 'flying-geese', 'square-in-a-square'] as const;
