@@ -118,3 +118,33 @@ it('hands in several blocks at once, asks before big steps, accepts with a reaso
   await wide.getByRole('region', { name: `Bundle for ${g.coordinator.displayName}` }).waitFor();
   await shot(wide, 'bundles-desktop');
 });
+
+it('picks the guild time zone from a searchable list and keeps what was typed when it is refused', async () => {
+  const g = await liveGuild(server.url);
+  for (const [context, name] of [
+    [phone, 'time-zone-360'],
+    [laptop, 'time-zone-desktop'],
+  ] as const) {
+    const page = await signedInPage(context, g.admin);
+    await page.goto(`${server.url}/guilds/${g.guildId}/about`);
+    const card = page
+      .getByRole('region', { name: 'Time zone' })
+      .or(page.locator('section', { hasText: 'Save the time zone' }))
+      .first();
+    const field = card.getByLabel('Time zone');
+    const listId = await field.getAttribute('list');
+    // The browser's own list of IANA zones backs the box, so typing narrows it.
+    expect(await page.locator(`datalist[id="${listId}"] option[value="America/Chicago"]`).count()).toBe(1);
+    await field.fill('Mars/Olympus_Mons');
+    await card.getByRole('button', { name: 'Save the time zone' }).click();
+    await card.getByText('Choose a time zone such as America/Chicago.').waitFor();
+    expect(await field.inputValue()).toBe('Mars/Olympus_Mons');
+    await field.fill('America/Chicago');
+    await card.getByRole('button', { name: 'Save the time zone' }).click();
+    await card.getByText('Saved: dates now show in America/Chicago.').waitFor();
+    await shot(page, name);
+    await g.admin.api('PATCH', `/guilds/${g.guildId}`, { timeZone: 'UTC' });
+  }
+  const guild = await g.admin.api<{ timeZone: string }>('GET', `/guilds/${g.guildId}`);
+  expect(guild.body.timeZone).toBe('UTC');
+});

@@ -3,6 +3,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Link, useNavigate } from 'react-router';
 import { createGuildSchema, roleLabels, type CreateGuildInput } from '@shared/schemas/guilds';
+import { TimeZoneField, deviceTimeZone } from '@/components/ui/time-zone-field';
 import { Card } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
@@ -52,7 +53,7 @@ function CreateGuildCard() {
   const navigate = useNavigate();
   const create = useCreateGuild();
   const [formError, setFormError] = useState('');
-  const timeZone = Intl.DateTimeFormat().resolvedOptions().timeZone;
+  const timeZone = deviceTimeZone();
   const { register, handleSubmit, setError, formState } = useForm<CreateGuildInput>({
     resolver: zodResolver(createGuildSchema),
     defaultValues: { name: '', timeZone },
@@ -76,9 +77,8 @@ function CreateGuildCard() {
           </div>
         )}
         <TextField label="Guild name" error={formState.errors.name?.message} {...register('name')} />
-        <TextField
-          label="Time zone"
-          hint="Deadlines are shown in this zone."
+        <TimeZoneField
+          hint={`Every date the guild sees or is e-mailed is in this zone. Type a city or region to find yours; it starts on this device's zone.`}
           error={formState.errors.timeZone?.message}
           {...register('timeZone')}
         />

@@ -5,6 +5,7 @@ import { Loading, QueryError } from '@/components/ui/page';
 import { paths } from '@/lib/paths';
 import { useGuild } from '@/entities/guild/api/get-guild';
 import { DefaultUnitCard } from './default-unit-card';
+import { TimeZoneCard } from './time-zone-card';
 
 /** The guild's front page until other sections fill it. */
 export function GuildOverview() {
@@ -17,7 +18,7 @@ export function GuildOverview() {
       <Card title="About this guild">
         <p>
           You are {roleLabels[guild.data.myRole].toLowerCase()} here. {guild.data.memberCount} members · deadlines shown in{' '}
-          {guild.data.timeZone}.
+          {guild.data.timeZone.replace(/_/g, ' ')} time.
         </p>
         <p className="mt-3">
           <Link className="font-semibold text-indigo underline" to={paths.members(guildId)}>
@@ -26,6 +27,7 @@ export function GuildOverview() {
         </p>
       </Card>
       {guild.data.myRole === 'admin' && <DefaultUnitCard guild={guild.data} />}
+      {guild.data.myRole === 'admin' && <TimeZoneCard guild={guild.data} />}
     </div>
   );
 }
