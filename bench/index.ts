@@ -2,7 +2,7 @@
  * `npm run bench`: every benchmark in one run on this machine, printed as tables and written to
  * docs/benchmarks.md with the machine's description. Each figure stands beside its reference or goal.
  */
-import { writeFileSync } from 'node:fs';
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { cpus, totalmem, release } from 'node:os';
 import { runBundleBench } from './bundle';
 import { runApiBench, type ApiBenchResult } from './api';
@@ -105,14 +105,20 @@ const table = (rows: Row[]) => {
     ].join('\n') + '\n'
   );
 };
+// Hand-written notes (what the profiles showed, what each change bought) sit below this line and are kept.
+const NOTES_MARK = '<!-- Notes below this line are written by hand and kept by npm run bench. -->';
+const target = new URL('../docs/benchmarks.md', import.meta.url);
+const previous = existsSync(target) ? readFileSync(target, 'utf8') : '';
+const notes = previous.includes(NOTES_MARK) ? previous.slice(previous.indexOf(NOTES_MARK)) : `${NOTES_MARK}\n`;
 const markdown = [
   '# Benchmarks',
   '',
   `Latest \`npm run bench\`, ${new Date().toISOString().slice(0, 16).replace('T', ' ')} UTC, on ${machine}.`,
-  'Every server figure is measured over loopback on this one machine, so client and server share its cores.',
+  'Every server figure is measured over loopback on this one machine, so servers, load generators and PostgreSQL share its cores.',
   '',
   ...sections.flatMap((s) => [`## ${s.title}`, '', s.note, '', table(s.rows)]),
+  notes,
 ].join('\n');
-writeFileSync(new URL('../docs/benchmarks.md', import.meta.url), markdown);
+writeFileSync(target, markdown);
 console.log('\nWrote docs/benchmarks.md');
 process.exit(0);
