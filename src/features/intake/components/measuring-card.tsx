@@ -10,16 +10,7 @@ import {
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
 import { VerdictBadge } from '@/entities/block/components/verdict-badge';
-
-/** No unit letters or quote marks: a bare number, which in millimetre mode means millimetres. */
-const BARE = /^[^a-z"'″“”′’]*$/i;
-
-/** In millimetre mode a bare number is read as millimetres before the shared schema reads it. */
-function inUnits(values: MeasuringFormInput, units: 'in' | 'mm'): MeasuringFormInput {
-  if (units === 'in') return values;
-  const mm = (text: string) => (text.trim() !== '' && BARE.test(text) ? `${text.trim()} mm` : text);
-  return { width: mm(values.width), height: mm(values.height), diagonal1: mm(values.diagonal1), diagonal2: mm(values.diagonal2) };
-}
+import { measuringInUnits } from '@/entities/me/api/units';
 
 const schemaResolver = zodResolver(measuringFormSchema);
 
@@ -40,7 +31,7 @@ interface Props {
  */
 export function MeasuringCard({ block, target, tolerance, units, onMeasured, onCancel }: Props) {
   const resolver: Resolver<MeasuringFormInput, unknown, MeasuringFormOutput> = (values, context, options) =>
-    schemaResolver(inUnits(values, units), context, options);
+    schemaResolver(measuringInUnits(values, units), context, options);
   const form = useForm<MeasuringFormInput, unknown, MeasuringFormOutput>({
     resolver,
     defaultValues: { width: '', height: '', diagonal1: '', diagonal2: '' },

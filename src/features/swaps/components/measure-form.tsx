@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { useForm, useWatch } from 'react-hook-form';
+import { useForm, useWatch, type Resolver } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { checkBlock, formatDeviation, type CheckBlockResult } from '@shared/quilt';
 import { measuringFormSchema, type MeasuringFormInput, type MeasuringFormOutput } from '@shared/schemas/intake';
@@ -10,11 +10,14 @@ import { TextField } from '@/components/ui/fields';
 import { ApiError } from '@/lib/api-client';
 import { useMeasureBlock, type MeasurementAnswer } from '@/entities/block/api/measure-block';
 import { VerdictBadge } from '@/entities/block/components/verdict-badge';
+import { useMe } from '@/entities/me/api/get-me';
+import { measuringInUnits, unitsFor } from '@/entities/me/api/units';
 import { newClientId } from '@/lib/client-id';
 import { len, sizeText } from './lengths';
 
 type Field = keyof MeasuringFormInput;
 const empty: MeasuringFormInput = { width: '', height: '', diagonal1: '', diagonal2: '' };
+const schemaResolver = zodResolver(measuringFormSchema);
 
 /** The verdict as the engine sees what is typed so far (a lone diagonal is left out), or null while it cannot be read. */
 function preview(swap: SwapDto, v: MeasuringFormInput): CheckBlockResult | null {
@@ -51,8 +54,12 @@ export function MeasureForm({
   onSaved?: (m: MeasurementAnswer) => void;
 }) {
   const measure = useMeasureBlock(swap.id);
+  // A bare number is in the person's unit (their own, or the guild's until they choose).
+  const units = unitsFor(useMe().data, swap.guildId);
+  const resolver: Resolver<MeasuringFormInput, unknown, MeasuringFormOutput> = (values, context, options) =>
+    schemaResolver(measuringInUnits(values, units), context, options);
   const form = useForm<MeasuringFormInput, unknown, MeasuringFormOutput>({
-    resolver: zodResolver(measuringFormSchema),
+    resolver,
     defaultValues: empty,
   });
   const values = useWatch({ control: form.control }) as MeasuringFormInput;
@@ -60,8 +67,10 @@ export function MeasureForm({
   const [problem, setProblem] = useState('');
   // One id per entry: a retry after a lost answer is recorded once.
   const [clientId, setClientId] = useState(newClientId);
-  const live = preview(swap, values);
+  const live = preview(swap, measuringInUnits(values, units));
   const e = form.formState.errors;
+  // Fractions need a space and a slash, which the number pad lacks.
+  const inputMode = units === 'mm' ? 'decimal' : 'text';
 
   const onSubmit = form.handleSubmit(async (v) => {
     setProblem('');
@@ -83,16 +92,17 @@ export function MeasureForm({
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label={label}>
       <p className="text-walnut-soft">
-        Target {sizeText(swap.unfinished)} ± {len(swap.tolerance)}. Type 9 1/2, 9½, 9.5 or 241 mm.
+        Target {sizeText(swap.unfinished)} ± {len(swap.tolerance)}. {units === 'mm' ? 'Type 241.3, or 9½″ with its mark.' : 'Type 9 1/2, 9½, 9.5 or 241 mm.'}
       </p>
       {problem && <Alert tone="error">{problem}</Alert>}
       <div className="grid gap-3 sm:grid-cols-2">
-        <TextField label="Width" inputMode="decimal" autoComplete="off" error={e.width?.message} {...form.register('width')} />
-        <TextField label="Height" inputMode="decimal" autoComplete="off" error={e.height?.message} {...form.register('height')} />
+        <TextField label="Width" inputMode={inputMode} unit={units} autoComplete="off" error={e.width?.message} {...form.register('width')} />
+        <TextField label="Height" inputMode={inputMode} unit={units} autoComplete="off" error={e.height?.message} {...form.register('height')} />
         <TextField
           label="Diagonal, corner to corner"
           hint="Optional; give both or neither."
-          inputMode="decimal"
+          inputMode={inputMode}
+          unit={units}
           autoComplete="off"
           error={e.diagonal1?.message}
           {...form.register('diagonal1')}
@@ -100,7 +110,8 @@ export function MeasureForm({
         <TextField
           label="Other diagonal"
           hint="Optional."
-          inputMode="decimal"
+          inputMode={inputMode}
+          unit={units}
           autoComplete="off"
           error={e.diagonal2?.message}
           {...form.register('diagonal2')}
