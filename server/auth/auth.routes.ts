@@ -9,7 +9,7 @@ import {
   resetRequestSchema,
   resetSchema,
 } from '@shared/schemas/auth';
-import { validate } from '../http/validate';
+import { route, runMiddleware } from '../http/route';
 import { AppError, UnauthorizedError } from '../http/errors';
 import { currentUser, requireUser } from './require-user';
 import { changePassword, endSessions, getMe, register, requestPasswordReset, resetPassword, updateProfile } from './auth.service';
@@ -62,24 +62,34 @@ export function authRouter(deps: AppDeps) {
     handler: (_req, _res, next) => next(tooMany('Too many reset requests. Try again in 15 minutes.')),
   });
 
-  router.post('/auth/register', registerLimiter, validate({ body: registerSchema }), async (req, res) => {
-    const user = await register(req.body);
-    await logIn(req, user);
-    res.status(201).json(await getMe(user.id));
-  });
+  router.post(
+    '/auth/register',
+    registerLimiter,
+    route({ body: registerSchema }, async ({ body }, req, res) => {
+      const user = await register(body);
+      await logIn(req, user);
+      res.status(201).json(await getMe(user.id));
+    }),
+  );
 
-  router.post('/auth/login', validate({ body: loginSchema }), sprayLimiter, loginLimiter, async (req, res, next) => {
-    const user = await new Promise<Express.User | false>((resolve, reject) => {
-      passport.authenticate('local', (err: unknown, found: Express.User | false) => (err ? reject(err) : resolve(found)))(
-        req,
-        res,
-        next,
-      );
-    });
-    if (!user) throw new UnauthorizedError('That e-mail and password do not match an account.');
-    await logIn(req, user);
-    res.json(await getMe(user.id));
-  });
+  // The limiters key on the validated address, so they run after the body is parsed.
+  router.post(
+    '/auth/login',
+    route({ body: loginSchema }, async (_input, req, res) => {
+      await runMiddleware(sprayLimiter, req, res);
+      await runMiddleware(loginLimiter, req, res);
+      const user = await new Promise<Express.User | false>((resolve, reject) => {
+        passport.authenticate('local', (err: unknown, found: Express.User | false) => (err ? reject(err) : resolve(found)))(
+          req,
+          res,
+          reject,
+        );
+      });
+      if (!user) throw new UnauthorizedError('That e-mail and password do not match an account.');
+      await logIn(req, user);
+      res.json(await getMe(user.id));
+    }),
+  );
 
   router.post('/auth/logout', async (req, res) => {
     const sessionId = req.sessionID;
@@ -92,20 +102,26 @@ export function authRouter(deps: AppDeps) {
     res.status(204).end();
   });
 
-  router.post('/auth/reset-request', mailLimiter, validate({ body: resetRequestSchema }), (req, res) => {
-    res.status(202).json({ message: 'If that address has an account, a reset link is on its way.' });
-    // After the answer: looking the address up and mailing take time only when it has an account.
-    requestPasswordReset(deps, req.body.email).catch((err: unknown) =>
-      deps.logger.error({ err }, 'password reset request failed'),
-    );
-  });
+  router.post(
+    '/auth/reset-request',
+    mailLimiter,
+    route({ body: resetRequestSchema }, ({ body }, _req, res) => {
+      res.status(202).json({ message: 'If that address has an account, a reset link is on its way.' });
+      // After the answer: looking the address up and mailing take time only when it has an account.
+      requestPasswordReset(deps, body.email).catch((err: unknown) => deps.logger.error({ err }, 'password reset request failed'));
+    }),
+  );
 
-  router.post('/auth/reset', mailLimiter, validate({ body: resetSchema }), async (req, res) => {
-    const userId = await resetPassword(req.body.token, req.body.password);
-    // Sign out every session of the account: whoever held the old password is out, sockets included.
-    await endSessions(deps, userId);
-    res.json({ message: 'Your password is changed. Sign in with the new one.' });
-  });
+  router.post(
+    '/auth/reset',
+    mailLimiter,
+    route({ body: resetSchema }, async ({ body }, _req, res) => {
+      const userId = await resetPassword(body.token, body.password);
+      // Sign out every session of the account: whoever held the old password is out, sockets included.
+      await endSessions(deps, userId);
+      res.json({ message: 'Your password is changed. Sign in with the new one.' });
+    }),
+  );
 
   router.get('/me', requireUser, async (req, res) => {
     const me = await getMe(currentUser(req).id);
@@ -113,18 +129,26 @@ export function authRouter(deps: AppDeps) {
     res.json(me);
   });
 
-  router.patch('/me', requireUser, validate({ body: profileUpdateSchema }), async (req, res) => {
-    await updateProfile(currentUser(req).id, req.body);
-    res.json(await getMe(currentUser(req).id));
-  });
+  router.patch(
+    '/me',
+    requireUser,
+    route({ body: profileUpdateSchema }, async ({ body }, req, res) => {
+      await updateProfile(currentUser(req).id, body);
+      res.json(await getMe(currentUser(req).id));
+    }),
+  );
 
-  router.post('/me/password', requireUser, validate({ body: changePasswordSchema }), async (req, res) => {
-    const user = currentUser(req);
-    await changePassword(user.id, req.body.currentPassword, req.body.newPassword);
-    // Every other device is signed out; this one stays.
-    const ended = await endSessions(deps, user.id, req.sessionID);
-    res.json({ message: 'Your password is changed.', signedOutElsewhere: ended });
-  });
+  router.post(
+    '/me/password',
+    requireUser,
+    route({ body: changePasswordSchema }, async ({ body }, req, res) => {
+      const user = currentUser(req);
+      await changePassword(user.id, body.currentPassword, body.newPassword);
+      // Every other device is signed out; this one stays.
+      const ended = await endSessions(deps, user.id, req.sessionID);
+      res.json({ message: 'Your password is changed.', signedOutElsewhere: ended });
+    }),
+  );
 
   return router;
 }

@@ -1,17 +1,21 @@
-import { Router, type RequestHandler } from 'express';
-import type { z } from 'zod';
-import { editMessageSchema, historyQuerySchema, messageParamsSchema, postMessageSchema, roomParamsSchema, type HistoryQuery } from '@shared/schemas/chat';
+import { Router, type Request, type RequestHandler } from 'express';
+import {
+  editMessageSchema,
+  historyQuerySchema,
+  messageParamsSchema,
+  postMessageSchema,
+  roomParamsSchema,
+} from '@shared/schemas/chat';
 import { swapParamsSchema } from '@shared/schemas/live';
-import { validate } from '../http/validate';
+import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { photoUploadMiddleware, receivedFiles } from '../uploads/photo-pipeline';
 import type { AppDeps } from '../deps';
-import { authorizeRoom, type RoomAccess } from './chat.policy';
+import { authorizeRoom } from './chat.policy';
 import { roomDto, swapRoom } from './chat-rooms.service';
 import * as chat from './chat.service';
 
-type RoomParams = z.infer<typeof roomParamsSchema>;
-type MessageParams = z.infer<typeof messageParamsSchema>;
+const inRoom = (req: Request, { params }: { params: { roomId: number } }) => authorizeRoom(currentUser(req).id, params.roomId);
 
 /** Chat: rooms, history and messages over REST; the live part broadcasts every change to the room. */
 export function chatRouter(deps: AppDeps) {
@@ -20,49 +24,59 @@ export function chatRouter(deps: AppDeps) {
   // A message with photos comes as multipart/form-data (field `photos`, caption in `body`); text alone as JSON.
   const photosIfAny: RequestHandler = (req, res, next) => (req.is('multipart/form-data') ? upload(req, res, next) : next());
 
-  router.get('/chat/rooms/:roomId', requireUser, validate({ params: roomParamsSchema }), async (req, res) => {
-    const { roomId } = req.params as unknown as RoomParams;
-    const userId = currentUser(req).id;
-    res.json(await roomDto(await authorizeRoom(userId, roomId), userId));
-  });
+  router.get(
+    '/chat/rooms/:roomId',
+    requireUser,
+    route({ params: roomParamsSchema, authorize: inRoom }, async ({ access }, req, res) => {
+      res.json(await roomDto(access, currentUser(req).id));
+    }),
+  );
 
-  router.get('/chat/rooms/:roomId/messages', requireUser, validate({ params: roomParamsSchema, query: historyQuerySchema }), async (req, res) => {
-    const { roomId } = req.params as unknown as RoomParams;
-    await authorizeRoom(currentUser(req).id, roomId);
-    res.json(await chat.history(roomId, req.query as unknown as HistoryQuery));
-  });
+  router.get(
+    '/chat/rooms/:roomId/messages',
+    requireUser,
+    route({ params: roomParamsSchema, query: historyQuerySchema, authorize: inRoom }, async ({ params, query }, _req, res) => {
+      res.json(await chat.history(params.roomId, query));
+    }),
+  );
 
+  // The room is checked before any photo is received.
   router.post(
     '/chat/rooms/:roomId/messages',
     requireUser,
-    validate({ params: roomParamsSchema }),
-    // The room is checked before any photo is received.
-    async (req, res, next) => {
-      res.locals.roomAccess = await authorizeRoom(currentUser(req).id, (req.params as unknown as RoomParams).roomId);
-      next();
-    },
-    photosIfAny,
-    validate({ body: postMessageSchema }),
-    async (req, res) => {
-      const access = res.locals.roomAccess as RoomAccess;
-      res.status(201).json(await chat.postMessage(deps, access, currentUser(req), { body: req.body.body, files: receivedFiles(req) }));
-    },
+    route(
+      { params: roomParamsSchema, authorize: inRoom, receive: photosIfAny, body: postMessageSchema },
+      async ({ body, access }, req, res) => {
+        res
+          .status(201)
+          .json(await chat.postMessage(deps, access, currentUser(req), { body: body.body, files: receivedFiles(req) }));
+      },
+    ),
   );
 
-  router.patch('/chat/messages/:messageId', requireUser, validate({ params: messageParamsSchema, body: editMessageSchema }), async (req, res) => {
-    const { messageId } = req.params as unknown as MessageParams;
-    res.json(await chat.editMessage(deps, currentUser(req).id, messageId, req.body.body));
-  });
+  router.patch(
+    '/chat/messages/:messageId',
+    requireUser,
+    route({ params: messageParamsSchema, body: editMessageSchema }, async ({ params, body }, req, res) => {
+      res.json(await chat.editMessage(deps, currentUser(req).id, params.messageId, body.body));
+    }),
+  );
 
-  router.delete('/chat/messages/:messageId', requireUser, validate({ params: messageParamsSchema }), async (req, res) => {
-    const { messageId } = req.params as unknown as MessageParams;
-    res.json(await chat.deleteMessage(deps, currentUser(req).id, messageId));
-  });
+  router.delete(
+    '/chat/messages/:messageId',
+    requireUser,
+    route({ params: messageParamsSchema }, async ({ params }, req, res) => {
+      res.json(await chat.deleteMessage(deps, currentUser(req).id, params.messageId));
+    }),
+  );
 
-  router.get('/swaps/:swapId/chat', requireUser, validate({ params: swapParamsSchema }), async (req, res) => {
-    const { swapId } = req.params as unknown as z.infer<typeof swapParamsSchema>;
-    res.json(await swapRoom(currentUser(req).id, swapId));
-  });
+  router.get(
+    '/swaps/:swapId/chat',
+    requireUser,
+    route({ params: swapParamsSchema }, async ({ params }, req, res) => {
+      res.json(await swapRoom(currentUser(req).id, params.swapId));
+    }),
+  );
 
   return router;
 }

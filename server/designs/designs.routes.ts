@@ -1,6 +1,5 @@
 /** The design wall of a swap (the caller's own layout), its colour-spreading proposal, and a photo's colour statistics. */
-import { Router } from 'express';
-import { type z } from 'zod';
+import { Router, type Request } from 'express';
 import {
   arrangeBodySchema,
   designBodySchema,
@@ -9,7 +8,7 @@ import {
   type DesignBody,
 } from '@shared/schemas/designs';
 import { currentUser, requireUser } from '../auth/require-user';
-import { validate } from '../http/validate';
+import { route } from '../http/route';
 import { NotFoundError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { canSeePhoto } from '../uploads/photos.policy';
@@ -17,55 +16,48 @@ import { photoColour } from '../uploads/photo-colour';
 import { canUseDesignWall } from './designs.policy';
 import { arrangeDesign, getDesign, saveDesign } from './designs.service';
 
-type Params = z.infer<typeof designParamsSchema>;
-type PhotoParams = z.infer<typeof photoColourParamsSchema>;
+const designer = (req: Request, { params }: { params: { swapId: number } }) =>
+  canUseDesignWall(currentUser(req).id, params.swapId);
 
 export function designsRouter(deps: AppDeps) {
   const router = Router();
 
-  router.get('/photos/:photoId/colour', requireUser, validate({ params: photoColourParamsSchema }), async (req, res) => {
-    const { photoId } = req.params as unknown as PhotoParams;
-    const photo = await canSeePhoto(currentUser(req).id, photoId);
-    const stats = await photoColour(deps, photo);
-    if (!stats) throw new NotFoundError('The file of this photo is missing on the server, so its colours cannot be read.');
-    res.json(stats);
-  });
+  router.get(
+    '/photos/:photoId/colour',
+    requireUser,
+    route(
+      { params: photoColourParamsSchema, authorize: (req, { params }) => canSeePhoto(currentUser(req).id, params.photoId) },
+      async ({ access: photo }, _req, res) => {
+        const stats = await photoColour(deps, photo);
+        if (!stats) throw new NotFoundError('The file of this photo is missing on the server, so its colours cannot be read.');
+        res.json(stats);
+      },
+    ),
+  );
 
-  router.get('/swaps/:swapId/design', requireUser, validate({ params: designParamsSchema }), async (req, res) => {
-    const { swapId } = req.params as unknown as Params;
-    res.json(await getDesign(deps, await canUseDesignWall(currentUser(req).id, swapId)));
-  });
+  router.get(
+    '/swaps/:swapId/design',
+    requireUser,
+    route({ params: designParamsSchema, authorize: designer }, async ({ access }, _req, res) => {
+      res.json(await getDesign(deps, access));
+    }),
+  );
 
   // Who may design is settled before the body is read, so a stranger learns nothing from a 400.
   router.put(
     '/swaps/:swapId/design',
     requireUser,
-    validate({ params: designParamsSchema }),
-    async (req, res, next) => {
-      const { swapId } = req.params as unknown as Params;
-      res.locals.designAccess = await canUseDesignWall(currentUser(req).id, swapId);
-      next();
-    },
-    validate({ body: designBodySchema }),
-    async (req, res) => {
-      res.json(await saveDesign(deps, res.locals.designAccess, req.body as DesignBody));
-    },
+    route({ params: designParamsSchema, body: designBodySchema, authorize: designer }, async ({ body, access }, _req, res) => {
+      res.json(await saveDesign(deps, access, body));
+    }),
   );
 
   router.post(
     '/swaps/:swapId/design/arrange',
     requireUser,
-    validate({ params: designParamsSchema }),
-    async (req, res, next) => {
-      const { swapId } = req.params as unknown as Params;
-      res.locals.designAccess = await canUseDesignWall(currentUser(req).id, swapId);
-      next();
-    },
-    validate({ body: arrangeBodySchema }),
-    async (req, res) => {
-      const body = req.body as DesignBody | Record<string, never>;
-      res.json(await arrangeDesign(deps, res.locals.designAccess, 'cells' in body ? (body as DesignBody) : null));
-    },
+    route({ params: designParamsSchema, body: arrangeBodySchema, authorize: designer }, async ({ body, access }, _req, res) => {
+      res.json(await arrangeDesign(deps, access, 'cells' in body ? (body as DesignBody) : null));
+    }),
   );
 
   return router;

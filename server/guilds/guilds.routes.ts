@@ -1,17 +1,26 @@
-import { Router } from 'express';
-import { type z } from 'zod';
+import { Router, type Request } from 'express';
 import {
-  createGuildSchema, createInvitationSchema, guildParamsSchema, idParam, invitationTokenParams, memberParamsSchema,
-  updateGuildSchema, updateMemberSchema,
+  createGuildSchema,
+  createInvitationSchema,
+  guildParamsSchema,
+  idParam,
+  invitationTokenParams,
+  memberParamsSchema,
+  updateGuildSchema,
+  updateMemberSchema,
 } from '@shared/schemas/guilds';
-import { validate } from '../http/validate';
+import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
-import { authorizeGuild } from './guilds.policy';
+import { authorizeGuild, type GuildAction } from './guilds.policy';
 import * as guilds from './guilds.service';
 import type { AppDeps } from '../deps';
 
-type GuildParams = z.infer<typeof guildParamsSchema>;
-type MemberParams = z.infer<typeof memberParamsSchema>;
+/** Authorises `action` in the guild named by the path, before any body is read. */
+const may =
+  (action: GuildAction) =>
+  (req: Request, { params }: { params: { guildId: number } }) =>
+    authorizeGuild(currentUser(req).id, params.guildId, action);
+const invitationParamsSchema = guildParamsSchema.extend({ invitationId: idParam });
 
 export function guildsRouter(deps: AppDeps) {
   const router = Router();
@@ -21,85 +30,93 @@ export function guildsRouter(deps: AppDeps) {
     res.json(await guilds.listMyGuilds(currentUser(req).id));
   });
 
-  router.post('/', validate({ body: createGuildSchema }), async (req, res) => {
-    res.status(201).json(await guilds.createGuild(currentUser(req).id, req.body));
-  });
+  router.post(
+    '/',
+    route({ body: createGuildSchema }, async ({ body }, req, res) => {
+      res.status(201).json(await guilds.createGuild(currentUser(req).id, body));
+    }),
+  );
 
-  router.get('/:guildId', validate({ params: guildParamsSchema }), async (req, res) => {
-    const { guildId } = req.params as unknown as GuildParams;
-    const membership = await authorizeGuild(currentUser(req).id, guildId, 'guild:read');
-    res.json(await guilds.getGuild(guildId, membership.role));
-  });
+  router.get(
+    '/:guildId',
+    route({ params: guildParamsSchema, authorize: may('guild:read') }, async ({ params, access }, _req, res) => {
+      res.json(await guilds.getGuild(params.guildId, access.role));
+    }),
+  );
 
   router.patch(
     '/:guildId',
-    validate({ params: guildParamsSchema, body: updateGuildSchema }),
-    async (req, res) => {
-      const { guildId } = req.params as unknown as GuildParams;
-      const membership = await authorizeGuild(currentUser(req).id, guildId, 'guild:update');
-      res.json(await guilds.updateGuild(guildId, membership.role, req.body));
-    },
+    route(
+      { params: guildParamsSchema, body: updateGuildSchema, authorize: may('guild:update') },
+      async ({ params, body, access }, _req, res) => {
+        res.json(await guilds.updateGuild(params.guildId, access.role, body));
+      },
+    ),
   );
 
-  router.get('/:guildId/members', validate({ params: guildParamsSchema }), async (req, res) => {
-    const { guildId } = req.params as unknown as GuildParams;
-    await authorizeGuild(currentUser(req).id, guildId, 'members:read');
-    res.json(await guilds.listMembers(guildId));
-  });
+  router.get(
+    '/:guildId/members',
+    route({ params: guildParamsSchema, authorize: may('members:read') }, async ({ params }, _req, res) => {
+      res.json(await guilds.listMembers(params.guildId));
+    }),
+  );
 
   router.patch(
     '/:guildId/members/:userId',
-    validate({ params: memberParamsSchema, body: updateMemberSchema }),
-    async (req, res) => {
-      const { guildId, userId } = req.params as unknown as MemberParams;
-      await authorizeGuild(currentUser(req).id, guildId, 'members:manage');
-      res.json(await guilds.changeRole(deps, guildId, userId, req.body.role));
-    },
+    route(
+      { params: memberParamsSchema, body: updateMemberSchema, authorize: may('members:manage') },
+      async ({ params, body }, _req, res) => {
+        res.json(await guilds.changeRole(deps, params.guildId, params.userId, body.role));
+      },
+    ),
   );
 
-  router.delete('/:guildId/members/:userId', validate({ params: memberParamsSchema }), async (req, res) => {
-    const { guildId, userId } = req.params as unknown as MemberParams;
-    await authorizeGuild(currentUser(req).id, guildId, 'members:manage');
-    await guilds.removeMember(deps, guildId, userId);
-    res.status(204).end();
-  });
+  router.delete(
+    '/:guildId/members/:userId',
+    route({ params: memberParamsSchema, authorize: may('members:manage') }, async ({ params }, _req, res) => {
+      await guilds.removeMember(deps, params.guildId, params.userId);
+      res.status(204).end();
+    }),
+  );
 
-  router.get('/:guildId/invitations', validate({ params: guildParamsSchema }), async (req, res) => {
-    const { guildId } = req.params as unknown as GuildParams;
-    await authorizeGuild(currentUser(req).id, guildId, 'invitations:read');
-    res.json(await guilds.listInvitations(guildId));
-  });
+  router.get(
+    '/:guildId/invitations',
+    route({ params: guildParamsSchema, authorize: may('invitations:read') }, async ({ params }, _req, res) => {
+      res.json(await guilds.listInvitations(params.guildId));
+    }),
+  );
 
   router.post(
     '/:guildId/invitations',
-    validate({ params: guildParamsSchema, body: createInvitationSchema }),
-    async (req, res) => {
-      const { guildId } = req.params as unknown as GuildParams;
-      const user = currentUser(req);
-      const membership = await authorizeGuild(user.id, guildId, 'invitations:create');
-      const invitation = await guilds.invite(deps, {
-        guildId, inviter: user, inviterRole: membership.role, email: req.body.email, role: req.body.role, open: req.body.open,
-      });
-      res.status(201).json(invitation);
-    },
+    route(
+      { params: guildParamsSchema, body: createInvitationSchema, authorize: may('invitations:create') },
+      async ({ params, body, access }, req, res) => {
+        const invitation = await guilds.invite(deps, {
+          guildId: params.guildId,
+          inviter: currentUser(req),
+          inviterRole: access.role,
+          email: body.email,
+          role: body.role,
+          open: body.open,
+        });
+        res.status(201).json(invitation);
+      },
+    ),
   );
 
-  router.get('/:guildId/invitations/limits', validate({ params: guildParamsSchema }), async (req, res) => {
-    const { guildId } = req.params as unknown as GuildParams;
-    const user = currentUser(req);
-    await authorizeGuild(user.id, guildId, 'invitations:create');
-    res.json(await guilds.invitationLimits(deps, guildId, user.id));
-  });
+  router.get(
+    '/:guildId/invitations/limits',
+    route({ params: guildParamsSchema, authorize: may('invitations:create') }, async ({ params }, req, res) => {
+      res.json(await guilds.invitationLimits(deps, params.guildId, currentUser(req).id));
+    }),
+  );
 
   router.delete(
     '/:guildId/invitations/:invitationId',
-    validate({ params: guildParamsSchema.extend({ invitationId: idParam }) }),
-    async (req, res) => {
-      const { guildId, invitationId } = req.params as unknown as GuildParams & { invitationId: number };
-      await authorizeGuild(currentUser(req).id, guildId, 'invitations:create');
-      await guilds.revokeInvitation(guildId, invitationId);
+    route({ params: invitationParamsSchema, authorize: may('invitations:create') }, async ({ params }, _req, res) => {
+      await guilds.revokeInvitation(params.guildId, params.invitationId);
       res.status(204).end();
-    },
+    }),
   );
 
   return router;
@@ -108,11 +125,18 @@ export function guildsRouter(deps: AppDeps) {
 /** Invitation links: the preview is public (the token is the secret); accepting needs an account. */
 export function invitationsRouter(deps: AppDeps) {
   const router = Router();
-  router.get('/invitations/:token', validate({ params: invitationTokenParams }), async (req, res) => {
-    res.json(await guilds.previewInvitation(String(req.params.token)));
-  });
-  router.post('/invitations/:token/accept', requireUser, validate({ params: invitationTokenParams }), async (req, res) => {
-    res.json(await guilds.acceptInvitation(deps, String(req.params.token), currentUser(req)));
-  });
+  router.get(
+    '/invitations/:token',
+    route({ params: invitationTokenParams }, async ({ params }, _req, res) => {
+      res.json(await guilds.previewInvitation(params.token));
+    }),
+  );
+  router.post(
+    '/invitations/:token/accept',
+    requireUser,
+    route({ params: invitationTokenParams }, async ({ params }, req, res) => {
+      res.json(await guilds.acceptInvitation(deps, params.token, currentUser(req)));
+    }),
+  );
   return router;
 }

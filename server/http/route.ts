@@ -62,7 +62,8 @@ function parse(req: Request, schemas: Partial<Record<Part, ZodType>>, parts: rea
   return parsed;
 }
 
-function run(middleware: RequestHandler, req: Request, res: Response): Promise<void> {
+/** Runs a middleware (a rate limiter, multer) inside a handler; its `next(error)` becomes a rejection. */
+export function runMiddleware(middleware: RequestHandler, req: Request, res: Response): Promise<void> {
   return new Promise((resolve, reject) => {
     void middleware(req, res, (error?: unknown) => (error ? reject(error) : resolve()));
   });
@@ -86,7 +87,7 @@ export function route<
     const parsed = parse(req, schemas, early ? ['params', 'query'] : ['params', 'query', 'body']);
     const input = { params: parsed.params as Out<P>, query: parsed.query as Out<Q> };
     const access = spec.authorize ? await spec.authorize(req, input) : undefined;
-    if (spec.receive) await run(spec.receive, req, res);
+    if (spec.receive) await runMiddleware(spec.receive, req, res);
     const body = early ? parse(req, schemas, ['body']).body : parsed.body;
     await handler({ ...input, body: body as Out<B>, access: access as Awaited<A> }, req, res);
   };

@@ -1,9 +1,8 @@
 import { pipeline } from 'node:stream/promises';
 import { Router, type Request, type Response } from 'express';
-import { type z } from 'zod';
-import { blockPhotosParams, photoParams, photoQuery } from '@shared/schemas/photos';
+import { blockPhotosParams, photoParams, photoQuery, type PhotoSize } from '@shared/schemas/photos';
 import { currentUser, requireUser } from '../auth/require-user';
-import { validate } from '../http/validate';
+import { route } from '../http/route';
 import { NotFoundError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { photoUploadMiddleware, receivedFiles } from './photo-pipeline';
@@ -11,61 +10,73 @@ import { photoQueue } from './photo-queue';
 import { canAddBlockPhotos, canRemovePhoto, canSeeBlockPhotos, canSeePhoto } from './photos.policy';
 import { listBlockPhotos, openPhotoFile, removePhoto, uploadBlockPhotos } from './photos.service';
 
-type BlockParams = z.infer<typeof blockPhotosParams>;
-type PhotoParams = z.infer<typeof photoParams>;
-type PhotoQuery = z.infer<typeof photoQuery>;
-
 /** Block photos: upload (multipart field `photos`), list, serve to guild members only, remove. */
 export function photosRouter(deps: AppDeps) {
   const router = Router();
   const upload = photoUploadMiddleware();
 
-  router.get('/blocks/:blockId/photos', requireUser, validate({ params: blockPhotosParams }), async (req, res) => {
-    const { blockId } = req.params as unknown as BlockParams;
-    await canSeeBlockPhotos(currentUser(req).id, blockId);
-    res.json(await listBlockPhotos(blockId));
-  });
+  router.get(
+    '/blocks/:blockId/photos',
+    requireUser,
+    route(
+      { params: blockPhotosParams, authorize: (req, { params }) => canSeeBlockPhotos(currentUser(req).id, params.blockId) },
+      async ({ params }, _req, res) => {
+        res.json(await listBlockPhotos(params.blockId));
+      },
+    ),
+  );
 
   // Who may upload is settled before the body is read, so a stranger's megabytes are never parsed.
   router.post(
     '/blocks/:blockId/photos',
     requireUser,
-    validate({ params: blockPhotosParams }),
-    async (req, res, next) => {
-      const { blockId } = req.params as unknown as BlockParams;
-      res.locals.blockAccess = await canAddBlockPhotos(currentUser(req).id, blockId);
-      // A full photo queue refuses before the body is read, so a busy server spends nothing on it.
-      photoQueue(deps.config).assertRoom();
-      next();
-    },
-    upload,
-    async (req, res) => {
-      const result = await uploadBlockPhotos(deps, res.locals.blockAccess, currentUser(req).id, receivedFiles(req));
-      res.status(201).json(result);
-    },
+    route(
+      {
+        params: blockPhotosParams,
+        authorize: async (req, { params }) => {
+          const access = await canAddBlockPhotos(currentUser(req).id, params.blockId);
+          // A full photo queue refuses before the body is read, so a busy server spends nothing on it.
+          photoQueue(deps.config).assertRoom();
+          return access;
+        },
+        receive: upload,
+      },
+      async ({ access }, req, res) => {
+        res.status(201).json(await uploadBlockPhotos(deps, access, currentUser(req).id, receivedFiles(req)));
+      },
+    ),
   );
 
-  router.get('/photos/:photoId', requireUser, validate({ params: photoParams, query: photoQuery }), async (req, res) => {
-    const { photoId } = req.params as unknown as PhotoParams;
-    const { size } = req.query as unknown as PhotoQuery;
-    const photo = await canSeePhoto(currentUser(req).id, photoId);
-    const extension = photo.mime === 'image/webp' ? 'webp' : 'jpg';
-    await sendPhoto(req, res, deps, photo, size, {
-      'Content-Type': photo.mime,
-      // Only the member's own browser may keep it; never a shared cache.
-      'Cache-Control': 'private, max-age=3600',
-      'X-Content-Type-Options': 'nosniff',
-      'Content-Disposition': `inline; filename="photo-${photo.id}${size === 'thumb' ? '-thumb' : ''}.${extension}"`,
-      'Content-Security-Policy': "default-src 'none'; sandbox",
-    });
-  });
+  router.get(
+    '/photos/:photoId',
+    requireUser,
+    route(
+      { params: photoParams, query: photoQuery, authorize: (req, { params }) => canSeePhoto(currentUser(req).id, params.photoId) },
+      async ({ query: { size }, access: photo }, req, res) => {
+        const extension = photo.mime === 'image/webp' ? 'webp' : 'jpg';
+        await sendPhoto(req, res, deps, photo, size, {
+          'Content-Type': photo.mime,
+          // Only the member's own browser may keep it; never a shared cache.
+          'Cache-Control': 'private, max-age=3600',
+          'X-Content-Type-Options': 'nosniff',
+          'Content-Disposition': `inline; filename="photo-${photo.id}${size === 'thumb' ? '-thumb' : ''}.${extension}"`,
+          'Content-Security-Policy': "default-src 'none'; sandbox",
+        });
+      },
+    ),
+  );
 
-  router.delete('/photos/:photoId', requireUser, validate({ params: photoParams }), async (req, res) => {
-    const { photoId } = req.params as unknown as PhotoParams;
-    const photo = await canRemovePhoto(currentUser(req).id, photoId);
-    await removePhoto(deps, photo);
-    res.status(204).end();
-  });
+  router.delete(
+    '/photos/:photoId',
+    requireUser,
+    route(
+      { params: photoParams, authorize: (req, { params }) => canRemovePhoto(currentUser(req).id, params.photoId) },
+      async ({ access: photo }, _req, res) => {
+        await removePhoto(deps, photo);
+        res.status(204).end();
+      },
+    ),
+  );
 
   return router;
 }
@@ -79,7 +90,7 @@ async function sendPhoto(
   res: Response,
   deps: AppDeps,
   photo: Awaited<ReturnType<typeof canSeePhoto>>,
-  size: PhotoQuery['size'],
+  size: PhotoSize,
   headers: Record<string, string>,
 ): Promise<void> {
   const etag = `"${size === 'thumb' ? photo.thumbFileName : photo.fileName}"`;
