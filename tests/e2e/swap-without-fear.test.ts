@@ -148,3 +148,44 @@ it('picks the guild time zone from a searchable list and keeps what was typed wh
   const guild = await g.admin.api<{ timeZone: string }>('GET', `/guilds/${g.guildId}`);
   expect(guild.body.timeZone).toBe('UTC');
 });
+
+it('undoes a measurement and a block taken in by mistake at intake, with the keyboard', async () => {
+  const g = await liveGuild(server.url);
+  const created = await g.coordinator.api('POST', `/guilds/${g.guildId}/swaps`, swapBody('Kestrel Hollow Pinwheel'));
+  const swapId = (created.body as { id: number }).id;
+  await moveSwap(g.coordinator, swapId, 'signup');
+  await g.member.api('POST', `/swaps/${swapId}/signups`, { blocks: 1 });
+  await moveSwap(g.coordinator, swapId, 'sewing');
+  await moveSwap(g.coordinator, swapId, 'collecting');
+  const [block] = (await g.member.api('GET', `/swaps/${swapId}/blocks?maker=me`)).body as { id: number }[];
+  const labels = (await g.coordinator.api('GET', `/swaps/${swapId}/labels?maker=all`)).body as {
+    labels: { blockId: number; shortCode: string }[];
+  };
+  const code = labels.labels.find((l) => l.blockId === block!.id)!.shortCode;
+
+  const page = await signedInPage(laptop, g.coordinator);
+  await page.goto(`${server.url}/guilds/${g.guildId}/swaps/${swapId}/intake`);
+  await page.getByLabel('Short code from the label').fill(code);
+  await page.keyboard.press('Enter');
+  await page.getByLabel('Width').waitFor();
+  await page.keyboard.type('9 1/2');
+  await page.keyboard.press('Tab');
+  await page.keyboard.type('9');
+  await page.keyboard.press('Enter');
+  await page.getByText('Confirmed by Blockpost').waitFor();
+
+  const undoMeasure = page.getByRole('button', { name: 'Undo this measurement' });
+  await undoMeasure.focus();
+  await page.keyboard.press('Enter');
+  await page.getByText(/The measurement is withdrawn/).waitFor();
+  const measurements = (await g.coordinator.api('GET', `/blocks/${block!.id}/measurements`)).body as {
+    withdrawnAt: string | null;
+  }[];
+  expect(measurements.map((m) => m.withdrawnAt !== null)).toEqual([true]);
+  await page.getByRole('button', { name: 'Undo taking this block in too' }).focus();
+  await page.keyboard.press('Enter');
+  await page.getByText(/is no longer taken in/).waitFor();
+  await shot(page, 'intake-undo-desktop');
+  const after = (await g.coordinator.api('GET', `/blocks/${block!.id}`)).body as { state: string };
+  expect(after.state).toBe('pledged');
+});

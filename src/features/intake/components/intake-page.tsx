@@ -18,6 +18,7 @@ import { MeasuringCard } from './measuring-card';
 import { RecentBlocks } from './recent-blocks';
 import { SyncStatus } from './sync-status';
 import { VerdictPanel } from './verdict-panel';
+import { IntakeUndo } from './intake-undo';
 
 /** The coordinator's intake view for one swap: scan or type, measure, next — with or without a network. */
 export function IntakePage() {
@@ -103,6 +104,7 @@ function Station({ pack, userId, units }: { pack: IntakePack; userId: number; un
             />
           )}
           {latest && <VerdictPanel result={latest} units={units} />}
+          {latest && <IntakeUndo key={latest.clientId} swapId={pack.swap.id} result={latest} />}
           {!station.current && !latest && (
             <EmptyState title="Ready for the first block">
               {measuredCount} of {pack.blocks.length} blocks measured so far.
