@@ -6,6 +6,7 @@
  * 503 and Retry-After, before it takes memory or CPU, and the person is told to send it again shortly.
  */
 import { availableParallelism } from 'node:os';
+import sharp from 'sharp';
 import { MAX_PHOTOS_PER_UPLOAD } from '@shared/schemas/photos';
 import { AppError } from '../http/errors';
 
@@ -28,6 +29,14 @@ export interface PhotoQueueOptions {
 /** One photo at a time on a one- or two-core machine, up to 4 on a large one. */
 export function defaultConcurrency(cores = availableParallelism()): number {
   return Math.max(1, Math.min(4, cores - 1));
+}
+
+/**
+ * Threads libvips may use for one image. By default it takes every core for each image, so a single
+ * 100-megapixel decode would still crowd out everything else; one core fewer leaves room for requests.
+ */
+export function limitImageThreads(cores = availableParallelism()): void {
+  sharp.concurrency(Math.max(1, cores - 1));
 }
 
 export class PhotoQueue {
@@ -107,6 +116,9 @@ const queues = new Map<number, PhotoQueue>();
 export function photoQueue(config: { PHOTO_QUEUE_LIMIT?: number }): PhotoQueue {
   const limit = config.PHOTO_QUEUE_LIMIT ?? 0;
   let queue = queues.get(limit);
-  if (!queue) queues.set(limit, (queue = new PhotoQueue({ limit })));
+  if (!queue) {
+    limitImageThreads();
+    queues.set(limit, (queue = new PhotoQueue({ limit })));
+  }
   return queue;
 }
