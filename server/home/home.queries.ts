@@ -164,10 +164,12 @@ export const overdueSwaps = (sequelize: Sequelize, userId: number) =>
   );
 
 /** Marks a room read up to now for the caller. */
-export async function markRoomSeen(sequelize: Sequelize, roomId: number, userId: number): Promise<void> {
-  await sequelize.query(
+export async function markRoomSeen(sequelize: Sequelize, roomId: number, userId: number): Promise<Date> {
+  const [row] = await sequelize.query<{ read_at: Date }>(
     `INSERT INTO chat_reads (room_id, user_id, read_at) VALUES ($roomId, $userId, now())
-     ON CONFLICT (room_id, user_id) DO UPDATE SET read_at = excluded.read_at`,
-    { bind: { roomId, userId } },
+     ON CONFLICT (room_id, user_id) DO UPDATE SET read_at = excluded.read_at
+     RETURNING read_at`,
+    { bind: { roomId, userId }, type: QueryTypes.SELECT },
   );
+  return new Date(row!.read_at);
 }

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { roomSeenParamsSchema } from '@shared/schemas/home';
+import { roomSeenBodySchema, roomSeenParamsSchema } from '@shared/schemas/home';
 import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import type { AppDeps } from '../deps';
@@ -32,9 +32,8 @@ export function homeRouter(deps: AppDeps) {
   router.put(
     '/me/rooms/:roomId/seen',
     requireUser,
-    route({ params: roomSeenParamsSchema }, async ({ params }, req, res) => {
-      await markRoomSeen(deps, currentUser(req).id, params.roomId);
-      res.status(204).end();
+    route({ params: roomSeenParamsSchema, body: roomSeenBodySchema }, async ({ params }, req, res) => {
+      res.json(await markRoomSeen(deps, currentUser(req).id, params.roomId));
     }),
   );
   return router;

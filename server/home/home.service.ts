@@ -77,7 +77,11 @@ export async function nextForMe(deps: Pick<AppDeps, 'sequelize'>, userId: number
 }
 
 /** Notes that the person has seen a chat room's messages up to now; only someone who may read the room can. */
-export async function markRoomSeen(deps: Pick<AppDeps, 'sequelize'>, userId: number, roomId: number): Promise<void> {
+export async function markRoomSeen(
+  deps: Pick<AppDeps, 'sequelize'>,
+  userId: number,
+  roomId: number,
+): Promise<{ roomId: number; seenAt: string }> {
   await authorizeRoom(userId, roomId);
-  await q.markRoomSeen(deps.sequelize, roomId, userId);
+  return { roomId, seenAt: (await q.markRoomSeen(deps.sequelize, roomId, userId)).toISOString() };
 }

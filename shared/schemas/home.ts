@@ -4,6 +4,8 @@ import { idParam } from './ids';
 import type { RsvpAnswer } from './sewdays';
 
 export const roomSeenParamsSchema = z.object({ roomId: idParam }).strict();
+/** Nothing to send: the time is the server's. */
+export const roomSeenBodySchema = z.object({}).strict();
 
 interface InGuild {
   guildId: number;

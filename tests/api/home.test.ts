@@ -89,7 +89,9 @@ describe('GET /api/me/next', () => {
       unread: 2,
     });
 
-    await g.member.agent.put(`/api/me/rooms/${room.id}/seen`).expect(204);
+    const seen = await g.member.agent.put(`/api/me/rooms/${room.id}/seen`).expect(200);
+    expect(seen.body).toMatchObject({ roomId: room.id, seenAt: expect.any(String) });
+    await g.member.agent.put(`/api/me/rooms/${room.id}/seen`).send({ when: 'yesterday' }).expect(400);
     expect((await next(g.member.agent)).unreadRooms.find((r) => r.roomId === room.id)).toBeUndefined();
     // Only someone who may read the room can mark it.
     await g.stranger.agent.put(`/api/me/rooms/${room.id}/seen`).expect(404);

@@ -8,7 +8,7 @@ import { nextForMeKeys } from './get-next-for-me';
  */
 export async function markRoomSeen(queryClient: QueryClient, roomId: number): Promise<void> {
   try {
-    await api.put<void>(`/me/rooms/${roomId}/seen`, undefined, { allowUnauthenticated: true });
+    await api.put<{ roomId: number; seenAt: string }>(`/me/rooms/${roomId}/seen`, {}, { allowUnauthenticated: true });
     await queryClient.invalidateQueries({ queryKey: nextForMeKeys.all });
   } catch {
     // Nothing to tell: the count on the home screen is a convenience.
