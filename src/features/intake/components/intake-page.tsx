@@ -19,6 +19,7 @@ import { RecentBlocks } from './recent-blocks';
 import { SyncStatus } from './sync-status';
 import { VerdictPanel } from './verdict-panel';
 import { IntakeUndo } from './intake-undo';
+import { useGuild } from '@/entities/guild/api/get-guild';
 
 /** The coordinator's intake view for one swap: scan or type, measure, next — with or without a network. */
 export function IntakePage() {
@@ -38,6 +39,7 @@ const RECEIVING = ['sewing', 'collecting'];
 function Station({ pack, userId, units }: { pack: IntakePack; userId: number; units: 'in' | 'mm' }) {
   const guildId = useParams().guildId ?? String(pack.swap.guildId);
   const station = useIntakeStation(pack, userId);
+  const guild = useGuild(Number(guildId));
   const queue = useIntakeQueue(pack.swap.id);
   const online = useOnline();
   const codeRef = useRef<HTMLInputElement>(null);
@@ -112,7 +114,13 @@ function Station({ pack, userId, units }: { pack: IntakePack; userId: number; un
           )}
         </div>
         <div className="space-y-4">
-          <SyncStatus queue={queue} online={online} keptAt={pack.savedAt} fromDevice={pack.fromDevice} />
+          <SyncStatus
+            queue={queue}
+            online={online}
+            keptAt={pack.savedAt}
+            fromDevice={pack.fromDevice}
+            timeZone={guild.data?.timeZone}
+          />
           <RecentBlocks results={station.results.slice(1)} measured={measuredCount} total={pack.blocks.length} />
         </div>
       </div>

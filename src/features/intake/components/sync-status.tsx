@@ -5,7 +5,14 @@ import { discardItem, flushQueue, retryItem } from '../offline/sync-queue';
 
 const LISTED = 6;
 
-const clock = (iso: string) => new Date(iso).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' });
+/** 24-hour time in the guild's zone, as every other screen shows it (the device's clock may differ). */
+const clock = (iso: string, timeZone?: string) =>
+  new Intl.DateTimeFormat('en-GB', {
+    hour: '2-digit',
+    minute: '2-digit',
+    hourCycle: 'h23',
+    ...(timeZone ? { timeZone } : {}),
+  }).format(new Date(iso));
 
 function stateLine(queue: QueueView, online: boolean): string {
   if (queue.waiting.length === 0)
@@ -26,11 +33,14 @@ export function SyncStatus({
   online,
   keptAt,
   fromDevice,
+  timeZone,
 }: {
   queue: QueueView;
   online: boolean;
   keptAt: string;
   fromDevice: boolean;
+  /** the guild's zone, once known */
+  timeZone?: string;
 }) {
   const waiting = queue.waitingBlocks;
   return (
@@ -55,7 +65,7 @@ export function SyncStatus({
           </p>
           <p className="text-base">{stateLine(queue, online)}</p>
           <p className="text-base text-walnut-soft">
-            {online ? 'Online' : 'Offline'} · swap data kept on this device at {clock(keptAt)}
+            {online ? 'Online' : 'Offline'} · swap data kept on this device at {clock(keptAt, timeZone)}
             {fromDevice && ' (the server could not be reached when this page opened)'}
           </p>
         </div>
