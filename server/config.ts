@@ -12,11 +12,46 @@ const configSchema = z.object({
   UPLOAD_DIR: z.string().default('uploads'),
   /** Format of stored photos and thumbnails. */
   PHOTO_FORMAT: z.enum(['jpeg', 'webp']).default('jpeg'),
+  /**
+   * Where photo files live: `local` (UPLOAD_DIR/photos, the default) or `s3` (an S3-compatible bucket).
+   * With `s3` and no S3_ENDPOINT, `npm start` runs a local fake object store under .data/.
+   */
+  PHOTO_STORE: z.enum(['local', 's3']).default('local'),
+  /** The object store's URL (self-hosted or a fake); leave unset for AWS itself. */
+  S3_ENDPOINT: z.string().url().max(2048).optional(),
+  S3_REGION: z.string().max(64).default('us-east-1'),
+  S3_BUCKET: z.string().max(63).default('blockpost-photos'),
+  /** Keys of the object store; unset means the SDK's usual chain (environment, instance role). */
+  S3_ACCESS_KEY_ID: z.string().max(256).optional(),
+  S3_SECRET_ACCESS_KEY: z.string().max(256).optional(),
+  /** Bucket in the path (`host/bucket/key`), as most self-hosted stores need. */
+  S3_FORCE_PATH_STYLE: z
+    .enum(['true', 'false'])
+    .default('false')
+    .transform((v) => v === 'true'),
+  /** Key prefix inside the bucket, so several installs can share one bucket without sharing keys. */
+  S3_PREFIX: z
+    .string()
+    .max(200)
+    .regex(/^(?:[\w.-]+\/)*$/, 'S3_PREFIX is folder names ending in “/”, or empty')
+    .default(''),
+  /** Photos being re-encoded or waiting for it, across uploads, before new uploads get 503; 0 picks a default. */
+  PHOTO_QUEUE_LIMIT: z.coerce.number().int().min(0).max(1000).default(0),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   TRUST_PROXY: z
     .enum(['true', 'false'])
     .default('false')
     .transform((v) => v === 'true'),
+  /**
+   * Payments through the hosted service's SDK. With no secret key, payments are switched off. `npm start`
+   * and the tests point the SDK at the local fake (host, port, protocol); real keys with no host use
+   * the real service.
+   */
+  STRIPE_SECRET_KEY: z.string().max(255).optional(),
+  STRIPE_WEBHOOK_SECRET: z.string().max(255).optional(),
+  STRIPE_API_HOST: z.string().max(255).optional(),
+  STRIPE_API_PORT: z.coerce.number().int().min(1).max(65535).optional(),
+  STRIPE_API_PROTOCOL: z.enum(['http', 'https']).optional(),
   /** Folder of the built client (defaults to dist/); lets parallel test runs each use their own build. */
   CLIENT_DIR: z.string().max(4096).optional(),
   /** Serve the built client from dist/ (off in dev, where Vite serves it). */
