@@ -6,14 +6,14 @@
 import { QueryTypes } from 'sequelize';
 import type { AcceptBlockInput } from '@shared/schemas/blocks';
 import type { BlockDto } from '@shared/swap-types';
-import { Block, Measurement, type Swap } from '../db/models';
+import { Measurement, type Swap } from '../db/models';
 import { ConflictError, ForbiddenError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { blockDto, isAccepted } from './block-dto';
 import { assertSwapIn, lockedBlock } from './blocks.service';
 import { recordStep, snapshotOf, type Snapshot, type StepAction } from './step-log';
 
-type Deps = Pick<AppDeps, 'events'>;
+type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
 
 interface StepRow {
   id: number;
@@ -60,10 +60,10 @@ export async function undoLastStep(
   blockId: number,
   actor: { userId: number; canManage: boolean },
 ): Promise<BlockDto & { undone: string }> {
-  const { dto, after, undone } = await Block.sequelize!.transaction(async (transaction) => {
+  const { dto, after, undone } = await deps.sequelize.transaction(async (transaction) => {
     const { block, swap } = await lockedBlock(blockId, transaction);
     assertChangeable(swap, 'changed');
-    const [step] = await Block.sequelize!.query<StepRow>(
+    const [step] = await deps.sequelize.query<StepRow>(
       `SELECT id, action, by_id, before, measurement_id FROM block_steps WHERE block_id = $blockId AND undone_at IS NULL ORDER BY id DESC LIMIT 1`,
       { bind: { blockId }, type: QueryTypes.SELECT, transaction },
     );
@@ -79,7 +79,7 @@ export async function undoLastStep(
         { where: { id: step.measurement_id }, transaction },
       );
     }
-    await Block.sequelize!.query(`UPDATE block_steps SET undone_at = now(), undone_by_id = $userId WHERE id = $id`, {
+    await deps.sequelize.query(`UPDATE block_steps SET undone_at = now(), undone_by_id = $userId WHERE id = $id`, {
       bind: { id: step.id, userId: actor.userId },
       type: QueryTypes.UPDATE,
       transaction,
@@ -105,7 +105,7 @@ export async function undoLastStep(
  * takes part in the return like an accepted block. Undo takes the decision back.
  */
 export async function acceptByDecision(deps: Deps, blockId: number, actorId: number, input: AcceptBlockInput): Promise<BlockDto> {
-  const { dto, after } = await Block.sequelize!.transaction(async (transaction) => {
+  const { dto, after } = await deps.sequelize.transaction(async (transaction) => {
     const { block, swap } = await lockedBlock(blockId, transaction);
     assertSwapIn(swap, ['collecting', 'sorting'], 'accepted');
     assertChangeable(swap, 'accepted');

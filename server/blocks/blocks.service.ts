@@ -11,7 +11,7 @@ import { idempotent, type Answer } from './idempotency';
 import { findBlockWithSwap } from './block-with-swap';
 import { recordStep, snapshotOf } from './step-log';
 
-type Deps = Pick<AppDeps, 'events'>;
+type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
 
 const ORDER: readonly BlockState[] = ['pledged', 'sewn', 'handed_in', 'received', 'measured', 'returned'];
 const before = (a: BlockState, b: BlockState) => ORDER.indexOf(a) < ORDER.indexOf(b);
@@ -53,7 +53,7 @@ export async function markBlockSewn(deps: Deps, blockId: number, actorId: number
 }
 
 export async function markSewn(deps: Deps, blockId: number, actorId: number): Promise<BlockDto> {
-  const { dto, after } = await Block.sequelize!.transaction(async (transaction) => {
+  const { dto, after } = await deps.sequelize.transaction(async (transaction) => {
     const { block, swap, after: emit } = await markBlockSewn(deps, blockId, actorId, transaction);
     return { dto: await blockDto(block, swap, transaction), after: emit };
   });
@@ -63,7 +63,7 @@ export async function markSewn(deps: Deps, blockId: number, actorId: number): Pr
 
 /** The maker hands a block in, at a meeting or by post (with an optional tracking note). */
 export async function handIn(deps: Deps, blockId: number, actorId: number, input: HandInInput): Promise<BlockDto> {
-  const { dto, after } = await Block.sequelize!.transaction(async (transaction) => {
+  const { dto, after } = await deps.sequelize.transaction(async (transaction) => {
     const { block, swap } = await lockedBlock(blockId, transaction);
     assertSwapIn(swap, ['signup', 'sewing', 'collecting'], 'handed in');
     if (!before(block.state, 'received')) {
@@ -85,7 +85,7 @@ export async function handIn(deps: Deps, blockId: number, actorId: number, input
 
 /** A coordinator takes a block in. Repeating it changes nothing; a measured block cannot be received again. */
 export function receive(deps: Deps, blockId: number, actorId: number, clientId?: string): Promise<Answer<BlockDto>> {
-  return idempotent({ clientId, userId: actorId, blockId, action: 'received' }, async (transaction) => {
+  return idempotent(deps, { clientId, userId: actorId, blockId, action: 'received' }, async (transaction) => {
     const { block, swap } = await lockedBlock(blockId, transaction);
     assertSwapIn(swap, ['sewing', 'collecting'], 'received');
     if (block.state === 'received') return { status: 200, body: await blockDto(block, swap, transaction) };
@@ -103,7 +103,7 @@ export function receive(deps: Deps, blockId: number, actorId: number, clientId?:
 
 /** A coordinator records that a `trim` block was cut down to size; it then counts as accepted. */
 export async function markTrimmed(deps: Deps, blockId: number, actorId: number): Promise<BlockDto> {
-  const { dto, after } = await Block.sequelize!.transaction(async (transaction) => {
+  const { dto, after } = await deps.sequelize.transaction(async (transaction) => {
     const { block, swap } = await lockedBlock(blockId, transaction);
     assertSwapIn(swap, ['collecting', 'sorting'], 'marked trimmed');
     if (swap.distributionConfirmedAt) throw new ConflictError('The return of blocks is already confirmed.', 'distribution_confirmed');

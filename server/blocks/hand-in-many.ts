@@ -2,14 +2,14 @@
 import type { HandInManyInput } from '@shared/schemas/blocks';
 import type { BlockDto } from '@shared/swap-types';
 import { isBlockStateBefore } from '@shared/vocabulary';
-import { Block, type Swap } from '../db/models';
+import type { Block, Swap } from '../db/models';
 import { ConflictError, ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { blockDtos } from './block-dto';
 import { assertSwapIn, lockedBlock } from './blocks.service';
 import { recordStep, snapshotOf } from './step-log';
 
-type Deps = Pick<AppDeps, 'events'>;
+type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
 
 /**
  * Marks each chosen block handed in, the same way one block is; blocks already handed in keep their
@@ -17,7 +17,7 @@ type Deps = Pick<AppDeps, 'events'>;
  */
 export async function handInMany(deps: Deps, swap: Swap, actorId: number, input: HandInManyInput): Promise<BlockDto[]> {
   const ids = [...new Set(input.blockIds)].sort((a, b) => a - b);
-  const { dtos, changes } = await Block.sequelize!.transaction(async (transaction) => {
+  const { dtos, changes } = await deps.sequelize.transaction(async (transaction) => {
     const done: Block[] = [];
     const changes: { blockId: number; from: Block['state'] }[] = [];
     // Locked in id order, so two overlapping requests cannot wait on each other.

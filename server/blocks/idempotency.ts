@@ -6,6 +6,7 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import { BlockRequest } from '../db/models';
 import { ConflictError } from '../http/errors';
+import type { AppDeps } from '../deps';
 
 export interface Outcome<T> {
   status: number;
@@ -27,8 +28,12 @@ interface Claim {
   action: string;
 }
 
-export async function idempotent<T>(claim: Claim, run: (transaction: Transaction) => Promise<Outcome<T>>): Promise<Answer<T>> {
-  const sequelize = BlockRequest.sequelize!;
+export async function idempotent<T>(
+  deps: Pick<AppDeps, 'sequelize'>,
+  claim: Claim,
+  run: (transaction: Transaction) => Promise<Outcome<T>>,
+): Promise<Answer<T>> {
+  const { sequelize } = deps;
   const { clientId } = claim;
   const result = await sequelize.transaction(async (transaction): Promise<Outcome<T> & { replayed: boolean }> => {
     if (clientId) {

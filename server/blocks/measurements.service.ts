@@ -15,7 +15,7 @@ import { assertSwapIn, lockedBlock } from './blocks.service';
 import type { MeasuringAs } from './blocks.policy';
 import { recordStep, snapshotOf } from './step-log';
 
-type Deps = Pick<AppDeps, 'events'>;
+type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
 
 export type MeasurementAnswer = MeasurementDto & { block: BlockDto };
 
@@ -23,7 +23,7 @@ export type MeasurementAnswer = MeasurementDto & { block: BlockDto };
 const four = (x: number) => Math.round(x * 10_000) / 10_000;
 
 /** Verdict and deviations of a measured size against the swap's unfinished size and tolerance. */
-export function verdictFor(swap: Swap, m: { width: number; height: number; diagonals?: [number, number] }) {
+function verdictFor(swap: Swap, m: { width: number; height: number; diagonals?: [number, number] }) {
   return checkBlock({
     target: { width: swap.unfinishedWidth, height: swap.unfinishedHeight },
     tolerance: swap.tolerance,
@@ -44,7 +44,7 @@ export function recordMeasurement(
   body: MeasurementBody,
 ): Promise<Answer<MeasurementAnswer>> {
   const { source } = actor;
-  return idempotent({ clientId: body.clientId, userId: actor.userId, blockId, action: `measurement:${source}` }, async (transaction) => {
+  return idempotent(deps, { clientId: body.clientId, userId: actor.userId, blockId, action: `measurement:${source}` }, async (transaction) => {
     const { block, swap } = await lockedBlock(blockId, transaction);
     if (source === 'ruler') {
       assertSwapIn(swap, ['sewing', 'collecting', 'sorting'], 'measured');

@@ -20,7 +20,7 @@ import type { AppDeps } from '../deps';
 import type { Config } from '../config';
 import { referenceKey, signBlock } from '../intake/references';
 
-type Deps = Pick<AppDeps, 'events'>;
+type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
 
 interface Pool {
   accepted: Map<number, Block[]>;
@@ -153,7 +153,7 @@ export async function confirmReturn(
   actorId: number,
   input: ConfirmDistributionInput,
 ): Promise<DistributionResultDto> {
-  const result = await Swap.sequelize!.transaction(async (transaction) => {
+  const result = await deps.sequelize.transaction(async (transaction) => {
     const swap = await Swap.findByPk(swapId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!swap) throw new NotFoundError('That swap does not exist.');
     if (swap.state !== 'sorting') {

@@ -39,9 +39,3 @@ export class ConflictError extends AppError {
     super(409, code, message);
   }
 }
-
-export class UnavailableError extends AppError {
-  constructor(message = 'The database is not reachable right now. Please try again in a moment.') {
-    super(503, 'unavailable', message);
-  }
-}

@@ -33,7 +33,7 @@ export interface RouteInput<P, Q, B, A> {
  * A path naming an id too large to exist (at or above 2^31) is a path to nothing: 404, as for any
  * other id that does not exist, never a database error.
  */
-export function assertPathIdsExist(part: Part, error: ZodError) {
+function assertPathIdsExist(part: Part, error: ZodError) {
   if (part === 'params' && error.issues.some((issue) => issue.message === ID_TOO_LARGE)) throw new NotFoundError(ID_TOO_LARGE);
 }
 

@@ -6,7 +6,7 @@ import type { Logger } from '../logger';
 import type { LiveSocket } from './live-types';
 
 /** The socket counterpart of the HTTP error middleware: an AppError becomes `{ error }`, anything else is logged. */
-export function toLiveError(error: unknown, logger: Logger, context: Record<string, unknown>): LiveError {
+function toLiveError(error: unknown, logger: Logger, context: Record<string, unknown>): LiveError {
   if (error instanceof AppError) {
     return { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) };
   }

@@ -6,7 +6,7 @@ import { ConflictError, NotFoundError, ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { signupIsOpen } from './swap-dto';
 
-type Deps = Pick<AppDeps, 'events'>;
+type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
 
 // Blocks not handed in yet may be dropped when a pledge shrinks: plain pledges first, then sewn ones.
 const DROPPABLE = ['pledged', 'sewn'];
@@ -50,7 +50,7 @@ function signupDto(s: Signup): SignupDto {
 
 /** Signs the member up, or changes their pledge, within the swap's quota. */
 export async function pledge(deps: Deps, swapId: number, userId: number, blocks: number): Promise<SignupDto> {
-  const { signup, guildId } = await Swap.sequelize!.transaction(async (transaction) => {
+  const { signup, guildId } = await deps.sequelize.transaction(async (transaction) => {
     // Locking the swap keeps it in sign-up while the pledge is written and serialises pledges.
     const swap = await Swap.findByPk(swapId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!swap) throw new NotFoundError('That swap does not exist.');
@@ -71,7 +71,7 @@ export async function pledge(deps: Deps, swapId: number, userId: number, blocks:
 
 /** Withdraws the member before sign-up closes; their blocks not yet handed in are removed. */
 export async function withdraw(deps: Deps, swapId: number, userId: number): Promise<void> {
-  const guildId = await Swap.sequelize!.transaction(async (transaction) => {
+  const guildId = await deps.sequelize.transaction(async (transaction) => {
     const swap = await Swap.findByPk(swapId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!swap) throw new NotFoundError('That swap does not exist.');
     const signup = await Signup.findOne({ where: { swapId, userId, status: 'active' }, transaction, lock: transaction.LOCK.UPDATE });

@@ -19,7 +19,7 @@ import { ConflictError, NotFoundError, ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { signupStats, summaryDto, swapDto, transitionDto } from './swap-dto';
 
-type Deps = Pick<AppDeps, 'events'>;
+type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
 type Viewer = { userId: number; role: Role; canManage: boolean };
 
 /** Sizes from the engine; an engine objection becomes a 400 on the block's field. */
@@ -56,7 +56,7 @@ async function assertGiftRecipient(guildId: number, userId: number | null | unde
 /** Creates a swap as a draft and records its creation in the history. */
 export async function createSwap(deps: Deps, guildId: number, viewer: Viewer, input: CreateSwap): Promise<SwapDto> {
   await assertGiftRecipient(guildId, input.giftRecipientId);
-  const swap = await Swap.sequelize!.transaction(async (transaction) => {
+  const swap = await deps.sequelize.transaction(async (transaction) => {
     const created = await Swap.create(
       {
         guildId,
@@ -112,7 +112,7 @@ export const getSwap = (swap: Swap, viewer: Viewer) => swapDto(swap, viewer);
  * the merged result.
  */
 export async function updateSwap(deps: Deps, swapId: number, viewer: Viewer, patch: UpdateSwap): Promise<SwapDto> {
-  const swap = await Swap.sequelize!.transaction(async (transaction) => {
+  const swap = await deps.sequelize.transaction(async (transaction) => {
     const current = await Swap.findByPk(swapId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!current) throw new NotFoundError('That swap does not exist.');
     if (current.state === 'complete' || current.state === 'cancelled') {
@@ -233,7 +233,7 @@ export async function transitionSwap(
   to: SwapState,
   reason?: string,
 ): Promise<SwapDto> {
-  const { swap, from } = await Swap.sequelize!.transaction(async (transaction) => {
+  const { swap, from } = await deps.sequelize.transaction(async (transaction) => {
     const current = await Swap.findByPk(swapId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!current) throw new NotFoundError('That swap does not exist.');
     const problem = await moveProblem(current, to, transaction);
