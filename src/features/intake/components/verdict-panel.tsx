@@ -8,7 +8,8 @@ export function VerdictPanel({ result, units }: { result: StationResult; units: 
   const verdict = result.confirmed ?? result.local.verdict;
   const v = VERDICT_LABELS[verdict];
   const { deviations } = result.local;
-  const f = (x: number) => formatDeviation(x, { unit: units });
+  // A side exactly on size reads in words, not as a bare 0″.
+  const f = (x: number) => (x === 0 ? 'on size' : formatDeviation(x, { unit: units }));
   const disagrees = result.confirmed !== null && result.confirmed !== result.local.verdict;
   return (
     <section

@@ -20,6 +20,9 @@ const empty: MeasuringFormInput = { width: '', height: '', diagonal1: '', diagon
 const schemaResolver = zodResolver(measuringFormSchema);
 
 /** The verdict as the engine sees what is typed so far (a lone diagonal is left out), or null while it cannot be read. */
+/** How far a side is off, in sixteenths; a side exactly on size reads in words, not as a bare 0″. */
+const deviationWords = (x: number) => (x === 0 ? 'on size' : formatDeviation(x, { denominator: 16 }));
+
 function preview(swap: SwapDto, v: MeasuringFormInput): CheckBlockResult | null {
   const pair = v.diagonal1.trim() !== '' && v.diagonal2.trim() !== '';
   const parsed = measuringFormSchema.safeParse(pair ? v : { ...v, diagonal1: '', diagonal2: '' });
@@ -92,12 +95,27 @@ export function MeasureForm({
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label={label}>
       <p className="text-walnut-soft">
-        Target {sizeText(swap.unfinished)} ± {len(swap.tolerance)}. {units === 'mm' ? 'Type 241.3, or 9½″ with its mark.' : 'Type 9 1/2, 9½, 9.5 or 241 mm.'}
+        Target {sizeText(swap.unfinished)} ± {len(swap.tolerance)}.{' '}
+        {units === 'mm' ? 'Type 241.3, or 9½″ with its mark.' : 'Type 9 1/2, 9½, 9.5 or 241 mm.'}
       </p>
       {problem && <Alert tone="error">{problem}</Alert>}
       <div className="grid gap-3 sm:grid-cols-2">
-        <TextField label="Width" inputMode={inputMode} unit={units} autoComplete="off" error={e.width?.message} {...form.register('width')} />
-        <TextField label="Height" inputMode={inputMode} unit={units} autoComplete="off" error={e.height?.message} {...form.register('height')} />
+        <TextField
+          label="Width"
+          inputMode={inputMode}
+          unit={units}
+          autoComplete="off"
+          error={e.width?.message}
+          {...form.register('width')}
+        />
+        <TextField
+          label="Height"
+          inputMode={inputMode}
+          unit={units}
+          autoComplete="off"
+          error={e.height?.message}
+          {...form.register('height')}
+        />
         <TextField
           label="Diagonal, corner to corner"
           hint="Optional; give both or neither."
@@ -122,8 +140,7 @@ export function MeasureForm({
           <p className="flex flex-wrap items-center gap-2">
             <span>As typed:</span> <VerdictBadge verdict={live.verdict} />
             <span className="text-walnut-soft">
-              width {formatDeviation(live.deviations.width, { denominator: 16 })}, height{' '}
-              {formatDeviation(live.deviations.height, { denominator: 16 })}
+              width {deviationWords(live.deviations.width)}, height {deviationWords(live.deviations.height)}
               {live.deviations.diagonal !== undefined &&
                 `, diagonals differ by ${formatDeviation(Math.abs(live.deviations.diagonal), { denominator: 16 })}`}
             </span>
