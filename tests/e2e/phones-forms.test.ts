@@ -236,3 +236,25 @@ describe('A guild that works in millimetres', () => {
     await context.close();
   });
 });
+
+describe('The menu on a phone', () => {
+  it('opens and closes from the keyboard, names its state, and closes when a link is followed', async () => {
+    await freshPlanner();
+    const menu = page.getByRole('button', { name: 'Menu' });
+    expect(await menu.getAttribute('aria-expanded')).toBe('false');
+    expect(await page.getByRole('link', { name: 'Settings' }).isVisible()).toBe(false);
+    await menu.focus();
+    await page.keyboard.press('Enter');
+    expect(await menu.getAttribute('aria-expanded')).toBe('true');
+    await page.getByRole('link', { name: 'Settings' }).waitFor();
+    await page.keyboard.press('Tab');
+    await page.keyboard.press('Escape');
+    expect(await menu.getAttribute('aria-expanded')).toBe('false');
+    expect(await menu.evaluate((el) => el === document.activeElement)).toBe(true);
+
+    await menu.click();
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Settings' }).click();
+    await page.getByRole('heading', { name: 'Settings' }).waitFor();
+    expect(await page.getByRole('button', { name: 'Menu' }).getAttribute('aria-expanded')).toBe('false');
+  });
+});
