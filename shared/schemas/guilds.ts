@@ -1,7 +1,6 @@
 import { z } from 'zod';
 import { emailSchema, unitsSchema } from './auth';
 import { idParam } from './ids';
-import { idParam } from './ids';
 import { guildPaymentFields } from './payments';
 
 export const roles = ['admin', 'coordinator', 'member'] as const;
@@ -42,7 +41,6 @@ export const createGuildSchema = z.object({
 });
 export type CreateGuildInput = z.infer<typeof createGuildSchema>;
 
-export const updateMemberSchema = z.object({ role: roleSchema });
 /** PATCH /api/guilds/:guildId: any of the guild's settings (admins). */
 export const updateGuildSchema = createGuildSchema
   .partial()
@@ -52,6 +50,7 @@ export const updateGuildSchema = createGuildSchema
   .refine((o) => Object.keys(o).length > 0, { message: 'Nothing to change.' });
 export type UpdateGuildInput = z.infer<typeof updateGuildSchema>;
 
+export const updateMemberSchema = z.object({ role: roleSchema });
 export type UpdateMemberInput = z.infer<typeof updateMemberSchema>;
 
 export const createInvitationSchema = z.object({
