@@ -2,7 +2,7 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import type { BlockDto, MeasurementDto, PhotoRefDto } from '@shared/swap-types';
 import { Block, type Measurement, type Swap } from '../db/models';
-import { hasPhotosTable, photoRef } from './photo-refs';
+import { photoRef } from './photo-refs';
 import { LATEST_ESTIMATES, NEWEST_ESTIMATE_FIRST, latestEstimateDtos, type LatestEstimateRow } from './latest-estimate';
 
 /** True to size, trimmed to size, or accepted by an officer's decision. */
@@ -55,7 +55,7 @@ interface RelatedJson {
  * photos and the latest photo estimate. Each part is one aggregate, so the count of rows read does
  * not grow with the number of blocks asked for.
  */
-function relatedSql(withPhotos: boolean) {
+function relatedSql() {
   return `SELECT
     (SELECT coalesce(json_agg(json_build_object('id', u.id, 'displayName', u.display_name)), '[]')
        FROM users u WHERE u.id = ANY($userIds::int[])) AS users,
@@ -67,10 +67,8 @@ function relatedSql(withPhotos: boolean) {
          FROM measurements m LEFT JOIN users mu ON mu.id = m.measured_by_id
         WHERE m.block_id = ANY($ids::int[]) AND m.withdrawn_at IS NULL
         ORDER BY m.block_id, m.source, m.created_at DESC, m.id DESC) latest) AS measurements,
-    ${withPhotos
-      ? `(SELECT coalesce(json_agg(json_build_object('id', p.id, 'blockId', p.block_id) ORDER BY p.created_at, p.id), '[]')
-            FROM photos p WHERE p.block_id = ANY($ids::int[]))`
-      : `'[]'::json`} AS photos,
+    (SELECT coalesce(json_agg(json_build_object('id', p.id, 'blockId', p.block_id) ORDER BY p.created_at, p.id), '[]')
+       FROM photos p WHERE p.block_id = ANY($ids::int[])) AS photos,
     (SELECT coalesce(json_agg(estimate), '[]') FROM (${LATEST_ESTIMATES} WHERE e.block_id = ANY($ids::int[]) ${NEWEST_ESTIMATE_FIRST}) estimate) AS estimates`;
 }
 
@@ -78,8 +76,7 @@ async function relatedRows(blocks: Block[], transaction?: Transaction): Promise<
   const sequelize = Block.sequelize!;
   const ids = blocks.map((b) => b.id);
   const userIds = [...new Set(blocks.flatMap((b) => [b.makerId, b.recipientId, b.acceptedById].filter((x): x is number => x != null)))];
-  const withPhotos = await hasPhotosTable(sequelize, transaction);
-  const [row] = await sequelize.query<RelatedJson>(relatedSql(withPhotos), { bind: { ids, userIds }, type: QueryTypes.SELECT, transaction });
+  const [row] = await sequelize.query<RelatedJson>(relatedSql(), { bind: { ids, userIds }, type: QueryTypes.SELECT, transaction });
   return row!;
 }
 

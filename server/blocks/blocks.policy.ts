@@ -9,7 +9,7 @@ import { assertGuildRole } from '../guilds/guilds.policy';
 import { ForbiddenError, NotFoundError } from '../http/errors';
 import { readAccess, takeViewerRole, type SwapAccess } from '../swaps/swaps.policy';
 import { viewerRole } from '../swaps/swaps.queries';
-import { findBlockWithSwap } from './block-with-swap';
+import { findBlockWithSwap } from './blocks.queries';
 
 export interface BlockAccess extends SwapAccess {
   block: Block;

@@ -8,7 +8,7 @@ import { ConflictError, ForbiddenError, NotFoundError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { blockDto, blockDtos, type BlockViewer } from './block-dto';
 import { idempotent, type Answer } from './idempotency';
-import { findBlockWithSwap } from './block-with-swap';
+import { findBlockWithSwap } from './blocks.queries';
 import { recordStep, snapshotOf } from './step-log';
 
 type Deps = Pick<AppDeps, 'events' | 'sequelize'>;

@@ -1,4 +1,4 @@
-/** A block and its swap, read in one query for the hot paths (policy checks, locked changes). */
+/** The blocks feature's hand-written SQL: a block and its swap, read in one query for the hot paths (policy checks, locked changes). */
 import { QueryTypes, type Model, type ModelStatic, type Transaction } from 'sequelize';
 import { Block, Swap } from '../db/models';
 
