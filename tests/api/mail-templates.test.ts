@@ -216,10 +216,15 @@ describe('cutting plans from the unit formulas', () => {
   it('HSTs: two squares of finished + ⅞″ make two units', () => {
     const plan = pledgePlan({ kind: 'hst', finished: 3, method: 'two-at-a-time' }, 5);
     expect(plan.cuts).toEqual([
-      { fabric: 'Fabric A', width: 3.875, height: 3.875, count: 3, note: null },
-      { fabric: 'Fabric B', width: 3.875, height: 3.875, count: 3, note: null },
+      { fabric: 'Light', width: 3.875, height: 3.875, count: 3, note: null },
+      { fabric: 'Dark', width: 3.875, height: 3.875, count: 3, note: null },
     ]);
     expect(plan.note).toBe('This makes 1 spare HST.');
+    // The swap's own colour roles name the fabrics, as the screens do.
+    const named = pledgePlan({ kind: 'hst', finished: 3, method: 'trim' }, 2, undefined, ['cream', 'indigo']);
+    expect(named.cuts.map((c) => c.fabric)).toEqual(['cream', 'indigo']);
+    // The trim size in fractions with the inch mark: 3″ finished + ½″ = 3½″ (common practice, no source).
+    expect(named.note).toContain('Trim each HST to 3½″ square.');
   });
 
   it('QSTs: finished + 1¼″', () => {

@@ -45,7 +45,12 @@ async function confirmationDraft(
   if (!['signup', 'sewing', 'collecting'].includes(swap.state)) return null;
   const user = (await usersByIds([userId])).get(userId);
   if (!user) return null;
-  const plan = pledgePlan(swap.blockSpec, signup.blocks);
+  const plan = pledgePlan(
+    swap.blockSpec,
+    signup.blocks,
+    undefined,
+    (swap.colourRules ?? []).map((r) => r.role),
+  );
   const r = user;
   const view = swapView(swap, guild, r.units, now);
   const blocksText = plural(signup.blocks, 'block');

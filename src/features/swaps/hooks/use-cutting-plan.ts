@@ -4,7 +4,16 @@
  */
 import { useMemo } from 'react';
 import {
-  batchCuts, flyingGeeseCuts, gridRecipe, hstCut, qstCut, squareInSquareCuts, stripPlan, type Piece, type StripSetDesign,
+  batchCuts,
+  flyingGeeseCuts,
+  formatLength,
+  gridRecipe,
+  hstCut,
+  qstCut,
+  squareInSquareCuts,
+  stripPlan,
+  type Piece,
+  type StripSetDesign,
 } from '@shared/quilt';
 import type { BlockSpec } from '@shared/schemas/blocks';
 
@@ -37,7 +46,8 @@ const fabricName = (roles: string[], i: number, fallback: string) => roles[i] ??
 
 function yardage(cuts: CutRow[], wof: number): FabricNeed[] {
   const byFabric = new Map<string, Piece[]>();
-  for (const c of cuts) byFabric.set(c.fabric, [...(byFabric.get(c.fabric) ?? []), { width: c.width, height: c.height, count: c.count }]);
+  for (const c of cuts)
+    byFabric.set(c.fabric, [...(byFabric.get(c.fabric) ?? []), { width: c.width, height: c.height, count: c.count }]);
   return [...byFabric].map(([fabric, pieces]) => {
     const plan = stripPlan(pieces, { wof, orientation: 'fewest-strips' });
     return { fabric, yards: plan.totals.yards, strips: plan.totals.strips, stripWidths: plan.rows.map((r) => r.stripWidth) };
@@ -49,16 +59,42 @@ export function cuttingPlan(spec: BlockSpec, blocks: number, roles: string[] = [
   const n = Math.max(1, Math.floor(blocks));
   const notes: string[] = [];
   if (spec.kind === 'custom') {
-    return { blocks: n, cuts: [], fabrics: [], stripSets: [], notes: ['Cut as the coordinator describes below, once per block.'], freeText: spec.cutList };
+    return {
+      blocks: n,
+      cuts: [],
+      fabrics: [],
+      stripSets: [],
+      notes: ['Cut as the coordinator describes below, once per block.'],
+      freeText: spec.cutList,
+    };
   }
   if (spec.kind === 'grid') {
-    const recipe = gridRecipe({ columns: spec.columns, rows: spec.rows, seam: spec.seam ?? 0.25, ...(spec.roles ? { roles: spec.roles } : {}) }, { blocks: n, wof });
-    const cuts = recipe.cutList.map((c) => ({ fabric: c.role ?? 'Any fabric', what: 'Patch', width: c.width, height: c.height, count: c.count }));
-    const fabrics = recipe.stripsToCut.map((s) => ({ fabric: s.role ?? 'Any fabric', yards: s.yards, strips: s.count, stripWidths: [s.width] }));
+    const recipe = gridRecipe(
+      { columns: spec.columns, rows: spec.rows, seam: spec.seam ?? 0.25, ...(spec.roles ? { roles: spec.roles } : {}) },
+      { blocks: n, wof },
+    );
+    const cuts = recipe.cutList.map((c) => ({
+      fabric: c.role ?? 'Any fabric',
+      what: 'Patch',
+      width: c.width,
+      height: c.height,
+      count: c.count,
+    }));
+    const fabrics = recipe.stripsToCut.map((s) => ({
+      fabric: s.role ?? 'Any fabric',
+      yards: s.yards,
+      strips: s.count,
+      stripWidths: [s.width],
+    }));
     const merged = new Map<string, FabricNeed>();
     for (const f of fabrics) {
       const m = merged.get(f.fabric);
-      merged.set(f.fabric, m ? { ...m, yards: m.yards + f.yards, strips: m.strips + f.strips, stripWidths: [...m.stripWidths, ...f.stripWidths] } : f);
+      merged.set(
+        f.fabric,
+        m
+          ? { ...m, yards: m.yards + f.yards, strips: m.strips + f.strips, stripWidths: [...m.stripWidths, ...f.stripWidths] }
+          : f,
+      );
     }
     notes.push('Sew the strips of each strip set together along their length, press, then sub-cut across at the heights given.');
     return { blocks: n, cuts, fabrics: [...merged.values()], stripSets: recipe.stripSets, notes };
@@ -74,7 +110,7 @@ export function cuttingPlan(spec: BlockSpec, blocks: number, roles: string[] = [
       { fabric: b, what: 'Square', width: unit.square, height: unit.square, count: batches },
     ];
     notes.push(`Each pair of squares makes ${unit.yields} HSTs${spare ? `; you will have ${spare} spare` : ''}.`);
-    if (unit.trimTo) notes.push(`Trim each HST to ${unit.trimTo}″ square.`);
+    if (unit.trimTo) notes.push(`Trim each HST to ${formatLength(unit.trimTo)} square.`);
   } else if (spec.kind === 'qst') {
     const unit = qstCut(spec.finished);
     const { batches, spare } = batchCuts([{ count: 1, yields: unit.yields }], n);
@@ -97,8 +133,20 @@ export function cuttingPlan(spec: BlockSpec, blocks: number, roles: string[] = [
   } else {
     const unit = squareInSquareCuts(spec.finished);
     cuts = [
-      { fabric: fabricName(roles, 0, 'Centre'), what: 'Centre square', width: unit.centre.square, height: unit.centre.square, count: n },
-      { fabric: fabricName(roles, 1, 'Corners'), what: 'Square, cut once on the diagonal', width: unit.corners.square, height: unit.corners.square, count: 2 * n },
+      {
+        fabric: fabricName(roles, 0, 'Centre'),
+        what: 'Centre square',
+        width: unit.centre.square,
+        height: unit.centre.square,
+        count: n,
+      },
+      {
+        fabric: fabricName(roles, 1, 'Corners'),
+        what: 'Square, cut once on the diagonal',
+        width: unit.corners.square,
+        height: unit.corners.square,
+        count: 2 * n,
+      },
     ];
     notes.push('Sizes with √2 are rounded up to the next ⅛″; trim the finished unit square.');
   }
@@ -106,7 +154,11 @@ export function cuttingPlan(spec: BlockSpec, blocks: number, roles: string[] = [
 }
 
 /** Memoised cuttingPlan; null while the spec cannot be planned (an engine error is returned as text). */
-export function useCuttingPlan(spec: BlockSpec | null, blocks: number, roles: string[]): { plan: CuttingPlan | null; problem: string | null } {
+export function useCuttingPlan(
+  spec: BlockSpec | null,
+  blocks: number,
+  roles: string[],
+): { plan: CuttingPlan | null; problem: string | null } {
   const key = JSON.stringify([spec, blocks, roles]);
   return useMemo(() => {
     if (!spec) return { plan: null, problem: null };
