@@ -157,7 +157,7 @@ export async function runLiveBurstBench(
         'measurements/s': round(total / (burstMs / 1000)),
         'board changes (per viewer)': messages.length,
         'most changes in 1 s': busiest,
-        'closest changes_ms': Number.isFinite(closest) ? round(closest) : 'n/a',
+        'closest receipts_ms (viewer side)': Number.isFinite(closest) ? round(closest) : 'n/a',
         p50_ms: round(quantile(latencies, 0.5)),
         p95_ms: round(quantile(latencies, 0.95)),
         p99_ms: round(quantile(latencies, 0.99)),
