@@ -3,6 +3,7 @@ import { QueryTypes } from 'sequelize';
 import type { Role } from '@shared/schemas/guilds';
 import type { SwapDto, SwapSummaryDto, SwapTransitionDto } from '@shared/swap-types';
 import { Guild, Swap, type SwapTransition, User } from '../db/models';
+import { SIGNUP_STATS } from './swaps.queries';
 
 export interface SignupStats {
   signups: number;
@@ -15,9 +16,7 @@ export async function signupStats(swapIds: number[], userId: number): Promise<Ma
   const stats = new Map<number, SignupStats>();
   if (swapIds.length === 0) return stats;
   const rows = await Swap.sequelize!.query<{ swap_id: number; signups: string; pledged: string; mine: string }>(
-    `SELECT swap_id, count(*) AS signups, coalesce(sum(blocks), 0) AS pledged,
-            coalesce(sum(blocks) FILTER (WHERE user_id = $userId), 0) AS mine
-       FROM signups WHERE swap_id = ANY($ids::int[]) AND status = 'active' GROUP BY swap_id`,
+    SIGNUP_STATS,
     { bind: { ids: swapIds, userId }, type: QueryTypes.SELECT },
   );
   for (const r of rows) stats.set(r.swap_id, { signups: Number(r.signups), pledged: Number(r.pledged), myPledge: Number(r.mine) });

@@ -7,3 +7,8 @@
  */
 export const viewerRole = (swapAlias: 'Swap' | 's') =>
   `(SELECT m.role FROM memberships m WHERE m.guild_id = "${swapAlias}"."guild_id" AND m.user_id = $viewerId AND m.status = 'active')`;
+
+/** Active sign-ups, blocks pledged and the pledge of `$userId`, for each swap in `$ids`. */
+export const SIGNUP_STATS = `SELECT swap_id, count(*) AS signups, coalesce(sum(blocks), 0) AS pledged,
+            coalesce(sum(blocks) FILTER (WHERE user_id = $userId), 0) AS mine
+       FROM signups WHERE swap_id = ANY($ids::int[]) AND status = 'active' GROUP BY swap_id`;
