@@ -189,3 +189,16 @@ it('undoes a measurement and a block taken in by mistake at intake, with the key
   const after = (await g.coordinator.api('GET', `/blocks/${block!.id}`)).body as { state: string };
   expect(after.state).toBe('pledged');
 });
+
+it('says which size a unit asks for and shows finished and unfinished as you type', async () => {
+  const g = await liveGuild(server.url);
+  const page = await signedInPage(phone, g.coordinator);
+  await page.goto(`${server.url}/guilds/${g.guildId}/swaps/new`);
+  await page.getByLabel('Title').fill('Kestrel Hollow Triangles');
+  await page.getByRole('button', { name: 'Next' }).click();
+  await page.getByLabel('Kind of block').selectOption('hst');
+  await page.getByLabel('Finished size of the unit (sewn into the quilt)').fill('3');
+  // HST finished 3″ → unfinished 3½″ with ¼″ seams (finished + 2 × seam allowance; common practice, no source).
+  await page.getByText('As typed: finished 3″ × 3″; unfinished 3½″ × 3½″ (cut edge to cut edge, what you measure).').waitFor();
+  await shot(page, 'setup-unit-360');
+});

@@ -40,7 +40,12 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
       <div className="relative space-y-3">
         <div className="flex flex-wrap items-center justify-between gap-2">
           <h4 className="text-xl font-semibold">Block {block.sequence}</h4>
-          <BlockStateText state={block.state} />
+          {/* Her own block going to someone else is "shared out", not "returned" (which sounds like it came back to her). */}
+          {block.state === 'returned' ? (
+            <span className="font-semibold">Shared out</span>
+          ) : (
+            <BlockStateText state={block.state} />
+          )}
         </div>
         <p className="flex flex-wrap items-center gap-2">
           <span>Coordinator’s verdict:</span>

@@ -19,13 +19,25 @@ const geeseMethods = [
 ];
 const lengthHint = 'Any of 3 1/2, 3½, 3.5 or 89 mm.';
 
-function LengthList({ form, name, label }: { form: UseFormReturn<SetupValues>; name: 'block.columns' | 'block.rows'; label: string }) {
+function LengthList({
+  form,
+  name,
+  label,
+}: {
+  form: UseFormReturn<SetupValues>;
+  name: 'block.columns' | 'block.rows';
+  label: string;
+}) {
   const { fields, append, remove } = useFieldArray({ control: form.control, name });
   const errors = form.formState.errors.block?.[name === 'block.columns' ? 'columns' : 'rows'];
   return (
     <fieldset className="space-y-3">
       <legend className="font-semibold">{label}</legend>
-      {errors?.message && <p role="alert" className="font-semibold text-madder-deep">{errors.message}</p>}
+      {errors?.message && (
+        <p role="alert" className="font-semibold text-madder-deep">
+          {errors.message}
+        </p>
+      )}
       <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
         {fields.map((field, i) => (
           <TextField
@@ -38,7 +50,13 @@ function LengthList({ form, name, label }: { form: UseFormReturn<SetupValues>; n
         ))}
       </div>
       <div className="flex flex-wrap gap-2">
-        <Button variant="secondary" onClick={() => append({ value: fields.at(-1) ? form.getValues(`${name}.${fields.length - 1}.value` as const) : '3 1/2' })} disabled={fields.length >= 12}>
+        <Button
+          variant="secondary"
+          onClick={() =>
+            append({ value: fields.at(-1) ? form.getValues(`${name}.${fields.length - 1}.value` as const) : '3 1/2' })
+          }
+          disabled={fields.length >= 12}
+        >
           Add {name === 'block.columns' ? 'a column' : 'a row'}
         </Button>
         <Button variant="quiet" onClick={() => remove(fields.length - 1)} disabled={fields.length <= 1}>
@@ -62,7 +80,9 @@ export function StepBlock({ form }: { form: UseFormReturn<SetupValues> }) {
   const { register, formState } = form;
   const e = formState.errors.block;
   const block = useWatch({ control: form.control, name: 'block' });
-  const roles = useWatch({ control: form.control, name: 'colourRules' }).map((r) => r.role).filter(Boolean);
+  const roles = useWatch({ control: form.control, name: 'colourRules' })
+    .map((r) => r.role)
+    .filter(Boolean);
   const { spec, problem } = parseBlock(block);
   const sizes = sizesOrNull(spec);
 
@@ -72,33 +92,98 @@ export function StepBlock({ form }: { form: UseFormReturn<SetupValues> }) {
         <SelectField label="Kind of block" options={kindOptions} error={e?.kind?.message} {...register('block.kind')} />
         {block.kind === 'grid' && (
           <>
-            <p className="text-walnut-soft">Give the cut width of each column and the cut height of each row, seam allowance included. {lengthHint}</p>
+            <p className="text-walnut-soft">
+              Give the cut width of each column and the cut height of each row, seam allowance included. {lengthHint}
+            </p>
             <LengthList form={form} name="block.columns" label="Column cut widths" />
             <LengthList form={form} name="block.rows" label="Row cut heights" />
           </>
         )}
         {(block.kind === 'hst' || block.kind === 'qst' || block.kind === 'square-in-square') && (
-          <TextField label="Finished size of the unit" hint={`Finished, without seam allowance. ${lengthHint}`} inputMode="decimal" error={e?.finished?.message} {...register('block.finished')} />
+          <>
+            <TextField
+              label="Finished size of the unit (sewn into the quilt)"
+              hint={`The size once sewn in, without seam allowance: not the size you cut or measure. ${lengthHint}`}
+              inputMode="decimal"
+              error={e?.finished?.message}
+              {...register('block.finished')}
+            />
+            {sizes && (
+              <p className="-mt-3 text-indigo-deep">
+                As typed: finished {sizeText(sizes.finished)}; unfinished {sizeText(sizes.unfinished)} (cut edge to cut edge, what
+                you measure).
+              </p>
+            )}
+          </>
         )}
-        {block.kind === 'hst' && <SelectField label="How the HSTs are made" options={hstMethods} error={e?.hstMethod?.message} {...register('block.hstMethod')} />}
+        {block.kind === 'hst' && (
+          <SelectField
+            label="How the HSTs are made"
+            options={hstMethods}
+            error={e?.hstMethod?.message}
+            {...register('block.hstMethod')}
+          />
+        )}
         {(block.kind === 'flying-geese' || block.kind === 'custom') && (
           <div className="grid gap-4 sm:grid-cols-2">
-            <TextField label="Finished width" hint={block.kind === 'flying-geese' ? 'Twice the height.' : lengthHint} inputMode="decimal" error={e?.finishedWidth?.message} {...register('block.finishedWidth')} />
-            <TextField label="Finished height" inputMode="decimal" error={e?.finishedHeight?.message} {...register('block.finishedHeight')} />
+            <TextField
+              label="Finished width"
+              hint={block.kind === 'flying-geese' ? 'Twice the height.' : lengthHint}
+              inputMode="decimal"
+              error={e?.finishedWidth?.message}
+              {...register('block.finishedWidth')}
+            />
+            <TextField
+              label="Finished height"
+              inputMode="decimal"
+              error={e?.finishedHeight?.message}
+              {...register('block.finishedHeight')}
+            />
           </div>
         )}
-        {block.kind === 'flying-geese' && <SelectField label="How the geese are made" options={geeseMethods} error={e?.geeseMethod?.message} {...register('block.geeseMethod')} />}
-        {block.kind === 'custom' && (
-          <TextArea label="Cut list" hint="Write each piece with its cut size and how many, one per line." rows={6} error={e?.cutList?.message} {...register('block.cutList')} />
+        {block.kind === 'flying-geese' && (
+          <SelectField
+            label="How the geese are made"
+            options={geeseMethods}
+            error={e?.geeseMethod?.message}
+            {...register('block.geeseMethod')}
+          />
         )}
-        {(block.kind === 'grid' || block.kind === 'custom') ? (
-          <TextField label="Seam allowance" hint="¼″ is usual." inputMode="decimal" error={e?.seam?.message} {...register('block.seam')} />
+        {block.kind === 'custom' && (
+          <TextArea
+            label="Cut list"
+            hint="Write each piece with its cut size and how many, one per line."
+            rows={6}
+            error={e?.cutList?.message}
+            {...register('block.cutList')}
+          />
+        )}
+        {block.kind === 'grid' || block.kind === 'custom' ? (
+          <TextField
+            label="Seam allowance"
+            hint="¼″ is usual."
+            inputMode="decimal"
+            error={e?.seam?.message}
+            {...register('block.seam')}
+          />
         ) : (
           <p className="text-walnut-soft">Unit blocks use a ¼″ seam allowance: their cut formulas assume it.</p>
         )}
         <div className="grid gap-4 sm:grid-cols-2">
-          <TextField label="Tolerance on each side" hint="How far from the unfinished size a block may be, either way. ⅛″ is usual." inputMode="decimal" error={formState.errors.tolerance?.message} {...register('tolerance')} />
-          <TextField label="Squareness limit" hint="Largest difference between the two diagonals. ¼″ is usual." inputMode="decimal" error={formState.errors.squareness?.message} {...register('squareness')} />
+          <TextField
+            label="Tolerance on each side"
+            hint="How far from the unfinished size a block may be, either way. ⅛″ is usual."
+            inputMode="decimal"
+            error={formState.errors.tolerance?.message}
+            {...register('tolerance')}
+          />
+          <TextField
+            label="Squareness limit"
+            hint="Largest difference between the two diagonals. ¼″ is usual."
+            inputMode="decimal"
+            error={formState.errors.squareness?.message}
+            {...register('squareness')}
+          />
         </div>
       </div>
       <aside aria-live="polite" className="rounded-card bg-linen p-4">
