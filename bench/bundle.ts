@@ -29,7 +29,10 @@ const gz = (file: string) => gzipSync(readFileSync(join(dist, file)), { level: 9
 
 export function runBundleBench(opts: { build?: boolean } = {}): BundleRow[] {
   if (opts.build !== false) {
-    const r = spawnSync(process.execPath, ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'error'], { cwd: root, stdio: 'inherit' });
+    const r = spawnSync(process.execPath, ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'error'], {
+      cwd: root,
+      stdio: 'inherit',
+    });
     if (r.status !== 0) throw new Error('vite build failed');
   }
   const manifest = JSON.parse(readFileSync(join(dist, '.vite', 'manifest.json'), 'utf8')) as Record<string, ManifestChunk>;
@@ -56,7 +59,9 @@ export function runBundleBench(opts: { build?: boolean } = {}): BundleRow[] {
   const rows: BundleRow[] = [];
   const first = size(initial);
   rows.push({ chunk: 'initial (entry)', js_gzip_kB: round(first.js), css_gzip_kB: round(first.css), target: '< 200 kB JS' });
-  for (const key of Object.keys(manifest).filter((k) => manifest[k]!.isDynamicEntry).sort()) {
+  for (const key of Object.keys(manifest)
+    .filter((k) => manifest[k]!.isDynamicEntry)
+    .sort()) {
     const own = size(closure(key, initial));
     rows.push({ chunk: key.replace(/^src\//, ''), js_gzip_kB: round(own.js), css_gzip_kB: round(own.css) });
   }

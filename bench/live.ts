@@ -33,17 +33,31 @@ function row(name: string, samples: number[]): LiveRow {
   const sorted = [...samples].sort((a, b) => a - b);
   const at = (q: number) => sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))] ?? NaN;
   const ms = (x: number) => Math.round(x * 100) / 100;
-  return { name, samples: sorted.length, p50_ms: ms(at(0.5)), p95_ms: ms(at(0.95)), p99_ms: ms(at(0.99)), max_ms: ms(sorted.at(-1) ?? NaN) };
+  return {
+    name,
+    samples: sorted.length,
+    p50_ms: ms(at(0.5)),
+    p95_ms: ms(at(0.95)),
+    p99_ms: ms(at(0.99)),
+    max_ms: ms(sorted.at(-1) ?? NaN),
+  };
 }
 
 async function person(baseUrl: string, i: number) {
   const res = await fetch(`${baseUrl}/api/auth/register`, {
     method: 'POST',
     headers: { 'content-type': 'application/json', 'x-requested-with': 'blockpost' },
-    body: JSON.stringify({ email: `live-bench-${i}@example.test`, password: 'bench-password-1', displayName: `Bench Maker ${String(i).padStart(2, '0')}` }),
+    body: JSON.stringify({
+      email: `live-bench-${i}@example.test`,
+      password: 'bench-password-1',
+      displayName: `Bench Maker ${String(i).padStart(2, '0')}`,
+    }),
   });
   if (res.status !== 201) throw new Error(`register answered ${res.status}`);
-  const cookie = res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  const cookie = res.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
   const { user } = (await res.json()) as { user: { id: number } };
   const api = async <T>(method: string, path: string, body?: unknown): Promise<T> => {
     const r = await fetch(`${baseUrl}/api${path}`, {
@@ -58,7 +72,12 @@ async function person(baseUrl: string, i: number) {
 }
 
 function connect(url: string, cookie: string): Promise<Client> {
-  const socket: Client = connectClient(url, { transports: ['websocket'], extraHeaders: { cookie }, reconnection: false, forceNew: true });
+  const socket: Client = connectClient(url, {
+    transports: ['websocket'],
+    extraHeaders: { cookie },
+    reconnection: false,
+    forceNew: true,
+  });
   return new Promise((resolve, reject) => {
     socket.once('connect', () => resolve(socket));
     socket.once('connect_error', reject);
@@ -74,7 +93,13 @@ function ask<T>(socket: Client, event: keyof ClientToServerEvents, payload: unkn
 }
 
 /** Sends `changes` block changes through node `writer` and times their arrival at every socket. */
-async function fanOut(writer: RunningServer, sockets: Client[], swapId: number, blockIds: number[], coordinator: Awaited<ReturnType<typeof person>>) {
+async function fanOut(
+  writer: RunningServer,
+  sockets: Client[],
+  swapId: number,
+  blockIds: number[],
+  coordinator: Awaited<ReturnType<typeof person>>,
+) {
   const samples: number[] = [];
   const slowest: number[] = [];
   let committedAt = 0;
@@ -111,7 +136,16 @@ export async function runLiveBench(opts: { sockets?: number; members?: number; m
   try {
     const url = await cluster.database('live_bench');
     const config = (port = '0') =>
-      loadConfig({ DATABASE_URL: url, SESSION_SECRET: 'bench-secret-bench-secret', PORT: port, LOG_LEVEL: 'silent', SERVE_CLIENT: 'false', JOBS: 'false', NODE_ENV: 'test', REGISTER_RATE_LIMIT: '100000' });
+      loadConfig({
+        DATABASE_URL: url,
+        SESSION_SECRET: 'bench-secret-bench-secret',
+        PORT: port,
+        LOG_LEVEL: 'silent',
+        SERVE_CLIENT: 'false',
+        JOBS: 'false',
+        NODE_ENV: 'test',
+        REGISTER_RATE_LIMIT: '100000',
+      });
     nodes.push(await startServer(config()), await startServer(config()));
     const [nodeA, nodeB] = nodes as [RunningServer, RunningServer];
 
@@ -119,8 +153,11 @@ export async function runLiveBench(opts: { sockets?: number; members?: number; m
     const coordinator = await person(nodeA.url, 0);
     const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Live Bench Bee' });
     const swap = await coordinator.api<{ id: number }>('POST', `/guilds/${guild.id}/swaps`, {
-      title: 'Bench Stripes', block: { kind: 'grid', columns: [3.5, 3.5, 3.5], rows: [3.5, 3.5, 3.5], seam: 0.25 },
-      quota: { min: 1, max: 6 }, signupClosesAt: new Date(Date.now() + 10 * DAY).toISOString(), dueAt: new Date(Date.now() + 40 * DAY).toISOString(),
+      title: 'Bench Stripes',
+      block: { kind: 'grid', columns: [3.5, 3.5, 3.5], rows: [3.5, 3.5, 3.5], seam: 0.25 },
+      quota: { min: 1, max: 6 },
+      signupClosesAt: new Date(Date.now() + 10 * DAY).toISOString(),
+      dueAt: new Date(Date.now() + 40 * DAY).toISOString(),
     });
     await coordinator.api('POST', `/swaps/${swap.id}/transitions`, { to: 'signup' });
     const people = [];
@@ -133,10 +170,14 @@ export async function runLiveBench(opts: { sockets?: number; members?: number; m
     await coordinator.api('POST', `/swaps/${swap.id}/transitions`, { to: 'sewing' });
     await coordinator.api('POST', `/swaps/${swap.id}/transitions`, { to: 'collecting' });
     const blocks: number[] = [];
-    for (const p of people) blocks.push(...(await p.api<{ id: number }[]>('GET', `/swaps/${swap.id}/blocks?maker=me`)).map((b) => b.id));
+    for (const p of people)
+      blocks.push(...(await p.api<{ id: number }[]>('GET', `/swaps/${swap.id}/blocks?maker=me`)).map((b) => b.id));
 
     const rows: LiveRow[] = [];
-    for (const [label, node, share] of [['same node', nodeA, blocks.slice(0, blocks.length / 2)], ['other node, via the PostgreSQL adapter', nodeB, blocks.slice(blocks.length / 2)]] as const) {
+    for (const [label, node, share] of [
+      ['same node', nodeA, blocks.slice(0, blocks.length / 2)],
+      ['other node, via the PostgreSQL adapter', nodeB, blocks.slice(blocks.length / 2)],
+    ] as const) {
       for (const s of sockets.splice(0)) s.disconnect();
       for (let i = 0; i < socketsWanted; i++) sockets.push(await connect(node.url, people[i % people.length]!.cookie));
       await Promise.all(sockets.map((s) => ask(s, 'board:join', { swapId: swap.id })));
@@ -148,7 +189,10 @@ export async function runLiveBench(opts: { sockets?: number; members?: number; m
 
     // Chat: senders take turns so nobody reaches the per-person limit of 10 messages in 10 s.
     const sewDay = await coordinator.api<{ chatRoomId: number }>('POST', `/guilds/${guild.id}/sew-days`, {
-      title: 'Bench sew day', startsAt: '2099-01-02T10:00', endsAt: '2099-01-02T12:00', place: 'Hall',
+      title: 'Bench sew day',
+      startsAt: '2099-01-02T10:00',
+      endsAt: '2099-01-02T12:00',
+      place: 'Hall',
     });
     for (const s of sockets.splice(0)) s.disconnect();
     const senders = await Promise.all(people.slice(0, 20).map((p) => connect(nodeA.url, p.cookie)));
