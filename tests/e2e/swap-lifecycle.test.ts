@@ -28,6 +28,14 @@ async function register(displayName: string): Promise<Person> {
   return { agent, email, id: res.body.user.id as number };
 }
 
+/** A big step asks first: press its button, then confirm it in the dialog that says what it will do. */
+async function takeStep(page: Page, label: string) {
+  await page.getByRole('button', { name: label }).click();
+  const dialog = page.getByRole('dialog');
+  await dialog.getByRole('button', { name: label }).click();
+  await dialog.waitFor({ state: 'hidden' });
+}
+
 async function signIn(page: Page, email: string) {
   await page.goto(`${server.url}/sign-in`);
   await page.getByLabel('E-mail').fill(email);
@@ -39,7 +47,9 @@ async function signIn(page: Page, email: string) {
 beforeAll(async () => {
   server = await startE2eServer();
   const admin = await register('Henrietta Vasquez');
-  guildId = (await admin.agent.post('/api/guilds').send({ name: 'Bramblegate Quilt Circle', timeZone: 'Europe/London' }).expect(201)).body.id;
+  guildId = (
+    await admin.agent.post('/api/guilds').send({ name: 'Bramblegate Quilt Circle', timeZone: 'Europe/London' }).expect(201)
+  ).body.id;
   const { Membership } = await import('../../server/db/models');
   coordinator = await register('Odile Farraday');
   member = await register('Tamsin Okoro');
@@ -68,7 +78,10 @@ it('runs a swap from set-up to a confirmed return and a CSV download', async () 
   await page.getByText('9½″ × 9½″', { exact: true }).waitFor();
   await page.getByLabel('Column 2').fill('two');
   await page.getByRole('button', { name: 'Next' }).click();
-  await page.getByText(/“two” is not a length we can read/).first().waitFor();
+  await page
+    .getByText(/“two” is not a length we can read/)
+    .first()
+    .waitFor();
   await page.getByLabel('Column 2').fill('3½');
   await page.getByRole('button', { name: 'Next' }).click();
   await page.getByRole('button', { name: 'Checkerboard' }).click();
@@ -78,7 +91,7 @@ it('runs a swap from set-up to a confirmed return and a CSV download', async () 
   await page.getByRole('button', { name: 'Save as draft' }).click();
   await page.getByRole('heading', { name: 'Bramble Nine-Patch' }).waitFor();
   const swapId = Number(/swaps\/(\d+)/.exec(page.url())![1]);
-  await page.getByRole('button', { name: 'Open sign-up' }).click();
+  await takeStep(page, 'Open sign-up');
   await page.getByText('Sign-up open', { exact: true }).first().waitFor();
 
   // The member signs up on a phone and gets the cutting plan for exactly one block.
@@ -93,7 +106,9 @@ it('runs a swap from set-up to a confirmed return and a CSV download', async () 
 
   // A photo of the finished block marks it sewn.
   await mobile.getByText('Add photos of this block').click();
-  const photo = await sharp({ create: { width: 900, height: 700, channels: 3, background: '#2f4b7c' } }).jpeg().toBuffer();
+  const photo = await sharp({ create: { width: 900, height: 700, channels: 3, background: '#2f4b7c' } })
+    .jpeg()
+    .toBuffer();
   await mobile.locator('input[type=file]').first().setInputFiles({ name: 'my-block.jpg', mimeType: 'image/jpeg', buffer: photo });
   await mobile.getByRole('button', { name: 'Upload 1 photo' }).click();
   await mobile.getByText('The photo was added.').waitFor();
@@ -102,8 +117,8 @@ it('runs a swap from set-up to a confirmed return and a CSV download', async () 
   // The coordinator pledges too (so there is someone to swap with) and moves the swap on.
   await coordinator.agent.post(`/api/swaps/${swapId}/signups`).send({ blocks: 1 }).expect(200);
   await page.reload();
-  await page.getByRole('button', { name: 'Close sign-up and start sewing' }).click();
-  await page.getByRole('button', { name: 'Start collecting blocks' }).click();
+  await takeStep(page, 'Close sign-up and start sewing');
+  await takeStep(page, 'Start collecting blocks');
   await page.getByRole('button', { name: 'Start sorting' }).waitFor();
 
   // Intake: receive and measure the member's block in the roster; the verdict shows at once.
@@ -127,7 +142,7 @@ it('runs a swap from set-up to a confirmed return and a CSV download', async () 
 
   // Sorting, then the return: plan, review, confirm.
   await page.getByRole('link', { name: 'Overview' }).click();
-  await page.getByRole('button', { name: 'Start sorting' }).click();
+  await takeStep(page, 'Start sorting');
   await page.getByRole('link', { name: 'Return of blocks' }).click();
   await page.getByRole('button', { name: 'Make a plan' }).click();
   await page.getByRole('spinbutton', { name: 'Blocks from Tamsin Okoro to Odile Farraday' }).waitFor();
@@ -135,12 +150,18 @@ it('runs a swap from set-up to a confirmed return and a CSV download', async () 
   await page.getByText('Tamsin Okoro has 1 accepted block but sends 2.').waitFor();
   expect(await page.getByRole('button', { name: 'Confirm the return' }).isDisabled()).toBe(true);
   await page.getByRole('spinbutton', { name: 'Blocks from Tamsin Okoro to Odile Farraday' }).fill('1');
-  await page.getByRole('button', { name: 'Confirm the return' }).click();
+  await takeStep(page, 'Confirm the return');
   await page.getByRole('heading', { name: 'The return is confirmed' }).waitFor();
 
-  const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download the return (CSV)' }).click()]);
+  const [download] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByRole('link', { name: 'Download the return (CSV)' }).click(),
+  ]);
   expect(download.suggestedFilename()).toBe(`bramble-nine-patch-swap-${swapId}-distribution.csv`);
-  const csv = readFileSync((await download.path())!, 'utf8').replace(/^\uFEFF/, '').trim().split('\r\n');
+  const csv = readFileSync((await download.path())!, 'utf8')
+    .replace(/^\uFEFF/, '')
+    .trim()
+    .split('\r\n');
   expect(csv[0]).toBe('From (maker),To (recipient),Blocks,Block numbers');
   expect(csv.slice(1).sort()).toEqual(['Odile Farraday,Tamsin Okoro,1,#1', 'Tamsin Okoro,Odile Farraday,1,#1']);
 
