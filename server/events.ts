@@ -34,6 +34,8 @@ export interface DomainEventMap {
   'chat.changed': { guildId: number; roomId: number; actorId: number; change: 'edited' | 'deleted' | 'removed'; message: ChatMessageDto };
   /** Sign-in sessions that ended (signed out, or every session of an account after a password reset or change). */
   'session.ended': { userId: number; sessionIds: string[] };
+  /** Payments changed by a verified webhook: paid or refunded (receipts), or failed. */
+  'payment.settled': { guildId: number; userId: number; swapId: number | null; paymentIds: number[]; status: 'paid' | 'refunded' | 'failed' };
 }
 
 export type DomainEventName = keyof DomainEventMap;
