@@ -23,7 +23,11 @@ await seedDemoIfEmpty(sequelize, config);
 await sequelize.close();
 
 const children: ChildProcess[] = [
-  spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'watch', '--clear-screen=false', 'server/index.ts'], { cwd: repoRoot, env, stdio: 'inherit' }),
+  spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'watch', '--clear-screen=false', 'server/index.ts'], {
+    cwd: repoRoot,
+    env,
+    stdio: 'inherit',
+  }),
   spawn(process.execPath, ['node_modules/vite/bin/vite.js'], { cwd: repoRoot, env, stdio: 'inherit' }),
 ];
 console.log('[dev] Open http://127.0.0.1:3000 (hot reload); the API restarts when server/ or shared/ changes.');

@@ -45,7 +45,10 @@ try {
   await sequelize.close();
 
   log('Building the client…');
-  const build = spawnSync(process.execPath, ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn'], { cwd: repoRoot, stdio: 'inherit' });
+  const build = spawnSync(process.execPath, ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn'], {
+    cwd: repoRoot,
+    stdio: 'inherit',
+  });
   if (build.status !== 0) throw new Error('The client build failed.');
 
   running = await startServer(config);

@@ -65,4 +65,10 @@ export const featureRouters: FeatureRouter[] = [
 const liveFeature = liveStartup([boardLive(), chatLive]);
 
 // The photo store's owner check comes first: a store that is another install's stops the start untouched.
-export const featureStartups: FeatureStartup[] = [photoStoreFeature, liveFeature, mailJobsFeature, paymentsFeature, photoColourBackfillFeature];
+export const featureStartups: FeatureStartup[] = [
+  photoStoreFeature,
+  liveFeature,
+  mailJobsFeature,
+  paymentsFeature,
+  photoColourBackfillFeature,
+];

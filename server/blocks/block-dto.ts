@@ -14,7 +14,19 @@ export function isAccepted(block: Pick<Block, 'verdict' | 'trimmed' | 'state' | 
 /** What a measurement answer is made of: a Measurement row, or the same fields read as JSON. */
 export type MeasurementFields = Pick<
   Measurement,
-  'id' | 'blockId' | 'source' | 'width' | 'height' | 'diagonal1' | 'diagonal2' | 'verdict' | 'deviationWidth' | 'deviationHeight' | 'deviationDiagonal' | 'note' | 'createdAt'
+  | 'id'
+  | 'blockId'
+  | 'source'
+  | 'width'
+  | 'height'
+  | 'diagonal1'
+  | 'diagonal2'
+  | 'verdict'
+  | 'deviationWidth'
+  | 'deviationHeight'
+  | 'deviationDiagonal'
+  | 'note'
+  | 'createdAt'
 > & { measuredBy?: { id: number; displayName: string } | null; withdrawnAt?: Date | null };
 
 export function measurementDto(m: MeasurementFields): MeasurementDto {
@@ -40,7 +52,11 @@ export function measurementDto(m: MeasurementFields): MeasurementDto {
 }
 
 /** A latest measurement as json_build_object writes it: NUMERIC as JSON numbers, times as ISO strings. */
-type MeasurementJson = Omit<MeasurementFields, 'createdAt' | 'measuredBy'> & { measuredById: number | null; measuredByName: string | null; createdAt: string };
+type MeasurementJson = Omit<MeasurementFields, 'createdAt' | 'measuredBy'> & {
+  measuredById: number | null;
+  measuredByName: string | null;
+  createdAt: string;
+};
 
 interface RelatedJson {
   users: { id: number; displayName: string }[];
@@ -75,8 +91,14 @@ function relatedSql() {
 async function relatedRows(blocks: Block[], transaction?: Transaction): Promise<RelatedJson> {
   const sequelize = Block.sequelize!;
   const ids = blocks.map((b) => b.id);
-  const userIds = [...new Set(blocks.flatMap((b) => [b.makerId, b.recipientId, b.acceptedById].filter((x): x is number => x != null)))];
-  const [row] = await sequelize.query<RelatedJson>(relatedSql(), { bind: { ids, userIds }, type: QueryTypes.SELECT, transaction });
+  const userIds = [
+    ...new Set(blocks.flatMap((b) => [b.makerId, b.recipientId, b.acceptedById].filter((x): x is number => x != null))),
+  ];
+  const [row] = await sequelize.query<RelatedJson>(relatedSql(), {
+    bind: { ids, userIds },
+    type: QueryTypes.SELECT,
+    transaction,
+  });
   return row!;
 }
 
@@ -92,7 +114,12 @@ export interface BlockViewer {
  * Full block answers for a list of blocks, with a fixed number of queries whatever the count. With a
  * `viewer`, another maker's hand-in note (tracking numbers, addresses) is left out unless they manage the swap.
  */
-export async function blockDtos(blocks: Block[], swap: Swap, transaction?: Transaction, viewer?: BlockViewer): Promise<BlockDto[]> {
+export async function blockDtos(
+  blocks: Block[],
+  swap: Swap,
+  transaction?: Transaction,
+  viewer?: BlockViewer,
+): Promise<BlockDto[]> {
   if (blocks.length === 0) return [];
   const related = await relatedRows(blocks, transaction);
   const names = new Map(related.users.map((u) => [u.id, u.displayName]));
@@ -132,7 +159,9 @@ export async function blockDtos(blocks: Block[], swap: Swap, transaction?: Trans
               at: b.acceptedAt.toISOString(),
             }
           : null,
-      handIn: b.handInHow ? { how: b.handInHow, note: !viewer || viewer.canManage || viewer.userId === b.makerId ? (b.handInNote ?? null) : null } : null,
+      handIn: b.handInHow
+        ? { how: b.handInHow, note: !viewer || viewer.canManage || viewer.userId === b.makerId ? (b.handInNote ?? null) : null }
+        : null,
       recipient,
       times: {
         sewn: iso(b.sewnAt),

@@ -26,7 +26,9 @@ export async function findBlockWithSwap(
                  FROM blocks b JOIN swaps s ON s.id = b.swap_id
                 WHERE b.id = $blockId${options.lockForChange ? ' FOR NO KEY UPDATE OF b' : ''}`;
   const [row] = await Block.sequelize!.query<Record<string, unknown>>(sql, {
-    bind: { ...options.bind, blockId }, type: QueryTypes.SELECT, transaction: options.transaction,
+    bind: { ...options.bind, blockId },
+    type: QueryTypes.SELECT,
+    transaction: options.transaction,
   });
   if (!row) return null;
   const blockValues: Record<string, unknown> = {};

@@ -29,12 +29,23 @@ export async function lockedBlock(blockId: number, transaction: Transaction): Pr
 
 export function assertSwapIn(swap: Swap, states: readonly SwapState[], doing: string) {
   if (states.includes(swap.state)) return;
-  throw new ConflictError(`Blocks can be ${doing} only while the swap is ${states.join(' or ')}; it is ${swap.state} now.`, 'swap_state');
+  throw new ConflictError(
+    `Blocks can be ${doing} only while the swap is ${states.join(' or ')}; it is ${swap.state} now.`,
+    'swap_state',
+  );
 }
 
 function changed(deps: Deps, swap: Swap, block: Block, actorId: number, from: BlockState) {
   return () =>
-    deps.events.emit('block.changed', { swapId: swap.id, guildId: swap.guildId, actorId, blockId: block.id, makerId: block.makerId, from, to: block.state });
+    deps.events.emit('block.changed', {
+      swapId: swap.id,
+      guildId: swap.guildId,
+      actorId,
+      blockId: block.id,
+      makerId: block.makerId,
+      from,
+      to: block.state,
+    });
 }
 
 /**
@@ -42,7 +53,12 @@ function changed(deps: Deps, swap: Swap, block: Block, actorId: number, from: Bl
  * further along: nothing changes. Exported for the photo upload, which calls it inside its own
  * transaction and emits the returned event after commit.
  */
-export async function markBlockSewn(deps: Deps, blockId: number, actorId: number, transaction: Transaction): Promise<{ block: Block; swap: Swap; after?: () => void }> {
+export async function markBlockSewn(
+  deps: Deps,
+  blockId: number,
+  actorId: number,
+  transaction: Transaction,
+): Promise<{ block: Block; swap: Swap; after?: () => void }> {
   const { block, swap } = await lockedBlock(blockId, transaction);
   assertSwapIn(swap, ['signup', 'sewing', 'collecting'], 'marked sewn');
   if (block.state !== 'pledged') return { block, swap };
@@ -67,17 +83,29 @@ export async function handIn(deps: Deps, blockId: number, actorId: number, input
     const { block, swap } = await lockedBlock(blockId, transaction);
     assertSwapIn(swap, ['signup', 'sewing', 'collecting'], 'handed in');
     if (!before(block.state, 'received')) {
-      throw new ConflictError('The coordinator has already received this block, so its hand-in cannot change.', 'already_received');
+      throw new ConflictError(
+        'The coordinator has already received this block, so its hand-in cannot change.',
+        'already_received',
+      );
     }
     const from = block.state;
     const now = new Date();
     const was = snapshotOf(block);
     await block.update(
-      { state: 'handed_in', handInHow: input.how, handInNote: input.note || null, handedInAt: block.handedInAt ?? now, sewnAt: block.sewnAt ?? now },
+      {
+        state: 'handed_in',
+        handInHow: input.how,
+        handInNote: input.note || null,
+        handedInAt: block.handedInAt ?? now,
+        sewnAt: block.sewnAt ?? now,
+      },
       { transaction },
     );
     await recordStep(transaction, { blockId, action: 'handed_in', byId: actorId, before: was });
-    return { dto: await blockDto(block, swap, transaction), after: from !== 'handed_in' ? changed(deps, swap, block, actorId, from) : undefined };
+    return {
+      dto: await blockDto(block, swap, transaction),
+      after: from !== 'handed_in' ? changed(deps, swap, block, actorId, from) : undefined,
+    };
   });
   after?.();
   return dto;
@@ -95,7 +123,10 @@ export function receive(deps: Deps, blockId: number, actorId: number, clientId?:
     const from = block.state;
     const now = new Date();
     const was = snapshotOf(block);
-    await block.update({ state: 'received', receivedAt: now, receivedById: actorId, sewnAt: block.sewnAt ?? now }, { transaction });
+    await block.update(
+      { state: 'received', receivedAt: now, receivedById: actorId, sewnAt: block.sewnAt ?? now },
+      { transaction },
+    );
     await recordStep(transaction, { blockId, action: 'received', byId: actorId, before: was });
     return { status: 200, body: await blockDto(block, swap, transaction), after: changed(deps, swap, block, actorId, from) };
   });
@@ -106,7 +137,8 @@ export async function markTrimmed(deps: Deps, blockId: number, actorId: number):
   const { dto, after } = await deps.sequelize.transaction(async (transaction) => {
     const { block, swap } = await lockedBlock(blockId, transaction);
     assertSwapIn(swap, ['collecting', 'sorting'], 'marked trimmed');
-    if (swap.distributionConfirmedAt) throw new ConflictError('The return of blocks is already confirmed.', 'distribution_confirmed');
+    if (swap.distributionConfirmedAt)
+      throw new ConflictError('The return of blocks is already confirmed.', 'distribution_confirmed');
     if (block.state !== 'measured' || block.verdict !== 'trim') {
       throw new ConflictError('Only a measured block with the verdict “Trim to size” can be marked trimmed.', 'not_trim');
     }
@@ -130,7 +162,11 @@ export async function getBlock(block: Block, viewer: BlockViewer): Promise<Block
  * Blocks of a swap. `maker=me` (or the caller's own id) and `recipient=me` (blocks coming to the
  * caller) are open to every member; anyone else's blocks, or all of them, only to officers.
  */
-export async function listBlocks(swap: Swap, viewer: { userId: number; canManage: boolean }, query: BlocksQuery): Promise<BlockDto[]> {
+export async function listBlocks(
+  swap: Swap,
+  viewer: { userId: number; canManage: boolean },
+  query: BlocksQuery,
+): Promise<BlockDto[]> {
   const makerId = query.maker === 'me' ? viewer.userId : query.maker;
   const mine = makerId === viewer.userId || (query.recipient === 'me' && makerId === undefined);
   if (!viewer.canManage && !mine) throw new ForbiddenError('Members see their own blocks: ask for maker=me or recipient=me.');
@@ -140,7 +176,10 @@ export async function listBlocks(swap: Swap, viewer: { userId: number; canManage
       ...(makerId ? { makerId } : {}),
       ...(query.recipient === 'me' ? { recipientId: viewer.userId, state: 'returned' } : {}),
     },
-    order: [['makerId', 'ASC'], ['sequence', 'ASC']],
+    order: [
+      ['makerId', 'ASC'],
+      ['sequence', 'ASC'],
+    ],
   });
   return blockDtos(blocks, swap, undefined, viewer);
 }

@@ -41,7 +41,11 @@ export async function idempotent<T>(
       const claimed = await sequelize.query(
         `INSERT INTO block_requests (client_id, user_id, block_id, action, created_at)
          VALUES ($clientId, $userId, $blockId, $action, now()) ON CONFLICT (client_id) DO NOTHING RETURNING client_id`,
-        { bind: { clientId, userId: claim.userId, blockId: claim.blockId, action: claim.action }, type: QueryTypes.SELECT, transaction },
+        {
+          bind: { clientId, userId: claim.userId, blockId: claim.blockId, action: claim.action },
+          type: QueryTypes.SELECT,
+          transaction,
+        },
       );
       if (claimed.length === 0) {
         const prior = await BlockRequest.findByPk(clientId, { transaction });
@@ -53,7 +57,10 @@ export async function idempotent<T>(
     }
     const outcome = await run(transaction);
     if (clientId) {
-      await BlockRequest.update({ statusCode: outcome.status, response: outcome.body as object }, { where: { clientId }, transaction });
+      await BlockRequest.update(
+        { statusCode: outcome.status, response: outcome.body as object },
+        { where: { clientId }, transaction },
+      );
     }
     return { ...outcome, replayed: false };
   });

@@ -44,66 +44,98 @@ export function recordMeasurement(
   body: MeasurementBody,
 ): Promise<Answer<MeasurementAnswer>> {
   const { source } = actor;
-  return idempotent(deps, { clientId: body.clientId, userId: actor.userId, blockId, action: `measurement:${source}` }, async (transaction) => {
-    const { block, swap } = await lockedBlock(blockId, transaction);
-    if (source === 'ruler') {
-      assertSwapIn(swap, ['sewing', 'collecting', 'sorting'], 'measured');
-      if (swap.distributionConfirmedAt) throw new ConflictError('The return of blocks is already confirmed; measurements are closed.', 'distribution_confirmed');
-      if (block.state !== 'received' && block.state !== 'measured') {
-        throw new ConflictError('Mark the block received before measuring it.', 'not_received');
+  return idempotent(
+    deps,
+    { clientId: body.clientId, userId: actor.userId, blockId, action: `measurement:${source}` },
+    async (transaction) => {
+      const { block, swap } = await lockedBlock(blockId, transaction);
+      if (source === 'ruler') {
+        assertSwapIn(swap, ['sewing', 'collecting', 'sorting'], 'measured');
+        if (swap.distributionConfirmedAt)
+          throw new ConflictError(
+            'The return of blocks is already confirmed; measurements are closed.',
+            'distribution_confirmed',
+          );
+        if (block.state !== 'received' && block.state !== 'measured') {
+          throw new ConflictError('Mark the block received before measuring it.', 'not_received');
+        }
+      } else {
+        assertSwapIn(swap, ['signup', 'sewing', 'collecting', 'sorting'], 'measured by their maker');
       }
-    } else {
-      assertSwapIn(swap, ['signup', 'sewing', 'collecting', 'sorting'], 'measured by their maker');
-    }
-    const measured = {
-      width: four(body.width),
-      height: four(body.height),
-      ...(body.diagonals ? { diagonals: [four(body.diagonals[0]), four(body.diagonals[1])] as [number, number] } : {}),
-    };
-    const { verdict, deviations } = verdictFor(swap, measured);
-    const row = await Measurement.create(
-      {
-        blockId,
-        measuredById: actor.userId,
-        source,
-        width: measured.width,
-        height: measured.height,
-        diagonal1: measured.diagonals?.[0] ?? null,
-        diagonal2: measured.diagonals?.[1] ?? null,
-        verdict,
-        deviationWidth: deviations.width,
-        deviationHeight: deviations.height,
-        deviationDiagonal: deviations.diagonal ?? null,
-        note: body.note || null,
-      },
-      { transaction },
-    );
-    const from = block.state;
-    if (source === 'ruler') {
-      // A new ruler measurement replaces the verdict; an earlier trim or decision no longer applies to it.
-      const before = snapshotOf(block);
-      await block.update(
-        { state: 'measured', verdict, measuredAt: row.createdAt, trimmed: false, trimmedAt: null, acceptedAt: null, acceptedById: null, acceptedReason: null },
+      const measured = {
+        width: four(body.width),
+        height: four(body.height),
+        ...(body.diagonals ? { diagonals: [four(body.diagonals[0]), four(body.diagonals[1])] as [number, number] } : {}),
+      };
+      const { verdict, deviations } = verdictFor(swap, measured);
+      const row = await Measurement.create(
+        {
+          blockId,
+          measuredById: actor.userId,
+          source,
+          width: measured.width,
+          height: measured.height,
+          diagonal1: measured.diagonals?.[0] ?? null,
+          diagonal2: measured.diagonals?.[1] ?? null,
+          verdict,
+          deviationWidth: deviations.width,
+          deviationHeight: deviations.height,
+          deviationDiagonal: deviations.diagonal ?? null,
+          note: body.note || null,
+        },
         { transaction },
       );
-      await recordStep(transaction, { blockId, action: 'measured', byId: actor.userId, before, measurementId: row.id });
-    }
-    // The INSERT returned every column as stored, and the one who measured is the signed-in actor.
-    const measuredBy = { id: actor.userId, displayName: actor.displayName };
-    const body_ = { ...measurementDto({ ...row.get(), measuredBy }), block: await blockDto(block, swap, transaction) };
-    return {
-      status: 201,
-      body: body_,
-      after: () => {
-        deps.events.emit('block.measured', {
-          swapId: swap.id, guildId: swap.guildId, actorId: actor.userId, blockId, makerId: block.makerId, measurementId: row.id, verdict, source,
-        });
-        if (from !== block.state) {
-          deps.events.emit('block.changed', { swapId: swap.id, guildId: swap.guildId, actorId: actor.userId, blockId, makerId: block.makerId, from, to: block.state });
-        }
-      },
-    };
-  });
+      const from = block.state;
+      if (source === 'ruler') {
+        // A new ruler measurement replaces the verdict; an earlier trim or decision no longer applies to it.
+        const before = snapshotOf(block);
+        await block.update(
+          {
+            state: 'measured',
+            verdict,
+            measuredAt: row.createdAt,
+            trimmed: false,
+            trimmedAt: null,
+            acceptedAt: null,
+            acceptedById: null,
+            acceptedReason: null,
+          },
+          { transaction },
+        );
+        await recordStep(transaction, { blockId, action: 'measured', byId: actor.userId, before, measurementId: row.id });
+      }
+      // The INSERT returned every column as stored, and the one who measured is the signed-in actor.
+      const measuredBy = { id: actor.userId, displayName: actor.displayName };
+      const body_ = { ...measurementDto({ ...row.get(), measuredBy }), block: await blockDto(block, swap, transaction) };
+      return {
+        status: 201,
+        body: body_,
+        after: () => {
+          deps.events.emit('block.measured', {
+            swapId: swap.id,
+            guildId: swap.guildId,
+            actorId: actor.userId,
+            blockId,
+            makerId: block.makerId,
+            measurementId: row.id,
+            verdict,
+            source,
+          });
+          if (from !== block.state) {
+            deps.events.emit('block.changed', {
+              swapId: swap.id,
+              guildId: swap.guildId,
+              actorId: actor.userId,
+              blockId,
+              makerId: block.makerId,
+              from,
+              to: block.state,
+            });
+          }
+        },
+      };
+    },
+  );
 }
 
 /** Every measurement of a block, newest first. */
@@ -111,7 +143,10 @@ export async function listMeasurements(block: Block): Promise<MeasurementDto[]> 
   const rows = await Measurement.findAll({
     where: { blockId: block.id },
     include: [{ model: User, as: 'measuredBy', attributes: ['id', 'displayName'] }],
-    order: [['createdAt', 'DESC'], ['id', 'DESC']],
+    order: [
+      ['createdAt', 'DESC'],
+      ['id', 'DESC'],
+    ],
   });
   return rows.map(measurementDto);
 }

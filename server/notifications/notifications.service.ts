@@ -1,8 +1,16 @@
 /** Mail choices, one-click unsubscribe and the guild's message history. */
 import { Op, type WhereOptions } from 'sequelize';
 import {
-  mailCategories, mailCategoryInfo, mailStatuses, type MailCategory, type MailLogDto, type MailMessageDto, type MailPreferencesDto,
-  type MailStatus, type UnsubscribeInfoDto, type mailLogQuerySchema,
+  mailCategories,
+  mailCategoryInfo,
+  mailStatuses,
+  type MailCategory,
+  type MailLogDto,
+  type MailMessageDto,
+  type MailPreferencesDto,
+  type MailStatus,
+  type UnsubscribeInfoDto,
+  type mailLogQuerySchema,
 } from '@shared/schemas/notifications';
 import type { z } from 'zod';
 import { MailMessage, User } from '../db/models';
@@ -55,7 +63,8 @@ export async function unsubscribeInfo(secret: string, token: string): Promise<Un
 /** Switches the link's category off (or back on); the token alone is the authority. */
 export async function applyUnsubscribe(secret: string, token: string, enabled: boolean): Promise<UnsubscribeInfoDto> {
   const { userId, category } = tokenOrThrow(secret, token);
-  if (!(await User.findByPk(userId, { attributes: ['id'] }))) throw new NotFoundError('The account this link was sent to no longer exists.');
+  if (!(await User.findByPk(userId, { attributes: ['id'] })))
+    throw new NotFoundError('The account this link was sent to no longer exists.');
   await setPreferences(userId, { [category]: enabled });
   return unsubscribeInfo(secret, token);
 }
@@ -87,7 +96,13 @@ export async function mailLog(guildId: number, query: LogQuery): Promise<MailLog
   // LIKE wildcards typed by the admin are matched literally.
   const like = search ? `%${search.replace(/[\\%_]/g, '\\$&')}%` : null;
   const searchWhere = like
-    ? { [Op.or]: [{ toAddress: { [Op.iLike]: like } }, { subject: { [Op.iLike]: like } }, { '$user.display_name$': { [Op.iLike]: like } }] }
+    ? {
+        [Op.or]: [
+          { toAddress: { [Op.iLike]: like } },
+          { subject: { [Op.iLike]: like } },
+          { '$user.display_name$': { [Op.iLike]: like } },
+        ],
+      }
     : {};
   const include = [{ model: User, as: 'user', attributes: ['id', 'displayName'], required: false }];
   const [rows, total, grouped] = await Promise.all([
@@ -95,13 +110,18 @@ export async function mailLog(guildId: number, query: LogQuery): Promise<MailLog
       where: { ...where, ...searchWhere, ...(query.status ? { status: query.status } : {}) },
       include,
       attributes: { exclude: ['textBody', 'htmlBody'] },
-      order: [['createdAt', 'DESC'], ['id', 'DESC']],
+      order: [
+        ['createdAt', 'DESC'],
+        ['id', 'DESC'],
+      ],
       limit: LOG_PAGE_SIZE,
       offset: (query.page - 1) * LOG_PAGE_SIZE,
       subQuery: false,
     }),
     MailMessage.count({ where: { ...where, ...searchWhere, ...(query.status ? { status: query.status } : {}) }, include }),
-    MailMessage.count({ where: { ...where, ...searchWhere }, include, group: ['status'] }) as unknown as Promise<{ status: MailStatus; count: number }[]>,
+    MailMessage.count({ where: { ...where, ...searchWhere }, include, group: ['status'] }) as unknown as Promise<
+      { status: MailStatus; count: number }[]
+    >,
   ]);
   const counts = Object.fromEntries(mailStatuses.map((s) => [s, 0])) as Record<MailStatus, number>;
   for (const g of grouped) counts[g.status] = Number(g.count);
@@ -110,7 +130,10 @@ export async function mailLog(guildId: number, query: LogQuery): Promise<MailLog
 
 /** One message of the guild with its text, as it was sent. */
 export async function mailMessage(guildId: number, messageId: number): Promise<MailMessageDto & { text: string }> {
-  const m = await MailMessage.findOne({ where: { id: messageId, guildId }, include: [{ model: User, as: 'user', attributes: ['id', 'displayName'] }] });
+  const m = await MailMessage.findOne({
+    where: { id: messageId, guildId },
+    include: [{ model: User, as: 'user', attributes: ['id', 'displayName'] }],
+  });
   if (!m) throw new NotFoundError('That message is not in this guild’s history.');
   return { ...messageDto(m), text: m.textBody };
 }

@@ -5,7 +5,13 @@
  * state or its ruler verdict.
  */
 import { QuiltInputError } from '@shared/quilt';
-import { estimateFromCorners, outsidePhoto, type PhotoEstimateBody, type PhotoEstimateDto, type PhotoEstimatesDto } from '@shared/schemas/photo-estimates';
+import {
+  estimateFromCorners,
+  outsidePhoto,
+  type PhotoEstimateBody,
+  type PhotoEstimateDto,
+  type PhotoEstimatesDto,
+} from '@shared/schemas/photo-estimates';
 import { Photo, PhotoEstimate, User } from '../db/models';
 import { ConflictError, ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
@@ -29,8 +35,21 @@ export async function listEstimates(access: BlockAccess): Promise<PhotoEstimates
   const { block, swap } = access;
   const [maker, photos, rows] = await Promise.all([
     User.findByPk(block.makerId, { attributes: ['id', 'displayName'] }),
-    Photo.findAll({ where: { blockId: block.id }, order: [['createdAt', 'ASC'], ['id', 'ASC']] }),
-    PhotoEstimate.findAll({ where: { blockId: block.id }, include: [measuredBy], order: [['createdAt', 'DESC'], ['id', 'DESC']] }),
+    Photo.findAll({
+      where: { blockId: block.id },
+      order: [
+        ['createdAt', 'ASC'],
+        ['id', 'ASC'],
+      ],
+    }),
+    PhotoEstimate.findAll({
+      where: { blockId: block.id },
+      include: [measuredBy],
+      order: [
+        ['createdAt', 'DESC'],
+        ['id', 'DESC'],
+      ],
+    }),
   ]);
   return {
     block: {
@@ -49,7 +68,13 @@ export async function listEstimates(access: BlockAccess): Promise<PhotoEstimates
       tolerance: swap.tolerance,
       squareness: swap.squareness,
     },
-    photos: photos.map((p) => ({ id: p.id, url: `/api/photos/${p.id}`, thumbUrl: `/api/photos/${p.id}?size=thumb`, width: p.width, height: p.height })),
+    photos: photos.map((p) => ({
+      id: p.id,
+      url: `/api/photos/${p.id}`,
+      thumbUrl: `/api/photos/${p.id}?size=thumb`,
+      width: p.width,
+      height: p.height,
+    })),
     canEstimate: isOpen(access),
     estimates: rows.map(estimateDto),
   };
@@ -60,16 +85,27 @@ export async function listEstimates(access: BlockAccess): Promise<PhotoEstimates
  * corners off the photo, or corners that cannot be measured (on one spot, on a line, crossing);
  * 409 once the swap no longer takes estimates. Emits `block.estimated` once the row is saved.
  */
-export async function recordEstimate(deps: Deps, access: BlockAccess, actorId: number, body: PhotoEstimateBody): Promise<PhotoEstimateDto> {
+export async function recordEstimate(
+  deps: Deps,
+  access: BlockAccess,
+  actorId: number,
+  body: PhotoEstimateBody,
+): Promise<PhotoEstimateDto> {
   const { block, swap } = access;
   if (!isOpen(access)) {
-    throw new ConflictError(`This swap is ${swap.distributionConfirmedAt ? 'past its return of blocks' : swap.state}; photo estimates are closed.`, 'estimates_closed');
+    throw new ConflictError(
+      `This swap is ${swap.distributionConfirmedAt ? 'past its return of blocks' : swap.state}; photo estimates are closed.`,
+      'estimates_closed',
+    );
   }
   const photo = await Photo.findByPk(body.photoId);
   if (!photo || photo.blockId !== block.id) {
     throw new ValidationError('That photo is not one of this block’s photos.', { photoId: 'Choose one of this block’s photos.' });
   }
-  for (const [field, what, quad] of [['reference.corners', 'reference square', body.reference.corners], ['block.corners', 'block', body.block.corners]] as const) {
+  for (const [field, what, quad] of [
+    ['reference.corners', 'reference square', body.reference.corners],
+    ['block.corners', 'block', body.block.corners],
+  ] as const) {
     if (outsidePhoto(quad, photo.width, photo.height)) {
       const message = `A corner of the ${what} lies outside the photo (${photo.width} × ${photo.height} pixels).`;
       throw new ValidationError(message, { [field]: message });
@@ -78,7 +114,10 @@ export async function recordEstimate(deps: Deps, access: BlockAccess, actorId: n
   let result;
   try {
     result = estimateFromCorners(body.reference, body.block, {
-      width: swap.unfinishedWidth, height: swap.unfinishedHeight, tolerance: swap.tolerance, squareness: swap.squareness,
+      width: swap.unfinishedWidth,
+      height: swap.unfinishedHeight,
+      tolerance: swap.tolerance,
+      squareness: swap.squareness,
     });
   } catch (error) {
     if (error instanceof QuiltInputError) throw new ValidationError(error.message, { [error.field]: error.message });
@@ -112,7 +151,14 @@ export async function recordEstimate(deps: Deps, access: BlockAccess, actorId: n
   });
   await row.reload({ include: [measuredBy] });
   deps.events.emit('block.estimated', {
-    swapId: swap.id, guildId: swap.guildId, actorId, blockId: block.id, makerId: block.makerId, estimateId: row.id, photoId: photo.id, verdict: row.verdict,
+    swapId: swap.id,
+    guildId: swap.guildId,
+    actorId,
+    blockId: block.id,
+    makerId: block.makerId,
+    estimateId: row.id,
+    photoId: photo.id,
+    verdict: row.verdict,
   });
   return estimateDto(row);
 }

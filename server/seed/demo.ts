@@ -19,8 +19,18 @@ export const DEMO_SIGN_INS = {
 
 export const demoPeople: { email: string; displayName: string; role: Role; mailingAddress?: string }[] = [
   { email: 'admin@demo.test', displayName: 'Marguerite Okonjo', role: 'admin', mailingAddress: '14 Alder Row, Kestrel Hollow' },
-  { email: 'coordinator@demo.test', displayName: 'Theo Lindqvist', role: 'coordinator', mailingAddress: '3 Millpond Lane, Kestrel Hollow' },
-  { email: 'member@demo.test', displayName: 'Priya Raman', role: 'member', mailingAddress: '220 Quarry Road, Apt 4, Kestrel Hollow' },
+  {
+    email: 'coordinator@demo.test',
+    displayName: 'Theo Lindqvist',
+    role: 'coordinator',
+    mailingAddress: '3 Millpond Lane, Kestrel Hollow',
+  },
+  {
+    email: 'member@demo.test',
+    displayName: 'Priya Raman',
+    role: 'member',
+    mailingAddress: '220 Quarry Road, Apt 4, Kestrel Hollow',
+  },
   { email: 'dot@demo.test', displayName: 'Dot Pemberton', role: 'admin' },
   { email: 'june@demo.test', displayName: 'June Halvorsen', role: 'coordinator' },
   { email: 'walt@demo.test', displayName: 'Walt Ferreira', role: 'member' },
@@ -38,13 +48,22 @@ export interface DemoGuild {
 }
 
 /** Seeds only an empty database, so a restart never duplicates or overwrites real data. */
-export async function seedDemoIfEmpty(sequelize: Sequelize, config: Pick<Config, 'NODE_ENV'> & PhotoStoreDeps['config']): Promise<DemoGuild | null> {
+export async function seedDemoIfEmpty(
+  sequelize: Sequelize,
+  config: Pick<Config, 'NODE_ENV'> & PhotoStoreDeps['config'],
+): Promise<DemoGuild | null> {
   if (config.NODE_ENV === 'production') return null;
   if ((await User.count()) > 0) return null;
   const passwordHash = await hashPassword(DEMO_SIGN_INS.password);
   const seeded = await sequelize.transaction(async (transaction) => {
     const guild = await Guild.create(
-      { name: 'Kestrel Hollow Quilters', timeZone: 'America/Chicago', currency: 'usd', duesAmount: 3000, duesYear: new Date().getUTCFullYear() },
+      {
+        name: 'Kestrel Hollow Quilters',
+        timeZone: 'America/Chicago',
+        currency: 'usd',
+        duesAmount: 3000,
+        duesYear: new Date().getUTCFullYear(),
+      },
       { transaction },
     );
     const users = new Map<string, User>();
@@ -61,6 +80,10 @@ export async function seedDemoIfEmpty(sequelize: Sequelize, config: Pick<Config,
     return { guild, users, photographed };
   });
   // Photos go through the upload pipeline, which writes files and commits on its own.
-  await seedDemoPhotos(sequelize, config, seeded.photographed.map((b) => ({ id: b.id, guildId: seeded.guild.id, makerId: b.makerId })));
+  await seedDemoPhotos(
+    sequelize,
+    config,
+    seeded.photographed.map((b) => ({ id: b.id, guildId: seeded.guild.id, makerId: b.makerId })),
+  );
   return { guild: seeded.guild, users: seeded.users };
 }

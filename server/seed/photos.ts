@@ -43,20 +43,35 @@ function patches(design: DemoDesign, dark: string, medium: string, light: string
   const seam = 'stroke="#00000022" stroke-width="2"';
   const rect = (x: number, y: number, w: number, h: number, fill: string) =>
     `<rect x="${x}" y="${y}" width="${w}" height="${h}" fill="${fill}" ${seam}/>`;
-  const tri = (points: number[][], fill: string) => `<polygon points="${points.map((p) => p.join(',')).join(' ')}" fill="${fill}" ${seam}/>`;
+  const tri = (points: number[][], fill: string) =>
+    `<polygon points="${points.map((p) => p.join(',')).join(' ')}" fill="${fill}" ${seam}/>`;
   const out: string[] = [];
   switch (design) {
     case 'nine-patch':
-      for (let r = 0; r < 3; r++) for (let c = 0; c < 3; c++) out.push(rect(c * 2 * u, r * 2 * u, 2 * u, 2 * u, (r + c) % 2 === 0 ? dark : light));
+      for (let r = 0; r < 3; r++)
+        for (let c = 0; c < 3; c++) out.push(rect(c * 2 * u, r * 2 * u, 2 * u, 2 * u, (r + c) % 2 === 0 ? dark : light));
       out.push(rect(2 * u, 2 * u, 2 * u, 2 * u, medium));
       break;
     case 'pinwheel': {
       const h = BLOCK / 2;
       // Four half-square triangle units turning around the centre.
-      const quads: [number, number, number][] = [[0, 0, 0], [h, 0, 1], [h, h, 2], [0, h, 3]];
+      const quads: [number, number, number][] = [
+        [0, 0, 0],
+        [h, 0, 1],
+        [h, h, 2],
+        [0, h, 3],
+      ];
       for (const [x, y, turn] of quads) {
-        const corners = [[x, y], [x + h, y], [x + h, y + h], [x, y + h]];
-        const a = corners[turn]!, b = corners[(turn + 1) % 4]!, c = corners[(turn + 2) % 4]!, d = corners[(turn + 3) % 4]!;
+        const corners = [
+          [x, y],
+          [x + h, y],
+          [x + h, y + h],
+          [x, y + h],
+        ];
+        const a = corners[turn]!,
+          b = corners[(turn + 1) % 4]!,
+          c = corners[(turn + 2) % 4]!,
+          d = corners[(turn + 3) % 4]!;
         out.push(tri([a, b, c], light), tri([a, c, d], turn % 2 ? dark : medium));
       }
       break;
@@ -65,13 +80,44 @@ function patches(design: DemoDesign, dark: string, medium: string, light: string
       for (let row = 0; row < 4; row++) {
         const y = (row * BLOCK) / 4;
         const h = BLOCK / 4;
-        out.push(rect(0, y, BLOCK, h, light), tri([[0, y + h], [BLOCK / 2, y], [BLOCK, y + h]], row % 2 ? dark : medium));
+        out.push(
+          rect(0, y, BLOCK, h, light),
+          tri(
+            [
+              [0, y + h],
+              [BLOCK / 2, y],
+              [BLOCK, y + h],
+            ],
+            row % 2 ? dark : medium,
+          ),
+        );
       }
       break;
     case 'square-in-a-square': {
       const m = BLOCK / 2;
-      out.push(rect(0, 0, BLOCK, BLOCK, dark), tri([[m, 0], [BLOCK, m], [m, BLOCK], [0, m]], light));
-      out.push(tri([[m, BLOCK / 4], [BLOCK * 0.75, m], [m, BLOCK * 0.75], [BLOCK / 4, m]], medium));
+      out.push(
+        rect(0, 0, BLOCK, BLOCK, dark),
+        tri(
+          [
+            [m, 0],
+            [BLOCK, m],
+            [m, BLOCK],
+            [0, m],
+          ],
+          light,
+        ),
+      );
+      out.push(
+        tri(
+          [
+            [m, BLOCK / 4],
+            [BLOCK * 0.75, m],
+            [m, BLOCK * 0.75],
+            [BLOCK / 4, m],
+          ],
+          medium,
+        ),
+      );
       break;
     }
   }
@@ -81,7 +127,7 @@ function patches(design: DemoDesign, dark: string, medium: string, light: string
 /** The SVG of one demo photo: the block on a cutting mat, lit from one side. */
 export function demoBlockSvg(design: DemoDesign, seed: number): string {
   const rnd = random(seed);
-  const pick = <T,>(list: readonly T[]) => list[Math.floor(rnd() * list.length)]!;
+  const pick = <T>(list: readonly T[]) => list[Math.floor(rnd() * list.length)]!;
   const dark = pick(darks);
   const medium = pick(mediums.filter((c) => c !== dark));
   const angle = (rnd() * 8 - 4).toFixed(2);
@@ -89,10 +135,14 @@ export function demoBlockSvg(design: DemoDesign, seed: number): string {
   const cy = HEIGHT / 2 + (rnd() * 80 - 40);
   const grid: string[] = [];
   for (let x = 0; x <= WIDTH; x += PX_PER_INCH) {
-    grid.push(`<line x1="${x}" y1="0" x2="${x}" y2="${HEIGHT}" stroke="#cfe3d6" stroke-opacity="${x % (PX_PER_INCH * 6) === 0 ? 0.55 : 0.25}" stroke-width="${x % (PX_PER_INCH * 6) === 0 ? 2.5 : 1.2}"/>`);
+    grid.push(
+      `<line x1="${x}" y1="0" x2="${x}" y2="${HEIGHT}" stroke="#cfe3d6" stroke-opacity="${x % (PX_PER_INCH * 6) === 0 ? 0.55 : 0.25}" stroke-width="${x % (PX_PER_INCH * 6) === 0 ? 2.5 : 1.2}"/>`,
+    );
   }
   for (let y = 0; y <= HEIGHT; y += PX_PER_INCH) {
-    grid.push(`<line x1="0" y1="${y}" x2="${WIDTH}" y2="${y}" stroke="#cfe3d6" stroke-opacity="${y % (PX_PER_INCH * 6) === 0 ? 0.55 : 0.25}" stroke-width="${y % (PX_PER_INCH * 6) === 0 ? 2.5 : 1.2}"/>`);
+    grid.push(
+      `<line x1="0" y1="${y}" x2="${WIDTH}" y2="${y}" stroke="#cfe3d6" stroke-opacity="${y % (PX_PER_INCH * 6) === 0 ? 0.55 : 0.25}" stroke-width="${y % (PX_PER_INCH * 6) === 0 ? 2.5 : 1.2}"/>`,
+    );
   }
   return `<svg xmlns="http://www.w3.org/2000/svg" width="${WIDTH}" height="${HEIGHT}" viewBox="0 0 ${WIDTH} ${HEIGHT}">
   <defs>
@@ -113,7 +163,9 @@ export function demoBlockSvg(design: DemoDesign, seed: number): string {
 
 /** A JPEG photo of a demo block, as a phone would send it. */
 export async function demoBlockPhoto(design: DemoDesign, seed: number): Promise<Buffer> {
-  return sharp(Buffer.from(demoBlockSvg(design, seed))).jpeg({ quality: 88 }).toBuffer();
+  return sharp(Buffer.from(demoBlockSvg(design, seed)))
+    .jpeg({ quality: 88 })
+    .toBuffer();
 }
 
 /**

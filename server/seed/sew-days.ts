@@ -22,7 +22,8 @@ export async function seedDemoSewDays(guildId: number, users: Map<string, User>,
       endsAt: new Date(next(6, 16, 3).getTime() + 5 * 3600_000),
       place: 'Kestrel Hollow library, community room (side door, ramp access)',
       videoUrl: null,
-      notes: 'Bring your geese pieces cut and a spare bobbin. Two pressing stations and one big cutting mat are set up; tea from 10.',
+      notes:
+        'Bring your geese pieces cut and a spare bobbin. Two pressing stations and one big cutting mat are set up; tea from 10.',
       createdById: person('coordinator@demo.test').id,
     },
     { transaction },
@@ -49,7 +50,8 @@ export async function seedDemoSewDays(guildId: number, users: Map<string, User>,
     [video, 'admin@demo.test', 'going'],
     [video, 'hana@demo.test', 'maybe'],
   ];
-  for (const [day, email, answer] of replies) await Rsvp.create({ sewDayId: day.id, userId: person(email).id, answer }, { transaction });
+  for (const [day, email, answer] of replies)
+    await Rsvp.create({ sewDayId: day.id, userId: person(email).id, answer }, { transaction });
   const hallRoom = await ChatRoom.create({ guildId, kind: 'sewday', sewDayId: hall.id, swapId: null }, { transaction });
   await ChatRoom.create({ guildId, kind: 'sewday', sewDayId: video.id, swapId: null }, { transaction });
   const chat: [string, string][] = [
@@ -57,5 +59,6 @@ export async function seedDemoSewDays(guildId: number, users: Map<string, User>,
     ['member@demo.test', 'Can someone lend me a walking foot for the afternoon?'],
     ['rosa@demo.test', 'I have a spare one, Priya. Saving you a seat by the window.'],
   ];
-  for (const [email, body] of chat) await ChatMessage.create({ roomId: hallRoom.id, authorId: person(email).id, body }, { transaction });
+  for (const [email, body] of chat)
+    await ChatMessage.create({ roomId: hallRoom.id, authorId: person(email).id, body }, { transaction });
 }

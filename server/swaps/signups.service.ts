@@ -13,7 +13,8 @@ const DROPPABLE = ['pledged', 'sewn'];
 
 function assertOpen(swap: Swap) {
   if (signupIsOpen(swap)) return;
-  if (swap.state === 'signup') throw new ConflictError('Sign-up for this swap closed on its close date; ask the coordinator to extend it.', 'signup_closed');
+  if (swap.state === 'signup')
+    throw new ConflictError('Sign-up for this swap closed on its close date; ask the coordinator to extend it.', 'signup_closed');
   throw new ConflictError(
     `Sign-up for this swap is closed (it is ${swap.state}). A coordinator can reopen sign-up while the swap is sewing.`,
     'signup_closed',
@@ -22,7 +23,12 @@ function assertOpen(swap: Swap) {
 
 /** Makes the member's blocks match `count`: new ones numbered after the highest, extra ones dropped. */
 async function matchBlocks(swapId: number, makerId: number, count: number, transaction: Transaction) {
-  const blocks = await Block.findAll({ where: { swapId, makerId }, order: [['sequence', 'ASC']], transaction, lock: transaction.LOCK.UPDATE });
+  const blocks = await Block.findAll({
+    where: { swapId, makerId },
+    order: [['sequence', 'ASC']],
+    transaction,
+    lock: transaction.LOCK.UPDATE,
+  });
   if (blocks.length < count) {
     const next = (blocks.at(-1)?.sequence ?? 0) + 1;
     const fresh = Array.from({ length: count - blocks.length }, (_, i) => ({ swapId, makerId, sequence: next + i }));
@@ -56,10 +62,16 @@ export async function pledge(deps: Deps, swapId: number, userId: number, blocks:
     if (!swap) throw new NotFoundError('That swap does not exist.');
     assertOpen(swap);
     if (blocks < swap.quotaMin || blocks > swap.quotaMax) {
-      const range = swap.quotaMin === swap.quotaMax ? `exactly ${swap.quotaMin}` : `between ${swap.quotaMin} and ${swap.quotaMax}`;
+      const range =
+        swap.quotaMin === swap.quotaMax ? `exactly ${swap.quotaMin}` : `between ${swap.quotaMin} and ${swap.quotaMax}`;
       throw new ValidationError(`Pledge ${range} blocks for this swap.`, { blocks: `Pledge ${range} blocks.` });
     }
-    const [row] = await Signup.findOrBuild({ where: { swapId, userId }, defaults: { swapId, userId, blocks }, transaction, lock: transaction.LOCK.UPDATE });
+    const [row] = await Signup.findOrBuild({
+      where: { swapId, userId },
+      defaults: { swapId, userId, blocks },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     row.set({ blocks, status: 'active' });
     await row.save({ transaction });
     await matchBlocks(swapId, userId, blocks, transaction);
@@ -74,7 +86,11 @@ export async function withdraw(deps: Deps, swapId: number, userId: number): Prom
   const guildId = await deps.sequelize.transaction(async (transaction) => {
     const swap = await Swap.findByPk(swapId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!swap) throw new NotFoundError('That swap does not exist.');
-    const signup = await Signup.findOne({ where: { swapId, userId, status: 'active' }, transaction, lock: transaction.LOCK.UPDATE });
+    const signup = await Signup.findOne({
+      where: { swapId, userId, status: 'active' },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!signup) throw new NotFoundError('You are not signed up for this swap.');
     assertOpen(swap);
     await matchBlocks(swapId, userId, 0, transaction);

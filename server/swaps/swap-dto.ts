@@ -15,11 +15,12 @@ export interface SignupStats {
 export async function signupStats(swapIds: number[], userId: number): Promise<Map<number, SignupStats>> {
   const stats = new Map<number, SignupStats>();
   if (swapIds.length === 0) return stats;
-  const rows = await Swap.sequelize!.query<{ swap_id: number; signups: string; pledged: string; mine: string }>(
-    SIGNUP_STATS,
-    { bind: { ids: swapIds, userId }, type: QueryTypes.SELECT },
-  );
-  for (const r of rows) stats.set(r.swap_id, { signups: Number(r.signups), pledged: Number(r.pledged), myPledge: Number(r.mine) });
+  const rows = await Swap.sequelize!.query<{ swap_id: number; signups: string; pledged: string; mine: string }>(SIGNUP_STATS, {
+    bind: { ids: swapIds, userId },
+    type: QueryTypes.SELECT,
+  });
+  for (const r of rows)
+    stats.set(r.swap_id, { signups: Number(r.signups), pledged: Number(r.pledged), myPledge: Number(r.mine) });
   return stats;
 }
 

@@ -43,7 +43,13 @@ async function stop(j: MailJobs) {
 
 function record(user: { id: number; email: string }, key: string, subject = `Test ${key}`): OutgoingRecord {
   return {
-    key, category: 'reminders', kind: 'due-reminder', guildId: null, swapId: null, userId: user.id, to: user.email,
+    key,
+    category: 'reminders',
+    kind: 'due-reminder',
+    guildId: null,
+    swapId: null,
+    userId: user.id,
+    to: user.email,
     mail: { subject, text: `Hello, this is ${key}.\n`, html: `<p>Hello, this is ${key}.</p>` },
   };
 }
@@ -52,7 +58,9 @@ function record(user: { id: number; email: string }, key: string, subject = `Tes
 async function rawHeaders(mail: CaughtMail): Promise<Record<string, string>> {
   const source = await (await fetch(`${inject('maildevApi')}/api/email/${mail.id}/source`)).text();
   const head = source.split(/\r?\n\r?\n/)[0]!.replace(/\r?\n[ \t]+/g, ' ');
-  return Object.fromEntries(head.split(/\r?\n/).map((line) => [line.slice(0, line.indexOf(':')).toLowerCase(), line.slice(line.indexOf(':') + 1).trim()]));
+  return Object.fromEntries(
+    head.split(/\r?\n/).map((line) => [line.slice(0, line.indexOf(':')).toLowerCase(), line.slice(line.indexOf(':') + 1).trim()]),
+  );
 }
 
 const pause = (ms: number) => new Promise((r) => setTimeout(r, ms));
@@ -77,9 +85,14 @@ describe('recording and delivering', () => {
     expect(again).toEqual({ queued: 0, skipped: 0, existing: 1 });
 
     const headers = await rawHeaders(await waitForMail(user.email, (m) => m.subject.startsWith('Test')));
-    expect(headers['list-unsubscribe']).toMatch(new RegExp(`^<http://127\\.0\\.0\\.1:3000/api/unsubscribe\\?token=${user.id}\\.reminders\\.[\\w-]{43}>$`));
+    expect(headers['list-unsubscribe']).toMatch(
+      new RegExp(`^<http://127\\.0\\.0\\.1:3000/api/unsubscribe\\?token=${user.id}\\.reminders\\.[\\w-]{43}>$`),
+    );
     expect(headers['list-unsubscribe-post']).toBe('List-Unsubscribe=One-Click');
-    const row = await waitForStatus((await MailMessage.findOne({ where: { idempotencyKey: `test:once:${user.id}` } }))!.id, 'sent');
+    const row = await waitForStatus(
+      (await MailMessage.findOne({ where: { idempotencyKey: `test:once:${user.id}` } }))!.id,
+      'sent',
+    );
     expect(row.attempts).toBe(1);
     expect(row.sentAt).toBeInstanceOf(Date);
     await pause(1500);
@@ -108,11 +121,13 @@ describe('restarts', () => {
   it('keeps a scheduled job when the worker holding it stops, and a new worker delivers it once', async () => {
     const user = await signedInUser(app);
     const first = await jobs();
-    const [id] = (await app.deps.pool.query<{ id: number }>(
-      `INSERT INTO mail_messages (idempotency_key, category, kind, user_id, to_address, subject, text_body, html_body)
+    const [id] = (
+      await app.deps.pool.query<{ id: number }>(
+        `INSERT INTO mail_messages (idempotency_key, category, kind, user_id, to_address, subject, text_body, html_body)
        VALUES ($1, 'reminders', 'due-reminder', $2, $3, 'Scheduled test', 'Later.', '<p>Later.</p>') RETURNING id`,
-      [`test:scheduled:${user.id}`, user.id, user.email],
-    )).rows.map((r) => r.id);
+        [`test:scheduled:${user.id}`, user.id, user.email],
+      )
+    ).rows.map((r) => r.id);
     await first.boss.send(queues.send, { messageId: id }, { startAfter: 2, singletonKey: `test:scheduled:${user.id}` });
     await stop(first);
     await pause(2500);
@@ -134,7 +149,8 @@ describe('two workers on one database', () => {
     await recordAndQueue(app.deps.pool, a.boss, records);
     // A second job for every message, as a double enqueue or a re-queue would make.
     const rows = await MailMessage.findAll({ where: { idempotencyKey: records.map((r) => r.key) } });
-    for (const row of rows) await b.boss.send(queues.send, { messageId: row.id }, { singletonKey: `${row.idempotencyKey}:again` });
+    for (const row of rows)
+      await b.boss.send(queues.send, { messageId: row.id }, { singletonKey: `${row.idempotencyKey}:again` });
 
     for (const u of users) await waitForMail(u.email);
     await pause(2000);
@@ -146,7 +162,9 @@ describe('two workers on one database', () => {
     const user = await signedInUser(app);
     const a = await jobs({ workers: false });
     const b = await jobs({ workers: false });
-    const results = await Promise.all([a, b, a, b].map((j) => recordAndQueue(app.deps.pool, j.boss, [record(user, `test:race:${user.id}`)])));
+    const results = await Promise.all(
+      [a, b, a, b].map((j) => recordAndQueue(app.deps.pool, j.boss, [record(user, `test:race:${user.id}`)])),
+    );
     expect(results.reduce((s, r) => s + r.queued, 0)).toBe(1);
     expect(results.reduce((s, r) => s + r.existing, 0)).toBe(3);
     expect(await MailMessage.count({ where: { idempotencyKey: `test:race:${user.id}` } })).toBe(1);
@@ -162,8 +180,17 @@ async function startNode(): Promise<{ child: ChildProcess; stop(): Promise<void>
     process.on('SIGTERM', () => running.close().then(() => process.exit(0)));`;
   const child = spawn(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', code], {
     env: {
-      ...process.env, NODE_ENV: 'test', DATABASE_URL: app.databaseUrl, SESSION_SECRET: 'test-secret-test-secret', SMTP_URL: inject('smtpUrl'),
-      PORT: '0', JOBS: 'true', JOBS_POLL_SECONDS: '0.5', LOG_LEVEL: 'silent', SERVE_CLIENT: 'false', PUBLIC_URL: 'http://127.0.0.1:3000',
+      ...process.env,
+      NODE_ENV: 'test',
+      DATABASE_URL: app.databaseUrl,
+      SESSION_SECRET: 'test-secret-test-secret',
+      SMTP_URL: inject('smtpUrl'),
+      PORT: '0',
+      JOBS: 'true',
+      JOBS_POLL_SECONDS: '0.5',
+      LOG_LEVEL: 'silent',
+      SERVE_CLIENT: 'false',
+      PUBLIC_URL: 'http://127.0.0.1:3000',
       UPLOAD_DIR: mkdtempSync(join(tmpdir(), 'blockpost-node-')),
     },
     stdio: ['ignore', 'pipe', 'pipe'],
@@ -198,7 +225,11 @@ describe('two server processes', () => {
     try {
       const producer = await jobs({ workers: false });
       const first = await Promise.all(Array.from({ length: 4 }, () => signedInUser(app)));
-      await recordAndQueue(app.deps.pool, producer.boss, first.map((u) => record(u, `test:node:${u.id}`)));
+      await recordAndQueue(
+        app.deps.pool,
+        producer.boss,
+        first.map((u) => record(u, `test:node:${u.id}`)),
+      );
       // Only the other process has workers, so these arrive through it.
       for (const u of first) await waitForMail(u.email, undefined, 20_000);
 
@@ -207,7 +238,8 @@ describe('two server processes', () => {
       const records = second.map((u) => record(u, `test:both:${u.id}`));
       await recordAndQueue(app.deps.pool, producer.boss, records);
       const rows = await MailMessage.findAll({ where: { idempotencyKey: records.map((r) => r.key) } });
-      for (const row of rows) await producer.boss.send(queues.send, { messageId: row.id }, { singletonKey: `${row.idempotencyKey}:again` });
+      for (const row of rows)
+        await producer.boss.send(queues.send, { messageId: row.id }, { singletonKey: `${row.idempotencyKey}:again` });
       for (const u of second) await waitForMail(u.email, undefined, 20_000);
       await pause(2000);
       for (const u of [...first, ...second]) expect(await mailTo(u.email), u.email).toHaveLength(1);
@@ -220,7 +252,10 @@ describe('two server processes', () => {
 describe('failures', () => {
   it('retries with backoff, then records the message as failed with the reason', async () => {
     const user = await signedInUser(app);
-    const deadSmtp = createMailer({ SMTP_URL: `smtp://127.0.0.1:${await freePort()}`, MAIL_FROM: 'Blockpost <no-reply@blockpost.local>' });
+    const deadSmtp = createMailer({
+      SMTP_URL: `smtp://127.0.0.1:${await freePort()}`,
+      MAIL_FROM: 'Blockpost <no-reply@blockpost.local>',
+    });
     const worker = await jobs({ mailer: deadSmtp });
     await recordAndQueue(app.deps.pool, worker.boss, [record(user, `test:fail:${user.id}`)]);
     const row = await MailMessage.findOne({ where: { idempotencyKey: `test:fail:${user.id}` } });

@@ -104,7 +104,10 @@ describe('receipt notice', () => {
     expect(extraMail.text).toContain('Block 2: ✓ True to size');
     expect(extraMail.text).not.toContain('TAKE CARE');
     // A repeated ruler measurement with the same verdict is no news.
-    await post(roles.coordinator.agent, `/api/blocks/${(await blocksOf(extra))[0]!.id}/measurements`, { width: 9.5, height: 9.5 });
+    await post(roles.coordinator.agent, `/api/blocks/${(await blocksOf(extra))[0]!.id}/measurements`, {
+      width: 9.5,
+      height: 9.5,
+    });
     await pause(5000);
     expect((await mailTo(extra.email)).filter((m) => m.subject.startsWith(`Your blocks for ${swap.title}`))).toHaveLength(1);
   });
@@ -117,7 +120,11 @@ describe('distribution notice', () => {
     await post(roles.coordinator.agent, `/api/blocks/${trim.id}/trimmed`);
     await post(roles.coordinator.agent, `/api/swaps/${swap.id}/transitions`, { to: 'sorting' });
     const plan = await post(roles.coordinator.agent, `/api/swaps/${swap.id}/distribution/plan`);
-    transfers = (plan.transfers as { from: number; to: number; count: number }[]).map(({ from, to, count }) => ({ from, to, count }));
+    transfers = (plan.transfers as { from: number; to: number; count: number }[]).map(({ from, to, count }) => ({
+      from,
+      to,
+      count,
+    }));
     await post(roles.coordinator.agent, `/api/swaps/${swap.id}/distribution/confirm`, { transfers });
 
     const recipients = [roles.member, extra, roles.coordinator];
@@ -127,7 +134,9 @@ describe('distribution notice', () => {
       const mine = transfers.filter((t) => t.to === person.id);
       const count = mine.reduce((s, t) => s + t.count, 0);
       const makers = new Set(mine.map((t) => t.from)).size;
-      expect(mails[i]!.subject).toBe(`${count} block${count === 1 ? '' : 's'} from ${makers} maker${makers === 1 ? '' : 's'} coming back to you: ${swap.title}`);
+      expect(mails[i]!.subject).toBe(
+        `${count} block${count === 1 ? '' : 's'} from ${makers} maker${makers === 1 ? '' : 's'} coming back to you: ${swap.title}`,
+      );
       expect(mine.every((t) => t.from !== person.id)).toBe(true);
     }
   });

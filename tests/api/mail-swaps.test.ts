@@ -47,7 +47,10 @@ async function createSwap(overrides: Record<string, unknown> = {}) {
     description: 'Two-colour strip blocks for the spring raffle quilt',
     block: { kind: 'grid', columns: [3.5, 3.5, 3.5], rows: [3.5, 3.5, 3.5], seam: 0.25 },
     tolerance: '1/8',
-    colourRules: [{ role: 'light', note: 'cream to pale gold' }, { role: 'dark', note: 'indigo' }],
+    colourRules: [
+      { role: 'light', note: 'cream to pale gold' },
+      { role: 'dark', note: 'indigo' },
+    ],
     quota: { min: 1, max: 6 },
     // 10 March 2027 18:00 UTC is 12:00 noon in Chicago (CST, UTC−6, before the 14 March change).
     signupClosesAt: '2027-03-10T18:00:00Z',
@@ -70,7 +73,8 @@ async function pledge(person: Person, swapId: number, blocks: number) {
 
 async function handIn(agent: Agent, swapId: number, count: number) {
   const blocks = (await agent.get(`/api/swaps/${swapId}/blocks?maker=me`).expect(200)).body as { id: number }[];
-  for (const b of blocks.slice(0, count)) await agent.post(`/api/blocks/${b.id}/handed-in`).send({ how: 'in-person' }).expect(200);
+  for (const b of blocks.slice(0, count))
+    await agent.post(`/api/blocks/${b.id}/handed-in`).send({ how: 'in-person' }).expect(200);
 }
 
 /** Waits for each intended person's message, then checks nobody got it twice and nobody else got it. */
@@ -88,7 +92,9 @@ describe('swap announced', () => {
     const swap = await createSwap();
     await move(swap.id, 'signup');
     const everyone = [roles.admin, roles.coordinator, roles.member, extra];
-    const [mail] = await expectOnlyTo(everyone, [roles.stranger, removed], (m) => m.subject.startsWith(`New swap: ${swap.title}`));
+    const [mail] = await expectOnlyTo(everyone, [roles.stranger, removed], (m) =>
+      m.subject.startsWith(`New swap: ${swap.title}`),
+    );
     expect(mail!.subject).toBe(`New swap: ${swap.title} (sign up by Wednesday 10 March 2027)`);
     expect(mail!.text).toContain('Hand it in at: 9½″ × 9½″ unfinished, within ⅛″ either way');
     expect(mail!.text).toContain('Finished size: 9″ × 9″');
@@ -140,7 +146,10 @@ describe('deadline reminders', () => {
     const owesAll = await joinGuild(app, roles.guildId, 'member');
     const owesSome = await joinGuild(app, roles.guildId, 'member');
     const handedAll = await joinGuild(app, roles.guildId, 'member');
-    const swap = await createSwap({ signupClosesAt: new Date(Date.now() + 5 * DAY).toISOString(), dueAt: new Date(Date.now() + 30 * DAY).toISOString() });
+    const swap = await createSwap({
+      signupClosesAt: new Date(Date.now() + 5 * DAY).toISOString(),
+      dueAt: new Date(Date.now() + 30 * DAY).toISOString(),
+    });
     await move(swap.id, 'signup');
     await pledge(owesAll, swap.id, 3);
     await pledge(owesSome, swap.id, 3);
@@ -164,7 +173,9 @@ describe('deadline reminders', () => {
     const dueMatch = (m: CaughtMail) => m.subject.endsWith(`still to hand in for ${swap.title}, due tomorrow`);
     const [all, some] = await expectOnlyTo([owesAll, owesSome], [handedAll], dueMatch);
     expect(all!.subject).toBe(`3 blocks still to hand in for ${swap.title}, due tomorrow`);
-    expect(some!.text).toContain('You still have 2 blocks to hand in, of the 3 blocks you pledged (1 block already in, thank you).');
+    expect(some!.text).toContain(
+      'You still have 2 blocks to hand in, of the 3 blocks you pledged (1 block already in, thank you).',
+    );
     await other.close();
 
     // Later sweeps within the same window send nothing new.
@@ -178,7 +189,10 @@ describe('unsubscribe', () => {
   it('the one-click link stops reminders for that person only; the message is recorded as not sent', async () => {
     const quits = await joinGuild(app, roles.guildId, 'member');
     const stays = await joinGuild(app, roles.guildId, 'member');
-    const swap = await createSwap({ signupClosesAt: new Date(Date.now() + 3 * DAY).toISOString(), dueAt: new Date(Date.now() + 30 * DAY).toISOString() });
+    const swap = await createSwap({
+      signupClosesAt: new Date(Date.now() + 3 * DAY).toISOString(),
+      dueAt: new Date(Date.now() + 30 * DAY).toISOString(),
+    });
     await move(swap.id, 'signup');
     await pledge(quits, swap.id, 2);
     await pledge(stays, swap.id, 2);
@@ -201,7 +215,10 @@ describe('unsubscribe', () => {
     const due = (m: CaughtMail) => m.subject.includes(`still to hand in for ${swap.title}`);
     await expectOnlyTo([stays], [quits], due);
     const skipped = await MailMessage.findOne({ where: { userId: quits.id, swapId: swap.id, kind: 'due-reminder' } });
-    expect(skipped).toMatchObject({ status: 'skipped', statusReason: 'Switched off “Deadline reminders” in their e-mail choices.' });
+    expect(skipped).toMatchObject({
+      status: 'skipped',
+      statusReason: 'Switched off “Deadline reminders” in their e-mail choices.',
+    });
 
     const prefs = await quits.agent.get('/api/me/mail-preferences').expect(200);
     expect(prefs.body.categories.find((c: { category: string }) => c.category === 'reminders').enabled).toBe(false);

@@ -28,12 +28,22 @@ describe('mail choices', () => {
     const before = await agent.get('/api/me/mail-preferences').expect(200);
     expect(before.body.email).toBe(email);
     expect(before.body.categories.map((c: { category: string }) => c.category)).toEqual([
-      'announcements', 'signup-confirmations', 'reminders', 'receipts', 'distribution', 'coordinator-digest',
+      'announcements',
+      'signup-confirmations',
+      'reminders',
+      'receipts',
+      'distribution',
+      'coordinator-digest',
     ]);
     expect(before.body.categories.every((c: { enabled: boolean; label: string }) => c.enabled && c.label)).toBe(true);
 
-    const after = await agent.patch('/api/me/mail-preferences').send({ reminders: false, 'coordinator-digest': false }).expect(200);
-    const enabled = Object.fromEntries(after.body.categories.map((c: { category: string; enabled: boolean }) => [c.category, c.enabled]));
+    const after = await agent
+      .patch('/api/me/mail-preferences')
+      .send({ reminders: false, 'coordinator-digest': false })
+      .expect(200);
+    const enabled = Object.fromEntries(
+      after.body.categories.map((c: { category: string; enabled: boolean }) => [c.category, c.enabled]),
+    );
     expect(enabled).toMatchObject({ reminders: false, 'coordinator-digest': false, announcements: true });
     await agent.patch('/api/me/mail-preferences').send({ reminders: true }).expect(200);
     expect((await agent.get('/api/me/mail-preferences').expect(200)).body.categories[2].enabled).toBe(true);
@@ -69,7 +79,9 @@ describe('one-click unsubscribe', () => {
     const token = unsubscribeToken(SECRET, user.id, 'announcements');
     await supertest(app.app).post(`/api/unsubscribe?token=${token}`).type('form').send('List-Unsubscribe=One-Click').expect(200);
     const mine = (await user.agent.get('/api/me/mail-preferences').expect(200)).body.categories;
-    expect(mine.filter((c: { enabled: boolean }) => !c.enabled).map((c: { category: string }) => c.category)).toEqual(['announcements']);
+    expect(mine.filter((c: { enabled: boolean }) => !c.enabled).map((c: { category: string }) => c.category)).toEqual([
+      'announcements',
+    ]);
     const theirs = (await bystander.agent.get('/api/me/mail-preferences').expect(200)).body.categories;
     expect(theirs.every((c: { enabled: boolean }) => c.enabled)).toBe(true);
 
@@ -83,8 +95,15 @@ describe('one-click unsubscribe', () => {
     const user = await signedInUser(app);
     const token = unsubscribeToken(SECRET, user.id, 'reminders');
     const other = await signedInUser(app);
-    for (const bad of [token.replace(`${user.id}.`, `${other.id}.`), token.slice(0, -3), 'nonsense-token', unsubscribeToken('a-different-secret-value', user.id, 'reminders')]) {
-      const res = await supertest(app.app).post(`/api/unsubscribe?token=${encodeURIComponent(bad)}`).expect(400);
+    for (const bad of [
+      token.replace(`${user.id}.`, `${other.id}.`),
+      token.slice(0, -3),
+      'nonsense-token',
+      unsubscribeToken('a-different-secret-value', user.id, 'reminders'),
+    ]) {
+      const res = await supertest(app.app)
+        .post(`/api/unsubscribe?token=${encodeURIComponent(bad)}`)
+        .expect(400);
       expect(res.body.error.message).toMatch(/not valid/);
     }
     await supertest(app.app).post('/api/unsubscribe').expect(400);
@@ -96,10 +115,18 @@ describe('one-click unsubscribe', () => {
   it('honours a choice made after a message was queued: it is recorded as not sent', async () => {
     const user = await signedInUser(app);
     const producer = await startMailJobs(app.deps, { workers: false, events: false, schedule: false });
-    await recordAndQueue(app.deps.pool, producer.boss, [{
-      key: `test:late-choice:${user.id}`, category: 'receipts', kind: 'receipt', guildId: null, swapId: null, userId: user.id, to: user.email,
-      mail: { subject: 'Late choice', text: 'Hello.\n', html: '<p>Hello.</p>' },
-    }]);
+    await recordAndQueue(app.deps.pool, producer.boss, [
+      {
+        key: `test:late-choice:${user.id}`,
+        category: 'receipts',
+        kind: 'receipt',
+        guildId: null,
+        swapId: null,
+        userId: user.id,
+        to: user.email,
+        mail: { subject: 'Late choice', text: 'Hello.\n', html: '<p>Hello.</p>' },
+      },
+    ]);
     await producer.close();
     await user.agent.patch('/api/me/mail-preferences').send({ receipts: false }).expect(200);
     const worker = await startMailJobs(app.deps, { events: false, schedule: false });
@@ -121,9 +148,29 @@ describe('message history', () => {
     const producer = await startMailJobs(app.deps, { workers: false, events: false, schedule: false });
     const base = { category: 'reminders' as const, kind: 'due-reminder' as const, guildId: roles.guildId, swapId: null };
     await recordAndQueue(app.deps.pool, producer.boss, [
-      { ...base, key: `test:log:${roles.guildId}:1`, userId: roles.member.id, to: roles.member.email, mail: { subject: 'Blocks due tomorrow', text: 'a', html: 'a' } },
-      { ...base, key: `test:log:${roles.guildId}:2`, userId: roles.coordinator.id, to: roles.coordinator.email, mail: { subject: 'Blocks due tomorrow', text: 'b', html: 'b' }, skipReason: 'Switched off “Deadline reminders” in their e-mail choices.' },
-      { ...base, key: `test:log:${roles.stranger.id}:elsewhere`, guildId: null, userId: roles.stranger.id, to: roles.stranger.email, mail: { subject: 'Elsewhere', text: 'c', html: 'c' } },
+      {
+        ...base,
+        key: `test:log:${roles.guildId}:1`,
+        userId: roles.member.id,
+        to: roles.member.email,
+        mail: { subject: 'Blocks due tomorrow', text: 'a', html: 'a' },
+      },
+      {
+        ...base,
+        key: `test:log:${roles.guildId}:2`,
+        userId: roles.coordinator.id,
+        to: roles.coordinator.email,
+        mail: { subject: 'Blocks due tomorrow', text: 'b', html: 'b' },
+        skipReason: 'Switched off “Deadline reminders” in their e-mail choices.',
+      },
+      {
+        ...base,
+        key: `test:log:${roles.stranger.id}:elsewhere`,
+        guildId: null,
+        userId: roles.stranger.id,
+        to: roles.stranger.email,
+        mail: { subject: 'Elsewhere', text: 'c', html: 'c' },
+      },
     ]);
     await producer.close();
 
@@ -132,14 +179,23 @@ describe('message history', () => {
     expect(log.body.counts).toMatchObject({ queued: 1, skipped: 1, sent: 0, failed: 0 });
     const skipped = log.body.messages.find((m: { status: string }) => m.status === 'skipped');
     expect(skipped).toMatchObject({
-      category: 'reminders', subject: 'Blocks due tomorrow', attempts: 0, reason: 'Switched off “Deadline reminders” in their e-mail choices.',
-      recipient: { userId: roles.coordinator.id, email: roles.coordinator.email, displayName: expect.stringMatching(/^coordinator/) },
+      category: 'reminders',
+      subject: 'Blocks due tomorrow',
+      attempts: 0,
+      reason: 'Switched off “Deadline reminders” in their e-mail choices.',
+      recipient: {
+        userId: roles.coordinator.id,
+        email: roles.coordinator.email,
+        displayName: expect.stringMatching(/^coordinator/),
+      },
     });
     expect(JSON.stringify(log.body)).not.toContain(roles.stranger.email);
 
     const filtered = await roles.admin.agent.get(`/api/guilds/${roles.guildId}/mail-messages?status=queued`).expect(200);
     expect(filtered.body.messages.map((m: { recipient: { email: string } }) => m.recipient.email)).toEqual([roles.member.email]);
-    const searched = await roles.admin.agent.get(`/api/guilds/${roles.guildId}/mail-messages?q=${encodeURIComponent('coordinator')}`).expect(200);
+    const searched = await roles.admin.agent
+      .get(`/api/guilds/${roles.guildId}/mail-messages?q=${encodeURIComponent('coordinator')}`)
+      .expect(200);
     expect(searched.body.total).toBe(1);
     const wildcard = await roles.admin.agent.get(`/api/guilds/${roles.guildId}/mail-messages?q=%25`).expect(200);
     expect(wildcard.body.total).toBe(0);
@@ -161,8 +217,16 @@ describe('message history', () => {
     expect(outsider.body.error.code).toBe('not_found');
     await app.agent().get(`/api/guilds/${roles.guildId}/mail-messages`).expect(401);
     const row = await MailMessage.create({
-      idempotencyKey: `test:other-guild:${roles.guildId}`, category: 'reminders', kind: 'due-reminder', guildId: null, swapId: null,
-      userId: roles.member.id, toAddress: roles.member.email, subject: 'x', textBody: 'x', htmlBody: 'x',
+      idempotencyKey: `test:other-guild:${roles.guildId}`,
+      category: 'reminders',
+      kind: 'due-reminder',
+      guildId: null,
+      swapId: null,
+      userId: roles.member.id,
+      toAddress: roles.member.email,
+      subject: 'x',
+      textBody: 'x',
+      htmlBody: 'x',
     });
     await roles.admin.agent.get(`/api/guilds/${roles.guildId}/mail-messages/${row.id}`).expect(404);
   });

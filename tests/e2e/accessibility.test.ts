@@ -54,15 +54,40 @@ async function signIn(page: Page, email: string) {
   await page.waitForURL('**/guilds');
 }
 
-const signedOutPages = ['/', '/sign-in', '/register', '/forgot-password', '/reset-password?token=not-a-real-token-but-long-enough'];
+const signedOutPages = [
+  '/',
+  '/sign-in',
+  '/register',
+  '/forgot-password',
+  '/reset-password?token=not-a-real-token-but-long-enough',
+];
 const memberPages = () => {
   const swap = `/guilds/${guildId}/swaps/${swapId}`;
-  return ['/guilds', `/guilds/${guildId}`, `/guilds/${guildId}/about`, `/guilds/${guildId}/members`, '/planner', '/settings', '/settings/email',
-    swap, `${swap}/roster`, `${swap}/board`, `${swap}/chat`, `${swap}/sheet`, `/guilds/${guildId}/sew-days`, `/guilds/${guildId}/sew-days/${sewDayId}`];
+  return [
+    '/guilds',
+    `/guilds/${guildId}`,
+    `/guilds/${guildId}/about`,
+    `/guilds/${guildId}/members`,
+    '/planner',
+    '/settings',
+    '/settings/email',
+    swap,
+    `${swap}/roster`,
+    `${swap}/board`,
+    `${swap}/chat`,
+    `${swap}/sheet`,
+    `/guilds/${guildId}/sew-days`,
+    `/guilds/${guildId}/sew-days/${sewDayId}`,
+  ];
 };
 const officerPages: Record<string, () => string[]> = {
   'member@demo.test': () => [],
-  'coordinator@demo.test': () => [`/guilds/${guildId}/swaps/new`, `/guilds/${guildId}/swaps/${swapId}/return`, `/guilds/${guildId}/swaps/${swapId}/intake`, `/guilds/${guildId}/sew-days/new`],
+  'coordinator@demo.test': () => [
+    `/guilds/${guildId}/swaps/new`,
+    `/guilds/${guildId}/swaps/${swapId}/return`,
+    `/guilds/${guildId}/swaps/${swapId}/intake`,
+    `/guilds/${guildId}/sew-days/new`,
+  ],
   'admin@demo.test': () => [`/guilds/${guildId}/mail`],
 };
 
@@ -111,7 +136,11 @@ it('can be walked through by keyboard alone: sign in with Tab and Enter', async 
   expect(await page.evaluate(() => document.activeElement?.id)).toBe('main');
   await page.keyboard.press('Tab');
   expect(await page.evaluate(() => Boolean(document.activeElement?.closest('main')))).toBe(true);
-  for (let i = 0; i < 40 && !/^Kestrel Hollow Quilters/.test((await page.evaluate(() => document.activeElement?.textContent)) ?? ''); i++) {
+  for (
+    let i = 0;
+    i < 40 && !/^Kestrel Hollow Quilters/.test((await page.evaluate(() => document.activeElement?.textContent)) ?? '');
+    i++
+  ) {
     await page.keyboard.press('Tab');
   }
   expect(await page.evaluate(() => document.activeElement?.textContent)).toMatch(/^Kestrel Hollow Quilters/);
