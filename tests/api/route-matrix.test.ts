@@ -42,12 +42,21 @@ beforeAll(async () => {
   await move(g.coordinator.agent, swap.id, 'collecting');
   const blocks = (await g.member.agent.get(`/api/swaps/${swap.id}/blocks?maker=me`).expect(200)).body as { id: number }[];
   ids.block = blocks[0]!.id;
-  const jpeg = await sharp({ create: { width: 400, height: 400, channels: 3, background: '#5F7A5A' } }).jpeg().toBuffer();
-  const up = await g.member.agent.post(`/api/blocks/${blocks[1]!.id}/photos`).attach('photos', jpeg, 'a.jpg').attach('photos', jpeg, 'b.jpg').expect(201);
+  const jpeg = await sharp({ create: { width: 400, height: 400, channels: 3, background: '#5F7A5A' } })
+    .jpeg()
+    .toBuffer();
+  const up = await g.member.agent
+    .post(`/api/blocks/${blocks[1]!.id}/photos`)
+    .attach('photos', jpeg, 'a.jpg')
+    .attach('photos', jpeg, 'b.jpg')
+    .expect(201);
   ids.photo = up.body.photos[0].id;
   ids.photoToDelete = up.body.photos[1].id;
   await receiveAndMeasure(g.coordinator.agent, ids.block, { width: '9 1/2', height: '9 1/2' });
-  const day = await g.coordinator.agent.post(`/api/guilds/${g.guildId}/sew-days`).send({ title: 'Matrix sew day', startsAt: '2027-03-14T10:00', endsAt: '2027-03-14T15:00', place: 'Library room B' }).expect(201);
+  const day = await g.coordinator.agent
+    .post(`/api/guilds/${g.guildId}/sew-days`)
+    .send({ title: 'Matrix sew day', startsAt: '2027-03-14T10:00', endsAt: '2027-03-14T15:00', place: 'Library room B' })
+    .expect(201);
   ids.sewDay = day.body.id;
   const room = await g.member.agent.get(`/api/swaps/${swap.id}/chat`).expect(200);
   ids.room = room.body.id ?? room.body.room?.id;
@@ -57,7 +66,14 @@ beforeAll(async () => {
   const { newToken } = await import('../../server/auth/tokens');
   const { Invitation } = await import('../../server/db/models');
   const { token, tokenHash } = newToken();
-  await Invitation.create({ guildId: g.guildId, email: uniqueEmail('matrix'), role: 'member', tokenHash, invitedById: g.admin.id, expiresAt: new Date(Date.now() + 86_400_000) });
+  await Invitation.create({
+    guildId: g.guildId,
+    email: uniqueEmail('matrix'),
+    role: 'member',
+    tokenHash,
+    invitedById: g.admin.id,
+    expiresAt: new Date(Date.now() + 86_400_000),
+  });
   ids.token = token;
 }, 60_000);
 afterAll(() => app.close());
@@ -68,92 +84,222 @@ const sewDay = { title: 'Renamed sew day', startsAt: '2027-03-14T10:00', endsAt:
 
 const cases: Record<string, Case> = {
   'GET /api/health': { access: 'public', path: () => '/api/health' },
-  'POST /api/auth/register': { access: 'public', fresh: 'anonymous', path: () => '/api/auth/register', body: () => ({ email: uniqueEmail('m'), password: PASSWORD, displayName: 'Matrix' }) },
-  'POST /api/auth/login': { access: 'public', fresh: 'anonymous', path: () => '/api/auth/login', body: () => ({ email: g.member.email, password: PASSWORD }) },
+  'POST /api/auth/register': {
+    access: 'public',
+    fresh: 'anonymous',
+    path: () => '/api/auth/register',
+    body: () => ({ email: uniqueEmail('m'), password: PASSWORD, displayName: 'Matrix' }),
+  },
+  'POST /api/auth/login': {
+    access: 'public',
+    fresh: 'anonymous',
+    path: () => '/api/auth/login',
+    body: () => ({ email: g.member.email, password: PASSWORD }),
+  },
   'POST /api/auth/logout': { access: 'public', fresh: 'user', path: () => '/api/auth/logout' },
-  'POST /api/auth/reset-request': { access: 'public', fresh: 'anonymous', path: () => '/api/auth/reset-request', body: () => ({ email: uniqueEmail('r') }) },
-  'POST /api/auth/reset': { access: 'public', fresh: 'anonymous', path: () => '/api/auth/reset', body: () => ({ token: 'x'.repeat(43), password: PASSWORD }) },
+  'POST /api/auth/reset-request': {
+    access: 'public',
+    fresh: 'anonymous',
+    path: () => '/api/auth/reset-request',
+    body: () => ({ email: uniqueEmail('r') }),
+  },
+  'POST /api/auth/reset': {
+    access: 'public',
+    fresh: 'anonymous',
+    path: () => '/api/auth/reset',
+    body: () => ({ token: 'x'.repeat(43), password: PASSWORD }),
+  },
   'GET /api/me': { access: 'user', path: () => '/api/me' },
   'PATCH /api/me': { access: 'user', path: () => '/api/me', body: () => ({ units: 'in' }) },
-  'POST /api/me/password': { access: 'user', fresh: 'user', path: () => '/api/me/password', body: () => ({ currentPassword: PASSWORD, newPassword: 'orchard-copper-thimble' }) },
+  'POST /api/me/password': {
+    access: 'user',
+    fresh: 'user',
+    path: () => '/api/me/password',
+    body: () => ({ currentPassword: PASSWORD, newPassword: 'orchard-copper-thimble' }),
+  },
   'GET /api/session': { access: 'public', path: () => '/api/session' },
   'GET /api/me/next': { access: 'user', path: () => '/api/me/next' },
   'PUT /api/me/rooms/:roomId/seen': { access: 'member', path: () => `/api/me/rooms/${ids.room}/seen` },
   'GET /api/invitations/:token': { access: 'public', path: () => `/api/invitations/${ids.token}` },
-  'POST /api/invitations/:token/accept': { access: 'user', fresh: 'user', path: () => `/api/invitations/${'y'.repeat(43)}/accept` },
+  'POST /api/invitations/:token/accept': {
+    access: 'user',
+    fresh: 'user',
+    path: () => `/api/invitations/${'y'.repeat(43)}/accept`,
+  },
   'GET /api/guilds': { access: 'user', path: () => '/api/guilds' },
   'POST /api/guilds': { access: 'user', path: () => '/api/guilds', body: () => ({ name: 'Matrix Made Guild' }) },
   'GET /api/guilds/:guildId': { access: 'member', path: () => `/api/guilds/${G()}` },
   'PATCH /api/guilds/:guildId': { access: 'admin', path: () => `/api/guilds/${G()}`, body: () => ({ timeZone: 'UTC' }) },
   'GET /api/guilds/:guildId/members': { access: 'member', path: () => `/api/guilds/${G()}/members` },
-  'PATCH /api/guilds/:guildId/members/:userId': { access: 'admin', path: () => `/api/guilds/${G()}/members/${g.member.id}`, body: () => ({ role: 'member' }) },
+  'PATCH /api/guilds/:guildId/members/:userId': {
+    access: 'admin',
+    path: () => `/api/guilds/${G()}/members/${g.member.id}`,
+    body: () => ({ role: 'member' }),
+  },
   'DELETE /api/guilds/:guildId/members/:userId': { access: 'admin', path: () => `/api/guilds/${G()}/members/${NOPE}` },
   'GET /api/guilds/:guildId/invitations': { access: 'officer', path: () => `/api/guilds/${G()}/invitations` },
-  'POST /api/guilds/:guildId/invitations': { access: 'officer', path: () => `/api/guilds/${G()}/invitations`, body: () => ({ email: uniqueEmail('inv'), role: 'member' }) },
+  'POST /api/guilds/:guildId/invitations': {
+    access: 'officer',
+    path: () => `/api/guilds/${G()}/invitations`,
+    body: () => ({ email: uniqueEmail('inv'), role: 'member' }),
+  },
   'GET /api/guilds/:guildId/invitations/limits': { access: 'officer', path: () => `/api/guilds/${G()}/invitations/limits` },
-  'DELETE /api/guilds/:guildId/invitations/:invitationId': { access: 'officer', path: () => `/api/guilds/${G()}/invitations/${NOPE}` },
+  'DELETE /api/guilds/:guildId/invitations/:invitationId': {
+    access: 'officer',
+    path: () => `/api/guilds/${G()}/invitations/${NOPE}`,
+  },
   'GET /api/guilds/:guildId/sew-days': { access: 'member', path: () => `/api/guilds/${G()}/sew-days` },
   'POST /api/guilds/:guildId/sew-days': { access: 'officer', path: () => `/api/guilds/${G()}/sew-days`, body: () => sewDay },
   'GET /api/sew-days/:sewDayId': { access: 'member', path: () => `/api/sew-days/${ids.sewDay}` },
   'PATCH /api/sew-days/:sewDayId': { access: 'officer', path: () => `/api/sew-days/${ids.sewDay}`, body: () => sewDay },
   'POST /api/sew-days/:sewDayId/cancel': { access: 'officer', path: () => `/api/sew-days/${ids.sewDay}/cancel` },
-  'PUT /api/sew-days/:sewDayId/rsvp': { access: 'member', path: () => `/api/sew-days/${ids.sewDay}/rsvp`, body: () => ({ answer: 'maybe' }) },
+  'PUT /api/sew-days/:sewDayId/rsvp': {
+    access: 'member',
+    path: () => `/api/sew-days/${ids.sewDay}/rsvp`,
+    body: () => ({ answer: 'maybe' }),
+  },
   'GET /api/sew-days/:sewDayId/calendar.ics': { access: 'member', path: () => `/api/sew-days/${ids.sewDay}/calendar.ics` },
   'GET /api/chat/rooms/:roomId': { access: 'member', path: () => `/api/chat/rooms/${ids.room}` },
   'GET /api/chat/rooms/:roomId/messages': { access: 'member', path: () => `/api/chat/rooms/${ids.room}/messages` },
-  'POST /api/chat/rooms/:roomId/messages': { access: 'member', path: () => `/api/chat/rooms/${ids.room}/messages`, body: () => ({ body: 'hello from the matrix' }) },
-  'PATCH /api/chat/messages/:messageId': { access: ['member'], path: () => `/api/chat/messages/${ids.message}`, body: () => ({ body: 'edited by its author' }) },
-  'DELETE /api/chat/messages/:messageId': { access: ['member', 'admin'], path: () => `/api/chat/messages/${ids.messageToDelete}` },
+  'POST /api/chat/rooms/:roomId/messages': {
+    access: 'member',
+    path: () => `/api/chat/rooms/${ids.room}/messages`,
+    body: () => ({ body: 'hello from the matrix' }),
+  },
+  'PATCH /api/chat/messages/:messageId': {
+    access: ['member'],
+    path: () => `/api/chat/messages/${ids.message}`,
+    body: () => ({ body: 'edited by its author' }),
+  },
+  'DELETE /api/chat/messages/:messageId': {
+    access: ['member', 'admin'],
+    path: () => `/api/chat/messages/${ids.messageToDelete}`,
+  },
   'GET /api/swaps/:swapId/chat': { access: 'member', path: () => `/api/swaps/${ids.swap}/chat` },
   'GET /api/swaps/:swapId/activity': { access: 'member', path: () => `/api/swaps/${ids.swap}/activity` },
   'GET /api/guilds/:guildId/swaps': { access: 'member', path: () => `/api/guilds/${G()}/swaps` },
-  'POST /api/guilds/:guildId/swaps': { access: 'officer', path: () => `/api/guilds/${G()}/swaps`, body: () => swapBody({ title: 'Matrix swap' }) },
+  'POST /api/guilds/:guildId/swaps': {
+    access: 'officer',
+    path: () => `/api/guilds/${G()}/swaps`,
+    body: () => swapBody({ title: 'Matrix swap' }),
+  },
   'GET /api/swaps/:swapId': { access: 'member', path: () => `/api/swaps/${ids.swap}` },
-  'PATCH /api/swaps/:swapId': { access: 'officer', path: () => `/api/swaps/${ids.swap}`, body: () => ({ title: 'Renamed in the matrix' }) },
+  'PATCH /api/swaps/:swapId': {
+    access: 'officer',
+    path: () => `/api/swaps/${ids.swap}`,
+    body: () => ({ title: 'Renamed in the matrix' }),
+  },
   'GET /api/swaps/:swapId/transitions': { access: 'member', path: () => `/api/swaps/${ids.swap}/transitions` },
-  'GET /api/swaps/:swapId/transitions/preview': { access: 'officer', path: () => `/api/swaps/${ids.swap}/transitions/preview?to=sorting` },
+  'GET /api/swaps/:swapId/transitions/preview': {
+    access: 'officer',
+    path: () => `/api/swaps/${ids.swap}/transitions/preview?to=sorting`,
+  },
   'GET /api/swaps/:swapId/distribution': { access: 'officer', path: () => `/api/swaps/${ids.swap}/distribution?by=recipient` },
-  'POST /api/swaps/:swapId/handed-in': { access: 'member', path: () => `/api/swaps/${ids.swap}/handed-in`, body: () => ({ blockIds: [ids.block], how: 'in-person' }) },
+  'POST /api/swaps/:swapId/handed-in': {
+    access: 'member',
+    path: () => `/api/swaps/${ids.swap}/handed-in`,
+    body: () => ({ blockIds: [ids.block], how: 'in-person' }),
+  },
   'POST /api/blocks/:blockId/undo': { access: 'officer', path: () => `/api/blocks/${ids.block}/undo` },
-  'POST /api/blocks/:blockId/accept': { access: 'officer', path: () => `/api/blocks/${ids.block}/accept`, body: () => ({ reason: 'Close enough for the raffle quilt' }) },
-  'POST /api/swaps/:swapId/transitions': { access: 'officer', path: () => `/api/swaps/${ids.swap}/transitions`, body: () => ({ to: 'draft' }) },
-  'POST /api/swaps/:swapId/signups': { access: 'member', path: () => `/api/swaps/${ids.swap}/signups`, body: () => ({ blocks: 1 }) },
+  'POST /api/blocks/:blockId/accept': {
+    access: 'officer',
+    path: () => `/api/blocks/${ids.block}/accept`,
+    body: () => ({ reason: 'Close enough for the raffle quilt' }),
+  },
+  'POST /api/swaps/:swapId/transitions': {
+    access: 'officer',
+    path: () => `/api/swaps/${ids.swap}/transitions`,
+    body: () => ({ to: 'draft' }),
+  },
+  'POST /api/swaps/:swapId/signups': {
+    access: 'member',
+    path: () => `/api/swaps/${ids.swap}/signups`,
+    body: () => ({ blocks: 1 }),
+  },
   'GET /api/swaps/:swapId/signups/me': { access: 'member', path: () => `/api/swaps/${ids.swap}/signups/me` },
   'DELETE /api/swaps/:swapId/signups/me': { access: 'member', path: () => `/api/swaps/${ids.swap}/signups/me` },
   'GET /api/swaps/:swapId/roster': { access: 'member', path: () => `/api/swaps/${ids.swap}/roster` },
   // Everyone's blocks are for officers; a member lists their own with ?maker=me (tested in blocks.test.ts).
   'GET /api/swaps/:swapId/blocks': { access: 'officer', path: () => `/api/swaps/${ids.swap}/blocks` },
   'GET /api/swaps/:swapId/export/roster.csv': { access: 'officer', path: () => `/api/swaps/${ids.swap}/export/roster.csv` },
-  'GET /api/swaps/:swapId/export/distribution.csv': { access: 'officer', path: () => `/api/swaps/${ids.swap}/export/distribution.csv` },
+  'GET /api/swaps/:swapId/export/distribution.csv': {
+    access: 'officer',
+    path: () => `/api/swaps/${ids.swap}/export/distribution.csv`,
+  },
   'GET /api/blocks/:blockId': { access: 'member', path: () => `/api/blocks/${ids.block}` },
   'GET /api/blocks/:blockId/measurements': { access: 'member', path: () => `/api/blocks/${ids.block}/measurements` },
   'POST /api/blocks/:blockId/sewn': { access: ['member'], path: () => `/api/blocks/${ids.block}/sewn` },
-  'POST /api/blocks/:blockId/handed-in': { access: ['member'], path: () => `/api/blocks/${ids.block}/handed-in`, body: () => ({ how: 'in-person' }) },
-  'POST /api/blocks/:blockId/received': { access: 'officer', path: () => `/api/blocks/${ids.block}/received`, body: () => ({ clientId: randomUUID() }) },
+  'POST /api/blocks/:blockId/handed-in': {
+    access: ['member'],
+    path: () => `/api/blocks/${ids.block}/handed-in`,
+    body: () => ({ how: 'in-person' }),
+  },
+  'POST /api/blocks/:blockId/received': {
+    access: 'officer',
+    path: () => `/api/blocks/${ids.block}/received`,
+    body: () => ({ clientId: randomUUID() }),
+  },
   'POST /api/blocks/:blockId/trimmed': { access: 'officer', path: () => `/api/blocks/${ids.block}/trimmed` },
-  'POST /api/blocks/:blockId/measurements': { access: 'member', path: () => `/api/blocks/${ids.block}/measurements`, body: () => ({ width: 9.5, height: 9.5 }) },
+  'POST /api/blocks/:blockId/measurements': {
+    access: 'member',
+    path: () => `/api/blocks/${ids.block}/measurements`,
+    body: () => ({ width: 9.5, height: 9.5 }),
+  },
   'POST /api/swaps/:swapId/distribution/plan': { access: 'officer', path: () => `/api/swaps/${ids.swap}/distribution/plan` },
-  'POST /api/swaps/:swapId/distribution/confirm': { access: 'officer', path: () => `/api/swaps/${ids.swap}/distribution/confirm`, body: () => ({ transfers: [{ from: g.member.id, to: g.coordinator.id, count: 1 }] }) },
+  'POST /api/swaps/:swapId/distribution/confirm': {
+    access: 'officer',
+    path: () => `/api/swaps/${ids.swap}/distribution/confirm`,
+    body: () => ({ transfers: [{ from: g.member.id, to: g.coordinator.id, count: 1 }] }),
+  },
   'GET /api/blocks/:blockId/photos': { access: 'member', path: () => `/api/blocks/${ids.block}/photos` },
-  'POST /api/blocks/:blockId/photos': { access: ['member', 'coordinator', 'admin'], path: () => `/api/blocks/${ids.block}/photos` },
+  'POST /api/blocks/:blockId/photos': {
+    access: ['member', 'coordinator', 'admin'],
+    path: () => `/api/blocks/${ids.block}/photos`,
+  },
   // ids.block is the member's own block: its maker and the officers may measure it from a photo.
-  'GET /api/blocks/:blockId/photo-estimates': { access: ['member', 'coordinator', 'admin'], path: () => `/api/blocks/${ids.block}/photo-estimates` },
-  'POST /api/blocks/:blockId/photo-estimates': { access: ['member', 'coordinator', 'admin'], path: () => `/api/blocks/${ids.block}/photo-estimates`, body: () => ({}) },
+  'GET /api/blocks/:blockId/photo-estimates': {
+    access: ['member', 'coordinator', 'admin'],
+    path: () => `/api/blocks/${ids.block}/photo-estimates`,
+  },
+  'POST /api/blocks/:blockId/photo-estimates': {
+    access: ['member', 'coordinator', 'admin'],
+    path: () => `/api/blocks/${ids.block}/photo-estimates`,
+    body: () => ({}),
+  },
   'GET /api/photos/:photoId': { access: 'member', path: () => `/api/photos/${ids.photo}?size=thumb` },
   'GET /api/photos/:photoId/colour': { access: 'member', path: () => `/api/photos/${ids.photo}/colour` },
   'GET /api/swaps/:swapId/design': { access: 'member', path: () => `/api/swaps/${ids.swap}/design` },
-  'PUT /api/swaps/:swapId/design': { access: 'member', path: () => `/api/swaps/${ids.swap}/design`, body: () => ({ columns: 1, rows: 1, cells: [{ blockId: null, rotation: 0 }] }) },
-  'POST /api/swaps/:swapId/design/arrange': { access: 'member', path: () => `/api/swaps/${ids.swap}/design/arrange`, body: () => ({}) },
+  'PUT /api/swaps/:swapId/design': {
+    access: 'member',
+    path: () => `/api/swaps/${ids.swap}/design`,
+    body: () => ({ columns: 1, rows: 1, cells: [{ blockId: null, rotation: 0 }] }),
+  },
+  'POST /api/swaps/:swapId/design/arrange': {
+    access: 'member',
+    path: () => `/api/swaps/${ids.swap}/design/arrange`,
+    body: () => ({}),
+  },
   'DELETE /api/photos/:photoId': { access: ['member', 'coordinator', 'admin'], path: () => `/api/photos/${ids.photoToDelete}` },
   // Without a signature the payment service's webhook refuses everyone alike (400), signed in or not.
-  'POST /api/payments/webhook': { access: 'public', path: () => '/api/payments/webhook', body: () => ({ id: 'evt_test_unsigned' }) },
+  'POST /api/payments/webhook': {
+    access: 'public',
+    path: () => '/api/payments/webhook',
+    body: () => ({ id: 'evt_test_unsigned' }),
+  },
   'GET /api/me/payments': { access: 'user', path: () => '/api/me/payments' },
   'GET /api/swaps/:swapId/fees': { access: 'member', path: () => `/api/swaps/${ids.swap}/fees` },
   'POST /api/swaps/:swapId/checkout': { access: 'member', path: () => `/api/swaps/${ids.swap}/checkout`, body: () => ({}) },
   'GET /api/guilds/:guildId/dues': { access: 'member', path: () => `/api/guilds/${G()}/dues` },
-  'POST /api/guilds/:guildId/dues/checkout': { access: 'member', path: () => `/api/guilds/${G()}/dues/checkout`, body: () => ({}) },
+  'POST /api/guilds/:guildId/dues/checkout': {
+    access: 'member',
+    path: () => `/api/guilds/${G()}/dues/checkout`,
+    body: () => ({}),
+  },
   'GET /api/guilds/:guildId/payments': { access: 'admin', path: () => `/api/guilds/${G()}/payments` },
-  'POST /api/guilds/:guildId/payments/:paymentId/refund': { access: 'admin', path: () => `/api/guilds/${G()}/payments/${NOPE}/refund` },
+  'POST /api/guilds/:guildId/payments/:paymentId/refund': {
+    access: 'admin',
+    path: () => `/api/guilds/${G()}/payments/${NOPE}/refund`,
+  },
   'GET /api/me/mail-preferences': { access: 'user', path: () => '/api/me/mail-preferences' },
   'PATCH /api/me/mail-preferences': { access: 'user', path: () => '/api/me/mail-preferences', body: () => ({ reminders: true }) },
   'GET /api/unsubscribe': { access: 'public', path: () => `/api/unsubscribe?token=${'z'.repeat(40)}` },
@@ -161,10 +307,17 @@ const cases: Record<string, Case> = {
   'POST /api/unsubscribe': { access: 'public', path: () => `/api/unsubscribe?token=${'z'.repeat(40)}` },
   'POST /api/unsubscribe/undo': { access: 'public', path: () => `/api/unsubscribe/undo?token=${'z'.repeat(40)}` },
   'GET /api/guilds/:guildId/mail-messages': { access: 'admin', path: () => `/api/guilds/${G()}/mail-messages` },
-  'GET /api/guilds/:guildId/mail-messages/:messageId': { access: 'admin', path: () => `/api/guilds/${G()}/mail-messages/${NOPE}` },
+  'GET /api/guilds/:guildId/mail-messages/:messageId': {
+    access: 'admin',
+    path: () => `/api/guilds/${G()}/mail-messages/${NOPE}`,
+  },
   'GET /api/swaps/:swapId/labels': { access: 'member', path: () => `/api/swaps/${ids.swap}/labels` },
   'GET /api/swaps/:swapId/intake': { access: 'officer', path: () => `/api/swaps/${ids.swap}/intake` },
-  'POST /api/intake/resolve': { access: 'officer', path: () => '/api/intake/resolve', body: () => ({ swapId: ids.swap, shortCode: 'K7QM-3XWD' }) },
+  'POST /api/intake/resolve': {
+    access: 'officer',
+    path: () => '/api/intake/resolve',
+    body: () => ({ swapId: ids.swap, shortCode: 'K7QM-3XWD' }),
+  },
 };
 
 const allowedRoles = (access: Access): Role[] => {
@@ -190,7 +343,9 @@ async function freshAgent(kind: 'anonymous' | 'user'): Promise<Agent> {
 }
 
 it('has an entry for every route the router answers', () => {
-  const routes = listRoutes(app.app).filter((r) => r.path.startsWith('/api')).map((r) => `${r.method} ${r.path}`);
+  const routes = listRoutes(app.app)
+    .filter((r) => r.path.startsWith('/api'))
+    .map((r) => `${r.method} ${r.path}`);
   expect(routes.filter((r) => !(r in cases))).toEqual([]);
   expect(Object.keys(cases).filter((c) => !routes.includes(c))).toEqual([]);
 });
@@ -202,13 +357,20 @@ describe('each role gets the expected answer', () => {
       const method = key.split(' ')[0]!;
       const allowed = allowedRoles(c.access);
       const agents: Record<Role, Agent> = {
-        signedOut: app.agent(), stranger: g.stranger.agent, member: g.member.agent, coordinator: g.coordinator.agent, admin: g.admin.agent,
+        signedOut: app.agent(),
+        stranger: g.stranger.agent,
+        member: g.member.agent,
+        coordinator: g.coordinator.agent,
+        admin: g.admin.agent,
       };
       // Denied callers first, so an allowed call that changes something cannot hide a refusal.
-      const order: Role[] = ['signedOut', 'stranger', 'member', 'coordinator', 'admin'].sort((a, b) => Number(allowed.includes(a as Role)) - Number(allowed.includes(b as Role))) as Role[];
+      const order: Role[] = ['signedOut', 'stranger', 'member', 'coordinator', 'admin'].sort(
+        (a, b) => Number(allowed.includes(a as Role)) - Number(allowed.includes(b as Role)),
+      ) as Role[];
       const got: Record<string, number> = {};
       for (const role of order) {
-        const agent = c.fresh && role !== 'signedOut' ? await freshAgent(c.fresh) : c.fresh === 'anonymous' ? app.agent() : agents[role];
+        const agent =
+          c.fresh && role !== 'signedOut' ? await freshAgent(c.fresh) : c.fresh === 'anonymous' ? app.agent() : agents[role];
         got[role] = (await call(agent, method, c.path(), c.body?.())).status;
       }
       const problems = order.flatMap((role) => {
