@@ -33,7 +33,7 @@ export function guildsRouter(deps: AppDeps) {
   router.post(
     '/',
     route({ body: createGuildSchema }, async ({ body }, req, res) => {
-      res.status(201).json(await guilds.createGuild(currentUser(req).id, body));
+      res.status(201).json(await guilds.createGuild(deps, currentUser(req).id, body));
     }),
   );
 
@@ -49,7 +49,7 @@ export function guildsRouter(deps: AppDeps) {
     route(
       { params: guildParamsSchema, body: updateGuildSchema, authorize: may('guild:update') },
       async ({ params, body, access }, _req, res) => {
-        res.json(await guilds.updateGuild(params.guildId, access.role, body));
+        res.json(await guilds.updateGuild(deps, params.guildId, access.role, body));
       },
     ),
   );

@@ -12,8 +12,8 @@ import type { AppDeps } from '../deps';
 export const INVITATION_VALID_DAYS = 14;
 
 /** Creates a guild; its creator becomes its first admin. */
-export async function createGuild(userId: number, input: CreateGuildInput): Promise<GuildDto> {
-  const guild = await Guild.sequelize!.transaction(async (transaction) => {
+export async function createGuild(deps: Pick<AppDeps, 'sequelize'>, userId: number, input: CreateGuildInput): Promise<GuildDto> {
+  const guild = await deps.sequelize.transaction(async (transaction) => {
     const created = await Guild.create({ name: input.name, timeZone: input.timeZone ?? 'UTC' }, { transaction });
     await Membership.create({ guildId: created.id, userId, role: 'admin' }, { transaction });
     return created;
@@ -44,7 +44,9 @@ export async function listMyGuilds(userId: number): Promise<GuildDto[]> {
     include: [{ model: Guild, as: 'guild' }],
     order: [[{ model: Guild, as: 'guild' }, 'name', 'ASC']],
   });
-  return Promise.all(memberships.map(async (m) => ({ ...guildDto(m.guild!, m.role), memberCount: await memberCount(m.guildId) })));
+  return Promise.all(
+    memberships.map(async (m) => ({ ...guildDto(m.guild!, m.role), memberCount: await memberCount(m.guildId) })),
+  );
 }
 
 export async function getGuild(guildId: number, myRole: Role): Promise<GuildDto> {
@@ -53,17 +55,19 @@ export async function getGuild(guildId: number, myRole: Role): Promise<GuildDto>
   return { ...guildDto(guild, myRole), memberCount: await memberCount(guildId) };
 }
 
-export async function updateGuild(guildId: number, myRole: Role, input: UpdateGuildInput) {
+export async function updateGuild(deps: Pick<AppDeps, 'sequelize'>, guildId: number, myRole: Role, input: UpdateGuildInput) {
   const guild = await Guild.findByPk(guildId);
   if (!guild) throw new NotFoundError('That guild does not exist.');
   const { dues, currency, ...rest } = input;
   if (currency && currency !== guild.currency) {
-    const charged = await Guild.sequelize!.query<{ n: number }>('SELECT count(*)::int AS n FROM payments WHERE guild_id = $1', {
+    const charged = await deps.sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM payments WHERE guild_id = $1', {
       bind: [guildId],
       type: QueryTypes.SELECT,
     });
     if ((charged[0]?.n ?? 0) > 0) {
-      throw new ValidationError('The currency cannot change once members have paid in it.', { currency: 'The currency cannot change once members have paid in it.' });
+      throw new ValidationError('The currency cannot change once members have paid in it.', {
+        currency: 'The currency cannot change once members have paid in it.',
+      });
     }
   }
   await guild.update({
@@ -100,8 +104,8 @@ async function assertNotLastAdmin(guildId: number, userId: number, transaction: 
   }
 }
 
-export async function changeRole(deps: Pick<AppDeps, 'events'>, guildId: number, userId: number, role: Role) {
-  await Membership.sequelize!.transaction(async (transaction) => {
+export async function changeRole(deps: Pick<AppDeps, 'events' | 'sequelize'>, guildId: number, userId: number, role: Role) {
+  await deps.sequelize.transaction(async (transaction) => {
     const membership = await Membership.findOne({ where: { guildId, userId, status: 'active' }, transaction });
     if (!membership) throw new NotFoundError('That person is not a member of this guild.');
     if (membership.role === 'admin' && role !== 'admin') await assertNotLastAdmin(guildId, userId, transaction);
@@ -110,8 +114,8 @@ export async function changeRole(deps: Pick<AppDeps, 'events'>, guildId: number,
   return (await listMembers(guildId)).find((m) => m.userId === userId)!;
 }
 
-export async function removeMember(deps: Pick<AppDeps, 'events'>, guildId: number, userId: number) {
-  await Membership.sequelize!.transaction(async (transaction) => {
+export async function removeMember(deps: Pick<AppDeps, 'events' | 'sequelize'>, guildId: number, userId: number) {
+  await deps.sequelize.transaction(async (transaction) => {
     const membership = await Membership.findOne({ where: { guildId, userId, status: 'active' }, transaction });
     if (!membership) throw new NotFoundError('That person is not a member of this guild.');
     if (membership.role === 'admin') await assertNotLastAdmin(guildId, userId, transaction);
@@ -129,7 +133,14 @@ export async function listInvitations(guildId: number): Promise<InvitationDto[]>
 }
 
 function invitationDto(i: Invitation): InvitationDto {
-  return { id: i.id, email: i.email, role: i.role, open: i.open, expiresAt: i.expiresAt.toISOString(), acceptedAt: i.acceptedAt?.toISOString() ?? null };
+  return {
+    id: i.id,
+    email: i.email,
+    role: i.role,
+    open: i.open,
+    expiresAt: i.expiresAt.toISOString(),
+    acceptedAt: i.acceptedAt?.toISOString() ?? null,
+  };
 }
 
 const DAY_MS = 86_400_000;
@@ -139,7 +150,12 @@ async function sentSince(where: { guildId?: number; invitedById?: number }, tran
 }
 
 /** The invitation allowances of the last 24 hours, for the caller and for the guild. */
-export async function invitationLimits(deps: Pick<AppDeps, 'config'>, guildId: number, userId: number, transaction?: Transaction): Promise<InvitationLimitsDto> {
+export async function invitationLimits(
+  deps: Pick<AppDeps, 'config'>,
+  guildId: number,
+  userId: number,
+  transaction?: Transaction,
+): Promise<InvitationLimitsDto> {
   const perInviterDay = deps.config.INVITES_PER_INVITER_DAY;
   const perGuildDay = deps.config.INVITES_PER_GUILD_DAY;
   const sentByYouToday = await sentSince({ invitedById: userId }, transaction);
@@ -154,7 +170,7 @@ export async function invitationLimits(deps: Pick<AppDeps, 'config'>, guildId: n
  * invitation to the guild gets no second one, so nobody can use the guild to send mail in bulk.
  */
 export async function invite(
-  deps: Pick<AppDeps, 'mailer' | 'config' | 'logger'>,
+  deps: Pick<AppDeps, 'mailer' | 'config' | 'logger' | 'sequelize'>,
   opts: { guildId: number; inviter: Express.User; inviterRole: Role; email: string; role: Role; open?: boolean },
 ): Promise<InvitationDto> {
   if (opts.role !== 'member' && !can(opts.inviterRole, 'invitations:create-officer')) {
@@ -173,9 +189,9 @@ export async function invite(
 
   const { token, tokenHash } = newToken();
   const expiresAt = new Date(Date.now() + INVITATION_VALID_DAYS * DAY_MS);
-  const invitation = await Invitation.sequelize!.transaction(async (transaction) => {
+  const invitation = await deps.sequelize.transaction(async (transaction) => {
     // One invitation at a time per guild and per inviter, so the counts below cannot be raced past.
-    await Invitation.sequelize!.query('SELECT pg_advisory_xact_lock(hashtext($1)), pg_advisory_xact_lock(hashtext($2))', {
+    await deps.sequelize.query('SELECT pg_advisory_xact_lock(hashtext($1)), pg_advisory_xact_lock(hashtext($2))', {
       bind: [`invite:guild:${opts.guildId}`, `invite:user:${opts.inviter.id}`],
       transaction,
     });
@@ -191,19 +207,42 @@ export async function invite(
     }
     const limits = await invitationLimits(deps, opts.guildId, opts.inviter.id, transaction);
     if (limits.sentByYouToday >= limits.perInviterDay) {
-      throw new AppError(429, 'invitation_limit', `You have sent ${limits.perInviterDay} invitations in the last 24 hours, the most allowed. Try again tomorrow.`);
+      throw new AppError(
+        429,
+        'invitation_limit',
+        `You have sent ${limits.perInviterDay} invitations in the last 24 hours, the most allowed. Try again tomorrow.`,
+      );
     }
     if (limits.sentByGuildToday >= limits.perGuildDay) {
-      throw new AppError(429, 'invitation_limit', `This guild has sent ${limits.perGuildDay} invitations in the last 24 hours, the most allowed. Try again tomorrow.`);
+      throw new AppError(
+        429,
+        'invitation_limit',
+        `This guild has sent ${limits.perGuildDay} invitations in the last 24 hours, the most allowed. Try again tomorrow.`,
+      );
     }
     return Invitation.create(
-      { guildId: opts.guildId, email: opts.email, role: opts.role, open: opts.open ?? false, tokenHash, invitedById: opts.inviter.id, expiresAt },
+      {
+        guildId: opts.guildId,
+        email: opts.email,
+        role: opts.role,
+        open: opts.open ?? false,
+        tokenHash,
+        invitedById: opts.inviter.id,
+        expiresAt,
+      },
       { transaction },
     );
   });
   const url = `${deps.config.PUBLIC_URL}/invitations/${encodeURIComponent(token)}`;
   await deps.mailer.send(
-    invitationMail({ to: opts.email, guildName: guild.name, inviterName: opts.inviter.displayName, role: opts.role, url, expiresAt }),
+    invitationMail({
+      to: opts.email,
+      guildName: guild.name,
+      inviterName: opts.inviter.displayName,
+      role: opts.role,
+      url,
+      expiresAt,
+    }),
   );
   return invitationDto(invitation);
 }
@@ -214,7 +253,10 @@ export async function revokeInvitation(guildId: number, invitationId: number) {
 }
 
 async function findOpenInvitation(token: string) {
-  const invitation = await Invitation.findOne({ where: { tokenHash: hashToken(token) }, include: [{ model: Guild, as: 'guild' }] });
+  const invitation = await Invitation.findOne({
+    where: { tokenHash: hashToken(token) },
+    include: [{ model: Guild, as: 'guild' }],
+  });
   if (!invitation) throw new NotFoundError('This invitation link is not valid. Ask the guild for a new one.');
   if (invitation.acceptedAt) throw new ConflictError('This invitation was already accepted.', 'invitation_used');
   if (invitation.expiresAt.getTime() < Date.now()) {
@@ -239,7 +281,7 @@ export async function previewInvitation(token: string): Promise<InvitationPrevie
  * with the invited address may accept, unless an admin made the link open; a name another member
  * of the guild already goes by is refused with a suggestion.
  */
-export async function acceptInvitation(deps: Pick<AppDeps, 'events'>, token: string, user: Express.User) {
+export async function acceptInvitation(deps: Pick<AppDeps, 'events' | 'sequelize'>, token: string, user: Express.User) {
   const userId = user.id;
   const invitation = await findOpenInvitation(token);
   if (!invitation.open && invitation.email !== user.email) {
@@ -250,7 +292,7 @@ export async function acceptInvitation(deps: Pick<AppDeps, 'events'>, token: str
     );
   }
   await assertNameFreeInGuilds(userId, user.displayName, [invitation.guildId], user.email);
-  const membership = await Invitation.sequelize!.transaction(async (transaction) => {
+  const membership = await deps.sequelize.transaction(async (transaction) => {
     const [spent] = await Invitation.update(
       { acceptedAt: new Date(), acceptedById: userId },
       { where: { id: invitation.id, acceptedAt: null }, transaction },

@@ -1,14 +1,22 @@
 import { Op, QueryTypes } from 'sequelize';
 import {
-  instantToWallTime, rsvpAnswers, sewDayInputSchema, wallTimeToInstant, type RsvpAnswer, type SewDayDetailDto, type SewDayDto,
-  type SewDayInput, type SewDayListDto, type SewDayListQuery,
+  instantToWallTime,
+  rsvpAnswers,
+  sewDayInputSchema,
+  wallTimeToInstant,
+  type RsvpAnswer,
+  type SewDayDetailDto,
+  type SewDayDto,
+  type SewDayInput,
+  type SewDayListDto,
+  type SewDayListQuery,
 } from '@shared/schemas/sewdays';
 import { zodFields } from '@shared/schemas/errors';
 import { ChatRoom, Guild, Rsvp, SewDay, User } from '../db/models';
 import { ConflictError, NotFoundError, ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
 
-type Events = Pick<AppDeps, 'events'>;
+type Events = Pick<AppDeps, 'events' | 'sequelize'>;
 
 interface Viewer {
   userId: number;
@@ -97,9 +105,14 @@ export async function getSewDay(sewDayId: number, viewer: Viewer): Promise<SewDa
 }
 
 /** Schedules a sew day and opens its chat room in the same transaction. */
-export async function scheduleSewDay(deps: Events, guildId: number, actorId: number, input: SewDayInput): Promise<SewDayDetailDto> {
+export async function scheduleSewDay(
+  deps: Events,
+  guildId: number,
+  actorId: number,
+  input: SewDayInput,
+): Promise<SewDayDetailDto> {
   const guild = await guildZone(guildId);
-  const sewDay = await SewDay.sequelize!.transaction(async (transaction) => {
+  const sewDay = await deps.sequelize.transaction(async (transaction) => {
     const created = await SewDay.create({ guildId, createdById: actorId, ...toColumns(input, guild.timeZone) }, { transaction });
     await ChatRoom.create({ guildId, kind: 'sewday', sewDayId: created.id, swapId: null }, { transaction });
     return created;
@@ -109,7 +122,12 @@ export async function scheduleSewDay(deps: Events, guildId: number, actorId: num
 }
 
 /** Changes some fields; the result must still be a whole, valid sew day. A cancelled day stays as it was. */
-export async function updateSewDay(deps: Events, sewDay: SewDay, actorId: number, changes: Record<string, unknown>): Promise<SewDayDetailDto> {
+export async function updateSewDay(
+  deps: Events,
+  sewDay: SewDay,
+  actorId: number,
+  changes: Record<string, unknown>,
+): Promise<SewDayDetailDto> {
   if (sewDay.cancelledAt) throw new ConflictError('This sew day was cancelled; schedule a new one instead.', 'sew_day_cancelled');
   const guild = await guildZone(sewDay.guildId);
   const current = {
@@ -141,8 +159,9 @@ export async function cancelSewDay(deps: Events, sewDay: SewDay, actorId: number
 /** Records or replaces the caller's answer; not for a cancelled or finished sew day. */
 export async function answerRsvp(deps: Events, sewDay: SewDay, viewer: Viewer, answer: RsvpAnswer): Promise<SewDayDetailDto> {
   if (sewDay.cancelledAt) throw new ConflictError('This sew day was cancelled, so it takes no answers.', 'sew_day_cancelled');
-  if (sewDay.endsAt.getTime() < Date.now()) throw new ConflictError('This sew day is over, so it takes no answers.', 'sew_day_over');
-  await SewDay.sequelize!.query(
+  if (sewDay.endsAt.getTime() < Date.now())
+    throw new ConflictError('This sew day is over, so it takes no answers.', 'sew_day_over');
+  await deps.sequelize.query(
     `INSERT INTO rsvps (sew_day_id, user_id, answer, created_at, updated_at) VALUES ($sewDayId, $userId, $answer, now(), now())
      ON CONFLICT (sew_day_id, user_id) DO UPDATE SET answer = EXCLUDED.answer, updated_at = now()`,
     { bind: { sewDayId: sewDay.id, userId: viewer.userId, answer } },
