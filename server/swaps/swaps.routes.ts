@@ -91,7 +91,7 @@ export function swapsRouter(deps: AppDeps) {
     route(
       { params: swapParamsSchema, query: transitionPreviewQuerySchema, authorize: manageSwap },
       async ({ params, query }, _req, res) => {
-        res.json(await swaps.previewTransition(params.swapId, query.to));
+        res.json(await swaps.previewTransition(deps, params.swapId, query.to));
       },
     ),
   );

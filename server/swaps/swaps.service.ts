@@ -265,8 +265,8 @@ export async function listTransitions(swapId: number): Promise<SwapTransitionDto
 type Warning = TransitionPreviewDto['warnings'][number];
 
 /** Members who would get the announcement: not announced to before, and not switched off. */
-async function announcementAudience(swap: Swap, transaction: Transaction): Promise<number> {
-  const [row] = await Swap.sequelize!.query<{ n: string }>(
+async function announcementAudience(deps: Pick<AppDeps, 'sequelize'>, swap: Swap, transaction: Transaction): Promise<number> {
+  const [row] = await deps.sequelize.query<{ n: string }>(
     `SELECT count(*) AS n FROM memberships m
       WHERE m.guild_id = $guildId AND m.status = 'active'
         AND NOT EXISTS (SELECT 1 FROM mail_messages mm WHERE mm.idempotency_key = 'swap:' || $swapId || ':announcement:user:' || m.user_id)
@@ -282,11 +282,16 @@ const blocksText = (n: number) => `${n} block${n === 1 ? '' : 's'}`;
  * What moving the swap to `to` would do, without doing it: how many people get an e-mail, how many
  * blocks are still owed, and what is unusual (a refused move comes back as the `move_refused` warning).
  */
-export async function previewTransition(swapId: number, to: SwapState, now = new Date()): Promise<TransitionPreviewDto> {
-  return Swap.sequelize!.transaction(async (transaction) => {
+export async function previewTransition(
+  deps: Pick<AppDeps, 'sequelize'>,
+  swapId: number,
+  to: SwapState,
+  now = new Date(),
+): Promise<TransitionPreviewDto> {
+  return deps.sequelize.transaction(async (transaction) => {
     const swap = await Swap.findByPk(swapId, { transaction });
     if (!swap) throw new NotFoundError('That swap does not exist.');
-    const counts = await Swap.sequelize!.query<{ state: string; verdict: string | null; trimmed: boolean; n: string }>(
+    const counts = await deps.sequelize.query<{ state: string; verdict: string | null; trimmed: boolean; n: string }>(
       `SELECT state, verdict, trimmed, count(*) AS n FROM blocks WHERE swap_id = $swapId GROUP BY state, verdict, trimmed`,
       { bind: { swapId }, type: QueryTypes.SELECT, transaction },
     );
@@ -351,7 +356,7 @@ export async function previewTransition(swapId: number, to: SwapState, now = new
       });
     }
     if (to === 'cancelled') warnings.push({ code: 'cannot_undo', message: 'A cancelled swap cannot be reopened.' });
-    const emails = to === 'signup' && !problem ? await announcementAudience(swap, transaction) : 0;
+    const emails = to === 'signup' && !problem ? await announcementAudience(deps, swap, transaction) : 0;
     return { to, emails, owedBlocks, warnings };
   });
 }
