@@ -4,6 +4,7 @@ import { can } from '../guilds/guilds.policy';
 import { canReadSwap } from '../swaps/swaps.policy';
 import { authorizeGuild } from '../guilds/guilds.policy';
 import type { RoomAccess } from './chat.policy';
+import type { AppDeps } from '../deps';
 
 async function roomTitle(room: ChatRoom): Promise<string> {
   if (room.kind === 'sewday' && room.sewDayId) return (await SewDay.findByPk(room.sewDayId))?.title ?? 'Sew day';
@@ -11,7 +12,10 @@ async function roomTitle(room: ChatRoom): Promise<string> {
   return 'Chat';
 }
 
-export async function roomDto(access: Pick<RoomAccess, 'room' | 'canPost' | 'canModerate'>, viewerId: number): Promise<ChatRoomDto> {
+export async function roomDto(
+  access: Pick<RoomAccess, 'room' | 'canPost' | 'canModerate'>,
+  viewerId: number,
+): Promise<ChatRoomDto> {
   const { room } = access;
   return {
     id: room.id,
@@ -27,14 +31,17 @@ export async function roomDto(access: Pick<RoomAccess, 'room' | 'canPost' | 'can
 }
 
 /** The swap's chat room, opened the first time anyone asks for it (two people asking at once get the same room). */
-export async function swapRoom(userId: number, swapId: number): Promise<ChatRoomDto> {
+export async function swapRoom(deps: Pick<AppDeps, 'sequelize'>, userId: number, swapId: number): Promise<ChatRoomDto> {
   const { swap } = await canReadSwap(userId, swapId);
   const membership = await authorizeGuild(userId, swap.guildId, 'guild:read');
-  await ChatRoom.sequelize!.query(
+  await deps.sequelize.query(
     `INSERT INTO chat_rooms (guild_id, kind, swap_id, created_at, updated_at) VALUES ($guildId, 'swap', $swapId, now(), now())
      ON CONFLICT (swap_id) DO NOTHING`,
     { bind: { guildId: swap.guildId, swapId } },
   );
   const room = await ChatRoom.findOne({ where: { swapId } });
-  return roomDto({ room: room!, canPost: can(membership.role, 'chat:post'), canModerate: can(membership.role, 'chat:moderate') }, userId);
+  return roomDto(
+    { room: room!, canPost: can(membership.role, 'chat:post'), canModerate: can(membership.role, 'chat:moderate') },
+    userId,
+  );
 }

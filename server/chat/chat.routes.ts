@@ -74,7 +74,7 @@ export function chatRouter(deps: AppDeps) {
     '/swaps/:swapId/chat',
     requireUser,
     route({ params: swapParamsSchema }, async ({ params }, req, res) => {
-      res.json(await swapRoom(currentUser(req).id, params.swapId));
+      res.json(await swapRoom(deps, currentUser(req).id, params.swapId));
     }),
   );
 
