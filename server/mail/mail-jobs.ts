@@ -66,7 +66,9 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
     pool: deps.pool,
     mailer: opts.mailer ?? deps.mailer,
     config,
-    later: (messageId: number, seconds: number) => boss.send(queues.send, { messageId }, { startAfter: seconds }),
+    // The send queue keeps one waiting job per key (a missing key counts as one key): each held message needs its own.
+    later: (messageId: number, seconds: number) =>
+      boss.send(queues.send, { messageId }, { startAfter: seconds, singletonKey: `held:${messageId}` }),
   };
   let closed = false;
 
