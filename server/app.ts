@@ -12,6 +12,7 @@ import { requireCsrfHeader } from './http/csrf';
 import { refuseNul } from './http/refuse-nul';
 import { apiNotFound, errorMiddleware } from './http/error-middleware';
 import type { AppDeps } from './deps';
+import { paymentsWebhookRouter } from './payments/payments.routes';
 import { featureRouters } from './features';
 
 export const clientDist = fileURLToPath(new URL('../dist', import.meta.url));
@@ -70,6 +71,8 @@ export function createApp(deps: AppDeps): BuiltApp {
   const api = express.Router();
   // Health first: it must answer even when the session store (PostgreSQL) cannot.
   api.use(healthRouter(deps));
+  // Signed by the payment service over the raw body: before the JSON parser, the session and CSRF.
+  api.use(paymentsWebhookRouter(deps));
   api.use(express.json({ limit: '200kb' }));
   api.use(refuseNul);
   api.use(sessionMiddleware, ...passportMiddleware);

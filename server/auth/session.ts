@@ -12,7 +12,12 @@ export function createSessionMiddleware(config: Config, pool: pg.Pool) {
     name: SESSION_COOKIE,
     // No touch: a rolling expiry would write the session row on every request (one UPDATE per page
     // load and per API call); a session instead lasts 30 days from sign-in.
-    store: new PgStore({ pool, tableName: 'session', disableTouch: true, pruneSessionInterval: config.NODE_ENV === 'test' ? false : 15 * 60 }),
+    store: new PgStore({
+      pool,
+      tableName: 'session',
+      disableTouch: true,
+      pruneSessionInterval: config.NODE_ENV === 'test' ? false : 15 * 60,
+    }),
     secret: config.SESSION_SECRET,
     resave: false,
     saveUninitialized: false,
