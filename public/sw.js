@@ -27,7 +27,9 @@ self.addEventListener('activate', (event) => {
   event.waitUntil(
     caches
       .keys()
-      .then((names) => Promise.all(names.filter((n) => n.startsWith('blockpost-') && !KEEP.includes(n)).map((n) => caches.delete(n))))
+      .then((names) =>
+        Promise.all(names.filter((n) => n.startsWith('blockpost-') && !KEEP.includes(n)).map((n) => caches.delete(n))),
+      )
       .then(() => self.clients.claim()),
   );
 });
@@ -129,8 +131,8 @@ self.addEventListener('message', (event) => {
     }
   });
   event.waitUntil(
-    caches.open(ASSETS).then((cache) =>
-      Promise.all(urls.map((u) => cache.match(u).then((hit) => hit || cache.add(u).catch(() => undefined)))),
-    ),
+    caches
+      .open(ASSETS)
+      .then((cache) => Promise.all(urls.map((u) => cache.match(u).then((hit) => hit || cache.add(u).catch(() => undefined))))),
   );
 });

@@ -19,7 +19,10 @@ function ensureChromium() {
   }
   console.log('[test] Installing Debian’s chromium for the browser tests…');
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
-  for (const args of [['update', '-qq'], ['install', '-y', '-qq', 'chromium']]) {
+  for (const args of [
+    ['update', '-qq'],
+    ['install', '-y', '-qq', 'chromium'],
+  ]) {
     const r = spawnSync('apt-get', args, { stdio: 'inherit', env });
     if (r.status !== 0) process.exit(r.status ?? 1);
   }
@@ -27,7 +30,10 @@ function ensureChromium() {
 
 ensureChromium();
 console.log('[test] Building the client…');
-const build = spawnSync(process.execPath, ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn'], { cwd: root, stdio: 'inherit' });
+const build = spawnSync(process.execPath, ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn'], {
+  cwd: root,
+  stdio: 'inherit',
+});
 if (build.status !== 0) process.exit(build.status ?? 1);
 
 const report = join(mkdtempSync(join(tmpdir(), 'blockpost-report-')), 'vitest.json');
@@ -41,7 +47,12 @@ let passed = 0;
 let failed = 0;
 let skipped = 0;
 if (existsSync(report)) {
-  const json = JSON.parse(readFileSync(report, 'utf8')) as { numPassedTests: number; numFailedTests: number; numPendingTests: number; numTodoTests: number };
+  const json = JSON.parse(readFileSync(report, 'utf8')) as {
+    numPassedTests: number;
+    numFailedTests: number;
+    numPendingTests: number;
+    numTodoTests: number;
+  };
   passed = json.numPassedTests;
   failed = json.numFailedTests;
   skipped = json.numPendingTests + json.numTodoTests;

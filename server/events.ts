@@ -24,18 +24,31 @@ export interface DomainEventMap {
     Actor & { blockId: number; makerId: number; measurementId: number; verdict: Verdict; source: 'ruler' | 'maker' | 'photo' };
   'photo.added': SwapRef & Actor & { blockId: number; makerId: number; photoId: number };
   /** A photo estimate of a block's size was saved; it never changes the block's ruler verdict. */
-  'block.estimated': SwapRef & Actor & { blockId: number; makerId: number; estimateId: number; photoId: number; verdict: Verdict };
+  'block.estimated': SwapRef &
+    Actor & { blockId: number; makerId: number; estimateId: number; photoId: number; verdict: Verdict };
   'distribution.confirmed': SwapRef & Actor & { transfers: number };
   /** Sew days: scheduled, changed or cancelled by an officer; an RSVP given or changed. */
   'sewday.changed': { guildId: number; sewDayId: number; actorId: number; change: 'scheduled' | 'updated' | 'cancelled' };
   'rsvp.changed': { guildId: number; sewDayId: number; userId: number; answer: 'going' | 'maybe' | 'no' };
   /** Chat: a message as it now stands (new, edited, deleted by its author or removed by a moderator). */
   'chat.posted': { guildId: number; roomId: number; actorId: number; message: ChatMessageDto };
-  'chat.changed': { guildId: number; roomId: number; actorId: number; change: 'edited' | 'deleted' | 'removed'; message: ChatMessageDto };
+  'chat.changed': {
+    guildId: number;
+    roomId: number;
+    actorId: number;
+    change: 'edited' | 'deleted' | 'removed';
+    message: ChatMessageDto;
+  };
   /** Sign-in sessions that ended (signed out, or every session of an account after a password reset or change). */
   'session.ended': { userId: number; sessionIds: string[] };
   /** Payments changed by a verified webhook: paid or refunded (receipts), or failed. */
-  'payment.settled': { guildId: number; userId: number; swapId: number | null; paymentIds: number[]; status: 'paid' | 'refunded' | 'failed' };
+  'payment.settled': {
+    guildId: number;
+    userId: number;
+    swapId: number | null;
+    paymentIds: number[];
+    status: 'paid' | 'refunded' | 'failed';
+  };
 }
 
 export type DomainEventName = keyof DomainEventMap;
@@ -58,7 +71,9 @@ export class DomainEvents {
 
   /** Every event, for subscribers that fan them all out (the live board). */
   onAny(listener: (name: DomainEventName, payload: DomainEventMap[DomainEventName]) => void | Promise<void>) {
-    this.emitter.on('*', (name: DomainEventName, payload: DomainEventMap[DomainEventName]) => this.guard(name, () => listener(name, payload)));
+    this.emitter.on('*', (name: DomainEventName, payload: DomainEventMap[DomainEventName]) =>
+      this.guard(name, () => listener(name, payload)),
+    );
   }
 
   onListenerError(handler: (info: { name: string; error: unknown }) => void) {

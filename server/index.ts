@@ -47,7 +47,9 @@ export async function startServer(config: Config = loadConfig()): Promise<Runnin
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
       for (const feature of features.reverse()) {
-        await feature.close().catch((err: unknown) => logger.error({ err, feature: feature.name }, 'feature did not stop cleanly'));
+        await feature
+          .close()
+          .catch((err: unknown) => logger.error({ err, feature: feature.name }, 'feature did not stop cleanly'));
       }
       deps.mailer.close();
       // A client the socket.io adapter lost in a database restart is never given back to the pool,

@@ -133,13 +133,17 @@ export function formatShortCode(code: string): string {
  */
 export function normaliseShortCode(text: string): { code: string } | { error: string } {
   const plain = text.toUpperCase().replace(/[\s\-–—]/g, '');
-  if (/[01IO]/.test(plain)) return { error: 'Short codes have no 0, O, 1 or I. Check the label again: it uses digits 2–9 and letters.' };
+  if (/[01IO]/.test(plain))
+    return { error: 'Short codes have no 0, O, 1 or I. Check the label again: it uses digits 2–9 and letters.' };
   if (plain.length !== SHORT_CODE_LENGTH) return { error: `A short code has ${SHORT_CODE_LENGTH} characters, like K7QM-3XWD.` };
   for (const ch of plain) if (!SHORT_CODE_ALPHABET.includes(ch)) return { error: `“${ch}” is not used in short codes.` };
   return { code: plain };
 }
 
-export type IntakeInput = { kind: 'reference'; reference: string; parsed: ParsedReference } | { kind: 'shortCode'; code: string } | { kind: 'invalid'; message: string };
+export type IntakeInput =
+  | { kind: 'reference'; reference: string; parsed: ParsedReference }
+  | { kind: 'shortCode'; code: string }
+  | { kind: 'invalid'; message: string };
 
 /** Tells a scanned reference from a typed short code (a keyboard-style barcode scanner types references too). */
 export function classifyIntakeInput(text: string): IntakeInput {
@@ -147,7 +151,9 @@ export function classifyIntakeInput(text: string): IntakeInput {
   if (!trimmed) return { kind: 'invalid', message: 'Type the short code under the QR code, or scan the label.' };
   if (trimmed.length > 12) {
     const parsed = parseReference(trimmed);
-    return parsed ? { kind: 'reference', reference: trimmed, parsed } : { kind: 'invalid', message: 'That is not a Blockpost label: the code could not be read.' };
+    return parsed
+      ? { kind: 'reference', reference: trimmed, parsed }
+      : { kind: 'invalid', message: 'That is not a Blockpost label: the code could not be read.' };
   }
   const short = normaliseShortCode(trimmed);
   return 'code' in short ? { kind: 'shortCode', code: short.code } : { kind: 'invalid', message: short.error };

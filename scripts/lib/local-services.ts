@@ -41,7 +41,12 @@ export async function startLocalDatabase(log: (msg: string) => void = console.lo
     return { url: process.env.DATABASE_URL, stop: () => {} };
   }
   const pgBin = ensurePostgresBinaries(log);
-  const cluster = { dataDir: join(dataDir, 'pg'), socketDir: join(dataDir, 'pg-run'), logFile: join(dataDir, 'postgres.log'), port: PG_PORT };
+  const cluster = {
+    dataDir: join(dataDir, 'pg'),
+    socketDir: join(dataDir, 'pg-run'),
+    logFile: join(dataDir, 'postgres.log'),
+    port: PG_PORT,
+  };
   if (initCluster(pgBin, cluster)) log(`Created a PostgreSQL cluster in ${cluster.dataDir}.`);
   const started = startCluster(pgBin, cluster);
   await ensureDatabase(PG_PORT, 'blockpost');

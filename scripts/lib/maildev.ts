@@ -13,7 +13,18 @@ export interface MaildevHandle {
 const maildevBin = () => fileURLToPath(new URL('../../node_modules/maildev/dist/bin/maildev.js', import.meta.url));
 
 export async function startMaildev(opts: { smtpPort: number; webPort: number; mailDir?: string }): Promise<MaildevHandle> {
-  const args = [maildevBin(), '--ip', '127.0.0.1', '--web-ip', '127.0.0.1', '-s', String(opts.smtpPort), '-w', String(opts.webPort), '--silent'];
+  const args = [
+    maildevBin(),
+    '--ip',
+    '127.0.0.1',
+    '--web-ip',
+    '127.0.0.1',
+    '-s',
+    String(opts.smtpPort),
+    '-w',
+    String(opts.webPort),
+    '--silent',
+  ];
   if (opts.mailDir) args.push('--mail-directory', opts.mailDir);
   const child: ChildProcess = spawn(process.execPath, args, { stdio: ['ignore', 'ignore', 'pipe'] });
   let stderr = '';

@@ -75,9 +75,7 @@ export function initCluster(pgBin: string, opts: ClusterOptions): boolean {
   ownedDir(opts.socketDir, 0o775);
   if (!existsSync(opts.logFile)) writeFileSync(opts.logFile, '');
   if (isRoot()) execFileSync('chown', ['postgres:postgres', opts.logFile]);
-  asClusterOwner(join(pgBin, 'initdb'), [
-    '-D', opts.dataDir, '-U', 'postgres', '--auth=trust', '-E', 'UTF8', '--locale=C.UTF-8',
-  ]);
+  asClusterOwner(join(pgBin, 'initdb'), ['-D', opts.dataDir, '-U', 'postgres', '--auth=trust', '-E', 'UTF8', '--locale=C.UTF-8']);
   return true;
 }
 

@@ -50,7 +50,12 @@ export async function getMe(userId: number): Promise<MeDto | null> {
   return {
     // The mailing address is private: it goes to its owner here, and to coordinators of swaps they join.
     user: { ...toSessionUser(user), mailingAddress: user.mailingAddress ?? null, unitsChosen: user.unitsChosen },
-    memberships: memberships.map((m) => ({ guildId: m.guildId, guildName: m.guild!.name, role: m.role, defaultUnit: m.guild!.defaultUnit })),
+    memberships: memberships.map((m) => ({
+      guildId: m.guildId,
+      guildName: m.guild!.name,
+      role: m.role,
+      defaultUnit: m.guild!.defaultUnit,
+    })),
   };
 }
 
@@ -66,7 +71,10 @@ export async function updateProfile(userId: number, input: ProfileUpdateInput) {
   }
   // Choosing a unit overrides every guild's default; clearing it (null) follows the guilds again.
   const { units, ...rest } = input;
-  await user.update({ ...rest, ...(units === undefined ? {} : units === null ? { units: 'in', unitsChosen: false } : { units, unitsChosen: true }) });
+  await user.update({
+    ...rest,
+    ...(units === undefined ? {} : units === null ? { units: 'in', unitsChosen: false } : { units, unitsChosen: true }),
+  });
   return toSessionUser(user);
 }
 

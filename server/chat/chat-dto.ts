@@ -4,7 +4,13 @@ import { type ChatMessage, Photo, User } from '../db/models';
 export const authorInclude = [{ model: User, as: 'author', attributes: ['id', 'displayName'] }];
 
 export function photoDto(photo: Photo): ChatPhotoDto {
-  return { id: photo.id, url: `/api/photos/${photo.id}`, thumbnailUrl: `/api/photos/${photo.id}?size=thumb`, width: photo.width, height: photo.height };
+  return {
+    id: photo.id,
+    url: `/api/photos/${photo.id}`,
+    thumbnailUrl: `/api/photos/${photo.id}?size=thumb`,
+    width: photo.width,
+    height: photo.height,
+  };
 }
 
 /** Messages as the client sees them: a removed message keeps its place but loses its text and photos. */

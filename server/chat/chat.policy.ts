@@ -19,7 +19,11 @@ const hideMissingSwap = (missing: string) => (error: unknown) => {
  * Any active member of the room's guild may read and post; admins also moderate. A swap's room
  * follows the swap's own visibility (a draft is for its officers only).
  */
-export async function authorizeRoom(userId: number, roomId: number, missing = 'That chat room does not exist.'): Promise<RoomAccess> {
+export async function authorizeRoom(
+  userId: number,
+  roomId: number,
+  missing = 'That chat room does not exist.',
+): Promise<RoomAccess> {
   const room = await ChatRoom.findByPk(roomId);
   if (!room) throw new NotFoundError('That chat room does not exist.');
   const membership = await authorizeGuild(userId, room.guildId, 'guild:read', missing);

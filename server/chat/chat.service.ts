@@ -1,6 +1,11 @@
 import { Op } from 'sequelize';
 import {
-  CHAT_PHOTOS_MAX, CHAT_RATE_LIMIT, CHAT_RATE_WINDOW_MS, type ChatMessageDto, type ChatPageDto, type HistoryQuery,
+  CHAT_PHOTOS_MAX,
+  CHAT_RATE_LIMIT,
+  CHAT_RATE_WINDOW_MS,
+  type ChatMessageDto,
+  type ChatPageDto,
+  type HistoryQuery,
 } from '@shared/schemas/chat';
 import { ChatMessage, Photo } from '../db/models';
 import { AppError, ConflictError, ForbiddenError, NotFoundError, ValidationError } from '../http/errors';
@@ -57,33 +62,48 @@ export async function postMessage(
   const authorId = author.id;
   const files = input.files ?? [];
   if (!access.canPost) throw new ForbiddenError('Your role in this guild does not allow posting here.');
-  if (!input.body && files.length === 0) throw new ValidationError('Write a message or add a photo first.', { body: 'Write a message or add a photo first.' });
-  if (files.length > CHAT_PHOTOS_MAX) throw new ValidationError(`Send at most ${CHAT_PHOTOS_MAX} photos in one message.`, { photos: `At most ${CHAT_PHOTOS_MAX} photos.` });
+  if (!input.body && files.length === 0)
+    throw new ValidationError('Write a message or add a photo first.', { body: 'Write a message or add a photo first.' });
+  if (files.length > CHAT_PHOTOS_MAX)
+    throw new ValidationError(`Send at most ${CHAT_PHOTOS_MAX} photos in one message.`, {
+      photos: `At most ${CHAT_PHOTOS_MAX} photos.`,
+    });
   const { room } = access;
   // Photos are re-encoded (in the bounded queue) and written before the transaction and its lock.
   const staged = files.length ? await stagePhotos(deps, await preparePhotosQueued(deps, files)) : [];
-  const message = await deps.sequelize.transaction(async (transaction) => {
-    await deps.sequelize.query('SELECT pg_advisory_xact_lock(7314005, $userId)', { bind: { userId: authorId }, transaction });
-    const since = new Date(Date.now() - CHAT_RATE_WINDOW_MS);
-    const recent = await ChatMessage.findAll({
-      where: { authorId, createdAt: { [Op.gt]: since } },
-      attributes: ['createdAt'],
-      order: [['createdAt', 'ASC']],
-      transaction,
+  const message = await deps.sequelize
+    .transaction(async (transaction) => {
+      await deps.sequelize.query('SELECT pg_advisory_xact_lock(7314005, $userId)', { bind: { userId: authorId }, transaction });
+      const since = new Date(Date.now() - CHAT_RATE_WINDOW_MS);
+      const recent = await ChatMessage.findAll({
+        where: { authorId, createdAt: { [Op.gt]: since } },
+        attributes: ['createdAt'],
+        order: [['createdAt', 'ASC']],
+        transaction,
+      });
+      if (recent.length >= CHAT_RATE_LIMIT) {
+        const freeAt = recent[recent.length - CHAT_RATE_LIMIT]!.createdAt.getTime() + CHAT_RATE_WINDOW_MS;
+        throw new RateLimitedError(Math.max(1, Math.ceil((freeAt - Date.now()) / 1000)));
+      }
+      const created = await ChatMessage.create(
+        { roomId: room.id, authorId, body: input.body, deletedById: null },
+        { transaction },
+      );
+      const photos = staged.length
+        ? await commitStagedPhotos(deps, {
+            staged,
+            guildId: room.guildId,
+            uploadedBy: authorId,
+            owner: { chatMessageId: created.id },
+            transaction,
+          })
+        : [];
+      return { created, photos };
+    })
+    .catch(async (error: unknown) => {
+      await discardStaged(deps, staged);
+      throw error;
     });
-    if (recent.length >= CHAT_RATE_LIMIT) {
-      const freeAt = recent[recent.length - CHAT_RATE_LIMIT]!.createdAt.getTime() + CHAT_RATE_WINDOW_MS;
-      throw new RateLimitedError(Math.max(1, Math.ceil((freeAt - Date.now()) / 1000)));
-    }
-    const created = await ChatMessage.create({ roomId: room.id, authorId, body: input.body, deletedById: null }, { transaction });
-    const photos = staged.length
-      ? await commitStagedPhotos(deps, { staged, guildId: room.guildId, uploadedBy: authorId, owner: { chatMessageId: created.id }, transaction })
-      : [];
-    return { created, photos };
-  }).catch(async (error: unknown) => {
-    await discardStaged(deps, staged);
-    throw error;
-  });
   // Built from what was just written: a new message needs no second read.
   const dto: ChatMessageDto = {
     id: message.created.id,
@@ -117,20 +137,35 @@ export async function editMessage(deps: ChatDeps, userId: number, messageId: num
   await deps.sequelize.transaction(async (transaction) => {
     await deps.sequelize.query('SELECT pg_advisory_xact_lock(7314006, $userId)', { bind: { userId }, transaction });
     const since = new Date(Date.now() - CHAT_RATE_WINDOW_MS);
-    await deps.sequelize.query('DELETE FROM chat_edits WHERE author_id = $userId AND created_at <= $since', { bind: { userId, since }, transaction });
-    const [recent] = (await deps.sequelize.query('SELECT created_at FROM chat_edits WHERE author_id = $userId ORDER BY created_at', {
-      bind: { userId },
+    await deps.sequelize.query('DELETE FROM chat_edits WHERE author_id = $userId AND created_at <= $since', {
+      bind: { userId, since },
       transaction,
-    })) as [{ created_at: Date }[], unknown];
+    });
+    const [recent] = (await deps.sequelize.query(
+      'SELECT created_at FROM chat_edits WHERE author_id = $userId ORDER BY created_at',
+      {
+        bind: { userId },
+        transaction,
+      },
+    )) as [{ created_at: Date }[], unknown];
     if (recent.length >= CHAT_RATE_LIMIT) {
       const freeAt = new Date(recent[recent.length - CHAT_RATE_LIMIT]!.created_at).getTime() + CHAT_RATE_WINDOW_MS;
       throw new RateLimitedError(Math.max(1, Math.ceil((freeAt - Date.now()) / 1000)), 'editing');
     }
-    await deps.sequelize.query('INSERT INTO chat_edits (author_id, message_id) VALUES ($userId, $messageId)', { bind: { userId, messageId }, transaction });
+    await deps.sequelize.query('INSERT INTO chat_edits (author_id, message_id) VALUES ($userId, $messageId)', {
+      bind: { userId, messageId },
+      transaction,
+    });
     await message.update({ body, editedAt: new Date() }, { transaction });
   });
   const dto = await messageDto(message);
-  deps.events.emit('chat.changed', { guildId: access.room.guildId, roomId: message.roomId, actorId: userId, change: 'edited', message: dto });
+  deps.events.emit('chat.changed', {
+    guildId: access.room.guildId,
+    roomId: message.roomId,
+    actorId: userId,
+    change: 'edited',
+    message: dto,
+  });
   return dto;
 }
 
@@ -142,7 +177,8 @@ export async function deleteMessage(deps: ChatDeps, userId: number, messageId: n
   const message = await loadMessage(messageId);
   const access = await authorizeRoom(userId, message.roomId, 'That message does not exist.');
   const own = message.authorId === userId;
-  if (!own && !access.canModerate) throw new ForbiddenError('You can delete only your own messages; a guild admin can remove others.');
+  if (!own && !access.canModerate)
+    throw new ForbiddenError('You can delete only your own messages; a guild admin can remove others.');
   if (message.deletedAt) throw new ConflictError('That message was already taken down.', 'message_deleted');
   await deps.sequelize.transaction(async (transaction) => {
     await message.update({ body: '', deletedAt: new Date(), deletedById: userId }, { transaction });
@@ -151,7 +187,11 @@ export async function deleteMessage(deps: ChatDeps, userId: number, messageId: n
   });
   const dto = await messageDto(message);
   deps.events.emit('chat.changed', {
-    guildId: access.room.guildId, roomId: message.roomId, actorId: userId, change: own ? 'deleted' : 'removed', message: dto,
+    guildId: access.room.guildId,
+    roomId: message.roomId,
+    actorId: userId,
+    change: own ? 'deleted' : 'removed',
+    message: dto,
   });
   return dto;
 }

@@ -39,14 +39,23 @@ export function can(role: Role | null | undefined, action: GuildAction): boolean
  * membership) gets the same 404 as for an id that does not exist, with the same `missing` message,
  * so ids cannot be probed for existence; a member whose role falls short gets 403.
  */
-export function assertGuildRole(role: Role | null | undefined, action: GuildAction, missing = 'That guild does not exist.'): Role {
+export function assertGuildRole(
+  role: Role | null | undefined,
+  action: GuildAction,
+  missing = 'That guild does not exist.',
+): Role {
   if (!role) throw new NotFoundError(missing);
   if (!can(role, action)) throw new ForbiddenError();
   return role;
 }
 
 /** Loads the caller's active membership and checks the action; throws 403 otherwise. */
-export async function authorizeGuild(userId: number, guildId: number, action: GuildAction, missing?: string): Promise<Membership> {
+export async function authorizeGuild(
+  userId: number,
+  guildId: number,
+  action: GuildAction,
+  missing?: string,
+): Promise<Membership> {
   const membership = await Membership.findOne({ where: { userId, guildId, status: 'active' } });
   assertGuildRole(membership?.role, action, missing);
   return membership!;

@@ -17,7 +17,9 @@ export const requireCsrfHeader: RequestHandler = (req, _res, next) => {
   // link's own holder could; exactly this route is exempt.
   if (req.method === 'POST' && req.path === '/unsubscribe') return next();
   if (req.get(CSRF_HEADER) !== CSRF_VALUE) {
-    throw new ForbiddenError(`This request is missing the "X-Requested-With: ${CSRF_VALUE}" header that protects against forged requests.`);
+    throw new ForbiddenError(
+      `This request is missing the "X-Requested-With: ${CSRF_VALUE}" header that protects against forged requests.`,
+    );
   }
   next();
 };

@@ -47,7 +47,8 @@ export function errorMiddleware(logger: Logger): ErrorRequestHandler {
       status = 500;
     }
     // A deliberate "busy, come back in N seconds" is expected under load, not a failure of ours.
-    if (res.get('Retry-After') && status === 503) logger.warn({ code: body.code, url: req.originalUrl, method: req.method }, 'asked to retry later');
+    if (res.get('Retry-After') && status === 503)
+      logger.warn({ code: body.code, url: req.originalUrl, method: req.method }, 'asked to retry later');
     else if (status >= 500) logger.error({ err: error, url: req.originalUrl, method: req.method }, 'request failed');
     res.status(status).json({ error: body });
   };

@@ -38,4 +38,4 @@ export function listRoutes(app: Express): RouteInfo[] {
   });
 }
 
-const join = (a: string, b: string) => (`${a}/${b}`.replace(/\/+/g, '/').replace(/(.)\/$/, '$1'));
+const join = (a: string, b: string) => `${a}/${b}`.replace(/\/+/g, '/').replace(/(.)\/$/, '$1');

@@ -17,7 +17,8 @@ async function loadSwap(swapId: number): Promise<Swap> {
 export async function canRunIntake(userId: number, swapId: number): Promise<Swap> {
   const swap = await loadSwap(swapId);
   const membership = await authorizeGuild(userId, swap.guildId, 'swaps:read', 'That swap does not exist.');
-  if (!can(membership.role, 'intake:run')) throw new ForbiddenError('Only the swap’s coordinators and the guild’s admins take blocks in.');
+  if (!can(membership.role, 'intake:run'))
+    throw new ForbiddenError('Only the swap’s coordinators and the guild’s admins take blocks in.');
   return swap;
 }
 
@@ -25,7 +26,11 @@ export async function canRunIntake(userId: number, swapId: number): Promise<Swap
  * Labels: `maker=me` (or the caller's own id) for any member of the guild; another maker or `all`
  * only for officers. Returns the swap and the maker to list (null for everyone).
  */
-export async function canPrintLabels(userId: number, swapId: number, maker: LabelsQuery['maker']): Promise<{ swap: Swap; makerId: number | null }> {
+export async function canPrintLabels(
+  userId: number,
+  swapId: number,
+  maker: LabelsQuery['maker'],
+): Promise<{ swap: Swap; makerId: number | null }> {
   const swap = await loadSwap(swapId);
   const membership = await authorizeGuild(userId, swap.guildId, 'swaps:read', 'That swap does not exist.');
   const officer = can(membership.role, 'intake:run');

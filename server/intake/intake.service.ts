@@ -20,9 +20,15 @@ type SignedIntakeBlock = IntakeBlockDto & { reference: string };
 async function signedBlocks(deps: Deps, swap: Swap, makerId: number | null): Promise<SignedIntakeBlock[]> {
   const blocks = await Block.findAll({
     where: { swapId: swap.id, ...(makerId !== null ? { makerId } : {}) },
-    order: [['makerId', 'ASC'], ['sequence', 'ASC']],
+    order: [
+      ['makerId', 'ASC'],
+      ['sequence', 'ASC'],
+    ],
   });
-  const makers = await User.findAll({ where: { id: { [Op.in]: [...new Set(blocks.map((b) => b.makerId))] } }, attributes: ['id', 'displayName'] });
+  const makers = await User.findAll({
+    where: { id: { [Op.in]: [...new Set(blocks.map((b) => b.makerId))] } },
+    attributes: ['id', 'displayName'],
+  });
   const names = new Map(makers.map((u) => [u.id, u.displayName]));
   const counts = new Map<number, number>();
   for (const b of blocks) counts.set(b.makerId, (counts.get(b.makerId) ?? 0) + 1);
@@ -74,28 +80,45 @@ export async function resolveBlock(deps: Deps, swap: Swap, body: ResolveBody): P
     const check = verifyReference(referenceKey(deps.config.SESSION_SECRET), body.reference);
     if (!check.ok) {
       throw check.reason === 'unreadable'
-        ? new AppError(400, 'not_a_label', 'That is not a Blockpost label: the code could not be read. Type the short code under the QR code instead.')
-        : new AppError(400, 'label_not_valid', 'This label does not check out: it was not printed by Blockpost, or its code was changed. Type the short code instead, or ask the maker.');
+        ? new AppError(
+            400,
+            'not_a_label',
+            'That is not a Blockpost label: the code could not be read. Type the short code under the QR code instead.',
+          )
+        : new AppError(
+            400,
+            'label_not_valid',
+            'This label does not check out: it was not printed by Blockpost, or its code was changed. Type the short code instead, or ask the maker.',
+          );
     }
     if (check.swapId !== swap.id) throw await otherSwapError(swap, check.swapId);
     const blocks = await signedBlocks(deps, swap, null);
     const block = blocks.find((b) => b.id === check.blockId);
-    if (!block) throw new NotFoundError('This label’s block is no longer part of the swap: the maker may have lowered their pledge.');
+    if (!block)
+      throw new NotFoundError('This label’s block is no longer part of the swap: the maker may have lowered their pledge.');
     return { block: withoutReference(block), via: 'reference' };
   }
   const code = body.shortCode!.toUpperCase().replace(/[\s-]/g, '');
   const matches = (await signedBlocks(deps, swap, null)).filter((b) => b.shortCode === code);
   if (matches.length === 0) {
-    throw new AppError(404, 'unknown_code', `No block in this swap has the code ${formatShortCode(code)}. Check the letters (there is no 0, O, 1 or I), or scan the QR code.`);
+    throw new AppError(
+      404,
+      'unknown_code',
+      `No block in this swap has the code ${formatShortCode(code)}. Check the letters (there is no 0, O, 1 or I), or scan the QR code.`,
+    );
   }
-  if (matches.length > 1) throw new ConflictError('Two blocks of this swap share that short code; scan the QR code instead.', 'ambiguous_code');
+  if (matches.length > 1)
+    throw new ConflictError('Two blocks of this swap share that short code; scan the QR code instead.', 'ambiguous_code');
   return { block: withoutReference(matches[0]!), via: 'shortCode' };
 }
 
 async function otherSwapError(swap: Swap, otherId: number): Promise<AppError> {
   const other = await Swap.findByPk(otherId, { attributes: ['id', 'guildId', 'title'] });
   if (other && other.guildId === swap.guildId) {
-    return new ConflictError(`This label is for “${other.title}”, not for this swap. Open that swap’s intake to take it in.`, 'other_swap');
+    return new ConflictError(
+      `This label is for “${other.title}”, not for this swap. Open that swap’s intake to take it in.`,
+      'other_swap',
+    );
   }
   return new ConflictError('This label is for a swap of another guild; it cannot be taken in here.', 'other_swap');
 }
@@ -115,5 +138,8 @@ export async function labelSheet(deps: Deps, swap: Swap, makerId: number | null)
       qr: await qrDataUrl(b.reference),
     })),
   );
-  return { swap: { id: swap.id, guildId: swap.guildId, title: swap.title, guildName: guild?.name ?? '', state: swap.state }, labels };
+  return {
+    swap: { id: swap.id, guildId: swap.guildId, title: swap.title, guildName: guild?.name ?? '', state: swap.state },
+    labels,
+  };
 }

@@ -5,7 +5,13 @@
  */
 import { createHmac, hkdfSync, timingSafeEqual } from 'node:crypto';
 import {
-  REFERENCE_VERSION, SHORT_CODE_BYTES, TAG_BYTES, packReference, parseReference, referenceHeader, shortCodeFromBytes,
+  REFERENCE_VERSION,
+  SHORT_CODE_BYTES,
+  TAG_BYTES,
+  packReference,
+  parseReference,
+  referenceHeader,
+  shortCodeFromBytes,
 } from '@shared/block-reference';
 
 export interface SignedBlock {
@@ -14,8 +20,7 @@ export interface SignedBlock {
 }
 
 export type ReferenceCheck =
-  | { ok: true; swapId: number; blockId: number }
-  | { ok: false; reason: 'unreadable' | 'version' | 'signature' };
+  { ok: true; swapId: number; blockId: number } | { ok: false; reason: 'unreadable' | 'version' | 'signature' };
 
 const keys = new Map<string, Buffer>();
 

@@ -53,7 +53,11 @@ export async function ensureQueues(boss: PgBoss, opts: QueueOptions) {
 }
 
 /** Starts a pg-boss instance (creating or migrating its schema under its own lock). */
-export async function startBoss(config: Pick<Config, 'DATABASE_URL' | 'MAIL_RETRY_LIMIT' | 'MAIL_RETRY_DELAY_SECONDS'>, logger: Logger, opts: { schedule?: boolean } = {}) {
+export async function startBoss(
+  config: Pick<Config, 'DATABASE_URL' | 'MAIL_RETRY_LIMIT' | 'MAIL_RETRY_DELAY_SECONDS'>,
+  logger: Logger,
+  opts: { schedule?: boolean } = {},
+) {
   const boss = new PgBoss({
     connectionString: config.DATABASE_URL,
     schema: PGBOSS_SCHEMA,

@@ -98,11 +98,12 @@ export function endAtSessionExpiry(socket: LiveSocket): () => void {
 export async function assertSessionLive(socket: LiveSocket): Promise<void> {
   const req = socket.request as SessionRequest;
   const { sessionID, sessionStore } = req;
-  const session = sessionID && sessionStore
-    ? await new Promise<{ passport?: { user?: unknown } } | null>((resolve, reject) =>
-        sessionStore.get(sessionID, (err, s) => (err ? reject(err) : resolve(s ?? null))),
-      )
-    : null;
+  const session =
+    sessionID && sessionStore
+      ? await new Promise<{ passport?: { user?: unknown } } | null>((resolve, reject) =>
+          sessionStore.get(sessionID, (err, s) => (err ? reject(err) : resolve(s ?? null))),
+        )
+      : null;
   if (session?.passport?.user === socket.data.user.userId) return;
   setTimeout(() => socket.disconnect(true), 50); // after the acknowledgement has gone out
   throw new UnauthorizedError('Your session has ended. Please sign in again.');

@@ -4,7 +4,14 @@ import { roleLabels, type Role } from '@shared/schemas/guilds';
 import { renderMail } from './render';
 import { mailDate } from './format';
 
-export function invitationMail(opts: { to: string; guildName: string; inviterName: string; role: Role; url: string; expiresAt: Date }): OutgoingMail {
+export function invitationMail(opts: {
+  to: string;
+  guildName: string;
+  inviterName: string;
+  role: Role;
+  url: string;
+  expiresAt: Date;
+}): OutgoingMail {
   const rendered = renderMail(
     'invitation',
     {

@@ -23,7 +23,10 @@ export async function setPreferences(userId: number, changes: Partial<Record<Mai
 /** Of these people, those who switched `category` off. Account mail can never be switched off. */
 export async function optedOut(userIds: number[], category: AnyMailCategory): Promise<Set<number>> {
   if (category === 'account' || userIds.length === 0) return new Set();
-  const rows = await MailPreference.findAll({ where: { userId: { [Op.in]: userIds }, category, enabled: false }, attributes: ['userId'] });
+  const rows = await MailPreference.findAll({
+    where: { userId: { [Op.in]: userIds }, category, enabled: false },
+    attributes: ['userId'],
+  });
   return new Set(rows.map((r) => r.userId));
 }
 

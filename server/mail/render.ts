@@ -52,8 +52,10 @@ function engine(flavour: 'html' | 'text') {
   });
   hb.registerHelper('eq', (a: unknown, b: unknown) => a === b);
   hb.registerHelper('gt', (a: number, b: number) => a > b);
-  hb.registerHelper('plural', (count: number, singular: string, pluralForm: unknown) =>
-    `${count} ${count === 1 ? singular : typeof pluralForm === 'string' ? pluralForm : `${singular}s`}`,
+  hb.registerHelper(
+    'plural',
+    (count: number, singular: string, pluralForm: unknown) =>
+      `${count} ${count === 1 ? singular : typeof pluralForm === 'string' ? pluralForm : `${singular}s`}`,
   );
   if (flavour === 'html') {
     // A bulletproof button: a table cell with the link inside, so Outlook keeps the colour.
@@ -98,7 +100,10 @@ function tidyText(text: string) {
     while (end > 0 && (line[end - 1] === ' ' || line[end - 1] === '\t')) end -= 1;
     return line.slice(0, end);
   });
-  return `${lines.join('\n').replace(/\n{3,}/g, '\n\n').trim()}\n`;
+  return `${lines
+    .join('\n')
+    .replace(/\n{3,}/g, '\n\n')
+    .trim()}\n`;
 }
 
 /** Renders one message's HTML and text versions inside the shared layout. */

@@ -8,7 +8,8 @@ export const DEFAULT_SEAM = 0.25;
 
 export function seamArg(seam: unknown): Fraction {
   const s = lengthArg('seam', seam, { zero: true });
-  if (s.gte(1)) throw new QuiltInputError('seam', `A seam allowance of ${s.valueOf()}″ is too wide; use less than 1″ (¼″ is usual).`);
+  if (s.gte(1))
+    throw new QuiltInputError('seam', `A seam allowance of ${s.valueOf()}″ is too wide; use less than 1″ (¼″ is usual).`);
   return s;
 }
 
@@ -28,7 +29,10 @@ export function finishedSize(unfinished: number, seam: number = DEFAULT_SEAM): n
   const s = seamArg(seam);
   const f = u.sub(s.mul(2));
   if (f.lte(0)) {
-    throw new QuiltInputError('unfinished', `An unfinished size of ${unfinished}″ leaves nothing once the ${seam}″ seam allowances are taken off.`);
+    throw new QuiltInputError(
+      'unfinished',
+      `An unfinished size of ${unfinished}″ leaves nothing once the ${seam}″ seam allowances are taken off.`,
+    );
   }
   return f.valueOf();
 }
@@ -38,7 +42,10 @@ function stripsArg(field: string, widths: unknown, seam: Fraction): Fraction[] {
   const ws = lengthListArg(field, widths);
   ws.forEach((w, i) => {
     if (w.lte(seam.mul(2))) {
-      throw new QuiltInputError(`${field}[${i}]`, `A strip or patch cut ${w.valueOf()}″ wide disappears into its two ${seam.valueOf()}″ seams; cut it wider than ${seam.mul(2).valueOf()}″.`);
+      throw new QuiltInputError(
+        `${field}[${i}]`,
+        `A strip or patch cut ${w.valueOf()}″ wide disappears into its two ${seam.valueOf()}″ seams; cut it wider than ${seam.mul(2).valueOf()}″.`,
+      );
     }
   });
   return ws;
@@ -105,8 +112,12 @@ export function gridArg(spec: GridSpec): ExactGrid {
   const rows = stripsArg('rows', spec.rows, seam);
   const roles = spec.roles;
   if (roles !== undefined) {
-    const ok = Array.isArray(roles) && roles.length === rows.length &&
-      roles.every((r) => Array.isArray(r) && r.length === columns.length && r.every((x) => typeof x === 'string' && x.trim() !== ''));
+    const ok =
+      Array.isArray(roles) &&
+      roles.length === rows.length &&
+      roles.every(
+        (r) => Array.isArray(r) && r.length === columns.length && r.every((x) => typeof x === 'string' && x.trim() !== ''),
+      );
     if (!ok) {
       throw new QuiltInputError('roles', `Roles must name a fabric for every cell: ${rows.length} rows of ${columns.length}.`);
     }
@@ -147,4 +158,3 @@ export function gridBlock(spec: GridSpec): GridBlock {
   });
   return { seam: g.seam.valueOf(), unfinished: size(uw, uh), finished: size(uw.sub(two), uh.sub(two)), patches };
 }
-

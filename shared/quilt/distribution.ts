@@ -131,7 +131,9 @@ function network(givers: Giver[], recipients: Recipient[], floor: number, withCo
       if (r.id === giver.id) return;
       const arcs = [g.addEdge(2 + j, D(i), 1, 0)];
       if (!withCosts) arcs.push(g.addEdge(2 + j, Rn(i), INF, 0));
-      else for (let k = 2; k <= Math.min(giver.own + giver.angel, r.demand); k += 1) arcs.push(g.addEdge(2 + j, Rn(i), 1, repeatCost + k - 2));
+      else
+        for (let k = 2; k <= Math.min(giver.own + giver.angel, r.demand); k += 1)
+          arcs.push(g.addEdge(2 + j, Rn(i), 1, repeatCost + k - 2));
       pairs.push([j, i, arcs]);
     });
   });
@@ -150,7 +152,10 @@ function network(givers: Giver[], recipients: Recipient[], floor: number, withCo
   return { g, matrix, ownSent, angelSent };
 }
 
-function generalPlan(givers: Giver[], recipients: Recipient[]): { x: Matrix; delivered: number[]; ownSent: number[]; angelSent: number[] } {
+function generalPlan(
+  givers: Giver[],
+  recipients: Recipient[],
+): { x: Matrix; delivered: number[]; ownSent: number[]; angelSent: number[] } {
   // 1. The most blocks that can be delivered at all (only one recipient can ever be short).
   const base = network(givers, recipients, 0, false);
   maxFlow(base.g, 0, 1);
@@ -173,10 +178,12 @@ function generalPlan(givers: Giver[], recipients: Recipient[]): { x: Matrix; del
   const best = network(givers, active, lo, true);
   minCostMaxFlow(best.g, 0, 1);
   const xa = best.matrix();
-  const x: Matrix = givers.map((_, j) => served.map((r) => {
-    const i = active.findIndex((a) => a.id === r.id);
-    return i < 0 ? 0 : ((xa[j] as number[])[i] as number);
-  }));
+  const x: Matrix = givers.map((_, j) =>
+    served.map((r) => {
+      const i = active.findIndex((a) => a.id === r.id);
+      return i < 0 ? 0 : ((xa[j] as number[])[i] as number);
+    }),
+  );
   return { x, delivered: received, ownSent: best.ownSent(), angelSent: best.angelSent() };
 }
 
@@ -187,7 +194,14 @@ function generalPlan(givers: Giver[], recipients: Recipient[]): { x: Matrix; del
  */
 export function planDistribution(makers: Maker[], opts: { angels?: Angel[] } = {}): DistributionPlan {
   const { givers, recipients } = makersArg(makers, opts.angels);
-  const empty: DistributionPlan = { transfers: [], shortfall: [], unsent: [], minDistinct: 0, distinctPairs: 0, angelBlocksUsed: 0 };
+  const empty: DistributionPlan = {
+    transfers: [],
+    shortfall: [],
+    unsent: [],
+    minDistinct: 0,
+    distinctPairs: 0,
+    angelBlocksUsed: 0,
+  };
   if (recipients.length === 0) return empty;
   const makersGiving = givers.filter((g) => g.own > 0).length;
   // A recipient's own id is among the givers whenever it has a demand (its own accepted blocks).
@@ -199,15 +213,21 @@ export function planDistribution(makers: Maker[], opts: { angels?: Angel[] } = {
 
   const transfers: Transfer[] = [];
   const distinct = recipients.map(() => 0);
-  plan.x.forEach((row, j) => row.forEach((count, i) => {
-    if (count <= 0) return;
-    transfers.push({ from: (givers[j] as Giver).id, to: (recipients[i] as Recipient).id, count });
-    distinct[i] = (distinct[i] as number) + 1;
-  }));
+  plan.x.forEach((row, j) =>
+    row.forEach((count, i) => {
+      if (count <= 0) return;
+      transfers.push({ from: (givers[j] as Giver).id, to: (recipients[i] as Recipient).id, count });
+      distinct[i] = (distinct[i] as number) + 1;
+    }),
+  );
   return {
     transfers,
-    shortfall: recipients.flatMap((r, i) => (plan.delivered[i] as number) < r.demand ? [{ id: r.id, missing: r.demand - (plan.delivered[i] as number) }] : []),
-    unsent: givers.flatMap((g, j) => (plan.ownSent[j] as number) < g.own ? [{ id: g.id, count: g.own - (plan.ownSent[j] as number) }] : []),
+    shortfall: recipients.flatMap((r, i) =>
+      (plan.delivered[i] as number) < r.demand ? [{ id: r.id, missing: r.demand - (plan.delivered[i] as number) }] : [],
+    ),
+    unsent: givers.flatMap((g, j) =>
+      (plan.ownSent[j] as number) < g.own ? [{ id: g.id, count: g.own - (plan.ownSent[j] as number) }] : [],
+    ),
     minDistinct: Math.min(...distinct),
     distinctPairs: transfers.length,
     angelBlocksUsed: plan.angelSent.reduce((s, a) => s + a, 0),

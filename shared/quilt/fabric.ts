@@ -104,7 +104,11 @@ export interface StripPlan {
   totals: { strips: number; stripLength: number; fabricLength: number; yards: number };
 }
 
-function orient(p: ExactPiece, wof: Fraction, mode: 'height' | 'fewest-strips'): { stripWidth: Fraction; subCut: Fraction; perStrip: number; strips: number } {
+function orient(
+  p: ExactPiece,
+  wof: Fraction,
+  mode: 'height' | 'fewest-strips',
+): { stripWidth: Fraction; subCut: Fraction; perStrip: number; strips: number } {
   const option = (stripWidth: Fraction, subCut: Fraction) => {
     const perStrip = wof.div(subCut).floor().valueOf();
     return { stripWidth, subCut, perStrip, strips: perStrip > 0 ? Math.ceil(p.count / perStrip) : Infinity };
@@ -113,7 +117,10 @@ function orient(p: ExactPiece, wof: Fraction, mode: 'height' | 'fewest-strips'):
   const b = option(p.width, p.height);
   const choice = mode === 'fewest-strips' && b.stripWidth.mul(b.strips).lt(a.stripWidth.mul(a.strips)) ? b : a;
   if (choice.perStrip === 0) {
-    throw new QuiltInputError('pieces', `A ${choice.subCut.valueOf()}″ sub-cut does not fit across a ${wof.valueOf()}″ width of fabric.`);
+    throw new QuiltInputError(
+      'pieces',
+      `A ${choice.subCut.valueOf()}″ sub-cut does not fit across a ${wof.valueOf()}″ width of fabric.`,
+    );
   }
   return choice;
 }
@@ -127,14 +134,22 @@ export function stripPlan(pieces: Piece[], opts: StripPlanOptions = {}): StripPl
   const wof = lengthArg('wof', opts.wof ?? DEFAULT_USABLE_WOF);
   const straighten = lengthArg('straighteningCut', opts.straighteningCut ?? 0, { zero: true });
   const mode = opts.orientation ?? 'height';
-  if (mode !== 'height' && mode !== 'fewest-strips') throw new QuiltInputError('orientation', 'Orientation must be "height" or "fewest-strips".');
+  if (mode !== 'height' && mode !== 'fewest-strips')
+    throw new QuiltInputError('orientation', 'Orientation must be "height" or "fewest-strips".');
   const groups = new Map<string, { stripWidth: Fraction; pieces: StripPlanPiece[]; strips: number }>();
   for (const p of piecesArg(pieces)) {
     if (p.count === 0) continue;
     const o = orient(p, wof, mode);
     const key = o.stripWidth.toFraction();
     const g = groups.get(key) ?? { stripWidth: o.stripWidth, pieces: [], strips: 0 };
-    g.pieces.push({ width: p.width.valueOf(), height: p.height.valueOf(), count: p.count, subCut: o.subCut.valueOf(), perStrip: o.perStrip, strips: o.strips });
+    g.pieces.push({
+      width: p.width.valueOf(),
+      height: p.height.valueOf(),
+      count: p.count,
+      subCut: o.subCut.valueOf(),
+      perStrip: o.perStrip,
+      strips: o.strips,
+    });
     g.strips += o.strips;
     groups.set(key, g);
   }
@@ -158,7 +173,12 @@ export function stripPlan(pieces: Piece[], opts: StripPlanOptions = {}): StripPl
   return {
     wof: wof.valueOf(),
     rows,
-    totals: { strips, stripLength: wof.mul(strips).valueOf(), fabricLength: fabric.valueOf(), yards: fabricYardsExact(fabric, straighten).valueOf() },
+    totals: {
+      strips,
+      stripLength: wof.mul(strips).valueOf(),
+      fabricLength: fabric.valueOf(),
+      yards: fabricYardsExact(fabric, straighten).valueOf(),
+    },
   };
 }
 
@@ -173,7 +193,10 @@ export function piecesPerRectangle(piece: { width: number; height: number }, rec
 }
 
 /** Pieces one fat quarter yields; the fat quarter size is a parameter (18 × 21 by default). */
-export function fatQuarterYield(piece: { width: number; height: number }, size: { width: number; height: number } = FAT_QUARTER_18X21): number {
+export function fatQuarterYield(
+  piece: { width: number; height: number },
+  size: { width: number; height: number } = FAT_QUARTER_18X21,
+): number {
   return piecesPerRectangle(piece, size);
 }
 
@@ -186,7 +209,10 @@ export interface PrecutPlanRow extends Piece {
  * What 10-inch precut squares can yield instead: each square is cut into as many pieces of one
  * size as fit; pieces bigger than the square are listed in `tooBig`.
  */
-export function precutSquaresNeeded(pieces: Piece[], opts: { size?: number } = {}): { size: number; rows: PrecutPlanRow[]; squares: number; tooBig: Piece[] } {
+export function precutSquaresNeeded(
+  pieces: Piece[],
+  opts: { size?: number } = {},
+): { size: number; rows: PrecutPlanRow[]; squares: number; tooBig: Piece[] } {
   const side = lengthArg('size', opts.size ?? 10).valueOf();
   const square = { width: side, height: side };
   const rows: PrecutPlanRow[] = [];
@@ -204,8 +230,11 @@ export function precutSquaresNeeded(pieces: Piece[], opts: { size?: number } = {
 export function fatQuartersNeeded(pieces: Piece[], size: { width: number; height: number } = FAT_QUARTER_18X21): number {
   return piecesArg(pieces).reduce((total, p) => {
     const per = fatQuarterYield({ width: p.width.valueOf(), height: p.height.valueOf() }, size);
-    if (per === 0) throw new QuiltInputError('pieces', `A ${p.width.valueOf()}″ × ${p.height.valueOf()}″ piece does not fit in a fat quarter.`);
+    if (per === 0)
+      throw new QuiltInputError(
+        'pieces',
+        `A ${p.width.valueOf()}″ × ${p.height.valueOf()}″ piece does not fit in a fat quarter.`,
+      );
     return total + Math.ceil(p.count / per);
   }, 0);
 }
-

@@ -127,8 +127,18 @@ export function gridCutList(spec: GridSpec, opts: RecipeOptions = {}): CutListRo
     });
   });
   return [...rows.values()]
-    .sort((a, b) => (a.role ?? '').localeCompare(b.role ?? '') || b.width.mul(b.height).compare(a.width.mul(a.height)) || b.width.compare(a.width))
-    .map((r) => ({ ...(r.role !== undefined ? { role: r.role } : {}), width: r.width.valueOf(), height: r.height.valueOf(), count: r.count }));
+    .sort(
+      (a, b) =>
+        (a.role ?? '').localeCompare(b.role ?? '') ||
+        b.width.mul(b.height).compare(a.width.mul(a.height)) ||
+        b.width.compare(a.width),
+    )
+    .map((r) => ({
+      ...(r.role !== undefined ? { role: r.role } : {}),
+      width: r.width.valueOf(),
+      height: r.height.valueOf(),
+      count: r.count,
+    }));
 }
 
 /** Strip sets, the strips to cut for them (with yardage rounded up to ⅛ yd), and the cut list. */

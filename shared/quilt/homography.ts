@@ -10,7 +10,9 @@ export type Quad = [Point, Point, Point, Point];
 export type Homography = number[];
 
 export function pointsArg(field: string, pts: unknown): Quad {
-  const ok = Array.isArray(pts) && pts.length === 4 &&
+  const ok =
+    Array.isArray(pts) &&
+    pts.length === 4 &&
     pts.every((p) => Array.isArray(p) && p.length === 2 && p.every((c) => typeof c === 'number' && Number.isFinite(c)));
   if (!ok) throw new QuiltInputError(field, 'Give exactly four corners, each as [x, y] numbers.');
   return pts as Quad;
@@ -35,10 +37,12 @@ export function solveLinear(A: number[][], b: number[]): number[] {
   const n = b.length;
   for (let col = 0; col < n; col += 1) {
     let pivot = col;
-    for (let r = col + 1; r < n; r += 1) if (Math.abs((A[r] as number[])[col] as number) > Math.abs((A[pivot] as number[])[col] as number)) pivot = r;
+    for (let r = col + 1; r < n; r += 1)
+      if (Math.abs((A[r] as number[])[col] as number) > Math.abs((A[pivot] as number[])[col] as number)) pivot = r;
     const pivotRow = A[pivot] as number[];
     const pv = pivotRow[col] as number;
-    if (Math.abs(pv) < 1e-12) throw new QuiltInputError('corners', 'The corners do not define a plane mapping (they are degenerate).');
+    if (Math.abs(pv) < 1e-12)
+      throw new QuiltInputError('corners', 'The corners do not define a plane mapping (they are degenerate).');
     [A[col], A[pivot]] = [pivotRow, A[col] as number[]];
     [b[col], b[pivot]] = [b[pivot] as number, b[col] as number];
     for (let r = col + 1; r < n; r += 1) {
@@ -117,8 +121,12 @@ export function applyHomography(h: Homography | number[][], [x, y]: Point): Poin
   const m = (Array.isArray(h[0]) ? (h as number[][]).flat() : h) as number[];
   if (m.length !== 9) throw new QuiltInputError('h', 'A homography has nine entries.');
   const w = (m[6] as number) * x + (m[7] as number) * y + (m[8] as number);
-  if (Math.abs(w) < 1e-15) throw new QuiltInputError('point', 'The point maps to infinity (it lies on the horizon of the plane).');
-  return [((m[0] as number) * x + (m[1] as number) * y + (m[2] as number)) / w, ((m[3] as number) * x + (m[4] as number) * y + (m[5] as number)) / w];
+  if (Math.abs(w) < 1e-15)
+    throw new QuiltInputError('point', 'The point maps to infinity (it lies on the horizon of the plane).');
+  return [
+    ((m[0] as number) * x + (m[1] as number) * y + (m[2] as number)) / w,
+    ((m[3] as number) * x + (m[4] as number) * y + (m[5] as number)) / w,
+  ];
 }
 
 /** True when the quad's corners go round in order (convex, no crossing). */

@@ -24,9 +24,13 @@ export const CRIB_INTERIOR_CPSC = { width: 28, length: 52.375, tolerance: 0.625 
  * + pillow tuck. Drop and tuck depend on the bed, so both are parameters (default 0: the top of the
  * mattress only).
  */
-export function quiltSizeForBed(mattress: MattressSize, opts: { drop?: number; pillowTuck?: number } = {}): { width: number; height: number } {
+export function quiltSizeForBed(
+  mattress: MattressSize,
+  opts: { drop?: number; pillowTuck?: number } = {},
+): { width: number; height: number } {
   const size = MATTRESS_SIZES[mattress];
-  if (!size) throw new QuiltInputError('mattress', `Unknown mattress size; use one of ${Object.keys(MATTRESS_SIZES).join(', ')}.`);
+  if (!size)
+    throw new QuiltInputError('mattress', `Unknown mattress size; use one of ${Object.keys(MATTRESS_SIZES).join(', ')}.`);
   const drop = lengthArg('drop', opts.drop ?? 0, { zero: true });
   const tuck = lengthArg('pillowTuck', opts.pillowTuck ?? 0, { zero: true });
   return {

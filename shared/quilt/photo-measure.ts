@@ -31,7 +31,12 @@ function imageToMat(reference: PhotoReference): Homography {
   if (!isConvexQuad(corners)) {
     throw new QuiltInputError('reference.corners', 'The reference corners cross over; click them in order round the square.');
   }
-  return homography(corners, [[0, 0], [s, 0], [s, s], [0, s]]);
+  return homography(corners, [
+    [0, 0],
+    [s, 0],
+    [s, s],
+    [0, s],
+  ]);
 }
 
 function measureWith(h: Homography, blockCorners: Quad): PhotoMeasurement {
@@ -58,7 +63,8 @@ function measureWith(h: Homography, blockCorners: Quad): PhotoMeasurement {
 export function measureFromPhoto(reference: PhotoReference, block: { corners: Quad }): PhotoMeasurement {
   const h = imageToMat(reference);
   const corners = pointsArg('block.corners', block?.corners);
-  if (!isConvexQuad(corners)) throw new QuiltInputError('block.corners', 'The block corners cross over; click them in order round the block.');
+  if (!isConvexQuad(corners))
+    throw new QuiltInputError('block.corners', 'The block corners cross over; click them in order round the block.');
   return measureWith(h, corners);
 }
 
@@ -72,7 +78,12 @@ export interface PhotoQuality {
   warnings: string[];
 }
 
-export const QUALITY_LIMITS = { minReferencePixels: 100, maxObliqueness: 0.2, maxExpectedError: 1 / 16, maxBlockToReference: 5 } as const;
+export const QUALITY_LIMITS = {
+  minReferencePixels: 100,
+  maxObliqueness: 0.2,
+  maxExpectedError: 1 / 16,
+  maxBlockToReference: 5,
+} as const;
 
 /**
  * How much to trust a photo measurement. Each of the eight clicked corners is assumed off by a
@@ -81,7 +92,11 @@ export const QUALITY_LIMITS = { minReferencePixels: 100, maxObliqueness: 0.2, ma
  * reference is small in the frame, the view steep, the block far larger than the reference, or
  * the expected error above 1/16″. Lens distortion and blocks not lying flat are not modelled.
  */
-export function photoMeasureQuality(reference: PhotoReference, block: { corners: Quad }, opts: { clickError?: number } = {}): PhotoQuality {
+export function photoMeasureQuality(
+  reference: PhotoReference,
+  block: { corners: Quad },
+  opts: { clickError?: number } = {},
+): PhotoQuality {
   const base = measureFromPhoto(reference, block);
   const sigma = lengthArg('clickError', opts.clickError ?? 2, { zero: true }).valueOf();
   const ref = pointsArg('reference.corners', reference.corners);
@@ -113,7 +128,9 @@ export function photoMeasureQuality(reference: PhotoReference, block: { corners:
 
   const warnings: string[] = [];
   if (referencePixels < QUALITY_LIMITS.minReferencePixels) {
-    warnings.push(`The reference square is only ${Math.round(referencePixels)} pixels across; move closer or use a larger square (at least ${QUALITY_LIMITS.minReferencePixels} pixels).`);
+    warnings.push(
+      `The reference square is only ${Math.round(referencePixels)} pixels across; move closer or use a larger square (at least ${QUALITY_LIMITS.minReferencePixels} pixels).`,
+    );
   }
   if (obliqueness > QUALITY_LIMITS.maxObliqueness) {
     warnings.push('The photo is taken at a steep angle; hold the camera straight above the block.');

@@ -79,7 +79,12 @@ const span = (n: number, block: Fraction, sash: Fraction): Fraction => block.mul
  * Columns × rows for `blocks`: with `columns` given, rows = ⌈blocks ⁄ columns⌉; otherwise the layout
  * whose blocks-and-sashing area is closest to square, then the fewest empty cells, then portrait.
  */
-export function chooseLayout(blocks: number, block: { width: Fraction; height: Fraction }, sash: Fraction, columns?: number): { columns: number; rows: number } {
+export function chooseLayout(
+  blocks: number,
+  block: { width: Fraction; height: Fraction },
+  sash: Fraction,
+  columns?: number,
+): { columns: number; rows: number } {
   if (columns !== undefined) return { columns, rows: Math.ceil(blocks / columns) };
   let best = { columns: 1, rows: blocks };
   let bestKey: [Fraction, number] | null = null;
@@ -102,7 +107,13 @@ function panelsFor(across: Fraction, f: Fraction, join: Fraction): number {
   return across.sub(join).div(f.sub(join)).ceil().valueOf();
 }
 
-function backingLayout(across: Fraction, along: Fraction, f: Fraction, join: Fraction, seams: 'vertical' | 'horizontal'): BackingLayout {
+function backingLayout(
+  across: Fraction,
+  along: Fraction,
+  f: Fraction,
+  join: Fraction,
+  seams: 'vertical' | 'horizontal',
+): BackingLayout {
   const panels = panelsFor(across, f, join);
   const fabric = along.mul(panels);
   return {
@@ -110,7 +121,10 @@ function backingLayout(across: Fraction, along: Fraction, f: Fraction, join: Fra
     seams: panels === 1 ? 'none' : seams,
     panels,
     panelLength: along.valueOf(),
-    piecedWidth: f.mul(panels).sub(join.mul(panels - 1)).valueOf(),
+    piecedWidth: f
+      .mul(panels)
+      .sub(join.mul(panels - 1))
+      .valueOf(),
     fabricLength: fabric.valueOf(),
     yards: fabricYardsExact(fabric).valueOf(),
   };
@@ -123,7 +137,8 @@ function backingLayout(across: Fraction, along: Fraction, f: Fraction, join: Fra
  * whichever needs less fabric) and batting. Yardage is rounded up to ⅛ yd.
  */
 export function quiltPlan(opts: QuiltPlanOptions): QuiltPlan {
-  if (typeof opts !== 'object' || opts === null) throw new QuiltInputError('blocks', 'Give the block size and the number of blocks.');
+  if (typeof opts !== 'object' || opts === null)
+    throw new QuiltInputError('blocks', 'Give the block size and the number of blocks.');
   const bw = lengthArg('blockFinished.width', opts.blockFinished?.width);
   const bh = lengthArg('blockFinished.height', opts.blockFinished?.height);
   const blocks = countArg('blocks', opts.blocks, 1);
@@ -138,7 +153,8 @@ export function quiltPlan(opts: QuiltPlanOptions): QuiltPlan {
   const backingSeam = lengthArg('backingSeam', opts.backingSeam ?? 0.5, { zero: true });
   const battingOverage = lengthArg('battingOverage', opts.battingOverage ?? overage.valueOf(), { zero: true });
   const seam = seamArg(opts.seam ?? DEFAULT_SEAM);
-  if (bindingWidth.gte(wof)) throw new QuiltInputError('bindingWidth', 'Binding strips must be narrower than the width of fabric.');
+  if (bindingWidth.gte(wof))
+    throw new QuiltInputError('bindingWidth', 'Binding strips must be narrower than the width of fabric.');
   const join = backingSeam.mul(2);
   if (join.gte(backingWof)) throw new QuiltInputError('backingSeam', 'The backing seam is too wide for the fabric.');
 
@@ -205,7 +221,11 @@ export function quiltPlan(opts: QuiltPlanOptions): QuiltPlan {
  * Blocks across and down to reach at least a target finished size (blocks, sashing and borders
  * included).
  */
-export function layoutForTarget(opts: { target: Rect; blockFinished: Rect; sashing?: number; borders?: number[] }): { columns: number; rows: number; blocks: number } {
+export function layoutForTarget(opts: { target: Rect; blockFinished: Rect; sashing?: number; borders?: number[] }): {
+  columns: number;
+  rows: number;
+  blocks: number;
+} {
   const tw = lengthArg('target.width', opts.target?.width);
   const th = lengthArg('target.height', opts.target?.height);
   const bw = lengthArg('blockFinished.width', opts.blockFinished?.width);

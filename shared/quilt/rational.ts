@@ -67,7 +67,14 @@ export function roundTo(x: Fraction, step: Fraction): Fraction {
 export function ceilSqrtTo(x: Fraction, step: Fraction): Fraction {
   if (x.s < 0n) throw new RangeError('square root of a negative number');
   let k = Math.ceil(Math.sqrt(x.valueOf()) / step.valueOf());
-  while (k > 0 && step.mul(k - 1).pow(2).gte(x)) k -= 1;
+  while (
+    k > 0 &&
+    step
+      .mul(k - 1)
+      .pow(2)
+      .gte(x)
+  )
+    k -= 1;
   while (step.mul(k).pow(2).lt(x)) k += 1;
   return step.mul(k);
 }
@@ -111,7 +118,10 @@ export function lengthListArg(field: string, xs: unknown): Fraction[] {
 
 /** "bindingWidth" → "Binding width" for messages a person reads. */
 function label(field: string): string {
-  const words = field.replace(/\[\d+\]/g, (m) => ` ${Number(m.slice(1, -1)) + 1}`).replace(/([a-z])([A-Z])/g, '$1 $2').replace(/\./g, ' ');
+  const words = field
+    .replace(/\[\d+\]/g, (m) => ` ${Number(m.slice(1, -1)) + 1}`)
+    .replace(/([a-z])([A-Z])/g, '$1 $2')
+    .replace(/\./g, ' ');
   const lower = words.toLowerCase();
   return lower.charAt(0).toUpperCase() + lower.slice(1);
 }

@@ -10,13 +10,13 @@ import { HST_METHODS } from './units';
 export const lengthSchema = z
   .union([z.number(), z.string().max(MAX_LENGTH_TEXT, `A length needs at most ${MAX_LENGTH_TEXT} characters.`)])
   .transform((value, ctx) => {
-  try {
-    return parseLengthExact(value).valueOf();
-  } catch (error) {
-    ctx.addIssue({ code: 'custom', message: error instanceof LengthParseError ? error.message : 'Enter a length.' });
-    return z.NEVER;
-  }
-});
+    try {
+      return parseLengthExact(value).valueOf();
+    } catch (error) {
+      ctx.addIssue({ code: 'custom', message: error instanceof LengthParseError ? error.message : 'Enter a length.' });
+      return z.NEVER;
+    }
+  });
 
 /** A length that must be more than zero. */
 export const positiveLengthSchema = lengthSchema.refine((x) => x > 0, { message: 'Must be more than zero.' });

@@ -120,7 +120,10 @@ export function flyingGeeseCuts(finishedWidth: number, finishedHeight: number, m
   const w = lengthArg('finishedWidth', finishedWidth);
   const h = lengthArg('finishedHeight', finishedHeight);
   if (!w.equals(h.mul(2))) {
-    throw new QuiltInputError('finishedWidth', `Flying geese are twice as wide as they are tall: for ${finishedHeight}″ high make them ${h.mul(2).valueOf()}″ wide.`);
+    throw new QuiltInputError(
+      'finishedWidth',
+      `Flying geese are twice as wide as they are tall: for ${finishedHeight}″ high make them ${h.mul(2).valueOf()}″ wide.`,
+    );
   }
   const half = q(1, 2);
   if (method === 'no-waste') {
@@ -142,7 +145,10 @@ export function flyingGeeseCuts(finishedWidth: number, finishedHeight: number, m
 }
 
 /** Scales per-batch pieces to make `units` units: whole batches, with any spare units. */
-export function batchCuts<T extends { count: number; yields: number }>(pieces: T[], units: number): { batches: number; spare: number; pieces: T[] } {
+export function batchCuts<T extends { count: number; yields: number }>(
+  pieces: T[],
+  units: number,
+): { batches: number; spare: number; pieces: T[] } {
   if (!Number.isInteger(units) || units < 1) throw new QuiltInputError('units', 'Make at least one unit.');
   const yields = pieces[0]?.yields ?? 1;
   const batches = Math.ceil(units / yields);

@@ -15,7 +15,9 @@ const sized = (what: string) =>
     .refine((x) => x > 0, { message: `${what} must be more than zero.` })
     .refine((x) => x <= MAX_INCHES, { message: `${what} must be at most ${MAX_INCHES}″.` });
 
-const seamSchema = lengthSchema.refine((x) => x > 0 && x < 1, { message: 'Use a seam allowance between 0 and 1″ (¼″ is usual).' });
+const seamSchema = lengthSchema.refine((x) => x > 0 && x < 1, {
+  message: 'Use a seam allowance between 0 and 1″ (¼″ is usual).',
+});
 
 // Unit formulas (+⅞″ for HSTs, +1¼″ for QSTs …) are worked out for a ¼″ seam, so unit blocks keep it.
 const quarterSeam = lengthSchema
@@ -41,13 +43,27 @@ export const gridBlockSpecSchema = z
   .superRefine((spec, ctx) => {
     const seam = spec.seam ?? QUARTER;
     spec.columns.forEach((w, i) => {
-      if (w <= 2 * seam) ctx.addIssue({ code: 'custom', path: ['columns', i], message: `A ${w}″ column disappears into its two seams; cut it wider than ${2 * seam}″.` });
+      if (w <= 2 * seam)
+        ctx.addIssue({
+          code: 'custom',
+          path: ['columns', i],
+          message: `A ${w}″ column disappears into its two seams; cut it wider than ${2 * seam}″.`,
+        });
     });
     spec.rows.forEach((h, i) => {
-      if (h <= 2 * seam) ctx.addIssue({ code: 'custom', path: ['rows', i], message: `A ${h}″ row disappears into its two seams; cut it wider than ${2 * seam}″.` });
+      if (h <= 2 * seam)
+        ctx.addIssue({
+          code: 'custom',
+          path: ['rows', i],
+          message: `A ${h}″ row disappears into its two seams; cut it wider than ${2 * seam}″.`,
+        });
     });
     if (spec.roles && (spec.roles.length !== spec.rows.length || spec.roles.some((r) => r.length !== spec.columns.length))) {
-      ctx.addIssue({ code: 'custom', path: ['roles'], message: `Name a fabric for every cell: ${spec.rows.length} rows of ${spec.columns.length}.` });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['roles'],
+        message: `Name a fabric for every cell: ${spec.rows.length} rows of ${spec.columns.length}.`,
+      });
     }
   });
 
@@ -82,12 +98,23 @@ export const customBlockSpecSchema = z.object({
   kind: z.literal('custom'),
   finished: z.object({ width: sized('The finished width'), height: sized('The finished height') }),
   seam: seamSchema.optional(),
-  cutList: z.string().trim().min(1, 'Write the cut list so makers know what to cut.').max(4000, 'Keep the cut list under 4000 characters.'),
+  cutList: z
+    .string()
+    .trim()
+    .min(1, 'Write the cut list so makers know what to cut.')
+    .max(4000, 'Keep the cut list under 4000 characters.'),
 });
 
 export const blockSpecSchema = z.discriminatedUnion(
   'kind',
-  [gridBlockSpecSchema, hstBlockSpecSchema, qstBlockSpecSchema, geeseBlockSpecSchema, squareInSquareBlockSpecSchema, customBlockSpecSchema],
+  [
+    gridBlockSpecSchema,
+    hstBlockSpecSchema,
+    qstBlockSpecSchema,
+    geeseBlockSpecSchema,
+    squareInSquareBlockSpecSchema,
+    customBlockSpecSchema,
+  ],
   { error: 'Choose a kind of block: grid, HST, QST, flying geese, square-in-a-square or custom.' },
 );
 
@@ -117,7 +144,8 @@ export function blockSizes(spec: BlockSpec): BlockSizes {
     return { seam: g.seam, finished: g.finished, unfinished: g.unfinished };
   }
   const seam = spec.seam ?? QUARTER;
-  const finished = spec.kind === 'flying-geese' || spec.kind === 'custom' ? spec.finished : { width: spec.finished, height: spec.finished };
+  const finished =
+    spec.kind === 'flying-geese' || spec.kind === 'custom' ? spec.finished : { width: spec.finished, height: spec.finished };
   return {
     seam,
     finished: { ...finished },
@@ -168,16 +196,17 @@ const measured = (what: string) =>
     .refine((x) => x > 0, { message: `${what} must be more than zero.` })
     .refine((x) => x <= MAX_INCHES, { message: `${what} must be at most ${MAX_INCHES}″.` });
 
-export const measurementBodySchema = z
-  .object({
-    width: measured('The width'),
-    height: measured('The height'),
-    diagonals: z.tuple([measured('The first diagonal'), measured('The second diagonal')], { error: 'Give both diagonals, or neither.' }).optional(),
-    /** 'ruler' (coordinator at intake) or 'maker' (the maker's own); chosen from the caller's role when left out */
-    source: z.enum(['ruler', 'maker'], { error: 'Source is "ruler" or "maker".' }).optional(),
-    note: z.string().trim().max(500, 'Keep the note under 500 characters.').optional(),
-    clientId: clientIdSchema,
-  });
+export const measurementBodySchema = z.object({
+  width: measured('The width'),
+  height: measured('The height'),
+  diagonals: z
+    .tuple([measured('The first diagonal'), measured('The second diagonal')], { error: 'Give both diagonals, or neither.' })
+    .optional(),
+  /** 'ruler' (coordinator at intake) or 'maker' (the maker's own); chosen from the caller's role when left out */
+  source: z.enum(['ruler', 'maker'], { error: 'Source is "ruler" or "maker".' }).optional(),
+  note: z.string().trim().max(500, 'Keep the note under 500 characters.').optional(),
+  clientId: clientIdSchema,
+});
 // Not strict on purpose: an offline client may send its own verdict along; it is dropped, never read.
 export type MeasurementBodyInput = z.input<typeof measurementBodySchema>;
 export type MeasurementBody = z.output<typeof measurementBodySchema>;

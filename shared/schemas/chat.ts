@@ -49,7 +49,12 @@ export const messageParamsSchema = z.object({ messageId: restId });
 /** History, newest first: `before` is the id of the oldest message already shown. */
 export const historyQuerySchema = z.object({
   before: restId.optional(),
-  limit: z.coerce.number({ error: 'Expected a number.' }).int().min(1).max(50, 'Ask for at most 50 messages at a time.').default(30),
+  limit: z.coerce
+    .number({ error: 'Expected a number.' })
+    .int()
+    .min(1)
+    .max(50, 'Ask for at most 50 messages at a time.')
+    .default(30),
 });
 export type HistoryQuery = z.infer<typeof historyQuerySchema>;
 

@@ -2,7 +2,14 @@ import { z } from 'zod';
 import { idParam } from './guilds';
 
 /** Kinds of e-mail a person can switch off. Account mail (invitations, password resets) always goes. */
-export const mailCategories = ['announcements', 'signup-confirmations', 'reminders', 'receipts', 'distribution', 'coordinator-digest'] as const;
+export const mailCategories = [
+  'announcements',
+  'signup-confirmations',
+  'reminders',
+  'receipts',
+  'distribution',
+  'coordinator-digest',
+] as const;
 export const mailCategorySchema = z.enum(mailCategories, { error: 'Choose one of the listed kinds of e-mail.' });
 export type MailCategory = z.infer<typeof mailCategorySchema>;
 
@@ -55,7 +62,10 @@ export type UpdateMailPreferencesInput = z.infer<typeof updateMailPreferencesSch
 
 /** Every category at once, as the choices form holds them. */
 export const mailChoicesSchema = z.object(
-  Object.fromEntries(mailCategories.map((c) => [c, z.boolean({ error: 'Use true or false.' })])) as Record<MailCategory, z.ZodBoolean>,
+  Object.fromEntries(mailCategories.map((c) => [c, z.boolean({ error: 'Use true or false.' })])) as Record<
+    MailCategory,
+    z.ZodBoolean
+  >,
 );
 export type MailChoices = z.infer<typeof mailChoicesSchema>;
 

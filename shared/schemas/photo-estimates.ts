@@ -6,7 +6,14 @@
  */
 import { z } from 'zod';
 import {
-  QuiltInputError, checkBlock, measureFromPhoto, photoMeasureQuality, positiveLengthSchema, type Point, type Quad, type Verdict,
+  QuiltInputError,
+  checkBlock,
+  measureFromPhoto,
+  photoMeasureQuality,
+  positiveLengthSchema,
+  type Point,
+  type Quad,
+  type Verdict,
 } from '@shared/quilt';
 import { idParam } from './guilds';
 
@@ -87,7 +94,10 @@ function assertMarkable(field: string, what: string, quad: Quad) {
   for (let i = 0; i < 4; i += 1) {
     for (let j = i + 1; j < 4; j += 1) {
       if (dist(quad[i]!, quad[j]!) < MIN_CORNER_GAP) {
-        throw new QuiltInputError(field, `Two corners of the ${what} (${CORNER_NAMES[i]} and ${CORNER_NAMES[j]}) are on the same spot; drag one to its own corner.`);
+        throw new QuiltInputError(
+          field,
+          `Two corners of the ${what} (${CORNER_NAMES[i]} and ${CORNER_NAMES[j]}) are on the same spot; drag one to its own corner.`,
+        );
       }
     }
   }
@@ -111,7 +121,11 @@ export function outsidePhoto(quad: Quad, width: number, height: number): boolean
  * the field `reference.corners`, `block.corners` or `reference.size`) for corners that cannot be
  * measured. A non-square target is compared the way round the block was photographed.
  */
-export function estimateFromCorners(reference: { corners: Quad; size: number }, block: { corners: Quad }, target: EstimateTarget): PhotoEstimateResult {
+export function estimateFromCorners(
+  reference: { corners: Quad; size: number },
+  block: { corners: Quad },
+  target: EstimateTarget,
+): PhotoEstimateResult {
   assertMarkable('reference.corners', 'reference square', reference.corners);
   assertMarkable('block.corners', 'block', block.corners);
   const m = measureFromPhoto(reference, block);
@@ -121,12 +135,19 @@ export function estimateFromCorners(reference: { corners: Quad; size: number }, 
   const turned = (target.width - target.height) * (width - height) < 0;
   if (turned) [width, height] = [height, width];
   const diagonals = m.diagonals.map(four) as [number, number];
-  const { verdict, deviations } = checkBlock({ target: { width: target.width, height: target.height }, tolerance: target.tolerance, squareness: target.squareness, measured: { width, height, diagonals } });
+  const { verdict, deviations } = checkBlock({
+    target: { width: target.width, height: target.height },
+    tolerance: target.tolerance,
+    squareness: target.squareness,
+    measured: { width, height, diagonals },
+  });
   const expectedError = four(quality.expectedError);
   const gap = Math.abs(diagonals[0] - diagonals[1]);
   const margins = [
-    Math.abs(width - (target.width - target.tolerance)), Math.abs(width - (target.width + target.tolerance)),
-    Math.abs(height - (target.height - target.tolerance)), Math.abs(height - (target.height + target.tolerance)),
+    Math.abs(width - (target.width - target.tolerance)),
+    Math.abs(width - (target.width + target.tolerance)),
+    Math.abs(height - (target.height - target.tolerance)),
+    Math.abs(height - (target.height + target.tolerance)),
     Math.abs(gap - target.squareness),
   ];
   return {
@@ -169,8 +190,22 @@ export interface LatestPhotoEstimateDto {
 
 /** GET /api/blocks/:blockId/photo-estimates: what the measuring view needs, and the history. */
 export interface PhotoEstimatesDto {
-  block: { id: number; swapId: number; guildId: number; sequence: number; state: string; maker: { id: number; displayName: string } };
-  swap: { id: number; title: string; state: string; unfinished: { width: number; height: number }; tolerance: number; squareness: number };
+  block: {
+    id: number;
+    swapId: number;
+    guildId: number;
+    sequence: number;
+    state: string;
+    maker: { id: number; displayName: string };
+  };
+  swap: {
+    id: number;
+    title: string;
+    state: string;
+    unfinished: { width: number; height: number };
+    tolerance: number;
+    squareness: number;
+  };
   photos: { id: number; url: string; thumbUrl: string; width: number; height: number }[];
   /** the caller may add estimates (the maker, or a coordinator or admin, while the swap is open) */
   canEstimate: boolean;

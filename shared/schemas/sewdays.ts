@@ -18,17 +18,31 @@ const wallTime = z
 
 export const SEW_DAY_FIRST_YEAR = 2000;
 export const SEW_DAY_LAST_YEAR = 2200;
-const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
+const MONTHS = [
+  'January',
+  'February',
+  'March',
+  'April',
+  'May',
+  'June',
+  'July',
+  'August',
+  'September',
+  'October',
+  'November',
+  'December',
+];
 
 /**
  * Why a `YYYY-MM-DDTHH:mm` is not a real time on the calendar, or null. Read strictly: 30 February
  * is refused, never rolled over into March.
  */
 export function wallTimeProblem(s: string): string | null {
-  const [year, month, day, hour, minute] = [s.slice(0, 4), s.slice(5, 7), s.slice(8, 10), s.slice(11, 13), s.slice(14, 16)].map(Number) as [
-    number, number, number, number, number,
-  ];
-  if (year < SEW_DAY_FIRST_YEAR || year > SEW_DAY_LAST_YEAR) return `Choose a year between ${SEW_DAY_FIRST_YEAR} and ${SEW_DAY_LAST_YEAR}.`;
+  const [year, month, day, hour, minute] = [s.slice(0, 4), s.slice(5, 7), s.slice(8, 10), s.slice(11, 13), s.slice(14, 16)].map(
+    Number,
+  ) as [number, number, number, number, number];
+  if (year < SEW_DAY_FIRST_YEAR || year > SEW_DAY_LAST_YEAR)
+    return `Choose a year between ${SEW_DAY_FIRST_YEAR} and ${SEW_DAY_LAST_YEAR}.`;
   if (month < 1 || month > 12) return `There is no month ${month}: use 01 to 12.`;
   const days = new Date(Date.UTC(year, month, 0)).getUTCDate();
   if (day < 1 || day > days) return `${MONTHS[month - 1]} ${year} has ${days} days: there is no day ${day}.`;
@@ -45,7 +59,11 @@ const optionalText = (max: number, message: string) =>
     .transform((s) => (s ? s : null));
 
 const sewDayFields = z.object({
-  title: z.string({ error: 'Give the sew day a name.' }).trim().min(2, 'Give the sew day a name of at least 2 characters.').max(120, 'Keep the name under 120 characters.'),
+  title: z
+    .string({ error: 'Give the sew day a name.' })
+    .trim()
+    .min(2, 'Give the sew day a name of at least 2 characters.')
+    .max(120, 'Keep the name under 120 characters.'),
   startsAt: wallTime,
   endsAt: wallTime,
   place: optionalText(300, 'Keep the place under 300 characters.'),
@@ -55,13 +73,23 @@ const sewDayFields = z.object({
     .trim()
     .nullish()
     .transform((s) => (s ? s : null))
-    .pipe(z.url({ protocol: /^https$/, error: 'Give a video link starting with https://' }).max(500, 'That link is too long.').nullable()),
+    .pipe(
+      z
+        .url({ protocol: /^https$/, error: 'Give a video link starting with https://' })
+        .max(500, 'That link is too long.')
+        .nullable(),
+    ),
   notes: optionalText(4000, 'Keep the notes under 4,000 characters.'),
 });
 
-function checkWhenAndWhere(value: { startsAt: string; endsAt: string; place: string | null; videoUrl: string | null }, ctx: z.RefinementCtx) {
-  if (value.endsAt <= value.startsAt) ctx.addIssue({ code: 'custom', path: ['endsAt'], message: 'The end must come after the start.' });
-  if (!value.place && !value.videoUrl) ctx.addIssue({ code: 'custom', path: ['place'], message: 'Give a place, a video link, or both.' });
+function checkWhenAndWhere(
+  value: { startsAt: string; endsAt: string; place: string | null; videoUrl: string | null },
+  ctx: z.RefinementCtx,
+) {
+  if (value.endsAt <= value.startsAt)
+    ctx.addIssue({ code: 'custom', path: ['endsAt'], message: 'The end must come after the start.' });
+  if (!value.place && !value.videoUrl)
+    ctx.addIssue({ code: 'custom', path: ['place'], message: 'Give a place, a video link, or both.' });
 }
 
 /** Body of POST /api/guilds/:guildId/sew-days and PATCH /api/sew-days/:sewDayId. Times are in the guild's zone. */
@@ -72,7 +100,9 @@ export type SewDayFormValues = z.input<typeof sewDayInputSchema>;
 export const rsvpInputSchema = z.object({ answer: rsvpAnswerSchema }).strict();
 export type RsvpInput = z.infer<typeof rsvpInputSchema>;
 
-export const sewDayListQuerySchema = z.object({ when: z.enum(['upcoming', 'past'], { error: 'Choose upcoming or past.' }).default('upcoming') });
+export const sewDayListQuerySchema = z.object({
+  when: z.enum(['upcoming', 'past'], { error: 'Choose upcoming or past.' }).default('upcoming'),
+});
 export type SewDayListQuery = z.infer<typeof sewDayListQuerySchema>;
 
 export const sewDayParamsSchema = z.object({
@@ -116,7 +146,14 @@ export interface SewDayDetailDto extends SewDayDto {
 /** The offset of `timeZone` from UTC at `instant`, in minutes (Chicago in winter: -360). */
 export function zoneOffsetMinutes(instant: Date, timeZone: string): number {
   const parts = new Intl.DateTimeFormat('en-US', {
-    timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit',
+    timeZone,
+    hourCycle: 'h23',
+    year: 'numeric',
+    month: '2-digit',
+    day: '2-digit',
+    hour: '2-digit',
+    minute: '2-digit',
+    second: '2-digit',
   }).formatToParts(instant);
   const get = (type: string) => Number(parts.find((p) => p.type === type)?.value);
   const asUtc = Date.UTC(get('year'), get('month') - 1, get('day'), get('hour'), get('minute'), get('second'));
@@ -145,8 +182,20 @@ export function instantToWallTime(instant: Date, timeZone: string): string {
  * safety practice. The maker's own judgement and the host's rules come first.
  */
 export const sewDayCautions = [
-  { topic: 'Irons', text: 'Never leave a hot iron face down or unattended: stand it on its heel, and unplug it when you step away or finish.' },
-  { topic: 'Cords', text: 'Run extension and iron cords along walls or under tables, not across walkways where someone could catch a foot.' },
-  { topic: 'Rotary cutters', text: 'Close or cover the blade every time you put the cutter down, even for a moment, and cut away from yourself.' },
-  { topic: 'Pins and needles', text: 'Keep pins in a cushion or dish, never between your lips, and switch the machine off before changing a needle.' },
+  {
+    topic: 'Irons',
+    text: 'Never leave a hot iron face down or unattended: stand it on its heel, and unplug it when you step away or finish.',
+  },
+  {
+    topic: 'Cords',
+    text: 'Run extension and iron cords along walls or under tables, not across walkways where someone could catch a foot.',
+  },
+  {
+    topic: 'Rotary cutters',
+    text: 'Close or cover the blade every time you put the cutter down, even for a moment, and cut away from yourself.',
+  },
+  {
+    topic: 'Pins and needles',
+    text: 'Keep pins in a cushion or dish, never between your lips, and switch the machine off before changing a needle.',
+  },
 ] as const;

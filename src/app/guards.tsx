@@ -9,7 +9,8 @@ export function RequireSignedIn() {
   const location = useLocation();
   if (me.isPending) return <Loading />;
   if (me.isError) return <QueryError error={me.error} what="your account" />;
-  if (!me.data) return <Navigate to={`${paths.signIn}?next=${encodeURIComponent(location.pathname + location.search)}`} replace />;
+  if (!me.data)
+    return <Navigate to={`${paths.signIn}?next=${encodeURIComponent(location.pathname + location.search)}`} replace />;
   return <Outlet />;
 }
 

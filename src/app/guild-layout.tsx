@@ -22,12 +22,28 @@ export function GuildLayout() {
         <p className="text-walnut-soft">{roleLabels[guild.data.myRole]}</p>
         <h1 className="text-3xl font-bold text-indigo-deep sm:text-4xl">{guild.data.name}</h1>
         <nav aria-label="Guild sections" className="mt-4 grid grid-cols-3 gap-x-1 border-b border-walnut/15 sm:flex sm:flex-wrap">
-          <NavLink end to={paths.guild(guildId)} className={() => tabClass({ isActive: onSwaps })}>Swaps</NavLink>
-          <NavLink to={paths.about(guildId)} className={tabClass}>About</NavLink>
-          <NavLink to={paths.members(guildId)} className={tabClass}>Members</NavLink>
-          <NavLink to={paths.sewDays(guildId)} className={tabClass}>Sew days</NavLink>
-          {(guild.data.dues || guild.data.myRole === 'admin') && <NavLink to={paths.guildDues(guildId)} className={tabClass}>Dues</NavLink>}
-          {guild.data.myRole === 'admin' && <NavLink to={paths.mailLog(guildId)} className={tabClass}>E-mail</NavLink>}
+          <NavLink end to={paths.guild(guildId)} className={() => tabClass({ isActive: onSwaps })}>
+            Swaps
+          </NavLink>
+          <NavLink to={paths.about(guildId)} className={tabClass}>
+            About
+          </NavLink>
+          <NavLink to={paths.members(guildId)} className={tabClass}>
+            Members
+          </NavLink>
+          <NavLink to={paths.sewDays(guildId)} className={tabClass}>
+            Sew days
+          </NavLink>
+          {(guild.data.dues || guild.data.myRole === 'admin') && (
+            <NavLink to={paths.guildDues(guildId)} className={tabClass}>
+              Dues
+            </NavLink>
+          )}
+          {guild.data.myRole === 'admin' && (
+            <NavLink to={paths.mailLog(guildId)} className={tabClass}>
+              E-mail
+            </NavLink>
+          )}
         </nav>
       </div>
       <Outlet />

@@ -9,7 +9,11 @@ export function RouteError() {
     <div className="mx-auto max-w-xl p-6">
       <Alert tone="error" title="Something went wrong">
         <p>{message} Reload the page to try again; nothing saved is lost.</p>
-        <p className="mt-2"><Link className="underline" to={paths.guilds}>Back to your guilds</Link></p>
+        <p className="mt-2">
+          <Link className="underline" to={paths.guilds}>
+            Back to your guilds
+          </Link>
+        </p>
       </Alert>
     </div>
   );

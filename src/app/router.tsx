@@ -33,55 +33,159 @@ export const routes: RouteObject[] = [
       {
         element: <RedirectIfSignedIn />,
         children: [
-          { path: paths.signIn, lazy: () => import('@/features/auth/components/sign-in-page').then((m) => ({ Component: m.SignInPage })) },
-          { path: paths.register, lazy: () => import('@/features/auth/components/register-page').then((m) => ({ Component: m.RegisterPage })) },
-          { path: paths.forgotPassword, lazy: () => import('@/features/auth/components/password-reset-pages').then((m) => ({ Component: m.ForgotPasswordPage })) },
+          {
+            path: paths.signIn,
+            lazy: () => import('@/features/auth/components/sign-in-page').then((m) => ({ Component: m.SignInPage })),
+          },
+          {
+            path: paths.register,
+            lazy: () => import('@/features/auth/components/register-page').then((m) => ({ Component: m.RegisterPage })),
+          },
+          {
+            path: paths.forgotPassword,
+            lazy: () =>
+              import('@/features/auth/components/password-reset-pages').then((m) => ({ Component: m.ForgotPasswordPage })),
+          },
         ],
       },
-      { path: paths.resetPassword, lazy: () => import('@/features/auth/components/password-reset-pages').then((m) => ({ Component: m.ResetPasswordPage })) },
+      {
+        path: paths.resetPassword,
+        lazy: () => import('@/features/auth/components/password-reset-pages').then((m) => ({ Component: m.ResetPasswordPage })),
+      },
       { path: paths.invitation(), lazy: () => import('./invitation-route').then((m) => ({ Component: m.InvitationRoute })) },
-      { path: paths.unsubscribe, lazy: () => import('@/features/notifications/components/unsubscribe-page').then((m) => ({ Component: m.UnsubscribePage })) },
+      {
+        path: paths.unsubscribe,
+        lazy: () =>
+          import('@/features/notifications/components/unsubscribe-page').then((m) => ({ Component: m.UnsubscribePage })),
+      },
       {
         element: <RequireSignedIn />,
         children: [
           { path: paths.guilds, lazy: () => import('./home-route').then((m) => ({ Component: m.HomeRoute })) },
-          { path: paths.settings, lazy: () => import('@/features/auth/components/settings-page').then((m) => ({ Component: m.SettingsPage })) },
-          { path: paths.myPayments, lazy: () => import('@/features/payments/components/my-payments-page').then((m) => ({ Component: m.MyPaymentsPage })) },
-          { path: paths.paymentReturn, lazy: () => import('@/features/payments/components/payment-return-page').then((m) => ({ Component: m.PaymentReturnPage })) },
-          { path: paths.mailPreferences, lazy: () => import('@/features/notifications/components/mail-preferences-page').then((m) => ({ Component: m.MailPreferencesPage })) },
+          {
+            path: paths.settings,
+            lazy: () => import('@/features/auth/components/settings-page').then((m) => ({ Component: m.SettingsPage })),
+          },
+          {
+            path: paths.myPayments,
+            lazy: () => import('@/features/payments/components/my-payments-page').then((m) => ({ Component: m.MyPaymentsPage })),
+          },
+          {
+            path: paths.paymentReturn,
+            lazy: () =>
+              import('@/features/payments/components/payment-return-page').then((m) => ({ Component: m.PaymentReturnPage })),
+          },
+          {
+            path: paths.mailPreferences,
+            lazy: () =>
+              import('@/features/notifications/components/mail-preferences-page').then((m) => ({
+                Component: m.MailPreferencesPage,
+              })),
+          },
           { path: paths.planner, lazy: () => import('./planner-route').then((m) => ({ Component: m.PlannerRoute })) },
           {
             path: paths.guild(),
             lazy: () => import('./guild-layout').then((m) => ({ Component: m.GuildLayout })),
             children: [
               // Swaps are the guild's front page; the guild overview moved to "About".
-              { index: true, lazy: () => import('@/features/swaps/components/swap-list-page').then((m) => ({ Component: m.SwapListPage })) },
-              { path: 'about', lazy: () => import('@/features/guilds/components/guild-overview').then((m) => ({ Component: m.GuildOverview })) },
-              { path: 'swaps/new', lazy: () => import('@/features/swaps/components/setup/swap-setup-page').then((m) => ({ Component: m.NewSwapPage })) },
+              {
+                index: true,
+                lazy: () => import('@/features/swaps/components/swap-list-page').then((m) => ({ Component: m.SwapListPage })),
+              },
+              {
+                path: 'about',
+                lazy: () => import('@/features/guilds/components/guild-overview').then((m) => ({ Component: m.GuildOverview })),
+              },
+              {
+                path: 'swaps/new',
+                lazy: () =>
+                  import('@/features/swaps/components/setup/swap-setup-page').then((m) => ({ Component: m.NewSwapPage })),
+              },
               {
                 path: 'swaps/:swapId',
                 lazy: () => import('@/features/swaps/components/swap-layout').then((m) => ({ Component: m.SwapLayout })),
                 children: [
-                  { index: true, lazy: () => import('@/features/swaps/components/swap-overview-page').then((m) => ({ Component: m.SwapOverviewPage })) },
-                  { path: 'roster', lazy: () => import('@/features/swaps/components/roster-page').then((m) => ({ Component: m.RosterPage })) },
-                  { path: 'return', lazy: () => import('@/features/swaps/components/distribution-page').then((m) => ({ Component: m.DistributionPage })) },
-                  { path: 'sheet', lazy: () => import('@/features/swaps/components/swap-sheet-page').then((m) => ({ Component: m.SwapSheetPage })) },
-                  { path: 'edit', lazy: () => import('@/features/swaps/components/setup/swap-setup-page').then((m) => ({ Component: m.EditSwapPage })) },
-                  { path: 'design', lazy: () => import('@/features/design-wall/components/design-wall-page').then((m) => ({ Component: m.DesignWallPage })) },
-                  { path: 'fees', lazy: () => import('@/features/payments/components/swap-fees-page').then((m) => ({ Component: m.SwapFeesPage })) },
+                  {
+                    index: true,
+                    lazy: () =>
+                      import('@/features/swaps/components/swap-overview-page').then((m) => ({ Component: m.SwapOverviewPage })),
+                  },
+                  {
+                    path: 'roster',
+                    lazy: () => import('@/features/swaps/components/roster-page').then((m) => ({ Component: m.RosterPage })),
+                  },
+                  {
+                    path: 'return',
+                    lazy: () =>
+                      import('@/features/swaps/components/distribution-page').then((m) => ({ Component: m.DistributionPage })),
+                  },
+                  {
+                    path: 'sheet',
+                    lazy: () =>
+                      import('@/features/swaps/components/swap-sheet-page').then((m) => ({ Component: m.SwapSheetPage })),
+                  },
+                  {
+                    path: 'edit',
+                    lazy: () =>
+                      import('@/features/swaps/components/setup/swap-setup-page').then((m) => ({ Component: m.EditSwapPage })),
+                  },
+                  {
+                    path: 'design',
+                    lazy: () =>
+                      import('@/features/design-wall/components/design-wall-page').then((m) => ({ Component: m.DesignWallPage })),
+                  },
+                  {
+                    path: 'fees',
+                    lazy: () =>
+                      import('@/features/payments/components/swap-fees-page').then((m) => ({ Component: m.SwapFeesPage })),
+                  },
                 ],
               },
-              { path: 'members', lazy: () => import('@/features/guilds/components/members-page').then((m) => ({ Component: m.MembersPage })) },
-              { path: 'mail', lazy: () => import('@/features/notifications/components/mail-log-page').then((m) => ({ Component: m.MailLogPage })) },
-              { path: 'dues', lazy: () => import('@/features/payments/components/dues-page').then((m) => ({ Component: m.DuesPage })) },
-              { path: 'payments', lazy: () => import('@/features/payments/components/treasurer-page').then((m) => ({ Component: m.TreasurerPage })) },
-              { path: 'sew-days', lazy: () => import('@/features/sew-days/components/sew-days-page').then((m) => ({ Component: m.SewDaysPage })) },
-              { path: 'sew-days/new', lazy: () => import('@/features/sew-days/components/new-sew-day-page').then((m) => ({ Component: m.NewSewDayPage })) },
+              {
+                path: 'members',
+                lazy: () => import('@/features/guilds/components/members-page').then((m) => ({ Component: m.MembersPage })),
+              },
+              {
+                path: 'mail',
+                lazy: () =>
+                  import('@/features/notifications/components/mail-log-page').then((m) => ({ Component: m.MailLogPage })),
+              },
+              {
+                path: 'dues',
+                lazy: () => import('@/features/payments/components/dues-page').then((m) => ({ Component: m.DuesPage })),
+              },
+              {
+                path: 'payments',
+                lazy: () => import('@/features/payments/components/treasurer-page').then((m) => ({ Component: m.TreasurerPage })),
+              },
+              {
+                path: 'sew-days',
+                lazy: () => import('@/features/sew-days/components/sew-days-page').then((m) => ({ Component: m.SewDaysPage })),
+              },
+              {
+                path: 'sew-days/new',
+                lazy: () =>
+                  import('@/features/sew-days/components/new-sew-day-page').then((m) => ({ Component: m.NewSewDayPage })),
+              },
               { path: 'sew-days/:sewDayId', lazy: sewDayWithChat },
-              { path: 'sew-days/:sewDayId/edit', lazy: () => import('@/features/sew-days/components/edit-sew-day-page').then((m) => ({ Component: m.EditSewDayPage })) },
-              { path: 'swaps/:swapId/board', lazy: () => import('@/features/live-board/components/live-board-page').then((m) => ({ Component: m.LiveBoardPage })) },
-              { path: 'swaps/:swapId/chat', lazy: () => import('@/features/chat/components/swap-chat-page').then((m) => ({ Component: m.SwapChatPage })) },
-              { path: 'swaps/:swapId/intake', lazy: () => import('@/features/intake/components/intake-page').then((m) => ({ Component: m.IntakePage })) },
+              {
+                path: 'sew-days/:sewDayId/edit',
+                lazy: () =>
+                  import('@/features/sew-days/components/edit-sew-day-page').then((m) => ({ Component: m.EditSewDayPage })),
+              },
+              {
+                path: 'swaps/:swapId/board',
+                lazy: () =>
+                  import('@/features/live-board/components/live-board-page').then((m) => ({ Component: m.LiveBoardPage })),
+              },
+              {
+                path: 'swaps/:swapId/chat',
+                lazy: () => import('@/features/chat/components/swap-chat-page').then((m) => ({ Component: m.SwapChatPage })),
+              },
+              {
+                path: 'swaps/:swapId/intake',
+                lazy: () => import('@/features/intake/components/intake-page').then((m) => ({ Component: m.IntakePage })),
+              },
               { path: 'swaps/:swapId/blocks/:blockId/photos/:photoId/measure', lazy: photoMeasureInUnits },
             ],
           },
@@ -95,7 +199,12 @@ export const routes: RouteObject[] = [
     element: <RequireSignedIn />,
     hydrateFallbackElement: <Loading />,
     errorElement: <RouteError />,
-    children: [{ path: paths.swapLabels(), lazy: () => import('@/features/intake/components/labels-page').then((m) => ({ Component: m.LabelsPage })) }],
+    children: [
+      {
+        path: paths.swapLabels(),
+        lazy: () => import('@/features/intake/components/labels-page').then((m) => ({ Component: m.LabelsPage })),
+      },
+    ],
   },
 ];
 

@@ -18,8 +18,12 @@ export function WelcomePage() {
           block measured against its unfinished size, and who gets which blocks back.
         </p>
         <div className="mt-6 flex flex-wrap gap-3">
-          <Link className={buttonClass('primary')} to={paths.signIn}>Sign in</Link>
-          <Link className={buttonClass('secondary')} to={paths.register}>Create an account</Link>
+          <Link className={buttonClass('primary')} to={paths.signIn}>
+            Sign in
+          </Link>
+          <Link className={buttonClass('secondary')} to={paths.register}>
+            Create an account
+          </Link>
         </div>
       </div>
       <Card as="div" title="What your guild gets">

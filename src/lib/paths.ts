@@ -13,28 +13,44 @@ export const paths = {
   about: (guildId: number | string = ':guildId') => `/guilds/${guildId}/about`,
   newSwap: (guildId: number | string = ':guildId') => `/guilds/${guildId}/swaps/new`,
   swap: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}`,
-  editSwap: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/edit`,
-  swapRoster: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/roster`,
-  swapReturn: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/return`,
-  swapSheet: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/sheet`,
-  swapDesign: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/design`,
+  editSwap: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') =>
+    `/guilds/${guildId}/swaps/${swapId}/edit`,
+  swapRoster: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') =>
+    `/guilds/${guildId}/swaps/${swapId}/roster`,
+  swapReturn: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') =>
+    `/guilds/${guildId}/swaps/${swapId}/return`,
+  swapSheet: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') =>
+    `/guilds/${guildId}/swaps/${swapId}/sheet`,
+  swapDesign: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') =>
+    `/guilds/${guildId}/swaps/${swapId}/design`,
   sewDays: (guildId: number | string = ':guildId') => `/guilds/${guildId}/sew-days`,
   newSewDay: (guildId: number | string = ':guildId') => `/guilds/${guildId}/sew-days/new`,
-  sewDay: (guildId: number | string = ':guildId', sewDayId: number | string = ':sewDayId') => `/guilds/${guildId}/sew-days/${sewDayId}`,
-  editSewDay: (guildId: number | string = ':guildId', sewDayId: number | string = ':sewDayId') => `/guilds/${guildId}/sew-days/${sewDayId}/edit`,
-  swapBoard: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/board`,
-  swapChat: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/chat`,
-  swapIntake: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/intake`,
-  swapLabels: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/labels`,
-  photoMeasure: (guildId: number | string = ':guildId', swapId: number | string = ':swapId', blockId: number | string = ':blockId', photoId: number | string = ':photoId') =>
-    `/guilds/${guildId}/swaps/${swapId}/blocks/${blockId}/photos/${photoId}/measure`,
+  sewDay: (guildId: number | string = ':guildId', sewDayId: number | string = ':sewDayId') =>
+    `/guilds/${guildId}/sew-days/${sewDayId}`,
+  editSewDay: (guildId: number | string = ':guildId', sewDayId: number | string = ':sewDayId') =>
+    `/guilds/${guildId}/sew-days/${sewDayId}/edit`,
+  swapBoard: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') =>
+    `/guilds/${guildId}/swaps/${swapId}/board`,
+  swapChat: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') =>
+    `/guilds/${guildId}/swaps/${swapId}/chat`,
+  swapIntake: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') =>
+    `/guilds/${guildId}/swaps/${swapId}/intake`,
+  swapLabels: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') =>
+    `/guilds/${guildId}/swaps/${swapId}/labels`,
+  photoMeasure: (
+    guildId: number | string = ':guildId',
+    swapId: number | string = ':swapId',
+    blockId: number | string = ':blockId',
+    photoId: number | string = ':photoId',
+  ) => `/guilds/${guildId}/swaps/${swapId}/blocks/${blockId}/photos/${photoId}/measure`,
   settings: '/settings',
   mailPreferences: '/settings/email',
   unsubscribe: '/unsubscribe',
   mailLog: (guildId: number | string = ':guildId') => `/guilds/${guildId}/mail`,
   guildDues: (guildId: number | string = ':guildId') => `/guilds/${guildId}/dues`,
   guildPayments: (guildId: number | string = ':guildId') => `/guilds/${guildId}/payments`,
-  swapFees: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') => `/guilds/${guildId}/swaps/${swapId}/fees`,
+  swapFees: (guildId: number | string = ':guildId', swapId: number | string = ':swapId') =>
+    `/guilds/${guildId}/swaps/${swapId}/fees`,
   myPayments: '/settings/payments',
   paymentReturn: '/payments/return',
 } as const;

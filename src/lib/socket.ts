@@ -26,7 +26,12 @@ export function getSocket(): AppSocket {
   // A refused connection may be retried after signing in: start afresh.
   socket?.removeAllListeners();
   // WebSocket first (needs no sticky sessions between several app nodes); long-polling if it is blocked.
-  const created: AppSocket = io({ path: '/socket.io', transports: ['websocket', 'polling'], tryAllTransports: true, withCredentials: true });
+  const created: AppSocket = io({
+    path: '/socket.io',
+    transports: ['websocket', 'polling'],
+    tryAllTransports: true,
+    withCredentials: true,
+  });
   created.on('connect', () => setStatus('connected'));
   created.on('disconnect', (reason) => {
     setStatus('offline');
@@ -55,10 +60,27 @@ export function closeSocket() {
 export function emitWithAck<T>(event: keyof ClientToServerEvents, payload: unknown, timeoutMs = 8000): Promise<T> {
   const s = getSocket();
   return new Promise((resolve, reject) => {
-    const withTimeout = s.timeout(timeoutMs) as unknown as { emit(e: string, p: unknown, cb: (err: Error | null, answer: Ack<T>) => void): void };
+    const withTimeout = s.timeout(timeoutMs) as unknown as {
+      emit(e: string, p: unknown, cb: (err: Error | null, answer: Ack<T>) => void): void;
+    };
     withTimeout.emit(event, payload, (err, answer) => {
-      if (err) return reject(new ApiError(0, 'network', 'The live connection did not answer. Check your connection and try again; nothing you typed is lost.'));
-      if ('error' in answer) return reject(new ApiError(answer.error.code === 'rate_limited' ? 429 : 400, answer.error.code, answer.error.message, answer.error.fields));
+      if (err)
+        return reject(
+          new ApiError(
+            0,
+            'network',
+            'The live connection did not answer. Check your connection and try again; nothing you typed is lost.',
+          ),
+        );
+      if ('error' in answer)
+        return reject(
+          new ApiError(
+            answer.error.code === 'rate_limited' ? 429 : 400,
+            answer.error.code,
+            answer.error.message,
+            answer.error.fields,
+          ),
+        );
       resolve(answer.data);
     });
   });

@@ -18,7 +18,10 @@ describe('registration and sign-in', () => {
   it('registers, signs in with a fresh session id, answers /api/me and signs out', async () => {
     const email = uniqueEmail('reg');
     const agent = app.agent();
-    const registered = await agent.post('/api/auth/register').send({ email, password: PASSWORD, displayName: 'Nell Okafor' }).expect(201);
+    const registered = await agent
+      .post('/api/auth/register')
+      .send({ email, password: PASSWORD, displayName: 'Nell Okafor' })
+      .expect(201);
     expect(registered.body.user).toMatchObject({ email, displayName: 'Nell Okafor', units: 'in' });
     expect(registered.body.user.passwordHash).toBeUndefined();
     const cookie = sessionCookie(registered)!;
@@ -50,7 +53,11 @@ describe('registration and sign-in', () => {
 
   it('refuses a taken e-mail with 409 and a bad body with field messages', async () => {
     const { email } = await signedInUser(app);
-    const taken = await app.agent().post('/api/auth/register').send({ email, password: PASSWORD, displayName: 'Again' }).expect(409);
+    const taken = await app
+      .agent()
+      .post('/api/auth/register')
+      .send({ email, password: PASSWORD, displayName: 'Again' })
+      .expect(409);
     expect(taken.body.error.code).toBe('email_taken');
     const bad = await app.agent().post('/api/auth/register').send({ email: 'not-an-address', password: 'short' }).expect(400);
     expect(bad.body.error.fields).toMatchObject({
@@ -67,7 +74,13 @@ describe('registration and sign-in', () => {
   });
 
   it('refuses a state-changing request without the CSRF header', async () => {
-    const res = await (await import('supertest')).default(app.app).post('/api/auth/login').send({ email: 'a@b.test', password: 'x' }).expect(403);
+    const res = await (
+      await import('supertest')
+    )
+      .default(app.app)
+      .post('/api/auth/login')
+      .send({ email: 'a@b.test', password: 'x' })
+      .expect(403);
     expect(res.body.error.message).toMatch(/X-Requested-With/);
   });
 
@@ -75,7 +88,8 @@ describe('registration and sign-in', () => {
     const { email } = await signedInUser(app);
     const agent = app.agent();
     const statuses: number[] = [];
-    for (let i = 0; i < 7; i++) statuses.push((await agent.post('/api/auth/login').send({ email, password: `nope-${i}-xxxxx` })).status);
+    for (let i = 0; i < 7; i++)
+      statuses.push((await agent.post('/api/auth/login').send({ email, password: `nope-${i}-xxxxx` })).status);
     expect(statuses.slice(0, 5).every((s) => s === 401)).toBe(true);
     expect(statuses.slice(5)).toEqual([429, 429]);
   });
@@ -86,7 +100,10 @@ describe('password reset', () => {
     const { email, agent: oldSession } = await signedInUser(app);
     const anon = app.agent();
     await anon.post('/api/auth/reset-request').send({ email }).expect(202);
-    const unknown = await anon.post('/api/auth/reset-request').send({ email: uniqueEmail('nobody') }).expect(202);
+    const unknown = await anon
+      .post('/api/auth/reset-request')
+      .send({ email: uniqueEmail('nobody') })
+      .expect(202);
     expect(unknown.body.message).toMatch(/If that address has an account/);
 
     const mail = await waitForMail(email, (m) => /Reset your Blockpost password/.test(m.subject));
@@ -119,7 +136,10 @@ describe('password reset', () => {
 describe('profile', () => {
   it('updates the name, units and private mailing address, and refuses unknown fields', async () => {
     const { agent } = await signedInUser(app);
-    const res = await agent.patch('/api/me').send({ displayName: 'Maud Ellery', units: 'mm', mailingAddress: '9 Tansy Court' }).expect(200);
+    const res = await agent
+      .patch('/api/me')
+      .send({ displayName: 'Maud Ellery', units: 'mm', mailingAddress: '9 Tansy Court' })
+      .expect(200);
     expect(res.body.user).toMatchObject({ displayName: 'Maud Ellery', units: 'mm', mailingAddress: '9 Tansy Court' });
     const bad = await agent.patch('/api/me').send({ units: 'cubits', isAdmin: true }).expect(400);
     expect(Object.keys(bad.body.error.fields)).toEqual(expect.arrayContaining(['units']));

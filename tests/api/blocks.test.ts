@@ -34,9 +34,24 @@ describe('a block’s life', () => {
     const late = await roles.member.agent.post(`/api/blocks/${block!.id}/handed-in`).send({ how: 'in-person' }).expect(409);
     expect(late.body.error.code).toBe('already_received');
 
-    const measured = await roles.coordinator.agent.post(`/api/blocks/${block!.id}/measurements`).send({ width: '9 1/2', height: '9½"' }).expect(201);
-    expect(measured.body).toMatchObject({ verdict: 'true', source: 'ruler', deviations: { width: 0, height: 0 }, block: { state: 'measured', verdict: 'true', accepted: true } });
-    expect(events).toEqual(['block.changed', 'block.changed', 'swap.transitioned', 'block.changed', 'block.measured', 'block.changed']);
+    const measured = await roles.coordinator.agent
+      .post(`/api/blocks/${block!.id}/measurements`)
+      .send({ width: '9 1/2', height: '9½"' })
+      .expect(201);
+    expect(measured.body).toMatchObject({
+      verdict: 'true',
+      source: 'ruler',
+      deviations: { width: 0, height: 0 },
+      block: { state: 'measured', verdict: 'true', accepted: true },
+    });
+    expect(events).toEqual([
+      'block.changed',
+      'block.changed',
+      'swap.transitioned',
+      'block.changed',
+      'block.measured',
+      'block.changed',
+    ]);
   });
 
   it('recomputes the verdict on the server and keeps the history', async () => {
@@ -52,9 +67,16 @@ describe('a block’s life', () => {
     const trim = await receiveAndMeasure(roles.coordinator.agent, blocks[2]!.id, { width: '9 7/8', height: 9.5 });
     expect(trim.verdict).toBe('trim');
     // 13.43″ vs 13.75″ diagonals: 0.32″ apart, over the ¼″ limit.
-    const skewed = await receiveAndMeasure(roles.coordinator.agent, blocks[3]!.id, { width: 9.5, height: 9.5, diagonals: ['13.43', '13.75'] });
+    const skewed = await receiveAndMeasure(roles.coordinator.agent, blocks[3]!.id, {
+      width: 9.5,
+      height: 9.5,
+      diagonals: ['13.43', '13.75'],
+    });
     expect(skewed).toMatchObject({ verdict: 'skewed', deviations: { diagonal: -0.32 } });
-    const metric = await roles.coordinator.agent.post(`/api/blocks/${blocks[0]!.id}/measurements`).send({ width: '241.3 mm', height: '24.13 cm' }).expect(201);
+    const metric = await roles.coordinator.agent
+      .post(`/api/blocks/${blocks[0]!.id}/measurements`)
+      .send({ width: '241.3 mm', height: '24.13 cm' })
+      .expect(201);
     // 241.3 mm = 9.5″ exactly (25.4 mm to the inch, NIST SP 811).
     expect(metric.body).toMatchObject({ verdict: 'true', width: 9.5, height: 9.5 });
 
@@ -75,17 +97,29 @@ describe('a block’s life', () => {
     const trimmed = await roles.coordinator.agent.post(`/api/blocks/${a!.id}/trimmed`).expect(200);
     expect(trimmed.body).toMatchObject({ verdict: 'trim', trimmed: true, accepted: true });
     const roster = await roles.coordinator.agent.get(`/api/swaps/${swap.id}/roster`).expect(200);
-    expect(roster.body.rows.find((r: { userId: number }) => r.userId === roles.member.id)).toMatchObject({ accepted: 2, verdicts: { true: 1, trim: 1 } });
+    expect(roster.body.rows.find((r: { userId: number }) => r.userId === roles.member.id)).toMatchObject({
+      accepted: 2,
+      verdicts: { true: 1, trim: 1 },
+    });
   });
 
   it('keeps the maker’s own measurement apart from the ruler', async () => {
     const { swap } = await sewingSwap(app, roles, { pledges: [1, 1] });
     const [block] = await myBlocks(roles.member.agent, swap.id);
-    const own = await roles.member.agent.post(`/api/blocks/${block!.id}/measurements`).send({ width: '9 1/4', height: '9 1/2' }).expect(201);
+    const own = await roles.member.agent
+      .post(`/api/blocks/${block!.id}/measurements`)
+      .send({ width: '9 1/4', height: '9 1/2' })
+      .expect(201);
     expect(own.body).toMatchObject({ source: 'maker', verdict: 'short', block: { state: 'pledged', verdict: null } });
-    const ruler = await roles.member.agent.post(`/api/blocks/${block!.id}/measurements`).send({ width: 9.5, height: 9.5, source: 'ruler' }).expect(403);
+    const ruler = await roles.member.agent
+      .post(`/api/blocks/${block!.id}/measurements`)
+      .send({ width: 9.5, height: 9.5, source: 'ruler' })
+      .expect(403);
     expect(ruler.body.error.message).toMatch(/coordinator or admin/);
-    const notReceived = await roles.coordinator.agent.post(`/api/blocks/${block!.id}/measurements`).send({ width: 9.5, height: 9.5 }).expect(409);
+    const notReceived = await roles.coordinator.agent
+      .post(`/api/blocks/${block!.id}/measurements`)
+      .send({ width: 9.5, height: 9.5 })
+      .expect(409);
     expect(notReceived.body.error.code).toBe('not_received');
     const got = await roles.member.agent.get(`/api/blocks/${block!.id}`).expect(200);
     expect(got.body.latest).toMatchObject({ ruler: null, maker: { verdict: 'short', measuredBy: { id: roles.member.id } } });
@@ -146,7 +180,10 @@ describe('clientId idempotency', () => {
     const history = await roles.coordinator.agent.get(`/api/blocks/${a!.id}/measurements`).expect(200);
     expect(history.body).toHaveLength(1);
 
-    const reused = await roles.coordinator.agent.post(`/api/blocks/${b!.id}/measurements`).send({ width: 9.5, height: 9.5, clientId }).expect(409);
+    const reused = await roles.coordinator.agent
+      .post(`/api/blocks/${b!.id}/measurements`)
+      .send({ width: 9.5, height: 9.5, clientId })
+      .expect(409);
     expect(reused.body.error.code).toBe('client_id_reused');
   });
 
@@ -155,9 +192,15 @@ describe('clientId idempotency', () => {
     const [block] = await myBlocks(roles.member.agent, swap.id);
     const clientId = randomUUID();
     // Not received yet: refused, and nothing kept under that clientId.
-    await roles.coordinator.agent.post(`/api/blocks/${block!.id}/measurements`).send({ width: 9.5, height: 9.5, clientId }).expect(409);
+    await roles.coordinator.agent
+      .post(`/api/blocks/${block!.id}/measurements`)
+      .send({ width: 9.5, height: 9.5, clientId })
+      .expect(409);
     await roles.coordinator.agent.post(`/api/blocks/${block!.id}/received`).send({}).expect(200);
-    const ok = await roles.coordinator.agent.post(`/api/blocks/${block!.id}/measurements`).send({ width: 9.5, height: 9.5, clientId }).expect(201);
+    const ok = await roles.coordinator.agent
+      .post(`/api/blocks/${block!.id}/measurements`)
+      .send({ width: 9.5, height: 9.5, clientId })
+      .expect(201);
     expect(ok.headers['idempotent-replay']).toBeUndefined();
   });
 });

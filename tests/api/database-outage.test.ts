@@ -5,7 +5,13 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import supertest from 'supertest';
 import {
-  clusterUrl, ensureDatabase, ensurePostgresBinaries, initCluster, startCluster, stopCluster, type ClusterOptions,
+  clusterUrl,
+  ensureDatabase,
+  ensurePostgresBinaries,
+  initCluster,
+  startCluster,
+  stopCluster,
+  type ClusterOptions,
 } from '../../scripts/lib/postgres';
 import { freePort } from '../../scripts/lib/ports';
 import { startServer, type RunningServer } from '../../server/index';
@@ -21,7 +27,13 @@ beforeAll(async () => {
   pgBin = ensurePostgresBinaries();
   root = mkdtempSync(join(tmpdir(), 'blockpost-outage-'));
   chmodSync(root, 0o755);
-  cluster = { dataDir: join(root, 'data'), socketDir: join(root, 'run'), logFile: join(root, 'pg.log'), port: await freePort(), fast: true };
+  cluster = {
+    dataDir: join(root, 'data'),
+    socketDir: join(root, 'run'),
+    logFile: join(root, 'pg.log'),
+    port: await freePort(),
+    fast: true,
+  };
   initCluster(pgBin, cluster);
   startCluster(pgBin, cluster);
   await ensureDatabase(cluster.port, 'outage');
@@ -36,7 +48,10 @@ afterAll(async () => {
 
 it('answers 503 with a clear message while the database is down and recovers when it returns', async () => {
   const agent = supertest.agent(server.url).set('X-Requested-With', 'blockpost');
-  await agent.post('/api/auth/register').send({ email: uniqueEmail('outage'), password: PASSWORD, displayName: 'Iris Vantongeren' }).expect(201);
+  await agent
+    .post('/api/auth/register')
+    .send({ email: uniqueEmail('outage'), password: PASSWORD, displayName: 'Iris Vantongeren' })
+    .expect(201);
   await agent.get('/api/me').expect(200);
 
   stopCluster(pgBin, cluster.dataDir);

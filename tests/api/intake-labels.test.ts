@@ -22,7 +22,11 @@ afterAll(() => app.close());
 
 /** Decodes a PNG or SVG image with jsqr from sharp's raw RGBA pixels. */
 async function decode(image: Buffer): Promise<string | null> {
-  const { data, info } = await sharp(image, { density: 300 }).flatten({ background: '#ffffff' }).ensureAlpha().raw().toBuffer({ resolveWithObject: true });
+  const { data, info } = await sharp(image, { density: 300 })
+    .flatten({ background: '#ffffff' })
+    .ensureAlpha()
+    .raw()
+    .toBuffer({ resolveWithObject: true });
   return jsQR(new Uint8ClampedArray(data.buffer, data.byteOffset, data.length), info.width, info.height)?.data ?? null;
 }
 
@@ -32,7 +36,11 @@ const labelsOf = async (agent: Roles['member']['agent'], query = '') =>
 describe('label sheet data', () => {
   it('gives a member one label per pledged block, numbered “n of 4”', async () => {
     const sheet = await labelsOf(roles.member.agent);
-    expect(sheet.swap).toMatchObject({ id: swapId, title: 'Harvest Stripes', guildName: expect.stringMatching(/Lantern Street Quilters/) });
+    expect(sheet.swap).toMatchObject({
+      id: swapId,
+      title: 'Harvest Stripes',
+      guildName: expect.stringMatching(/Lantern Street Quilters/),
+    });
     expect(sheet.labels).toHaveLength(4);
     expect(sheet.labels.map((l) => `${l.ordinal} of ${l.of}`)).toEqual(['1 of 4', '2 of 4', '3 of 4', '4 of 4']);
     expect(new Set(sheet.labels.map((l) => l.makerName))).toEqual(new Set([sheet.labels[0]!.makerName]));
@@ -73,7 +81,10 @@ describe('QR payloads decode back', () => {
     const png = await QRCode.toBuffer(label!.reference, { ...QR_OPTIONS, type: 'png', scale: 4 });
     expect(await decode(png)).toBe(label!.reference);
     // The decoded text resolves to the same block.
-    const res = await roles.coordinator.agent.post('/api/intake/resolve').send({ swapId, reference: await decode(png) }).expect(200);
+    const res = await roles.coordinator.agent
+      .post('/api/intake/resolve')
+      .send({ swapId, reference: await decode(png) })
+      .expect(200);
     expect(res.body.block).toMatchObject({ id: label!.blockId, shortCode: label!.shortCode });
   });
 });

@@ -21,14 +21,25 @@ beforeAll(async () => {
 });
 afterAll(() => app.close());
 
-const resolve = (agent: Roles['coordinator']['agent'], body: Record<string, unknown>) => agent.post('/api/intake/resolve').send(body);
+const resolve = (agent: Roles['coordinator']['agent'], body: Record<string, unknown>) =>
+  agent.post('/api/intake/resolve').send(body);
 
 describe('the intake pack', () => {
   it('lists every block with its target, numbering per maker and codes', () => {
-    expect(pack.swap).toMatchObject({ id: swapId, unfinished: { width: 9.5, height: 9.5 }, tolerance: 0.125, squareness: 0.25, state: 'collecting' });
+    expect(pack.swap).toMatchObject({
+      id: swapId,
+      unfinished: { width: 9.5, height: 9.5 },
+      tolerance: 0.125,
+      squareness: 0.25,
+      state: 'collecting',
+    });
     expect(pack.blocks).toHaveLength(6);
     const member = pack.blocks.filter((b) => b.maker.id === roles.member.id);
-    expect(member.map((b) => [b.ordinal, b.of])).toEqual([[1, 3], [2, 3], [3, 3]]);
+    expect(member.map((b) => [b.ordinal, b.of])).toEqual([
+      [1, 3],
+      [2, 3],
+      [3, 3],
+    ]);
     expect(new Set(pack.blocks.map((b) => b.shortCode)).size).toBe(6);
   });
 
@@ -45,7 +56,10 @@ describe('resolving a label', () => {
   it('finds the block from the scanned reference or the typed short code', async () => {
     const block = pack.blocks[1]!;
     const scanned = await resolve(roles.coordinator.agent, { swapId, reference: block.reference }).expect(200);
-    expect(scanned.body).toMatchObject({ via: 'reference', block: { id: block.id, ordinal: block.ordinal, maker: { id: block.maker.id } } });
+    expect(scanned.body).toMatchObject({
+      via: 'reference',
+      block: { id: block.id, ordinal: block.ordinal, maker: { id: block.maker.id } },
+    });
     expect(scanned.body.block.reference).toBeUndefined();
     const typed = `${block.shortCode.slice(0, 4)}-${block.shortCode.slice(4)}`.toLowerCase();
     const byCode = await resolve(roles.coordinator.agent, { swapId, shortCode: typed }).expect(200);
@@ -105,8 +119,14 @@ describe('received and measured with a clientId, sent twice', () => {
     const found = (await resolve(roles.coordinator.agent, { swapId, shortCode: block.shortCode }).expect(200)).body.block;
 
     const receiveId = randomUUID();
-    const first = await roles.coordinator.agent.post(`/api/blocks/${found.id}/received`).send({ clientId: receiveId }).expect(200);
-    const again = await roles.coordinator.agent.post(`/api/blocks/${found.id}/received`).send({ clientId: receiveId }).expect(200);
+    const first = await roles.coordinator.agent
+      .post(`/api/blocks/${found.id}/received`)
+      .send({ clientId: receiveId })
+      .expect(200);
+    const again = await roles.coordinator.agent
+      .post(`/api/blocks/${found.id}/received`)
+      .send({ clientId: receiveId })
+      .expect(200);
     expect(again.headers['idempotent-replay']).toBe('true');
     expect(again.body).toEqual(first.body);
     expect(first.body.state).toBe('received');

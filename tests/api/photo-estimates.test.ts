@@ -27,7 +27,10 @@ const bodyFor = (s: Scene, over: Record<string, unknown> = {}) => ({
 });
 
 async function uploadScene(agent: Agent, blockId: number, s: Scene): Promise<number> {
-  const res = await agent.post(`/api/blocks/${blockId}/photos`).attach('photos', await scenePhoto(s, 'jpeg'), 'on-the-mat.jpg').expect(201);
+  const res = await agent
+    .post(`/api/blocks/${blockId}/photos`)
+    .attach('photos', await scenePhoto(s, 'jpeg'), 'on-the-mat.jpg')
+    .expect(201);
   expect(res.body.photos[0]).toMatchObject({ width: s.width, height: s.height });
   return res.body.photos[0].id as number;
 }
@@ -61,12 +64,26 @@ describe('saving a photo estimate', () => {
     expect(e).toMatchObject({ blockId: memberBlock, photoId, measuredBy: { id: roles.member.id } });
 
     const event = events.find((x) => x.name === 'block.estimated');
-    expect(event?.payload).toMatchObject({ swapId, guildId: roles.guildId, blockId: memberBlock, makerId: roles.member.id, estimateId: e.id, photoId, verdict: 'short' });
+    expect(event?.payload).toMatchObject({
+      swapId,
+      guildId: roles.guildId,
+      blockId: memberBlock,
+      makerId: roles.member.id,
+      estimateId: e.id,
+      photoId,
+      verdict: 'short',
+    });
 
     const block = await roles.member.agent.get(`/api/blocks/${memberBlock}`).expect(200);
     expect(block.body.verdict).toBeNull();
     expect(block.body.state).toBe('sewn');
-    expect(block.body.photoEstimate).toMatchObject({ id: e.id, verdict: 'short', width: e.width, height: e.height, expectedError: e.expectedError });
+    expect(block.body.photoEstimate).toMatchObject({
+      id: e.id,
+      verdict: 'short',
+      width: e.width,
+      height: e.height,
+      expectedError: e.expectedError,
+    });
 
     const roster = await roles.member.agent.get(`/api/swaps/${swapId}/roster`).expect(200);
     const rows = roster.body.rows as { blocks: { id: number; verdict: string | null; photoEstimate: unknown }[] }[];
@@ -77,7 +94,10 @@ describe('saving a photo estimate', () => {
   });
 
   it('lists the history newest first, with the block, its target and its photos', async () => {
-    const again = await roles.member.agent.post(`/api/blocks/${memberBlock}/photo-estimates`).send(bodyFor(shortScene, { reference: { corners: shortScene.image.reference, size: '304.8 mm' } })).expect(201);
+    const again = await roles.member.agent
+      .post(`/api/blocks/${memberBlock}/photo-estimates`)
+      .send(bodyFor(shortScene, { reference: { corners: shortScene.image.reference, size: '304.8 mm' } }))
+      .expect(201);
     const res = await roles.member.agent.get(`/api/blocks/${memberBlock}/photo-estimates`).expect(200);
     const list = res.body as PhotoEstimatesDto;
     expect(list.estimates[0]!.id).toBe(again.body.id);
@@ -85,7 +105,9 @@ describe('saving a photo estimate', () => {
     expect(list.estimates[0]!.reference.size).toBe(12);
     expect(list.swap).toMatchObject({ id: swapId, unfinished: { width: 9.5, height: 9.5 }, tolerance: 0.125, squareness: 0.25 });
     expect(list.block).toMatchObject({ id: memberBlock, swapId, guildId: roles.guildId, maker: { id: roles.member.id } });
-    expect(list.photos).toEqual([{ id: photoId, url: `/api/photos/${photoId}`, thumbUrl: `/api/photos/${photoId}?size=thumb`, width: 1600, height: 1200 }]);
+    expect(list.photos).toEqual([
+      { id: photoId, url: `/api/photos/${photoId}`, thumbUrl: `/api/photos/${photoId}?size=thumb`, width: 1600, height: 1200 },
+    ]);
     expect(list.canEstimate).toBe(true);
   });
 });
@@ -103,7 +125,10 @@ describe('who may measure from a photo', () => {
     // The member may not measure the coordinator's block either.
     await roles.member.agent.post(`/api/blocks/${coordinatorBlock}/photo-estimates`).send(bodyFor(shortScene)).expect(403);
 
-    const stranger = await roles.stranger.agent.post(`/api/blocks/${memberBlock}/photo-estimates`).send(bodyFor(shortScene)).expect(404);
+    const stranger = await roles.stranger.agent
+      .post(`/api/blocks/${memberBlock}/photo-estimates`)
+      .send(bodyFor(shortScene))
+      .expect(404);
     expect(stranger.body.error.message).toBe('That block does not exist.');
     await roles.stranger.agent.get(`/api/blocks/${memberBlock}/photo-estimates`).expect(404);
     await app.agent().post(`/api/blocks/${memberBlock}/photo-estimates`).send(bodyFor(shortScene)).expect(401);
@@ -130,24 +155,43 @@ describe('corners that cannot be measured', () => {
     expect(after).toBe(before);
   }
 
-  it('fewer than four corners', () => refused(bodyFor(shortScene, { block: { corners: blk.slice(0, 3) } }), 'block.corners', /Mark all four corners of the block \(3 marked\)/));
+  it('fewer than four corners', () =>
+    refused(
+      bodyFor(shortScene, { block: { corners: blk.slice(0, 3) } }),
+      'block.corners',
+      /Mark all four corners of the block \(3 marked\)/,
+    ));
 
   it('corners in a crossing order (a self-intersecting outline)', () =>
     refused(bodyFor(shortScene, { block: { corners: [blk[0], blk[2], blk[1], blk[3]] } }), 'block.corners', /cross over/));
 
   it('three reference corners on one line', () => {
     const mid: [number, number] = [(ref[0][0] + ref[1][0]) / 2, (ref[0][1] + ref[1][1]) / 2];
-    return refused(bodyFor(shortScene, { reference: { corners: [ref[0], mid, ref[1], ref[3]], size: 12 } }), 'reference.corners', /lie on one line/);
+    return refused(
+      bodyFor(shortScene, { reference: { corners: [ref[0], mid, ref[1], ref[3]], size: 12 } }),
+      'reference.corners',
+      /lie on one line/,
+    );
   });
 
-  it('two corners on the same spot', () => refused(bodyFor(shortScene, { block: { corners: [blk[0], blk[0], blk[2], blk[3]] } }), 'block.corners', /same spot/));
+  it('two corners on the same spot', () =>
+    refused(bodyFor(shortScene, { block: { corners: [blk[0], blk[0], blk[2], blk[3]] } }), 'block.corners', /same spot/));
 
   it('a corner off the photo', () => {
     const off = ref.map(([x, y]) => [x + 1200, y]) as Quad;
-    return refused(bodyFor(shortScene, { reference: { corners: off, size: 12 } }), 'reference.corners', /outside the photo \(1600 × 1200 pixels\)/);
+    return refused(
+      bodyFor(shortScene, { reference: { corners: off, size: 12 } }),
+      'reference.corners',
+      /outside the photo \(1600 × 1200 pixels\)/,
+    );
   });
 
-  it('a reference size that is not a length', () => refused(bodyFor(shortScene, { reference: { corners: ref, size: 'a bit' } }), 'reference.size', /“a bit” is not a length we can read/));
+  it('a reference size that is not a length', () =>
+    refused(
+      bodyFor(shortScene, { reference: { corners: ref, size: 'a bit' } }),
+      'reference.size',
+      /“a bit” is not a length we can read/,
+    ));
 
   it('a photo of another block', async () => {
     const other = await uploadScene(roles.coordinator.agent, coordinatorBlock, shortScene);
@@ -160,14 +204,20 @@ describe('after the swap closes, and after the photo goes', () => {
     const { swap } = await sewingSwap(app, roles, { pledges: [1, 1] });
     const block = (await myBlocks(roles.member.agent, swap.id))[0]!.id;
     const photo = await uploadScene(roles.member.agent, block, shortScene);
-    const saved = await roles.member.agent.post(`/api/blocks/${block}/photo-estimates`).send(bodyFor(shortScene, { photoId: photo })).expect(201);
+    const saved = await roles.member.agent
+      .post(`/api/blocks/${block}/photo-estimates`)
+      .send(bodyFor(shortScene, { photoId: photo }))
+      .expect(201);
     await roles.member.agent.delete(`/api/photos/${photo}`).expect(204);
     const list = (await roles.member.agent.get(`/api/blocks/${block}/photo-estimates`).expect(200)).body as PhotoEstimatesDto;
     expect(list.estimates.map((e) => [e.id, e.photoId])).toEqual([[saved.body.id, null]]);
 
     const another = await uploadScene(roles.member.agent, block, shortScene);
     await move(roles.coordinator.agent, swap.id, 'cancelled');
-    const closed = await roles.member.agent.post(`/api/blocks/${block}/photo-estimates`).send(bodyFor(shortScene, { photoId: another })).expect(409);
+    const closed = await roles.member.agent
+      .post(`/api/blocks/${block}/photo-estimates`)
+      .send(bodyFor(shortScene, { photoId: another }))
+      .expect(409);
     expect(closed.body.error.message).toMatch(/cancelled; photo estimates are closed/);
     expect((await roles.member.agent.get(`/api/blocks/${block}/photo-estimates`).expect(200)).body.canEstimate).toBe(false);
   });

@@ -9,7 +9,14 @@ import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles, joinGuild } from '../helpers/factories';
 import { heicReadable } from '../../server/uploads/photo-pipeline';
 import {
-  elfExecutable, heicHeader, htmlPolyglot, oversizedFile, picture, pixelBombPng, svgWithScript, windowsExecutable,
+  elfExecutable,
+  heicHeader,
+  htmlPolyglot,
+  oversizedFile,
+  picture,
+  pixelBombPng,
+  svgWithScript,
+  windowsExecutable,
 } from '../fixtures/photos';
 import { blockState, filesUnder, photoRowCount, swapWithBlock } from '../fixtures/photo-blocks';
 
@@ -32,7 +39,8 @@ type Part = { name: string; bytes: Buffer; field?: string; type?: string };
 
 function upload(parts: Part[]) {
   let req = roles.member.agent.post(`/api/blocks/${blockId}/photos`);
-  for (const p of parts) req = req.attach(p.field ?? 'photos', p.bytes, { filename: p.name, contentType: p.type ?? 'image/jpeg' });
+  for (const p of parts)
+    req = req.attach(p.field ?? 'photos', p.bytes, { filename: p.name, contentType: p.type ?? 'image/jpeg' });
   return req;
 }
 
@@ -50,7 +58,11 @@ async function expectRefused(parts: Part[], status: number, message: RegExp) {
 
 describe('refused uploads leave nothing behind', () => {
   it('a Linux program renamed notes.jpg', async () => {
-    const error = await expectRefused([{ name: 'notes.jpg', bytes: elfExecutable() }], 415, /^“notes\.jpg” is not a photo\. Upload JPEG, PNG/);
+    const error = await expectRefused(
+      [{ name: 'notes.jpg', bytes: elfExecutable() }],
+      415,
+      /^“notes\.jpg” is not a photo\. Upload JPEG, PNG/,
+    );
     expect(error.fields).toEqual({ photos: error.message });
   });
 
@@ -59,16 +71,28 @@ describe('refused uploads leave nothing behind', () => {
   });
 
   it('an SVG carrying a script, even when it claims to be a JPEG', async () => {
-    await expectRefused([{ name: 'pattern.svg', bytes: svgWithScript(), type: 'image/svg+xml' }], 415, /^“pattern\.svg” is a drawing \(SVG\), not a photo/);
+    await expectRefused(
+      [{ name: 'pattern.svg', bytes: svgWithScript(), type: 'image/svg+xml' }],
+      415,
+      /^“pattern\.svg” is a drawing \(SVG\), not a photo/,
+    );
     await expectRefused([{ name: 'pattern.jpg', bytes: svgWithScript() }], 415, /^“pattern\.jpg” is a drawing \(SVG\)/);
   });
 
   it('JPEG magic bytes wrapped around an HTML page', async () => {
-    await expectRefused([{ name: 'invite.jpg', bytes: htmlPolyglot() }], 415, /^“invite\.jpg” starts like a JPEG picture but cannot be read/);
+    await expectRefused(
+      [{ name: 'invite.jpg', bytes: htmlPolyglot() }],
+      415,
+      /^“invite\.jpg” starts like a JPEG picture but cannot be read/,
+    );
   });
 
   it('a picture whose header claims 400 megapixels', async () => {
-    await expectRefused([{ name: 'bomb.png', bytes: pixelBombPng(), type: 'image/png' }], 413, /^“bomb\.png” is 20000 × 20000 pixels/);
+    await expectRefused(
+      [{ name: 'bomb.png', bytes: pixelBombPng(), type: 'image/png' }],
+      413,
+      /^“bomb\.png” is 20000 × 20000 pixels/,
+    );
   });
 
   it('a file over 15 MB', async () => {
@@ -90,7 +114,8 @@ describe('refused uploads leave nothing behind', () => {
       );
       expect(filesUnder(uploadDir)).toEqual([]);
     }
-    for (const dir of [dirname(uploadDir), dirname(dirname(uploadDir)), '/tmp']) expect(existsSync(join(dir, 'escape.jpg'))).toBe(false);
+    for (const dir of [dirname(uploadDir), dirname(dirname(uploadDir)), '/tmp'])
+      expect(existsSync(join(dir, 'escape.jpg'))).toBe(false);
     expect(await photoRowCount(app)).toBe(0);
   });
 
@@ -125,17 +150,27 @@ describe('refused uploads leave nothing behind', () => {
 
   it('HEIC where this server cannot read it, with advice', async () => {
     if (heicReadable()) return; // this build reads HEIC; the header-only file is then merely unreadable
-    await expectRefused([{ name: 'IMG_0042.HEIC', bytes: heicHeader(), type: 'image/heic' }], 415, /^“IMG_0042\.HEIC” is a HEIC photo, which this server cannot read\. Send it as JPEG/);
+    await expectRefused(
+      [{ name: 'IMG_0042.HEIC', bytes: heicHeader(), type: 'image/heic' }],
+      415,
+      /^“IMG_0042\.HEIC” is a HEIC photo, which this server cannot read\. Send it as JPEG/,
+    );
   });
 
   it('refuses strangers, other members and signed-out callers before reading the body', async () => {
     const otherMember = (await joinGuild(app, roles.guildId, 'member')).agent;
     // Someone from another guild gets the 404 of a block that does not exist; another member gets 403.
-    for (const [agent, status] of [[roles.stranger.agent, 404], [otherMember, 403]] as const) {
+    for (const [agent, status] of [
+      [roles.stranger.agent, 404],
+      [otherMember, 403],
+    ] as const) {
       const res = await agent.post(`/api/blocks/${blockId}/photos`).attach('photos', jpeg, 'ok.jpg');
       expect(res.status).toBe(status);
     }
-    const anonymous = await (await import('supertest')).default(app.app)
+    const anonymous = await (
+      await import('supertest')
+    )
+      .default(app.app)
       .post(`/api/blocks/${blockId}/photos`)
       .set('X-Requested-With', 'blockpost')
       .attach('photos', jpeg, 'ok.jpg');

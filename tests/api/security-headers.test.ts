@@ -15,7 +15,10 @@ it('sends helmet’s headers and a strict Content-Security-Policy, and no X-Powe
   expect(res.headers['referrer-policy']).toBe('no-referrer');
   expect(res.headers['cross-origin-opener-policy']).toBe('same-origin');
   const csp = Object.fromEntries(
-    String(res.headers['content-security-policy']).split(';').map((d) => d.trim().split(/\s+/)).map(([k, ...v]) => [k, v.join(' ')]),
+    String(res.headers['content-security-policy'])
+      .split(';')
+      .map((d) => d.trim().split(/\s+/))
+      .map(([k, ...v]) => [k, v.join(' ')]),
   );
   expect(csp).toMatchObject({
     'default-src': "'self'",

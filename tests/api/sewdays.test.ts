@@ -36,7 +36,13 @@ describe('scheduling', () => {
   it('lets admins and coordinators schedule, and refuses members, strangers and the signed-out', async () => {
     await g.admin.agent.post(`/api/guilds/${g.guildId}/sew-days`).send(winterDay).expect(201);
     const made = await schedule();
-    expect(made).toMatchObject({ title: 'Winter piecing day', place: winterDay.place, videoUrl: winterDay.videoUrl, canManage: true, cancelledAt: null });
+    expect(made).toMatchObject({
+      title: 'Winter piecing day',
+      place: winterDay.place,
+      videoUrl: winterDay.videoUrl,
+      canManage: true,
+      cancelledAt: null,
+    });
     expect(made.chatRoomId).toEqual(expect.any(Number));
 
     const member = await g.member.agent.post(`/api/guilds/${g.guildId}/sew-days`).send(winterDay).expect(403);
@@ -61,10 +67,19 @@ describe('scheduling', () => {
       .post(`/api/guilds/${g.guildId}/sew-days`)
       .send({ ...winterDay, endsAt: winterDay.startsAt, place: '', videoUrl: '' })
       .expect(400);
-    expect(res.body.error.fields).toMatchObject({ endsAt: 'The end must come after the start.', place: 'Give a place, a video link, or both.' });
-    const link = await g.coordinator.agent.post(`/api/guilds/${g.guildId}/sew-days`).send({ ...winterDay, videoUrl: 'javascript:alert(1)' }).expect(400);
+    expect(res.body.error.fields).toMatchObject({
+      endsAt: 'The end must come after the start.',
+      place: 'Give a place, a video link, or both.',
+    });
+    const link = await g.coordinator.agent
+      .post(`/api/guilds/${g.guildId}/sew-days`)
+      .send({ ...winterDay, videoUrl: 'javascript:alert(1)' })
+      .expect(400);
     expect(link.body.error.fields.videoUrl).toBe('Give a video link starting with https://');
-    const date = await g.coordinator.agent.post(`/api/guilds/${g.guildId}/sew-days`).send({ ...winterDay, startsAt: 'next tuesday' }).expect(400);
+    const date = await g.coordinator.agent
+      .post(`/api/guilds/${g.guildId}/sew-days`)
+      .send({ ...winterDay, startsAt: 'next tuesday' })
+      .expect(400);
     expect(date.body.error.fields.startsAt).toMatch(/date and time/);
   });
 });
@@ -72,10 +87,21 @@ describe('scheduling', () => {
 describe('editing and cancelling', () => {
   it('lets officers edit some fields, keeps the rest, and refuses members', async () => {
     const made = await schedule();
-    const res = await g.admin.agent.patch(`/api/sew-days/${made.id}`).send({ title: 'Winter piecing day (moved upstairs)', place: 'Room 204' }).expect(200);
-    expect(res.body).toMatchObject({ title: 'Winter piecing day (moved upstairs)', place: 'Room 204', startsAt: made.startsAt, notes: made.notes });
+    const res = await g.admin.agent
+      .patch(`/api/sew-days/${made.id}`)
+      .send({ title: 'Winter piecing day (moved upstairs)', place: 'Room 204' })
+      .expect(200);
+    expect(res.body).toMatchObject({
+      title: 'Winter piecing day (moved upstairs)',
+      place: 'Room 204',
+      startsAt: made.startsAt,
+      notes: made.notes,
+    });
     await g.member.agent.patch(`/api/sew-days/${made.id}`).send({ title: 'Mine now' }).expect(403);
-    const bad = await g.coordinator.agent.patch(`/api/sew-days/${made.id}`).send({ endsAt: `${nextYear}-01-16T09:00` }).expect(400);
+    const bad = await g.coordinator.agent
+      .patch(`/api/sew-days/${made.id}`)
+      .send({ endsAt: `${nextYear}-01-16T09:00` })
+      .expect(400);
     expect(bad.body.error.fields.endsAt).toBe('The end must come after the start.');
     const unknown = await g.coordinator.agent.patch(`/api/sew-days/${made.id}`).send({ guildId: 99 }).expect(400);
     expect(unknown.body.error.message).toMatch(/Only title/);
@@ -86,7 +112,9 @@ describe('editing and cancelling', () => {
     await g.member.agent.post(`/api/sew-days/${made.id}/cancel`).expect(403);
     const res = await g.coordinator.agent.post(`/api/sew-days/${made.id}/cancel`).expect(200);
     expect(res.body.cancelledAt).toEqual(expect.any(String));
-    expect((await g.coordinator.agent.post(`/api/sew-days/${made.id}/cancel`).expect(409)).body.error.code).toBe('sew_day_cancelled');
+    expect((await g.coordinator.agent.post(`/api/sew-days/${made.id}/cancel`).expect(409)).body.error.code).toBe(
+      'sew_day_cancelled',
+    );
     await g.coordinator.agent.patch(`/api/sew-days/${made.id}`).send({ title: 'Back on' }).expect(409);
     await g.member.agent.put(`/api/sew-days/${made.id}/rsvp`).send({ answer: 'going' }).expect(409);
     const list = await g.member.agent.get(`/api/guilds/${g.guildId}/sew-days`).expect(200);
@@ -117,17 +145,31 @@ describe('answers', () => {
 
   it('lists upcoming soonest first and past most recent first, and takes no answers once over', async () => {
     const pastYear = new Date().getUTCFullYear() - 1;
-    const past = await schedule({ ...winterDay, title: 'Last year', startsAt: `${pastYear}-02-01T10:00`, endsAt: `${pastYear}-02-01T12:00` });
-    const later = await schedule({ ...winterDay, title: 'Much later', startsAt: `${nextYear + 1}-02-01T10:00`, endsAt: `${nextYear + 1}-02-01T12:00` });
-    const upcomingList = (await g.member.agent.get(`/api/guilds/${g.guildId}/sew-days?when=upcoming`).expect(200)).body as SewDayListDto;
+    const past = await schedule({
+      ...winterDay,
+      title: 'Last year',
+      startsAt: `${pastYear}-02-01T10:00`,
+      endsAt: `${pastYear}-02-01T12:00`,
+    });
+    const later = await schedule({
+      ...winterDay,
+      title: 'Much later',
+      startsAt: `${nextYear + 1}-02-01T10:00`,
+      endsAt: `${nextYear + 1}-02-01T12:00`,
+    });
+    const upcomingList = (await g.member.agent.get(`/api/guilds/${g.guildId}/sew-days?when=upcoming`).expect(200))
+      .body as SewDayListDto;
     expect(upcomingList).toMatchObject({ timeZone: 'America/Chicago', canManage: false });
     const upcoming = upcomingList.sewDays;
     expect(upcoming.map((d) => d.id)).not.toContain(past.id);
     expect(upcoming.at(-1)?.id).toBe(later.id);
     expect(upcoming.map((d) => d.startsAt)).toEqual([...upcoming.map((d) => d.startsAt)].sort());
-    const before = ((await g.member.agent.get(`/api/guilds/${g.guildId}/sew-days?when=past`).expect(200)).body as SewDayListDto).sewDays;
+    const before = ((await g.member.agent.get(`/api/guilds/${g.guildId}/sew-days?when=past`).expect(200)).body as SewDayListDto)
+      .sewDays;
     expect(before.map((d) => d.id)).toEqual([past.id]);
-    expect((await g.member.agent.put(`/api/sew-days/${past.id}/rsvp`).send({ answer: 'going' }).expect(409)).body.error.code).toBe('sew_day_over');
+    expect(
+      (await g.member.agent.put(`/api/sew-days/${past.id}/rsvp`).send({ answer: 'going' }).expect(409)).body.error.code,
+    ).toBe('sew_day_over');
     await g.member.agent.get(`/api/guilds/${g.guildId}/sew-days?when=someday`).expect(400);
   });
 });

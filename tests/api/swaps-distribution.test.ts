@@ -39,7 +39,12 @@ describe('planning and confirming the return', () => {
     const { swap, makers } = await sewingSwap(app, roles, { pledges: [3, 2, 2, 2] });
     await move(roles.coordinator.agent, swap.id, 'collecting');
     // member: true, true, short · coordinator: true, trim left untrimmed · third: true, true · fourth: trim (then trimmed), true
-    await measureAll(swap.id, makers, [[9.5, 9.5, 9], [9.5, 10], [9.5, 9.5], [10, 9.5]]);
+    await measureAll(swap.id, makers, [
+      [9.5, 9.5, 9],
+      [9.5, 10],
+      [9.5, 9.5],
+      [10, 9.5],
+    ]);
     const fourthBlocks = await myBlocks(makers[3]!.agent, swap.id);
     await roles.coordinator.agent.post(`/api/blocks/${fourthBlocks[0]!.id}/trimmed`).expect(200);
     await move(roles.coordinator.agent, swap.id, 'sorting');
@@ -49,7 +54,12 @@ describe('planning and confirming the return', () => {
     expect(plan.body.leftOut).toEqual({ pending: 0, rejected: 1, untrimmed: 1 });
     expect(plan.body.shortfall).toEqual([]);
     const transfers = plan.body.transfers as (Transfer & { fromName: string; toName: string })[];
-    const accepted = new Map([[makers[0]!.id, 2], [makers[1]!.id, 1], [makers[2]!.id, 2], [makers[3]!.id, 2]]);
+    const accepted = new Map([
+      [makers[0]!.id, 2],
+      [makers[1]!.id, 1],
+      [makers[2]!.id, 2],
+      [makers[3]!.id, 2],
+    ]);
     const { sent, got } = sums(transfers);
     for (const [id, n] of accepted) {
       expect(sent.get(id)).toBe(n);
@@ -65,15 +75,31 @@ describe('planning and confirming the return', () => {
 
     const incoming = await makers[0]!.agent.get(`/api/swaps/${swap.id}/blocks?recipient=me`).expect(200);
     expect(incoming.body).toHaveLength(2);
-    expect(incoming.body.every((b: { maker: { id: number }; state: string }) => b.maker.id !== makers[0]!.id && b.state === 'returned')).toBe(true);
+    expect(
+      incoming.body.every(
+        (b: { maker: { id: number }; state: string }) => b.maker.id !== makers[0]!.id && b.state === 'returned',
+      ),
+    ).toBe(true);
     const roster = await roles.coordinator.agent.get(`/api/swaps/${swap.id}/roster`).expect(200);
-    expect(roster.body.totals).toMatchObject({ pledged: 9, measured: 9, returned: 7, accepted: 7, verdicts: { true: 6, trim: 2, short: 1, skewed: 0 } });
+    expect(roster.body.totals).toMatchObject({
+      pledged: 9,
+      measured: 9,
+      returned: 7,
+      accepted: 7,
+      verdicts: { true: 6, trim: 2, short: 1, skewed: 0 },
+    });
 
-    await roles.coordinator.agent.post(`/api/swaps/${swap.id}/distribution/confirm`).send({ transfers: [{ from: makers[0]!.id, to: makers[1]!.id, count: 1 }] }).expect(409);
+    await roles.coordinator.agent
+      .post(`/api/swaps/${swap.id}/distribution/confirm`)
+      .send({ transfers: [{ from: makers[0]!.id, to: makers[1]!.id, count: 1 }] })
+      .expect(409);
     const csv = await roles.coordinator.agent.get(`/api/swaps/${swap.id}/export/distribution.csv`).expect(200);
     expect(csv.headers['content-type']).toMatch(/text\/csv/);
     expect(csv.headers['content-disposition']).toBe(`attachment; filename="harvest-stripes-swap-${swap.id}-distribution.csv"`);
-    const lines = csv.text.replace(/^\uFEFF/, '').trim().split('\r\n');
+    const lines = csv.text
+      .replace(/^\uFEFF/, '')
+      .trim()
+      .split('\r\n');
     expect(lines[0]).toBe('From (maker),To (recipient),Blocks,Block numbers');
     expect(lines.slice(1).reduce((s, l) => s + Number(l.split(',')[2]), 0)).toBe(7);
 
@@ -87,25 +113,70 @@ describe('planning and confirming the return', () => {
     await move(roles.coordinator.agent, swap.id, 'sorting');
     const [a, b, c] = makers.map((m) => m.id) as [number, number, number];
     const attempts: [Transfer[], RegExp][] = [
-      [[{ from: a, to: b, count: 1 }, { from: b, to: c, count: 1 }], /has 1 accepted block but the transfers send 0/],
-      [[{ from: a, to: a, count: 1 }, { from: b, to: c, count: 1 }, { from: c, to: b, count: 1 }], /cannot receive their own/],
-      [[{ from: a, to: b, count: 1 }, { from: b, to: a, count: 1 }, { from: c, to: b, count: 1 }], /should receive 1 block but the transfers give 2/],
-      [[{ from: a, to: b, count: 2 }, { from: b, to: c, count: 1 }, { from: c, to: a, count: 1 }], /has 1 accepted block but the transfers send 2/],
+      [
+        [
+          { from: a, to: b, count: 1 },
+          { from: b, to: c, count: 1 },
+        ],
+        /has 1 accepted block but the transfers send 0/,
+      ],
+      [
+        [
+          { from: a, to: a, count: 1 },
+          { from: b, to: c, count: 1 },
+          { from: c, to: b, count: 1 },
+        ],
+        /cannot receive their own/,
+      ],
+      [
+        [
+          { from: a, to: b, count: 1 },
+          { from: b, to: a, count: 1 },
+          { from: c, to: b, count: 1 },
+        ],
+        /should receive 1 block but the transfers give 2/,
+      ],
+      [
+        [
+          { from: a, to: b, count: 2 },
+          { from: b, to: c, count: 1 },
+          { from: c, to: a, count: 1 },
+        ],
+        /has 1 accepted block but the transfers send 2/,
+      ],
       [[{ from: roles.admin.id, to: b, count: 1 }], /no accepted blocks to send/],
-      [[{ from: a, to: b, count: 1 }, { from: a, to: b, count: 1 }], /listed twice/],
+      [
+        [
+          { from: a, to: b, count: 1 },
+          { from: a, to: b, count: 1 },
+        ],
+        /listed twice/,
+      ],
     ];
     for (const [transfers, message] of attempts) {
-      const res = await roles.coordinator.agent.post(`/api/swaps/${swap.id}/distribution/confirm`).send({ transfers }).expect(409);
+      const res = await roles.coordinator.agent
+        .post(`/api/swaps/${swap.id}/distribution/confirm`)
+        .send({ transfers })
+        .expect(409);
       expect(res.body.error.message).toMatch(message);
     }
-    const bad = await roles.coordinator.agent.post(`/api/swaps/${swap.id}/distribution/confirm`).send({ transfers: [{ from: a, to: b, count: 0 }] }).expect(400);
+    const bad = await roles.coordinator.agent
+      .post(`/api/swaps/${swap.id}/distribution/confirm`)
+      .send({ transfers: [{ from: a, to: b, count: 0 }] })
+      .expect(400);
     expect(bad.body.error.fields['transfers.0.count']).toMatch(/at least 1/);
     const blocks = await roles.coordinator.agent.get(`/api/swaps/${swap.id}/blocks`).expect(200);
     expect(blocks.body.every((x: { state: string }) => x.state === 'measured')).toBe(true);
     // A valid cycle goes through.
     await roles.coordinator.agent
       .post(`/api/swaps/${swap.id}/distribution/confirm`)
-      .send({ transfers: [{ from: a, to: b, count: 1 }, { from: b, to: c, count: 1 }, { from: c, to: a, count: 1 }] })
+      .send({
+        transfers: [
+          { from: a, to: b, count: 1 },
+          { from: b, to: c, count: 1 },
+          { from: c, to: a, count: 1 },
+        ],
+      })
       .expect(200);
   });
 
@@ -137,7 +208,12 @@ describe('planning and confirming the return', () => {
     );
     const stray = await roles.coordinator.agent
       .post(`/api/swaps/${swap.id}/distribution/confirm`)
-      .send({ transfers: [{ from: makers[0]!.id, to: makers[1]!.id, count: 2 }, { from: makers[1]!.id, to: null, count: 1 }] })
+      .send({
+        transfers: [
+          { from: makers[0]!.id, to: makers[1]!.id, count: 2 },
+          { from: makers[1]!.id, to: null, count: 1 },
+        ],
+      })
       .expect(409);
     expect(stray.body.error.message).toMatch(/gift swap/);
     await roles.coordinator.agent
@@ -145,7 +221,9 @@ describe('planning and confirming the return', () => {
       .send({ transfers: plan.body.transfers.map(({ from, to, count }: Transfer) => ({ from, to, count })) })
       .expect(200);
     const blocks = await roles.coordinator.agent.get(`/api/swaps/${swap.id}/blocks`).expect(200);
-    expect(blocks.body.map((b: { recipient: { displayName: string } }) => b.recipient.displayName)).toEqual(Array(3).fill('Riverside Hospice comfort quilts'));
+    expect(blocks.body.map((b: { recipient: { displayName: string } }) => b.recipient.displayName)).toEqual(
+      Array(3).fill('Riverside Hospice comfort quilts'),
+    );
   });
 });
 

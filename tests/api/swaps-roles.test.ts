@@ -41,32 +41,67 @@ const later = () => new Date(Date.now() + 50 * 86_400_000).toISOString();
 // Rows run in order: the maker's steps come before the coordinator takes the block in.
 const rows = (): Row[] => [
   { name: 'GET guild swaps', call: (a) => a.get(`/api/guilds/${roles.guildId}/swaps`), expect: [200, 200, 200, 404, 401] },
-  { name: 'POST guild swaps', call: (a) => a.post(`/api/guilds/${roles.guildId}/swaps`).send(swapBody()), expect: [201, 201, 403, 404, 401] },
+  {
+    name: 'POST guild swaps',
+    call: (a) => a.post(`/api/guilds/${roles.guildId}/swaps`).send(swapBody()),
+    expect: [201, 201, 403, 404, 401],
+  },
   { name: 'GET swap', call: (a) => a.get(`/api/swaps/${swapId}`), expect: [200, 200, 200, 404, 401] },
-  { name: 'PATCH swap (schedule)', call: (a) => a.patch(`/api/swaps/${swapId}`).send({ dueAt: later() }), expect: [200, 200, 403, 404, 401] },
+  {
+    name: 'PATCH swap (schedule)',
+    call: (a) => a.patch(`/api/swaps/${swapId}`).send({ dueAt: later() }),
+    expect: [200, 200, 403, 404, 401],
+  },
   { name: 'GET transitions', call: (a) => a.get(`/api/swaps/${swapId}/transitions`), expect: [200, 200, 200, 404, 401] },
   // Officers pass the role check and meet the state check (collecting cannot go back to draft).
-  { name: 'POST transitions', call: (a) => a.post(`/api/swaps/${swapId}/transitions`).send({ to: 'draft' }), expect: [409, 409, 403, 404, 401] },
-  { name: 'POST signups', call: (a) => a.post(`/api/swaps/${swapId}/signups`).send({ blocks: 1 }), expect: [409, 409, 409, 404, 401] },
+  {
+    name: 'POST transitions',
+    call: (a) => a.post(`/api/swaps/${swapId}/transitions`).send({ to: 'draft' }),
+    expect: [409, 409, 403, 404, 401],
+  },
+  {
+    name: 'POST signups',
+    call: (a) => a.post(`/api/swaps/${swapId}/signups`).send({ blocks: 1 }),
+    expect: [409, 409, 409, 404, 401],
+  },
   { name: 'DELETE signups/me', call: (a) => a.delete(`/api/swaps/${swapId}/signups/me`), expect: [404, 409, 409, 404, 401] },
   { name: 'GET roster', call: (a) => a.get(`/api/swaps/${swapId}/roster`), expect: [200, 200, 200, 404, 401] },
   { name: 'GET blocks (all)', call: (a) => a.get(`/api/swaps/${swapId}/blocks`), expect: [200, 200, 403, 404, 401] },
   { name: 'GET blocks?maker=me', call: (a) => a.get(`/api/swaps/${swapId}/blocks?maker=me`), expect: [200, 200, 200, 404, 401] },
   { name: 'GET block', call: (a) => a.get(`/api/blocks/${blockId}`), expect: [200, 200, 200, 404, 401] },
   { name: 'POST sewn', call: (a) => a.post(`/api/blocks/${blockId}/sewn`), expect: [403, 403, 200, 404, 401] },
-  { name: 'POST handed-in', call: (a) => a.post(`/api/blocks/${blockId}/handed-in`).send({ how: 'in-person' }), expect: [403, 403, 200, 404, 401] },
+  {
+    name: 'POST handed-in',
+    call: (a) => a.post(`/api/blocks/${blockId}/handed-in`).send({ how: 'in-person' }),
+    expect: [403, 403, 200, 404, 401],
+  },
   { name: 'POST received', call: (a) => a.post(`/api/blocks/${blockId}/received`).send({}), expect: [200, 200, 403, 404, 401] },
-  { name: 'POST measurements', call: (a) => a.post(`/api/blocks/${blockId}/measurements`).send({ width: 9.5, height: 9.5 }), expect: [201, 201, 201, 404, 401] },
+  {
+    name: 'POST measurements',
+    call: (a) => a.post(`/api/blocks/${blockId}/measurements`).send({ width: 9.5, height: 9.5 }),
+    expect: [201, 201, 201, 404, 401],
+  },
   { name: 'GET measurements', call: (a) => a.get(`/api/blocks/${blockId}/measurements`), expect: [200, 200, 200, 404, 401] },
   { name: 'POST trimmed', call: (a) => a.post(`/api/blocks/${trimBlockId}/trimmed`), expect: [200, 200, 403, 404, 401] },
-  { name: 'POST distribution/plan', call: (a) => a.post(`/api/swaps/${swapId}/distribution/plan`), expect: [200, 200, 403, 404, 401] },
+  {
+    name: 'POST distribution/plan',
+    call: (a) => a.post(`/api/swaps/${swapId}/distribution/plan`),
+    expect: [200, 200, 403, 404, 401],
+  },
   {
     name: 'POST distribution/confirm',
-    call: (a) => a.post(`/api/swaps/${swapId}/distribution/confirm`).send({ transfers: [{ from: roles.member.id, to: roles.coordinator.id, count: 1 }] }),
+    call: (a) =>
+      a
+        .post(`/api/swaps/${swapId}/distribution/confirm`)
+        .send({ transfers: [{ from: roles.member.id, to: roles.coordinator.id, count: 1 }] }),
     expect: [409, 409, 403, 404, 401],
   },
   { name: 'GET roster.csv', call: (a) => a.get(`/api/swaps/${swapId}/export/roster.csv`), expect: [200, 200, 403, 404, 401] },
-  { name: 'GET distribution.csv', call: (a) => a.get(`/api/swaps/${swapId}/export/distribution.csv`), expect: [409, 409, 403, 404, 401] },
+  {
+    name: 'GET distribution.csv',
+    call: (a) => a.get(`/api/swaps/${swapId}/export/distribution.csv`),
+    expect: [409, 409, 403, 404, 401],
+  },
 ];
 
 describe('role matrix for every swap and block route', () => {
@@ -77,7 +112,8 @@ describe('role matrix for every swap and block route', () => {
       const got: number[] = [];
       for (const who of WHO) got.push((await row.call(agentOf(who))).status);
       table.push(`${row.name}: ${got.join(' ')}`);
-      if (got.join() !== row.expect.join()) mismatches.push(`${row.name}: expected ${row.expect.join(' ')}, got ${got.join(' ')}`);
+      if (got.join() !== row.expect.join())
+        mismatches.push(`${row.name}: expected ${row.expect.join(' ')}, got ${got.join(' ')}`);
     }
     expect(mismatches, table.join('\n')).toEqual([]);
   });

@@ -17,7 +17,10 @@ export function swapBody(overrides: Record<string, unknown> = {}) {
     block: { kind: 'grid', columns: [3.5, 3.5, 3.5], rows: [3.5, 3.5, 3.5], seam: 0.25 },
     tolerance: '1/8',
     squareness: '1/4',
-    colourRules: [{ role: 'light', note: 'cream to pale gold' }, { role: 'dark', note: 'indigo' }],
+    colourRules: [
+      { role: 'light', note: 'cream to pale gold' },
+      { role: 'dark', note: 'indigo' },
+    ],
     quota: { min: 1, max: 6 },
     signupClosesAt: new Date(Date.now() + 10 * DAY).toISOString(),
     dueAt: new Date(Date.now() + 40 * DAY).toISOString(),

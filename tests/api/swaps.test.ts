@@ -27,20 +27,40 @@ describe('setting up a swap', () => {
       signupReminderDays: 7,
       dueReminderDays: 2,
       canManage: true,
-      colourRules: [{ role: 'light', note: 'cream to pale gold' }, { role: 'dark', note: 'indigo' }],
+      colourRules: [
+        { role: 'light', note: 'cream to pale gold' },
+        { role: 'dark', note: 'indigo' },
+      ],
     });
     const history = await roles.coordinator.agent.get(`/api/swaps/${swap.id}/transitions`).expect(200);
-    expect(history.body).toEqual([expect.objectContaining({ from: null, to: 'draft', by: { id: roles.coordinator.id, displayName: expect.any(String) } })]);
+    expect(history.body).toEqual([
+      expect.objectContaining({ from: null, to: 'draft', by: { id: roles.coordinator.id, displayName: expect.any(String) } }),
+    ]);
   });
 
   it('derives unit and custom block sizes from the engine', async () => {
     const cases: [Record<string, unknown>, { width: number; height: number }][] = [
       // A 3″ finished HST is 3½″ unfinished; a 2 × 4″ goose 2½ × 4½″; custom 6 × 12″ → 6½ × 12½″.
-      [{ kind: 'hst', finished: 3, method: 'trim' }, { width: 3.5, height: 3.5 }],
-      [{ kind: 'qst', finished: '4 1/2' }, { width: 5, height: 5 }],
-      [{ kind: 'flying-geese', finished: { width: 4, height: 2 } }, { width: 4.5, height: 2.5 }],
-      [{ kind: 'square-in-square', finished: '6"' }, { width: 6.5, height: 6.5 }],
-      [{ kind: 'custom', finished: { width: 12, height: 6 }, cutList: 'One 6½″ × 12½″ background rectangle' }, { width: 12.5, height: 6.5 }],
+      [
+        { kind: 'hst', finished: 3, method: 'trim' },
+        { width: 3.5, height: 3.5 },
+      ],
+      [
+        { kind: 'qst', finished: '4 1/2' },
+        { width: 5, height: 5 },
+      ],
+      [
+        { kind: 'flying-geese', finished: { width: 4, height: 2 } },
+        { width: 4.5, height: 2.5 },
+      ],
+      [
+        { kind: 'square-in-square', finished: '6"' },
+        { width: 6.5, height: 6.5 },
+      ],
+      [
+        { kind: 'custom', finished: { width: 12, height: 6 }, cutList: 'One 6½″ × 12½″ background rectangle' },
+        { width: 12.5, height: 6.5 },
+      ],
     ];
     for (const [block, unfinished] of cases) {
       const swap = await createSwap(roles.admin.agent, roles.guildId, { block });
@@ -52,7 +72,15 @@ describe('setting up a swap', () => {
     const before = await roles.coordinator.agent.get(`/api/guilds/${roles.guildId}/swaps`).expect(200);
     const res = await roles.coordinator.agent
       .post(`/api/guilds/${roles.guildId}/swaps`)
-      .send(swapBody({ title: '', tolerance: 'a bit', quota: { min: 4, max: 2 }, block: { kind: 'grid', columns: [0.4], rows: [] }, dueAt: 'soon' }))
+      .send(
+        swapBody({
+          title: '',
+          tolerance: 'a bit',
+          quota: { min: 4, max: 2 },
+          block: { kind: 'grid', columns: [0.4], rows: [] },
+          dueAt: 'soon',
+        }),
+      )
       .expect(400);
     expect(res.body.error.code).toBe('validation');
     expect(res.body.error.fields).toMatchObject({
@@ -88,7 +116,12 @@ describe('setting up a swap', () => {
     const titles = list.body.map((s: { title: string }) => s.title);
     expect(titles).toContain('Open Geese');
     expect(titles).not.toContain('Quiet Draft');
-    expect(list.body.find((s: { id: number }) => s.id === open.id)).toMatchObject({ state: 'signup', signups: 1, pledged: 3, myPledge: 3 });
+    expect(list.body.find((s: { id: number }) => s.id === open.id)).toMatchObject({
+      state: 'signup',
+      signups: 1,
+      pledged: 3,
+      myPledge: 3,
+    });
   });
 });
 
@@ -97,7 +130,10 @@ describe('editing a swap', () => {
     const swap = await createSwap(roles.coordinator.agent, roles.guildId);
     const patched = await roles.coordinator.agent
       .patch(`/api/swaps/${swap.id}`)
-      .send({ block: { kind: 'grid', columns: ['2 1/2', '2 1/2', '2 1/2', '2 1/2'], rows: ['2 1/2', '2 1/2', '2 1/2', '2 1/2'] }, tolerance: '3/16' })
+      .send({
+        block: { kind: 'grid', columns: ['2 1/2', '2 1/2', '2 1/2', '2 1/2'], rows: ['2 1/2', '2 1/2', '2 1/2', '2 1/2'] },
+        tolerance: '3/16',
+      })
       .expect(200);
     // 4 × 2½ − 3 × ½ = 8½″ unfinished.
     expect(patched.body).toMatchObject({ unfinished: { width: 8.5, height: 8.5 }, tolerance: 0.1875 });
@@ -107,7 +143,10 @@ describe('editing a swap', () => {
     const locked = await roles.coordinator.agent.patch(`/api/swaps/${swap.id}`).send({ tolerance: 0.25 }).expect(409);
     expect(locked.body.error).toMatchObject({ code: 'spec_locked', message: expect.stringMatching(/draft or open for sign-up/) });
     const later = new Date(Date.now() + 60 * 86_400_000).toISOString();
-    const moved = await roles.coordinator.agent.patch(`/api/swaps/${swap.id}`).send({ dueAt: later, title: 'Harvest Stripes (extended)' }).expect(200);
+    const moved = await roles.coordinator.agent
+      .patch(`/api/swaps/${swap.id}`)
+      .send({ dueAt: later, title: 'Harvest Stripes (extended)' })
+      .expect(200);
     expect(moved.body).toMatchObject({ dueAt: later, title: 'Harvest Stripes (extended)', tolerance: 0.1875 });
   });
 
@@ -143,18 +182,33 @@ describe('states', () => {
     expect(nothing.body.error.message).toMatch(/nothing to sort/);
     const [block] = await myBlocks(roles.member.agent, swap.id);
     await roles.coordinator.agent.post(`/api/blocks/${block!.id}/received`).send({}).expect(200);
-    const unmeasured = await roles.coordinator.agent.post(`/api/swaps/${swap.id}/transitions`).send({ to: 'sorting' }).expect(409);
+    const unmeasured = await roles.coordinator.agent
+      .post(`/api/swaps/${swap.id}/transitions`)
+      .send({ to: 'sorting' })
+      .expect(409);
     expect(unmeasured.body.error.message).toMatch(/1 received block is not measured yet/);
     await roles.coordinator.agent.post(`/api/blocks/${block!.id}/measurements`).send({ width: 9.5, height: 9.5 }).expect(201);
     await move(roles.coordinator.agent, swap.id, 'sorting');
     const early = await roles.coordinator.agent.post(`/api/swaps/${swap.id}/transitions`).send({ to: 'complete' }).expect(409);
     expect(early.body.error.message).toMatch(/Confirm who receives which blocks/);
-    const cancelled = await roles.coordinator.agent.post(`/api/swaps/${swap.id}/transitions`).send({ to: 'cancelled', reason: 'Too few makers' }).expect(200);
+    const cancelled = await roles.coordinator.agent
+      .post(`/api/swaps/${swap.id}/transitions`)
+      .send({ to: 'cancelled', reason: 'Too few makers' })
+      .expect(200);
     expect(cancelled.body.state).toBe('cancelled');
     await roles.coordinator.agent.post(`/api/swaps/${swap.id}/transitions`).send({ to: 'signup' }).expect(409);
 
     const history = await roles.member.agent.get(`/api/swaps/${swap.id}/transitions`).expect(200);
-    expect(history.body.map((t: { to: string }) => t.to)).toEqual(['draft', 'signup', 'sewing', 'signup', 'sewing', 'collecting', 'sorting', 'cancelled']);
+    expect(history.body.map((t: { to: string }) => t.to)).toEqual([
+      'draft',
+      'signup',
+      'sewing',
+      'signup',
+      'sewing',
+      'collecting',
+      'sorting',
+      'cancelled',
+    ]);
     expect(history.body.at(-1)).toMatchObject({ from: 'sorting', reason: 'Too few makers', by: { id: roles.coordinator.id } });
     expect(history.body[4].by.id).toBe(roles.admin.id);
   });
@@ -186,13 +240,20 @@ describe('sign-up', () => {
 
     const signed = await roles.member.agent.post(`/api/swaps/${swap.id}/signups`).send({ blocks: 3 }).expect(200);
     expect(signed.body).toMatchObject({ blocks: 3, status: 'active', userId: roles.member.id });
-    expect((await myBlocks(roles.member.agent, swap.id)).map((b) => [b.sequence, b.state])).toEqual([[1, 'pledged'], [2, 'pledged'], [3, 'pledged']]);
+    expect((await myBlocks(roles.member.agent, swap.id)).map((b) => [b.sequence, b.state])).toEqual([
+      [1, 'pledged'],
+      [2, 'pledged'],
+      [3, 'pledged'],
+    ]);
 
     const blocks = await myBlocks(roles.member.agent, swap.id);
     await roles.member.agent.post(`/api/blocks/${blocks[2]!.id}/sewn`).expect(200);
     await roles.member.agent.post(`/api/swaps/${swap.id}/signups`).send({ blocks: 2 }).expect(200);
     // The plain pledge goes first; the sewn block #3 stays.
-    expect((await myBlocks(roles.member.agent, swap.id)).map((b) => [b.sequence, b.state])).toEqual([[1, 'pledged'], [3, 'sewn']]);
+    expect((await myBlocks(roles.member.agent, swap.id)).map((b) => [b.sequence, b.state])).toEqual([
+      [1, 'pledged'],
+      [3, 'sewn'],
+    ]);
     await roles.member.agent.post(`/api/swaps/${swap.id}/signups`).send({ blocks: 4 }).expect(200);
     expect((await myBlocks(roles.member.agent, swap.id)).map((b) => b.sequence)).toEqual([1, 3, 4, 5]);
 
@@ -234,7 +295,8 @@ describe('roster', () => {
     const large = await sewingSwap(app, roles, { pledges: [4, 4, 4, 4, 4, 4, 4, 4] });
     await move(roles.coordinator.agent, large.swap.id, 'collecting');
     for (const maker of large.makers.slice(0, 3)) {
-      for (const b of await myBlocks(maker.agent, large.swap.id)) await receiveAndMeasure(roles.coordinator.agent, b.id, { width: 9.5, height: 9.5 });
+      for (const b of await myBlocks(maker.agent, large.swap.id))
+        await receiveAndMeasure(roles.coordinator.agent, b.id, { width: 9.5, height: 9.5 });
     }
     const roster = await roles.coordinator.agent.get(`/api/swaps/${large.swap.id}/roster`).expect(200);
     expect(roster.body.rows).toHaveLength(8);

@@ -22,20 +22,41 @@ const email = uniqueEmail('inject');
 beforeAll(async () => {
   server = await startE2eServer();
   const agent = supertest.agent(server.url).set('X-Requested-With', 'blockpost');
-  await agent.post('/api/auth/register').send({ email, password: PASSWORD, displayName: payload('name') }).expect(201);
-  const guild = await agent.post('/api/guilds').send({ name: payload('guild') }).expect(201);
+  await agent
+    .post('/api/auth/register')
+    .send({ email, password: PASSWORD, displayName: payload('name') })
+    .expect(201);
+  const guild = await agent
+    .post('/api/guilds')
+    .send({ name: payload('guild') })
+    .expect(201);
   const swap = await agent
     .post(`/api/guilds/${guild.body.id}/swaps`)
-    .send(swapBody({ title: payload('swap'), description: payload('description'), colourRules: [{ role: 'light', note: payload('colour') }] }))
+    .send(
+      swapBody({
+        title: payload('swap'),
+        description: payload('description'),
+        colourRules: [{ role: 'light', note: payload('colour') }],
+      }),
+    )
     .expect(201);
   await agent.post(`/api/swaps/${swap.body.id}/transitions`).send({ to: 'signup' }).expect(200);
   await agent.post(`/api/swaps/${swap.body.id}/signups`).send({ blocks: 1 }).expect(200);
   const day = await agent
     .post(`/api/guilds/${guild.body.id}/sew-days`)
-    .send({ title: payload('sewday'), startsAt: '2027-06-01T10:00', endsAt: '2027-06-01T14:00', place: payload('place'), notes: payload('notes') })
+    .send({
+      title: payload('sewday'),
+      startsAt: '2027-06-01T10:00',
+      endsAt: '2027-06-01T14:00',
+      place: payload('place'),
+      notes: payload('notes'),
+    })
     .expect(201);
   const room = await agent.get(`/api/swaps/${swap.body.id}/chat`).expect(200);
-  await agent.post(`/api/chat/rooms/${room.body.id ?? room.body.room?.id}/messages`).send({ body: payload('chat') }).expect(201);
+  await agent
+    .post(`/api/chat/rooms/${room.body.id ?? room.body.room?.id}/messages`)
+    .send({ body: payload('chat') })
+    .expect(201);
   Object.assign(seen, { guild: guild.body.id, swap: swap.body.id, day: day.body.id });
   browser = await launchBrowser();
 }, 60_000);

@@ -39,7 +39,15 @@ async function labelVideo(reference: string): Promise<string> {
     .toBuffer();
   const chroma = Buffer.alloc((W / 2) * (H / 2), 128);
   const file = join(mkdtempSync(join(tmpdir(), 'blockpost-camera-')), 'label.y4m');
-  writeFileSync(file, Buffer.concat([Buffer.from(`YUV4MPEG2 W${W} H${H} F10:1 Ip A1:1 C420jpeg\nFRAME\n`), luma.subarray(0, W * H), chroma, chroma]));
+  writeFileSync(
+    file,
+    Buffer.concat([
+      Buffer.from(`YUV4MPEG2 W${W} H${H} F10:1 Ip A1:1 C420jpeg\nFRAME\n`),
+      luma.subarray(0, W * H),
+      chroma,
+      chroma,
+    ]),
+  );
   return file;
 }
 
@@ -49,7 +57,12 @@ beforeAll(async () => {
   email = uniqueEmail('camera');
   await agent.post('/api/auth/register').send({ email, password: PASSWORD, displayName: 'Perpetua Lindqvist' }).expect(201);
   guildId = (await agent.post('/api/guilds').send({ name: 'Hollow Oak Stitchers' }).expect(201)).body.id;
-  swapId = (await agent.post(`/api/guilds/${guildId}/swaps`).send(swapBody({ title: 'Churn Dash Exchange' })).expect(201)).body.id;
+  swapId = (
+    await agent
+      .post(`/api/guilds/${guildId}/swaps`)
+      .send(swapBody({ title: 'Churn Dash Exchange' }))
+      .expect(201)
+  ).body.id;
   await agent.post(`/api/swaps/${swapId}/transitions`).send({ to: 'signup' }).expect(200);
   await agent.post(`/api/swaps/${swapId}/signups`).send({ blocks: 2 }).expect(200);
   for (const to of ['sewing', 'collecting']) await agent.post(`/api/swaps/${swapId}/transitions`).send({ to }).expect(200);
@@ -60,7 +73,13 @@ beforeAll(async () => {
     headless: true,
     viewport: { width: 390, height: 844 },
     args: [
-      '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
       '--use-fake-ui-for-media-stream',
       '--use-fake-device-for-media-stream',
       `--use-file-for-fake-video-capture=${await labelVideo(label.reference)}`,

@@ -41,7 +41,12 @@ beforeAll(async () => {
     await Membership.create({ guildId, userId: m.id, role: 'member' });
     makers.push(m);
   }
-  swapId = (await coord.agent.post(`/api/guilds/${guildId}/swaps`).send(swapBody({ title: 'Lantern Nine-Patch' })).expect(201)).body.id;
+  swapId = (
+    await coord.agent
+      .post(`/api/guilds/${guildId}/swaps`)
+      .send(swapBody({ title: 'Lantern Nine-Patch' }))
+      .expect(201)
+  ).body.id;
   await coord.agent.post(`/api/swaps/${swapId}/transitions`).send({ to: 'signup' }).expect(200);
   for (const m of makers) await m.agent.post(`/api/swaps/${swapId}/signups`).send({ blocks: 5 }).expect(200);
   for (const to of ['sewing', 'collecting']) await coord.agent.post(`/api/swaps/${swapId}/transitions`).send({ to }).expect(200);
@@ -66,7 +71,10 @@ async function openAs(page: Page, email: string, path: string) {
   // The sign-in page sends a signed-in visitor straight on to `next`.
   await page.goto(`${server.url}/sign-in?next=${encodeURIComponent(path)}`);
   const form = page.getByLabel('E-mail');
-  await Promise.race([form.waitFor().catch(() => undefined), page.waitForURL((url) => url.pathname === path).catch(() => undefined)]);
+  await Promise.race([
+    form.waitFor().catch(() => undefined),
+    page.waitForURL((url) => url.pathname === path).catch(() => undefined),
+  ]);
   if (new URL(page.url()).pathname === path) return;
   await form.fill(email);
   await page.getByLabel('Password').fill(PASSWORD);
@@ -87,7 +95,9 @@ async function takeInAndMeasure(page: Page, shortCode: string, width: string, he
 
 /** The verdicts the server holds for a block, newest first. */
 const storedVerdicts = async (blockId: number): Promise<string[]> =>
-  (await coordinator.agent.get(`/api/blocks/${blockId}/measurements`).expect(200)).body.map((m: { verdict: string }) => m.verdict);
+  (await coordinator.agent.get(`/api/blocks/${blockId}/measurements`).expect(200)).body.map(
+    (m: { verdict: string }) => m.verdict,
+  );
 
 describe('intake', () => {
   it('measures three blocks offline with the keyboard alone, then syncs each exactly once', async () => {
@@ -231,10 +241,11 @@ describe('intake', () => {
     const later = await browser.newPage();
     await later.goto(`${server.url}/guilds`);
     await later.getByRole('heading', { name: 'Your guilds' }).waitFor();
-    await expect
-      .poll(() => storedVerdicts(block.id), { timeout: 20_000 })
-      .toEqual(['true']);
-    expect((await coordinator.agent.get(`/api/blocks/${block.id}`).expect(200)).body).toMatchObject({ state: 'measured', verdict: 'true' });
+    await expect.poll(() => storedVerdicts(block.id), { timeout: 20_000 }).toEqual(['true']);
+    expect((await coordinator.agent.get(`/api/blocks/${block.id}`).expect(200)).body).toMatchObject({
+      state: 'measured',
+      verdict: 'true',
+    });
     await later.close();
   });
 });
@@ -321,7 +332,10 @@ describe('signing out', () => {
         });
         return { api: api.map((r) => new URL(r.url).pathname).sort(), packs };
       });
-    expect(await kept()).toEqual({ api: ['/api/guilds/' + guildId, '/api/session', `/api/swaps/${swapId}/intake`].sort(), packs: 1 });
+    expect(await kept()).toEqual({
+      api: ['/api/guilds/' + guildId, '/api/session', `/api/swaps/${swapId}/intake`].sort(),
+      packs: 1,
+    });
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.waitForURL((url) => url.pathname === '/sign-in');
     await page.getByRole('heading', { name: /sign in/i }).waitFor();

@@ -10,7 +10,8 @@ let server: RunningServer;
 let watcher: BrowserContext;
 let officer: BrowserContext;
 
-const signedInPage = (context: BrowserContext, person: Person): Promise<Page> => pageWithSession(context, person.cookie, server.url);
+const signedInPage = (context: BrowserContext, person: Person): Promise<Page> =>
+  pageWithSession(context, person.cookie, server.url);
 
 beforeAll(async () => {
   server = await startE2eServer();
@@ -40,7 +41,11 @@ it('shows a measurement made in another browser on the board without a reload', 
   await desk.goto(`${server.url}/guilds/${g.guildId}/swaps/${swapId}/board`);
   const status = await desk.evaluate(async (id) => {
     const post = (path: string, body: unknown) =>
-      fetch(`/api/blocks/${id}/${path}`, { method: 'POST', headers: { 'content-type': 'application/json', 'x-requested-with': 'blockpost' }, body: JSON.stringify(body) }).then((r) => r.status);
+      fetch(`/api/blocks/${id}/${path}`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json', 'x-requested-with': 'blockpost' },
+        body: JSON.stringify(body),
+      }).then((r) => r.status);
     return [await post('received', {}), await post('measurements', { width: '9 1/2', height: '9 1/2' })];
   }, blockId);
   expect(status).toEqual([200, 201]);

@@ -25,7 +25,11 @@ async function signedInPage(context: BrowserContext, person: Person): Promise<Pa
 async function uploadPhoto(person: Person, blockId: number): Promise<number> {
   const form = new FormData();
   form.append('photos', new Blob([new Uint8Array(await scenePhoto(photo, 'jpeg'))], { type: 'image/jpeg' }), 'on-the-mat.jpg');
-  const res = await fetch(`${server.url}/api/blocks/${blockId}/photos`, { method: 'POST', headers: { cookie: person.cookie, 'x-requested-with': 'blockpost' }, body: form });
+  const res = await fetch(`${server.url}/api/blocks/${blockId}/photos`, {
+    method: 'POST',
+    headers: { cookie: person.cookie, 'x-requested-with': 'blockpost' },
+    body: form,
+  });
   expect(res.status).toBe(201);
   return ((await res.json()) as { photos: { id: number }[] }).photos[0]!.id;
 }
@@ -56,7 +60,10 @@ it('marks the eight corners on a photo, shows the estimate and verdict, saves it
   // The maker finds the link beside the photo on the swap page.
   const page = await signedInPage(laptop, g.member);
   const cspErrors: string[] = [];
-  page.on('console', (m) => m.type() === 'error' && /Content.Security.Policy|Refused to/i.test(m.text()) && cspErrors.push(m.text()));
+  page.on(
+    'console',
+    (m) => m.type() === 'error' && /Content.Security.Policy|Refused to/i.test(m.text()) && cspErrors.push(m.text()),
+  );
   await page.goto(`${server.url}/guilds/${g.guildId}/swaps/${swapId}`);
   await page.getByRole('link', { name: /Measure from this photo/ }).click();
   await page.getByRole('heading', { name: 'Measure block 1 from its photo' }).waitFor();
@@ -90,7 +97,8 @@ it('marks the eight corners on a photo, shows the estimate and verdict, saves it
 
   // Dragging puts it back, with the magnifier showing while the mouse is down.
   const box = (await page.getByRole('img', { name: /on the cutting mat/ }).boundingBox())!;
-  const shown = (x: number, y: number) => [box.x + (x * box.width) / photo.width, box.y + (y * box.height) / photo.height] as const;
+  const shown = (x: number, y: number) =>
+    [box.x + (x * box.width) / photo.width, box.y + (y * box.height) / photo.height] as const;
   const [fx, fy] = shown(after[1]!, after[2]!);
   const [tx, ty] = shown(...photo.image.block[0]);
   await page.mouse.move(fx, fy);
@@ -112,10 +120,15 @@ it('marks the eight corners on a photo, shows the estimate and verdict, saves it
   await page.getByText('✓ Saved.').waitFor();
   const saved = page.getByRole('list', { name: 'Saved photo estimates, newest first' }).getByRole('listitem');
   await expect.poll(() => saved.count()).toBe(1);
-  expect(await saved.first().textContent()).toMatch(/Photo estimate: likely runs short.*9⅛″ × 9½″.*by Milo Member, against a 12″ reference square on this photo/);
+  expect(await saved.first().textContent()).toMatch(
+    /Photo estimate: likely runs short.*9⅛″ × 9½″.*by Milo Member, against a 12″ reference square on this photo/,
+  );
 
   // The coordinator's open board, on a phone, took the estimate in live, with its own camera mark.
-  await board.getByTitle(/^Block 1: .*photo estimate likely short/).first().waitFor({ timeout: 5000 });
+  await board
+    .getByTitle(/^Block 1: .*photo estimate likely short/)
+    .first()
+    .waitFor({ timeout: 5000 });
   await board.getByText('📷 likely short').first().waitFor();
   expect(await board.evaluate(() => (window as unknown as { stayedOpen?: boolean }).stayedOpen)).toBe(true);
 });
@@ -144,7 +157,10 @@ it('marks by touch on a 360 px phone: tap to place, drag a handle with a finger,
   await touch('touchEnd');
   await page.getByText('Next: tap the reference top-right corner (1 of 8 placed).').waitFor();
   const handle = page.getByRole('button', { name: /^R1: reference top-left, at / });
-  const placed = (await handle.getAttribute('aria-label'))!.match(/at (\d+), (\d+)/)!.slice(1).map(Number);
+  const placed = (await handle.getAttribute('aria-label'))!
+    .match(/at (\d+), (\d+)/)!
+    .slice(1)
+    .map(Number);
   photo.image.reference[0].forEach((v, i) => expect(Math.abs(placed[i]! - v)).toBeLessThanOrEqual(5));
 
   // Drag the mark 40 px right with the finger: it follows, and the magnifier shows meanwhile.
@@ -153,7 +169,10 @@ it('marks by touch on a 360 px phone: tap to place, drag a handle with a finger,
   await page.locator('figure canvas').waitFor();
   await touch('touchEnd');
   await expect.poll(() => page.locator('figure canvas').count()).toBe(0);
-  const moved = (await handle.getAttribute('aria-label'))!.match(/at (\d+), (\d+)/)!.slice(1).map(Number);
+  const moved = (await handle.getAttribute('aria-label'))!
+    .match(/at (\d+), (\d+)/)!
+    .slice(1)
+    .map(Number);
   expect(Math.round(((moved[0]! - placed[0]!) * box.width) / photo.width)).toBe(40);
   await page.getByText('Next: tap the reference top-right corner (1 of 8 placed).').waitFor();
 

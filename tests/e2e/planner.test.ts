@@ -43,7 +43,10 @@ it('works out the 4-3-2-1 strip block and a 6 × 7 quilt of 42 such blocks', asy
 
   // Safety cautions sit beside the cutting plan.
   await page.getByLabel('Row cut heights').fill('4, 3, 2, 1');
-  await page.getByRole('complementary', { name: 'Safety cautions' }).getByText(/Close or cover the rotary cutter blade/).waitFor();
+  await page
+    .getByRole('complementary', { name: 'Safety cautions' })
+    .getByText(/Close or cover the rotary cutter blade/)
+    .waitFor();
 });
 
 it('shows sizes in millimetres when asked', async () => {

@@ -10,7 +10,8 @@ let server: RunningServer;
 let memberBrowser: BrowserContext;
 let adminBrowser: BrowserContext;
 
-const signedInPage = (context: BrowserContext, person: Person): Promise<Page> => pageWithSession(context, person.cookie, server.url);
+const signedInPage = (context: BrowserContext, person: Person): Promise<Page> =>
+  pageWithSession(context, person.cookie, server.url);
 
 beforeAll(async () => {
   server = await startE2eServer();
@@ -26,9 +27,14 @@ afterAll(async () => {
 it('answers, chats live, shows markup as text, and lets the admin remove a message', async () => {
   const g = await liveGuild(server.url);
   const year = new Date().getUTCFullYear() + 1;
-  const sewDay = (await g.coordinator.api<SewDayDetailDto>('POST', `/guilds/${g.guildId}/sew-days`, {
-    title: 'Spring binding bee', startsAt: `${year}-03-13T10:00`, endsAt: `${year}-03-13T15:30`, place: 'Library community room',
-  })).body;
+  const sewDay = (
+    await g.coordinator.api<SewDayDetailDto>('POST', `/guilds/${g.guildId}/sew-days`, {
+      title: 'Spring binding bee',
+      startsAt: `${year}-03-13T10:00`,
+      endsAt: `${year}-03-13T15:30`,
+      place: 'Library community room',
+    })
+  ).body;
   const url = `${server.url}/guilds/${g.guildId}/sew-days/${sewDay.id}`;
 
   const member = await signedInPage(memberBrowser, g.member);

@@ -18,7 +18,12 @@ export async function seriousViolations(page: Page): Promise<AxeViolation[]> {
   const violations = await page.evaluate(async () => {
     const axe = (window as unknown as { axe: { run(ctx: Document, opts: object): Promise<{ violations: AxeViolation[] }> } }).axe;
     const result = await axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] } });
-    return result.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.map((n) => ({ target: n.target, failureSummary: n.failureSummary })) }));
+    return result.violations.map((v) => ({
+      id: v.id,
+      impact: v.impact,
+      help: v.help,
+      nodes: v.nodes.map((n) => ({ target: n.target, failureSummary: n.failureSummary })),
+    }));
   });
   return violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
 }

@@ -12,7 +12,15 @@ export async function launchBrowser(opts: { viewport?: { width: number; height: 
     executablePath: CHROMIUM,
     headless: true,
     viewport: opts.viewport ?? { width: 1280, height: 900 },
-    args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
   });
 }
 

@@ -22,7 +22,10 @@ export async function signedInUser(app: TestApp, opts: { email?: string; display
 /** A guild with one account per role, plus a stranger who belongs to another guild. */
 export async function guildWithRoles(app: TestApp) {
   const admin = await signedInUser(app, { displayName: 'Ada Admin' });
-  const guild = await admin.agent.post('/api/guilds').send({ name: `Lantern Street Quilters ${randomBytes(2).toString('hex')}` }).expect(201);
+  const guild = await admin.agent
+    .post('/api/guilds')
+    .send({ name: `Lantern Street Quilters ${randomBytes(2).toString('hex')}` })
+    .expect(201);
   const guildId = guild.body.id as number;
   const coordinator = await joinGuild(app, guildId, 'coordinator');
   const member = await joinGuild(app, guildId, 'member');

@@ -3,7 +3,16 @@ import type { BoardChange, BoardJoined } from '../../shared/live-events';
 import type { RosterDto } from '../../shared/swap-types';
 import type { RunningServer } from '../../server/index';
 import {
-  collect, connect, connected, liveGuild, nextEvent, pause, request, startNode, type ClientSocket, type Person,
+  collect,
+  connect,
+  connected,
+  liveGuild,
+  nextEvent,
+  pause,
+  request,
+  startNode,
+  type ClientSocket,
+  type Person,
 } from './live-helpers';
 import { collectingSwap, receiveAndMeasure, swapBody } from './swap-setup';
 
@@ -55,7 +64,12 @@ describe('live swap board', () => {
       expect(change.patch?.rows[0]?.blocks.find((b) => b.id === blockId)?.state).toBe('received');
       expect(change.patch?.totals).toMatchObject({ pledged: 4, received: 1 });
       expect(change.activities).toEqual([
-        expect.objectContaining({ kind: 'block.changed', actor: { userId: g.coordinator.id, displayName: 'Cora Coordinator' }, subject: { userId: g.member.id, displayName: 'Milo Member' }, detail: expect.objectContaining({ to: 'received', sequence: 1 }) }),
+        expect.objectContaining({
+          kind: 'block.changed',
+          actor: { userId: g.coordinator.id, displayName: 'Cora Coordinator' },
+          subject: { userId: g.member.id, displayName: 'Milo Member' },
+          detail: expect.objectContaining({ to: 'received', sequence: 1 }),
+        }),
       ]);
     }
     // The roster the REST API gives agrees with the patch.
@@ -85,7 +99,10 @@ describe('live swap board', () => {
     const res = await g.coordinator.api('PATCH', `/swaps/${swapId}`, { title: 'Harvest Stripes, spring round' });
     expect(res.status).toBe(200);
     const change = await arriving;
-    expect(change.patch).toMatchObject({ complete: true, swap: { id: swapId, state: 'collecting', title: 'Harvest Stripes, spring round' } });
+    expect(change.patch).toMatchObject({
+      complete: true,
+      swap: { id: swapId, state: 'collecting', title: 'Harvest Stripes, spring round' },
+    });
     expect(change.patch!.rows.map((r) => r.userId).sort()).toEqual([g.member.id, g.coordinator.id].sort());
   });
 
@@ -131,7 +148,11 @@ describe('live swap board', () => {
     const first = await viewer(g.admin);
     await joinBoard(first);
     const second = await viewer(g.member);
-    const withBoth = nextEvent(first, 'presence:changed', (p) => p.room.kind === 'board' && p.viewers.some((v) => v.userId === g.member.id));
+    const withBoth = nextEvent(
+      first,
+      'presence:changed',
+      (p) => p.room.kind === 'board' && p.viewers.some((v) => v.userId === g.member.id),
+    );
     const joined = await joinBoard(second);
     expect(joined.viewers.map((v) => v.userId)).toEqual(expect.arrayContaining([g.admin.id, g.member.id]));
     expect((await withBoth).room).toEqual({ kind: 'board', swapId });

@@ -4,7 +4,19 @@ import type { ChatJoined } from '../../shared/live-events';
 import type { ChatMessageDto, ChatPageDto, ChatRoomDto } from '../../shared/schemas/chat';
 import type { SewDayDetailDto } from '../../shared/schemas/sewdays';
 import type { RunningServer } from '../../server/index';
-import { collect, connect, connected, liveGuild, nextEvent, pause, register, request, startNode, type ClientSocket, type Person } from './live-helpers';
+import {
+  collect,
+  connect,
+  connected,
+  liveGuild,
+  nextEvent,
+  pause,
+  register,
+  request,
+  startNode,
+  type ClientSocket,
+  type Person,
+} from './live-helpers';
 import { collectingSwap } from './swap-setup';
 
 let node: RunningServer;
@@ -23,7 +35,10 @@ async function inRoom(person: Person, id = roomId) {
 async function newRoom() {
   const year = new Date().getUTCFullYear() + 1;
   const res = await g.coordinator.api<SewDayDetailDto>('POST', `/guilds/${g.guildId}/sew-days`, {
-    title: 'Binding bee', startsAt: `${year}-05-02T10:00`, endsAt: `${year}-05-02T14:00`, place: 'Fellowship hall',
+    title: 'Binding bee',
+    startsAt: `${year}-05-02T10:00`,
+    endsAt: `${year}-05-02T14:00`,
+    place: 'Fellowship hall',
   });
   expect(res.status).toBe(201);
   return res.body.chatRoomId!;
@@ -44,8 +59,18 @@ describe('chat messages', () => {
     const admin = await inRoom(g.admin);
     const member = await inRoom(g.member);
     const arriving = nextEvent(admin, 'message:created');
-    const answer = await request<ChatMessageDto>(member, 'message:send', { roomId, body: '  Anyone bringing a spare ¼″ foot?  ' });
-    expect(answer).toMatchObject({ data: { roomId, body: 'Anyone bringing a spare ¼″ foot?', author: { id: g.member.id, displayName: 'Milo Member' }, removed: null } });
+    const answer = await request<ChatMessageDto>(member, 'message:send', {
+      roomId,
+      body: '  Anyone bringing a spare ¼″ foot?  ',
+    });
+    expect(answer).toMatchObject({
+      data: {
+        roomId,
+        body: 'Anyone bringing a spare ¼″ foot?',
+        author: { id: g.member.id, displayName: 'Milo Member' },
+        removed: null,
+      },
+    });
     expect(await arriving).toEqual('data' in answer ? answer.data : null);
   });
 
@@ -53,10 +78,14 @@ describe('chat messages', () => {
     const socket = await inRoom(g.member);
     const markup = '<img src=x onerror="alert(1)"> <b>bold</b>';
     expect(await request(socket, 'message:send', { roomId, body: markup })).toMatchObject({ data: { body: markup } });
-    expect(await request(socket, 'message:send', { roomId, body: '   ' })).toMatchObject({ error: { code: 'validation', fields: { body: 'Write a message first.' } } });
+    expect(await request(socket, 'message:send', { roomId, body: '   ' })).toMatchObject({
+      error: { code: 'validation', fields: { body: 'Write a message first.' } },
+    });
     const long = await request(socket, 'message:send', { roomId, body: 'x'.repeat(2001) });
     expect(long).toMatchObject({ error: { code: 'validation', fields: { body: 'Keep a message under 2,000 characters.' } } });
-    expect(await request(socket, 'message:send', { roomId: String(roomId), body: 'hi' })).toMatchObject({ error: { code: 'validation' } });
+    expect(await request(socket, 'message:send', { roomId: String(roomId), body: 'hi' })).toMatchObject({
+      error: { code: 'validation' },
+    });
     const rest = await g.member.api('POST', `/chat/rooms/${roomId}/messages`, { body: 'y'.repeat(2001) });
     expect(rest.status).toBe(400);
   });
@@ -65,10 +94,14 @@ describe('chat messages', () => {
     const chatty = await (await import('./live-helpers')).addMember(node.url, g.guildId, 'member', 'Chatty Cathy');
     const socket = await inRoom(chatty);
     for (let i = 1; i <= 10; i += 1) {
-      expect(await request(socket, 'message:send', { roomId, body: `Seam ${i} pressed` })).toMatchObject({ data: { body: `Seam ${i} pressed` } });
+      expect(await request(socket, 'message:send', { roomId, body: `Seam ${i} pressed` })).toMatchObject({
+        data: { body: `Seam ${i} pressed` },
+      });
     }
     const refused = await request(socket, 'message:send', { roomId, body: 'one more' });
-    expect(refused).toMatchObject({ error: { code: 'rate_limited', message: expect.stringMatching(/faster than the room allows.*Wait \d+ seconds?/) } });
+    expect(refused).toMatchObject({
+      error: { code: 'rate_limited', message: expect.stringMatching(/faster than the room allows.*Wait \d+ seconds?/) },
+    });
     const rest = await chatty.api<{ error: { code: string } }>('POST', `/chat/rooms/${roomId}/messages`, { body: 'and another' });
     expect(rest.status).toBe(429);
     expect(rest.body.error.code).toBe('rate_limited');
@@ -79,9 +112,13 @@ describe('chat messages', () => {
 
   it('lets the author edit, and nobody else', async () => {
     const admin = await inRoom(g.admin);
-    const sent = (await g.member.api<ChatMessageDto>('POST', `/chat/rooms/${roomId}/messages`, { body: 'I have a spare rotary blade' })).body;
+    const sent = (
+      await g.member.api<ChatMessageDto>('POST', `/chat/rooms/${roomId}/messages`, { body: 'I have a spare rotary blade' })
+    ).body;
     const updated = nextEvent(admin, 'message:updated', (m) => m.id === sent.id);
-    const edit = await g.member.api<ChatMessageDto>('PATCH', `/chat/messages/${sent.id}`, { body: 'I have two spare rotary blades' });
+    const edit = await g.member.api<ChatMessageDto>('PATCH', `/chat/messages/${sent.id}`, {
+      body: 'I have two spare rotary blades',
+    });
     expect(edit.status).toBe(200);
     expect(edit.body).toMatchObject({ body: 'I have two spare rotary blades', editedAt: expect.any(String) });
     expect((await updated).body).toBe('I have two spare rotary blades');
@@ -90,9 +127,13 @@ describe('chat messages', () => {
 
   it('lets an admin remove any message, a member only their own', async () => {
     const watcher = await inRoom(g.coordinator);
-    const mine = (await g.member.api<ChatMessageDto>('POST', `/chat/rooms/${roomId}/messages`, { body: 'Oops, wrong room' })).body;
-    const theirs = (await g.coordinator.api<ChatMessageDto>('POST', `/chat/rooms/${roomId}/messages`, { body: 'Parking is behind the hall' })).body;
-    const rude = (await g.member.api<ChatMessageDto>('POST', `/chat/rooms/${roomId}/messages`, { body: 'Something unkind' })).body;
+    const mine = (await g.member.api<ChatMessageDto>('POST', `/chat/rooms/${roomId}/messages`, { body: 'Oops, wrong room' }))
+      .body;
+    const theirs = (
+      await g.coordinator.api<ChatMessageDto>('POST', `/chat/rooms/${roomId}/messages`, { body: 'Parking is behind the hall' })
+    ).body;
+    const rude = (await g.member.api<ChatMessageDto>('POST', `/chat/rooms/${roomId}/messages`, { body: 'Something unkind' }))
+      .body;
 
     const refused = await g.member.api<{ error: { code: string } }>('DELETE', `/chat/messages/${theirs.id}`);
     expect(refused.status).toBe(403);
@@ -112,17 +153,29 @@ describe('chat messages', () => {
   });
 
   it('attaches photos through the upload pipeline and takes them away with the message', async () => {
-    const jpeg = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#5f7a5a' } }).jpeg().toBuffer();
+    const jpeg = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#5f7a5a' } })
+      .jpeg()
+      .toBuffer();
     const form = new FormData();
     form.append('body', 'Finished the flying geese');
     form.append('photos', new Blob([jpeg], { type: 'image/jpeg' }), 'geese.jpg');
     const res = await fetch(`${node.url}/api/chat/rooms/${roomId}/messages`, {
-      method: 'POST', headers: { cookie: g.member.cookie, 'x-requested-with': 'blockpost' }, body: form,
+      method: 'POST',
+      headers: { cookie: g.member.cookie, 'x-requested-with': 'blockpost' },
+      body: form,
     });
     const message = (await res.json()) as ChatMessageDto;
     expect(res.status, JSON.stringify(message)).toBe(201);
     expect(message.body).toBe('Finished the flying geese');
-    expect(message.photos).toEqual([{ id: expect.any(Number), url: expect.stringMatching(/^\/api\/photos\/\d+$/), thumbnailUrl: expect.any(String), width: 64, height: 48 }]);
+    expect(message.photos).toEqual([
+      {
+        id: expect.any(Number),
+        url: expect.stringMatching(/^\/api\/photos\/\d+$/),
+        thumbnailUrl: expect.any(String),
+        width: 64,
+        height: 48,
+      },
+    ]);
     const photo = await fetch(`${node.url}${message.photos[0]!.url}`, { headers: { cookie: g.admin.cookie } });
     expect(photo.status).toBe(200);
 
@@ -137,13 +190,18 @@ describe('chat history', () => {
     const id = await newRoom();
     const { ChatMessage } = await import('../../server/db/models');
     const authors = [g.admin.id, g.member.id, g.coordinator.id];
-    await ChatMessage.bulkCreate(Array.from({ length: 67 }, (_, i) => ({ roomId: id, authorId: authors[i % 3]!, body: `Line ${i + 1}`, deletedById: null })));
+    await ChatMessage.bulkCreate(
+      Array.from({ length: 67 }, (_, i) => ({ roomId: id, authorId: authors[i % 3]!, body: `Line ${i + 1}`, deletedById: null })),
+    );
 
     const bodies: string[] = [];
     let cursor: number | null | undefined;
     let pages = 0;
     do {
-      const res = await g.member.api<ChatPageDto>('GET', `/chat/rooms/${id}/messages?limit=30${cursor ? `&before=${cursor}` : ''}`);
+      const res = await g.member.api<ChatPageDto>(
+        'GET',
+        `/chat/rooms/${id}/messages?limit=30${cursor ? `&before=${cursor}` : ''}`,
+      );
       expect(res.status).toBe(200);
       bodies.push(...res.body.messages.map((m) => m.body));
       cursor = res.body.nextCursor;
@@ -160,7 +218,9 @@ describe('rooms, typing and presence', () => {
   it('refuses people from other guilds and rooms that do not exist', async () => {
     const socket = await connected(connect(node.url, g.stranger));
     sockets.push(socket);
-    expect(await request(socket, 'chat:join', { roomId })).toEqual({ error: { code: 'not_found', message: 'That chat room does not exist.' } });
+    expect(await request(socket, 'chat:join', { roomId })).toEqual({
+      error: { code: 'not_found', message: 'That chat room does not exist.' },
+    });
     expect(await request(socket, 'chat:join', { roomId: 987654 })).toMatchObject({ error: { code: 'not_found' } });
     expect(await request(socket, 'message:send', { roomId, body: 'let me in' })).toMatchObject({ error: { code: 'not_found' } });
     const outsider = await register(node.url);
@@ -169,7 +229,11 @@ describe('rooms, typing and presence', () => {
 
   it('shows who is typing to the others only, and who is here', async () => {
     const admin = await inRoom(g.admin);
-    const adminSeen = nextEvent(admin, 'presence:changed', (p) => p.room.kind === 'chat' && p.viewers.some((v) => v.userId === g.member.id));
+    const adminSeen = nextEvent(
+      admin,
+      'presence:changed',
+      (p) => p.room.kind === 'chat' && p.viewers.some((v) => v.userId === g.member.id),
+    );
     const member = await inRoom(g.member);
     expect((await adminSeen).room).toEqual({ kind: 'chat', roomId });
     const ownTyping = collect(member, 'typing:started');

@@ -36,7 +36,9 @@ describe('socket authentication', () => {
     const person = await register(node.url);
     const { io } = await import('socket.io-client');
     const socket = io(node.url, {
-      transports: ['websocket'], reconnection: false, forceNew: true,
+      transports: ['websocket'],
+      reconnection: false,
+      forceNew: true,
       extraHeaders: { cookie: person.cookie, origin: 'https://evil.example' },
     }) as ClientSocket;
     sockets.push(socket);
@@ -51,7 +53,12 @@ describe('socket authentication', () => {
     expect(ws.connected).toBe(true);
 
     const { io } = await import('socket.io-client');
-    const polling = io(node.url, { transports: ['polling'], reconnection: false, forceNew: true, extraHeaders: { cookie: person.cookie } }) as ClientSocket;
+    const polling = io(node.url, {
+      transports: ['polling'],
+      reconnection: false,
+      forceNew: true,
+      extraHeaders: { cookie: person.cookie },
+    }) as ClientSocket;
     sockets.push(polling);
     await connected(polling);
     expect(polling.connected).toBe(true);
@@ -61,13 +68,20 @@ describe('socket authentication', () => {
     const person = await register(node.url, 'Olive Officer');
     const guild = (await person.api<{ id: number }>('POST', '/guilds', { name: 'Signed-out Circle' })).body;
     const year = new Date().getUTCFullYear() + 1;
-    const sewDay = (await person.api<SewDayDetailDto>('POST', `/guilds/${guild.id}/sew-days`, {
-      title: 'Cutting morning', startsAt: `${year}-02-06T09:00`, endsAt: `${year}-02-06T12:00`, place: 'Annex',
-    })).body;
+    const sewDay = (
+      await person.api<SewDayDetailDto>('POST', `/guilds/${guild.id}/sew-days`, {
+        title: 'Cutting morning',
+        startsAt: `${year}-02-06T09:00`,
+        endsAt: `${year}-02-06T12:00`,
+        place: 'Annex',
+      })
+    ).body;
     const socket = connect(node.url, person);
     sockets.push(socket);
     await connected(socket);
-    expect(await request(socket, 'chat:join', { roomId: sewDay.chatRoomId })).toMatchObject({ data: { viewers: expect.any(Array) } });
+    expect(await request(socket, 'chat:join', { roomId: sewDay.chatRoomId })).toMatchObject({
+      data: { viewers: expect.any(Array) },
+    });
 
     // Signing out closes the socket at once (tests/live/session-end.test.ts has the cases across nodes).
     const closed = new Promise<string>((resolve) => socket.once('disconnect', resolve));

@@ -48,7 +48,10 @@ export async function register(baseUrl: string, displayName = `Maker ${randomByt
     body: JSON.stringify({ email, password: 'correct-horse-staple', displayName }),
   });
   if (res.status !== 201) throw new Error(`register answered ${res.status}: ${await res.text()}`);
-  const cookie = res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  const cookie = res.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
   const body = (await res.json()) as { user: { id: number } };
   return { id: body.user.id, email, displayName, cookie, api: caller(baseUrl, cookie) };
 }
@@ -61,7 +64,9 @@ export function onNode(person: Person, baseUrl: string): Person {
 /** A guild created by its admin, with a coordinator, a member, and a stranger from another guild. */
 export async function liveGuild(baseUrl: string) {
   const admin = await register(baseUrl, 'Ada Admin');
-  const guild = await admin.api<{ id: number }>('POST', '/guilds', { name: `Lantern Street Quilters ${randomBytes(2).toString('hex')}` });
+  const guild = await admin.api<{ id: number }>('POST', '/guilds', {
+    name: `Lantern Street Quilters ${randomBytes(2).toString('hex')}`,
+  });
   const guildId = guild.body.id;
   const coordinator = await addMember(baseUrl, guildId, 'coordinator', 'Cora Coordinator');
   const member = await addMember(baseUrl, guildId, 'member', 'Milo Member');

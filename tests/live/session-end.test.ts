@@ -23,7 +23,10 @@ beforeAll(async () => {
   g = await liveGuild(nodeA.url);
   const year = new Date().getUTCFullYear() + 1;
   const day = await g.admin.api<SewDayDetailDto>('POST', `/guilds/${g.guildId}/sew-days`, {
-    title: 'Binding bee', startsAt: `${year}-04-11T10:00`, endsAt: `${year}-04-11T13:00`, place: 'Guild hall',
+    title: 'Binding bee',
+    startsAt: `${year}-04-11T10:00`,
+    endsAt: `${year}-04-11T13:00`,
+    place: 'Guild hall',
   });
   roomId = day.body.chatRoomId!;
   await pause(300); // the adapters start listening shortly after start
@@ -42,7 +45,10 @@ async function signIn(node: RunningServer, person: Person, password = 'correct-h
     body: JSON.stringify({ email: person.email, password }),
   });
   expect(res.status).toBe(200);
-  const cookie = res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  const cookie = res.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
   return onNode({ ...person, cookie }, node.url);
 }
 
@@ -117,7 +123,10 @@ describe('sockets of an ended session', () => {
     const here = await inRoom(nodeA, admin);
     const elsewhere = await inRoom(nodeB, await signIn(nodeB, g.admin));
     const closing = closedWithin(elsewhere, 1000);
-    const res = await admin.api('POST', '/me/password', { currentPassword: 'correct-horse-staple', newPassword: 'copper-meadow-lantern' });
+    const res = await admin.api('POST', '/me/password', {
+      currentPassword: 'correct-horse-staple',
+      newPassword: 'copper-meadow-lantern',
+    });
     expect(res.status).toBe(200);
     await closing;
     await pause(200);

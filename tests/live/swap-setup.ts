@@ -35,7 +35,10 @@ export async function collectingSwap(coordinator: Person, guildId: number, maker
   const blockIds = new Map<number, number[]>();
   for (const maker of makers) {
     const mine = await ok<{ id: number }[]>(maker.api('GET', `/swaps/${swap.id}/blocks?maker=me`));
-    blockIds.set(maker.id, mine.map((b) => b.id));
+    blockIds.set(
+      maker.id,
+      mine.map((b) => b.id),
+    );
   }
   return { swapId: swap.id, blockIds };
 }

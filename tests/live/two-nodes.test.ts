@@ -4,7 +4,18 @@ import type { ChatMessageDto } from '../../shared/schemas/chat';
 import type { SewDayDetailDto } from '../../shared/schemas/sewdays';
 import type { RunningServer } from '../../server/index';
 import { createTestDatabase } from '../helpers/test-app';
-import { connect, connected, liveGuild, nextEvent, onNode, pause, request, startNode, type ClientSocket, type Person } from './live-helpers';
+import {
+  connect,
+  connected,
+  liveGuild,
+  nextEvent,
+  onNode,
+  pause,
+  request,
+  startNode,
+  type ClientSocket,
+  type Person,
+} from './live-helpers';
 import { collectingSwap } from './swap-setup';
 
 // Two app processes' worth of servers on one database: sessions and rooms are shared through PostgreSQL.
@@ -69,9 +80,14 @@ describe('two app nodes behind one database', () => {
 
   it('carries a chat message sent on node A to a reader on node B, and shows presence across both', async () => {
     const year = new Date().getUTCFullYear() + 1;
-    const sewDay = (await g.coordinator.api<SewDayDetailDto>('POST', `/guilds/${g.guildId}/sew-days`, {
-      title: 'Hand-quilting evening', startsAt: `${year}-09-12T18:00`, endsAt: `${year}-09-12T21:00`, videoUrl: 'https://video.example.org/evening',
-    })).body;
+    const sewDay = (
+      await g.coordinator.api<SewDayDetailDto>('POST', `/guilds/${g.guildId}/sew-days`, {
+        title: 'Hand-quilting evening',
+        startsAt: `${year}-09-12T18:00`,
+        endsAt: `${year}-09-12T21:00`,
+        videoUrl: 'https://video.example.org/evening',
+      })
+    ).body;
     const roomId = sewDay.chatRoomId!;
     const reader = await socketOn(nodeB, g.admin);
     await request<ChatJoined>(reader, 'chat:join', { roomId });

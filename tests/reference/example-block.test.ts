@@ -21,7 +21,11 @@ describe('the 4-3-2-1 strip-set block', () => {
 
   it('its 1″ corner patch shows ¾″ × ¾″ in the unfinished block (the outer ¼″ stays as seam allowance)', () => {
     const corner = gridBlock({ columns: cuts, rows: cuts }).patches.find((p) => p.row === 3 && p.col === 3);
-    expect(corner).toMatchObject({ cut: { width: 1, height: 1 }, finished: { width: 0.5, height: 0.5 }, visibleInUnfinished: { width: 0.75, height: 0.75 } });
+    expect(corner).toMatchObject({
+      cut: { width: 1, height: 1 },
+      finished: { width: 0.5, height: 0.5 },
+      visibleInUnfinished: { width: 0.75, height: 0.75 },
+    });
   });
 
   it('one strip set serves every row: sub-cut at 4″, 3″, 2″ and 1″', () => {

@@ -126,7 +126,12 @@ describe('measureFromPhoto recovers a known block through a known perspective', 
     const m = measureFromPhoto(reference, { corners: shoot(rectangle(8, 1, 12.5, 12.5, 7)) });
     for (const side of m.sides) expect(Math.abs(side - 12.5)).toBeLessThan(1 / 16);
     for (const d of m.diagonals) expect(Math.abs(d - 17.678)).toBeLessThan(1 / 16);
-    const skew: Quad = [[8.25, 1], [20.75, 1], [20.5, 13.5], [8, 13.5]];
+    const skew: Quad = [
+      [8.25, 1],
+      [20.75, 1],
+      [20.5, 13.5],
+      [8, 13.5],
+    ];
     const s = measureFromPhoto(reference, { corners: shoot(skew) });
     expect(Math.abs(s.width - 12.5)).toBeLessThan(1 / 16);
     expect(Math.abs(s.height - Math.hypot(0.25, 12.5))).toBeLessThan(1 / 16);
@@ -139,7 +144,15 @@ describe('measureFromPhoto recovers a known block through a known perspective', 
     const shoot = (q: Quad) => q.map((p) => project(cam, p)) as Quad;
     const refImage = shoot(rectangle(0, 0, 6, 6)).map(([x, y]) => [Math.fround(x), Math.fround(y)]) as Quad;
     const blockImage = shoot(rectangle(8, 1, 12.5, 12.5, 7));
-    const theirs = openCvMap(openCvHomography(refImage, [[0, 0], [6, 0], [6, 6], [0, 6]]), blockImage);
+    const theirs = openCvMap(
+      openCvHomography(refImage, [
+        [0, 0],
+        [6, 0],
+        [6, 6],
+        [0, 6],
+      ]),
+      blockImage,
+    );
     const ours = measureFromPhoto({ corners: refImage, size: 6 }, { corners: blockImage }).corners;
     ours.forEach((p, i) => {
       expect(p[0]).toBeCloseTo(theirs[i]![0], 6);

@@ -36,12 +36,26 @@ describe('homography agrees with OpenCV getPerspectiveTransform', () => {
   it('on photos of the mat from many camera positions', () => {
     fc.assert(
       fc.property(
-        fc.record({ tilt: fc.double({ min: 0, max: 40, noNaN: true }), roll: fc.double({ min: -180, max: 180, noNaN: true }), distance: fc.double({ min: 18, max: 60, noNaN: true }) }),
+        fc.record({
+          tilt: fc.double({ min: 0, max: 40, noNaN: true }),
+          roll: fc.double({ min: -180, max: 180, noNaN: true }),
+          distance: fc.double({ min: 18, max: 60, noNaN: true }),
+        }),
         (camera) => {
           const s = scene({ camera });
-          const ours = homography(s.image.reference, [[0, 0], [6, 0], [6, 6], [0, 6]]);
+          const ours = homography(s.image.reference, [
+            [0, 0],
+            [6, 0],
+            [6, 6],
+            [0, 6],
+          ]);
           // OpenCV takes float32 points, so agreement is to about 1e-6 relative.
-          const theirs = opencvTransform(s.image.reference, [[0, 0], [6, 0], [6, 6], [0, 6]]);
+          const theirs = opencvTransform(s.image.reference, [
+            [0, 0],
+            [6, 0],
+            [6, 6],
+            [0, 6],
+          ]);
           for (const p of [...s.image.block, [800, 600] as Point]) {
             const [x1, y1] = applyHomography(ours, p);
             const [x2, y2] = applyHomography(theirs, p);
@@ -61,7 +75,12 @@ describe('homography agrees with OpenCV getPerspectiveTransform', () => {
 /** Pixels nearest each colour of the drawing: mat, grid line, reference square, block. */
 async function classify(png: Buffer) {
   const { data, info } = await sharp(png).removeAlpha().raw().toBuffer({ resolveWithObject: true });
-  const palette = [[0x1f, 0x5a, 0x46], [0x3f, 0x8a, 0x6c], [0xf2, 0xef, 0xe6], [0xb5, 0x46, 0x2f]];
+  const palette = [
+    [0x1f, 0x5a, 0x46],
+    [0x3f, 0x8a, 0x6c],
+    [0xf2, 0xef, 0xe6],
+    [0xb5, 0x46, 0x2f],
+  ];
   const cls = new Uint8Array(info.width * info.height);
   for (let i = 0; i < cls.length; i += 1) {
     let best = 0;
@@ -96,12 +115,18 @@ function intersect([vx1, vy1, x1, y1]: number[], [vx2, vy2, x2, y2]: number[]): 
  * which places the corners to a fraction of a pixel.
  */
 function findQuad(img: { cls: Uint8Array; width: number; height: number }, klass: number): Quad {
-  const mask = cv.matFromArray(img.height, img.width, cv.CV_8UC1, Array.from(img.cls, (c) => (c === klass ? 255 : 0)));
+  const mask = cv.matFromArray(
+    img.height,
+    img.width,
+    cv.CV_8UC1,
+    Array.from(img.cls, (c) => (c === klass ? 255 : 0)),
+  );
   const contours = new cv.MatVector();
   const hierarchy = new cv.Mat();
   cv.findContours(mask, contours, hierarchy, cv.RETR_EXTERNAL, cv.CHAIN_APPROX_NONE);
   let largest = 0;
-  for (let i = 1; i < contours.size(); i += 1) if (cv.contourArea(contours.get(i)) > cv.contourArea(contours.get(largest))) largest = i;
+  for (let i = 1; i < contours.size(); i += 1)
+    if (cv.contourArea(contours.get(i)) > cv.contourArea(contours.get(largest))) largest = i;
   const contour = contours.get(largest);
   const approx = new cv.Mat();
   cv.approxPolyDP(contour, approx, 0.02 * cv.arcLength(contour, true), true);
@@ -134,7 +159,8 @@ function findQuad(img: { cls: Uint8Array; width: number; height: number }, klass
   return ordered(lines.map((l, i) => intersect(lines[(i + 3) % 4]!, l)));
 }
 
-const maxCornerError = (found: Quad, drawn: Quad) => Math.max(...found.map((p, i) => Math.hypot(p[0] - drawn[i]![0], p[1] - drawn[i]![1])));
+const maxCornerError = (found: Quad, drawn: Quad) =>
+  Math.max(...found.map((p, i) => Math.hypot(p[0] - drawn[i]![0], p[1] - drawn[i]![1])));
 
 async function measureDrawn(s: Scene, format: 'png' | 'jpeg' = 'png') {
   const img = await classify(await scenePhoto(s, format));
@@ -170,7 +196,11 @@ describe('measuring back a drawn photo (1600 × 1200) found by OpenCV', () => {
   it('finds a block drawn ⅜″ short to run short, from the pixels alone', async () => {
     const s = round({ block: rectangle(1.25, 1.4, 9.125, 9.5, 2) });
     const img = await classify(await scenePhoto(s));
-    const e = estimateFromCorners({ corners: findQuad(img, 2), size: 12 }, { corners: findQuad(img, 3) }, { width: 9.5, height: 9.5, tolerance: 0.125, squareness: 0.25 });
+    const e = estimateFromCorners(
+      { corners: findQuad(img, 2), size: 12 },
+      { corners: findQuad(img, 3) },
+      { width: 9.5, height: 9.5, tolerance: 0.125, squareness: 0.25 },
+    );
     expect(e.verdict).toBe('short');
     expect(Math.abs(e.width - 9.125)).toBeLessThan(SIXTEENTH);
   });
@@ -182,7 +212,11 @@ describe('measuring back a drawn photo (1600 × 1200) found by OpenCV', () => {
     expect(Math.abs(measured.height - t.height)).toBeLessThan(SIXTEENTH);
     expect(Math.abs(measured.diagonals[0] - t.diagonals[0])).toBeLessThan(SIXTEENTH);
     // The expected error assumes corners placed by hand to about 2 pixels: far more than 1/16″ here.
-    const e = estimateFromCorners({ corners: found.reference, size: 6 }, { corners: found.block }, { width: 9.5, height: 9.5, tolerance: 0.125, squareness: 0.25 });
+    const e = estimateFromCorners(
+      { corners: found.reference, size: 6 },
+      { corners: found.block },
+      { width: 9.5, height: 9.5, tolerance: 0.125, squareness: 0.25 },
+    );
     expect(e.expectedError).toBeGreaterThan(4 * SIXTEENTH);
     expect(e.warnings.join(' ')).toMatch(/Expect an error of about ±0\.4\d″/);
   });

@@ -1,6 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import {
-  SHORT_CODE_ALPHABET, classifyIntakeInput, formatShortCode, fromBase64Url, normaliseShortCode, parseReference, referenceHeader,
+  SHORT_CODE_ALPHABET,
+  classifyIntakeInput,
+  formatShortCode,
+  fromBase64Url,
+  normaliseShortCode,
+  parseReference,
+  referenceHeader,
   toBase64Url,
 } from '../../shared/block-reference';
 import { referenceKey, signBlock, verifyReference } from '../../server/intake/references';
@@ -33,7 +39,12 @@ describe('base64url', () => {
 
 describe('signed block references', () => {
   it('round-trips swap and block ids, small and large', () => {
-    for (const [swapId, blockId] of [[1, 1], [7, 51], [300, 16_384], [2_000_000, 99_999_999]] as const) {
+    for (const [swapId, blockId] of [
+      [1, 1],
+      [7, 51],
+      [300, 16_384],
+      [2_000_000, 99_999_999],
+    ] as const) {
       const { reference } = signBlock(key, swapId, blockId);
       expect(verifyReference(key, reference)).toEqual({ ok: true, swapId, blockId });
       expect(reference).toMatch(/^[\w-]+$/);

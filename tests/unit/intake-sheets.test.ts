@@ -12,7 +12,11 @@ function sheetRule(id: string): Record<string, number | string> {
   const props: Record<string, number | string> = {};
   for (const [, name, value] of body.matchAll(/(?<![\w-])--([\w-]+):([^;]+);/g)) {
     const length = /^([\d.]+)(mm|in)$/.exec(value!.trim());
-    props[name!] = length ? unit(Number(length[1]), length[2]!).toNumber('mm') : /^\d+$/.test(value!.trim()) ? Number(value) : value!.trim();
+    props[name!] = length
+      ? unit(Number(length[1]), length[2]!).toNumber('mm')
+      : /^\d+$/.test(value!.trim())
+        ? Number(value)
+        : value!.trim();
   }
   const page = /page:\s*([\w-]+);/.exec(body)?.[1];
   if (page) props.page = page;
@@ -91,7 +95,9 @@ describe('laying labels out', () => {
     expect(pages[0]![11]).toEqual({ kind: 'label', label: 1 });
     expect(pages[1]!.at(-1)).toEqual({ kind: 'label', label: 25 });
     // A whole sheet cannot be skipped, and nothing to print gives no sheets.
-    expect(paginate(labels, sheetById('a4-21'), 99)[0]!.filter((c) => c.kind === 'skipped')).toHaveLength(perSheet(sheetById('a4-21')) - 1);
+    expect(paginate(labels, sheetById('a4-21'), 99)[0]!.filter((c) => c.kind === 'skipped')).toHaveLength(
+      perSheet(sheetById('a4-21')) - 1,
+    );
     expect(paginate([], sheetById('a4-21'), 3)).toEqual([]);
   });
 

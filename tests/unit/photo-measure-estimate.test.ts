@@ -19,7 +19,15 @@ describe('estimateFromCorners', () => {
       [rectangle(7, 0.5, 9.875, 9.75), 'trim'],
       [rectangle(7, 0.5, 9.125, 9.5), 'short'],
       // Sheared by ⅜″: the diagonals differ by about ½″.
-      [[[7, 0.5], [16.5, 0.5], [16.875, 10], [7.375, 10]], 'skewed'],
+      [
+        [
+          [7, 0.5],
+          [16.5, 0.5],
+          [16.875, 10],
+          [7.375, 10],
+        ],
+        'skewed',
+      ],
     ];
     for (const [block, verdict] of cases) {
       const e = estimateOf(block);
@@ -100,14 +108,53 @@ describe('estimateFromCorners', () => {
   });
 
   it('names the problem with corners that cannot be measured', () => {
-    const ref: Quad = [[100, 100], [400, 100], [400, 400], [100, 400]];
-    const block: Quad = [[500, 100], [900, 100], [900, 500], [500, 500]];
+    const ref: Quad = [
+      [100, 100],
+      [400, 100],
+      [400, 400],
+      [100, 400],
+    ];
+    const block: Quad = [
+      [500, 100],
+      [900, 100],
+      [900, 500],
+      [500, 500],
+    ];
     const call = (r: Quad, b: Quad) => () => estimateFromCorners({ corners: r, size: 6 }, { corners: b }, target);
-    expect(call(ref, [[500, 100], [501, 101], [900, 500], [500, 500]])).toThrow(/top-left and top-right\) are on the same spot/);
-    expect(call([[100, 100], [250, 100], [400, 100], [100, 400]], block)).toThrow(/Three corners of the reference square lie on one line/);
-    expect(call(ref, [[500, 100], [900, 500], [900, 100], [500, 500]])).toThrow(/cross over/);
+    expect(
+      call(ref, [
+        [500, 100],
+        [501, 101],
+        [900, 500],
+        [500, 500],
+      ]),
+    ).toThrow(/top-left and top-right\) are on the same spot/);
+    expect(
+      call(
+        [
+          [100, 100],
+          [250, 100],
+          [400, 100],
+          [100, 400],
+        ],
+        block,
+      ),
+    ).toThrow(/Three corners of the reference square lie on one line/);
+    expect(
+      call(ref, [
+        [500, 100],
+        [900, 500],
+        [900, 100],
+        [500, 500],
+      ]),
+    ).toThrow(/cross over/);
     try {
-      call(ref, [[500, 100], [900, 500], [900, 100], [500, 500]])();
+      call(ref, [
+        [500, 100],
+        [900, 500],
+        [900, 100],
+        [500, 500],
+      ])();
     } catch (error) {
       expect(error).toBeInstanceOf(QuiltInputError);
       expect((error as QuiltInputError).field).toBe('block.corners');
@@ -115,17 +162,48 @@ describe('estimateFromCorners', () => {
   });
 
   it('tells when a corner is off the photo', () => {
-    const q: Quad = [[0, 0], [1600, 0], [1600, 1200], [0, 1200]];
+    const q: Quad = [
+      [0, 0],
+      [1600, 0],
+      [1600, 1200],
+      [0, 1200],
+    ];
     expect(outsidePhoto(q, 1600, 1200)).toBe(false);
-    expect(outsidePhoto([[0, 0], [1605, 0], [1600, 1200], [0, 1200]], 1600, 1200)).toBe(true);
+    expect(
+      outsidePhoto(
+        [
+          [0, 0],
+          [1605, 0],
+          [1600, 1200],
+          [0, 1200],
+        ],
+        1600,
+        1200,
+      ),
+    ).toBe(true);
   });
 });
 
 describe('photoEstimateBodySchema', () => {
   const body = {
     photoId: 3,
-    reference: { corners: [[1, 2], [3, 4], [5, 6], [7, 8]], size: '152.4 mm' },
-    block: { corners: [[1, 2], [3, 4], [5, 6], [7, 8]] },
+    reference: {
+      corners: [
+        [1, 2],
+        [3, 4],
+        [5, 6],
+        [7, 8],
+      ],
+      size: '152.4 mm',
+    },
+    block: {
+      corners: [
+        [1, 2],
+        [3, 4],
+        [5, 6],
+        [7, 8],
+      ],
+    },
   };
 
   it('reads any length form for the reference size and drops numbers the client worked out', () => {
@@ -136,14 +214,34 @@ describe('photoEstimateBodySchema', () => {
   });
 
   it('says how many corners were marked when there are not four', () => {
-    const r = photoEstimateBodySchema.safeParse({ ...body, block: { corners: [[1, 2], [3, 4], [5, 6]] } });
+    const r = photoEstimateBodySchema.safeParse({
+      ...body,
+      block: {
+        corners: [
+          [1, 2],
+          [3, 4],
+          [5, 6],
+        ],
+      },
+    });
     expect(r.success).toBe(false);
     expect(r.error!.issues[0]!.message).toBe('Mark all four corners of the block (3 marked).');
     expect(r.error!.issues[0]!.path).toEqual(['block', 'corners']);
   });
 
   it('refuses a corner that is not a pair of finite numbers, and an oversized reference', () => {
-    const bad = photoEstimateBodySchema.safeParse({ ...body, reference: { ...body.reference, corners: [[1, 2], [3, 'x'], [5, 6], [7, 8]] } });
+    const bad = photoEstimateBodySchema.safeParse({
+      ...body,
+      reference: {
+        ...body.reference,
+        corners: [
+          [1, 2],
+          [3, 'x'],
+          [5, 6],
+          [7, 8],
+        ],
+      },
+    });
     expect(bad.error!.issues[0]!.message).toMatch(/pair of numbers/);
     const big = photoEstimateBodySchema.safeParse({ ...body, reference: { ...body.reference, size: 40 } });
     expect(big.error!.issues[0]!.message).toMatch(/at most 36″/);

@@ -21,8 +21,12 @@ describe('checks before sending', () => {
       '“notes.exe” is not a photo. Upload JPEG, PNG, WebP or HEIC pictures.',
     );
     expect(checkChosenFile({ name: 'logo.svg', size: 10, type: 'image/svg+xml' })).toMatch(/^“logo\.svg” is not a photo/);
-    expect(checkChosenFile({ name: 'empty.jpg', size: 0, type: 'image/jpeg' })).toBe('“empty.jpg” is empty (0 bytes). Choose the photo again.');
-    expect(checkChosenFile({ name: 'big.jpg', size: MAX_PHOTO_BYTES + 1, type: 'image/jpeg' })).toMatch(/^“big\.jpg” is 15\.0 MB, more than the 15 MB/);
+    expect(checkChosenFile({ name: 'empty.jpg', size: 0, type: 'image/jpeg' })).toBe(
+      '“empty.jpg” is empty (0 bytes). Choose the photo again.',
+    );
+    expect(checkChosenFile({ name: 'big.jpg', size: MAX_PHOTO_BYTES + 1, type: 'image/jpeg' })).toMatch(
+      /^“big\.jpg” is 15\.0 MB, more than the 15 MB/,
+    );
     const eleven = Array.from({ length: 11 }, (_, i) => ({ name: `${i}.jpg`, size: 1, type: 'image/jpeg' }));
     expect(checkChosenFiles(eleven)).toEqual(['You chose 11 photos; send at most 10 at a time.']);
   });
@@ -79,7 +83,10 @@ describe('<PhotoUploader>', () => {
   });
 
   it('keeps the photos listed and shows the server’s reason when the upload is refused, then sends again', async () => {
-    answer = { status: 415, body: { error: { code: 'not_a_photo', message: '“b.jpg” is not a photo. Upload JPEG, PNG or WebP pictures.' } } };
+    answer = {
+      status: 415,
+      body: { error: { code: 'not_a_photo', message: '“b.jpg” is not a photo. Upload JPEG, PNG or WebP pictures.' } },
+    };
     const uploaded: unknown[] = [];
     render(<PhotoUploader uploadUrl="/api/blocks/7/photos" onUploaded={(r) => uploaded.push(r)} />);
     choose([jpeg('a.jpg'), jpeg('b.jpg')]);

@@ -2,14 +2,30 @@ import { describe, expect, it } from 'vitest';
 import sharp from 'sharp';
 import exifReader from 'exif-reader';
 import {
-  encodePhoto, heicReadable, inspectPhoto, isSafeFileName, preparePhotos, type IncomingPhotoFile,
+  encodePhoto,
+  heicReadable,
+  inspectPhoto,
+  isSafeFileName,
+  preparePhotos,
+  type IncomingPhotoFile,
 } from '../../server/uploads/photo-pipeline';
 import { MulterError } from 'multer';
 import { acceptedKindsText, fromMulterError, PhotoRejectedError } from '../../server/uploads/photo-errors';
 import { PHOTO_LONG_SIDE, THUMB_LONG_SIDE } from '../../shared/schemas/photos';
 import {
-  elfExecutable, heicHeader, htmlPolyglot, jpegWithGps, jpegWithTrailingHtml, oversizedFile, picture, pixelBombPng,
-  pngWithAlpha, svgWithScript, TEST_GPS, truncatedJpeg, windowsExecutable,
+  elfExecutable,
+  heicHeader,
+  htmlPolyglot,
+  jpegWithGps,
+  jpegWithTrailingHtml,
+  oversizedFile,
+  picture,
+  pixelBombPng,
+  pngWithAlpha,
+  svgWithScript,
+  TEST_GPS,
+  truncatedJpeg,
+  windowsExecutable,
 } from '../fixtures/photos';
 
 const file = (originalname: string, buffer: Buffer): IncomingPhotoFile => ({ originalname, buffer });
@@ -81,7 +97,10 @@ describe('re-encoding', () => {
 
 describe('refusals, each naming the file', () => {
   it('refuses a Linux and a Windows executable renamed to .jpg', async () => {
-    for (const [name, bytes] of [['notes.jpg', elfExecutable()], ['setup.jpg', windowsExecutable()]] as const) {
+    for (const [name, bytes] of [
+      ['notes.jpg', elfExecutable()],
+      ['setup.jpg', windowsExecutable()],
+    ] as const) {
       const error = await refusal(inspectPhoto(file(name, bytes)));
       expect(error.status).toBe(415);
       expect(error.message).toBe(`“${name}” is not a photo. Upload ${acceptedKindsText(heicReadable())} pictures.`);
@@ -103,7 +122,9 @@ describe('refusals, each naming the file', () => {
   });
 
   it('refuses empty and oversized files and path-like names', async () => {
-    expect((await refusal(inspectPhoto(file('empty.jpg', Buffer.alloc(0))))).message).toBe('“empty.jpg” is empty (0 bytes). Choose the photo again.');
+    expect((await refusal(inspectPhoto(file('empty.jpg', Buffer.alloc(0))))).message).toBe(
+      '“empty.jpg” is empty (0 bytes). Choose the photo again.',
+    );
     const big = await refusal(inspectPhoto(file('huge.jpg', oversizedFile())));
     expect(big.status).toBe(413);
     expect(big.message).toMatch(/^“huge\.jpg” is larger than 15 MB/);
@@ -136,7 +157,9 @@ describe('refusals, each naming the file', () => {
 
   it('refuses the whole batch for one bad file, naming it, and refuses too many or none', async () => {
     const good = await picture('jpeg');
-    const error = await refusal(preparePhotos([file('one.jpg', good), file('two.jpg', elfExecutable()), file('three.jpg', good)]));
+    const error = await refusal(
+      preparePhotos([file('one.jpg', good), file('two.jpg', elfExecutable()), file('three.jpg', good)]),
+    );
     expect(error.message).toMatch(/^“two\.jpg” is not a photo\..* None of the 3 photos were saved/);
     expect(error.fields).toEqual({ photos: error.message });
 
@@ -161,11 +184,21 @@ describe('refusals, each naming the file', () => {
 
 describe('multer and busboy errors in plain words', () => {
   it('maps size, count, field and interrupted uploads to 4xx refusals', () => {
-    const size = fromMulterError(Object.assign(new MulterError('LIMIT_FILE_SIZE', 'photos'), { filename: 'quilt-top.jpg' })) as PhotoRejectedError;
-    expect([size.status, size.code, size.message]).toEqual([413, 'file_too_large', expect.stringMatching(/^“quilt-top\.jpg” is larger than 15 MB/)]);
+    const size = fromMulterError(
+      Object.assign(new MulterError('LIMIT_FILE_SIZE', 'photos'), { filename: 'quilt-top.jpg' }),
+    ) as PhotoRejectedError;
+    expect([size.status, size.code, size.message]).toEqual([
+      413,
+      'file_too_large',
+      expect.stringMatching(/^“quilt-top\.jpg” is larger than 15 MB/),
+    ]);
     expect((fromMulterError(new MulterError('LIMIT_FILE_COUNT')) as PhotoRejectedError).code).toBe('too_many_files');
-    expect((fromMulterError(new MulterError('LIMIT_UNEXPECTED_FILE', 'photos')) as PhotoRejectedError).code).toBe('too_many_files');
-    expect((fromMulterError(new MulterError('LIMIT_UNEXPECTED_FILE', 'avatar')) as PhotoRejectedError).message).toMatch(/not “avatar”/);
+    expect((fromMulterError(new MulterError('LIMIT_UNEXPECTED_FILE', 'photos')) as PhotoRejectedError).code).toBe(
+      'too_many_files',
+    );
+    expect((fromMulterError(new MulterError('LIMIT_UNEXPECTED_FILE', 'avatar')) as PhotoRejectedError).message).toMatch(
+      /not “avatar”/,
+    );
     const stopped = fromMulterError(new Error('Request aborted')) as PhotoRejectedError;
     expect([stopped.status, stopped.code]).toEqual([400, 'upload_interrupted']);
     const other = new Error('disk on fire');

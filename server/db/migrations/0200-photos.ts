@@ -13,7 +13,12 @@ export const up: Migration = async ({ context: { queryInterface, sequelize } }) 
         block_id: { type: DataTypes.INTEGER, allowNull: true, references: { model: 'blocks', key: 'id' }, onDelete: 'CASCADE' },
         // The chat feature adds the foreign key once its table exists.
         chat_message_id: { type: DataTypes.INTEGER, allowNull: true },
-        uploaded_by_id: { type: DataTypes.INTEGER, allowNull: true, references: { model: 'users', key: 'id' }, onDelete: 'SET NULL' },
+        uploaded_by_id: {
+          type: DataTypes.INTEGER,
+          allowNull: true,
+          references: { model: 'users', key: 'id' },
+          onDelete: 'SET NULL',
+        },
         file_name: { type: DataTypes.STRING(40), allowNull: false, unique: true },
         thumb_file_name: { type: DataTypes.STRING(40), allowNull: false, unique: true },
         mime: { type: DataTypes.STRING(16), allowNull: false },

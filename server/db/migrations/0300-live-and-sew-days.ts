@@ -29,7 +29,12 @@ export const up: Migration = async ({ context: { queryInterface, sequelize } }) 
         video_url: { type: DataTypes.STRING(500), allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: true },
         cancelled_at: { type: DataTypes.DATE, allowNull: true },
-        created_by_id: { type: DataTypes.INTEGER, allowNull: true, references: { model: 'users', key: 'id' }, onDelete: 'SET NULL' },
+        created_by_id: {
+          type: DataTypes.INTEGER,
+          allowNull: true,
+          references: { model: 'users', key: 'id' },
+          onDelete: 'SET NULL',
+        },
         // Bumped on every change, so calendar programs replace their copy (iCalendar SEQUENCE).
         revision: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         ...timestamps,
@@ -46,7 +51,12 @@ export const up: Migration = async ({ context: { queryInterface, sequelize } }) 
       'rsvps',
       {
         id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
-        sew_day_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: 'sew_days', key: 'id' }, onDelete: 'CASCADE' },
+        sew_day_id: {
+          type: DataTypes.INTEGER,
+          allowNull: false,
+          references: { model: 'sew_days', key: 'id' },
+          onDelete: 'CASCADE',
+        },
         user_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: 'users', key: 'id' }, onDelete: 'CASCADE' },
         answer: { type: DataTypes.STRING(8), allowNull: false },
         ...timestamps,
@@ -54,9 +64,12 @@ export const up: Migration = async ({ context: { queryInterface, sequelize } }) 
       { transaction },
     );
     await queryInterface.addIndex('rsvps', ['sew_day_id', 'user_id'], { unique: true, transaction });
-    await queryInterface.sequelize.query(`ALTER TABLE rsvps ADD CONSTRAINT rsvps_answer_check CHECK (answer IN ('going','maybe','no'));`, {
-      transaction,
-    });
+    await queryInterface.sequelize.query(
+      `ALTER TABLE rsvps ADD CONSTRAINT rsvps_answer_check CHECK (answer IN ('going','maybe','no'));`,
+      {
+        transaction,
+      },
+    );
   });
 };
 

@@ -14,8 +14,20 @@ export const up: Migration = async ({ context: { queryInterface, sequelize } }) 
         id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
         guild_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: 'guilds', key: 'id' }, onDelete: 'CASCADE' },
         kind: { type: DataTypes.STRING(8), allowNull: false },
-        sew_day_id: { type: DataTypes.INTEGER, allowNull: true, unique: true, references: { model: 'sew_days', key: 'id' }, onDelete: 'CASCADE' },
-        swap_id: { type: DataTypes.INTEGER, allowNull: true, unique: true, references: { model: 'swaps', key: 'id' }, onDelete: 'CASCADE' },
+        sew_day_id: {
+          type: DataTypes.INTEGER,
+          allowNull: true,
+          unique: true,
+          references: { model: 'sew_days', key: 'id' },
+          onDelete: 'CASCADE',
+        },
+        swap_id: {
+          type: DataTypes.INTEGER,
+          allowNull: true,
+          unique: true,
+          references: { model: 'swaps', key: 'id' },
+          onDelete: 'CASCADE',
+        },
         ...timestamps,
       },
       { transaction },
@@ -30,12 +42,22 @@ export const up: Migration = async ({ context: { queryInterface, sequelize } }) 
       'chat_messages',
       {
         id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
-        room_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: 'chat_rooms', key: 'id' }, onDelete: 'CASCADE' },
+        room_id: {
+          type: DataTypes.INTEGER,
+          allowNull: false,
+          references: { model: 'chat_rooms', key: 'id' },
+          onDelete: 'CASCADE',
+        },
         author_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: 'users', key: 'id' }, onDelete: 'CASCADE' },
         body: { type: DataTypes.TEXT, allowNull: false },
         edited_at: { type: DataTypes.DATE, allowNull: true },
         deleted_at: { type: DataTypes.DATE, allowNull: true },
-        deleted_by_id: { type: DataTypes.INTEGER, allowNull: true, references: { model: 'users', key: 'id' }, onDelete: 'SET NULL' },
+        deleted_by_id: {
+          type: DataTypes.INTEGER,
+          allowNull: true,
+          references: { model: 'users', key: 'id' },
+          onDelete: 'SET NULL',
+        },
         ...timestamps,
       },
       { transaction },
@@ -43,9 +65,12 @@ export const up: Migration = async ({ context: { queryInterface, sequelize } }) 
     // History pages walk a room by id, newest first; the rate limit counts one author's recent lines.
     await queryInterface.addIndex('chat_messages', ['room_id', 'id'], { transaction });
     await queryInterface.addIndex('chat_messages', ['author_id', 'created_at'], { transaction });
-    await queryInterface.sequelize.query(`ALTER TABLE chat_messages ADD CONSTRAINT chat_messages_body_check CHECK (char_length(body) <= 2000);`, {
-      transaction,
-    });
+    await queryInterface.sequelize.query(
+      `ALTER TABLE chat_messages ADD CONSTRAINT chat_messages_body_check CHECK (char_length(body) <= 2000);`,
+      {
+        transaction,
+      },
+    );
 
     // One counter per swap, shared by every app node: board changes are numbered from it.
     await queryInterface.createTable(

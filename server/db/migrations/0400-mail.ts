@@ -48,7 +48,13 @@ export const up: Migration = async ({ context: { queryInterface, sequelize } }) 
     await queryInterface.createTable(
       'mail_preferences',
       {
-        user_id: { type: DataTypes.INTEGER, allowNull: false, primaryKey: true, references: { model: 'users', key: 'id' }, onDelete: 'CASCADE' },
+        user_id: {
+          type: DataTypes.INTEGER,
+          allowNull: false,
+          primaryKey: true,
+          references: { model: 'users', key: 'id' },
+          onDelete: 'CASCADE',
+        },
         category: { type: DataTypes.STRING(32), allowNull: false, primaryKey: true },
         enabled: { type: DataTypes.BOOLEAN, allowNull: false },
         created_at: timestamp,

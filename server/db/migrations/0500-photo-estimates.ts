@@ -18,7 +18,12 @@ export const up: Migration = async ({ context: { queryInterface, sequelize } }) 
         block_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: 'blocks', key: 'id' }, onDelete: 'CASCADE' },
         // A removed photo leaves its estimates behind, without the picture.
         photo_id: { type: DataTypes.INTEGER, allowNull: true, references: { model: 'photos', key: 'id' }, onDelete: 'SET NULL' },
-        measured_by_id: { type: DataTypes.INTEGER, allowNull: true, references: { model: 'users', key: 'id' }, onDelete: 'SET NULL' },
+        measured_by_id: {
+          type: DataTypes.INTEGER,
+          allowNull: true,
+          references: { model: 'users', key: 'id' },
+          onDelete: 'SET NULL',
+        },
         reference_size: inches(),
         reference_corners: { type: DataTypes.JSONB, allowNull: false },
         block_corners: { type: DataTypes.JSONB, allowNull: false },

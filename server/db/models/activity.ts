@@ -1,5 +1,10 @@
 import {
-  DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize,
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
 } from 'sequelize';
 
 /** What happened on a swap, kept from its domain events for the board's recent-activity list. */

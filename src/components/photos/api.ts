@@ -18,7 +18,8 @@ export function blockPhotosUrl(blockId: number) {
   return `/api/blocks/${blockId}/photos`;
 }
 
-export const fetchBlockPhotos = (blockId: number, signal?: AbortSignal) => api.get<PhotoDto[]>(`/blocks/${blockId}/photos`, { signal });
+export const fetchBlockPhotos = (blockId: number, signal?: AbortSignal) =>
+  api.get<PhotoDto[]>(`/blocks/${blockId}/photos`, { signal });
 
 export const blockPhotosQueryOptions = (blockId: number) =>
   queryOptions({ queryKey: photoKeys.block(blockId), queryFn: ({ signal }) => fetchBlockPhotos(blockId, signal) });
@@ -70,11 +71,19 @@ export function uploadPhotos<T = BlockPhotosUploadDto>(
       const err = (xhr.response as ApiErrorBody | null)?.error;
       const message =
         err?.message ??
-        (xhr.status === 413 ? 'The photos are too large to send. Choose fewer or smaller photos.' : `The server answered ${xhr.status}.`);
+        (xhr.status === 413
+          ? 'The photos are too large to send. Choose fewer or smaller photos.'
+          : `The server answered ${xhr.status}.`);
       reject(new ApiError(xhr.status, err?.code ?? 'http_error', message, err?.fields));
     };
     xhr.onerror = () =>
-      reject(new ApiError(0, 'network', 'Blockpost cannot be reached. Check your connection; your photos are still chosen, so try again.'));
+      reject(
+        new ApiError(
+          0,
+          'network',
+          'Blockpost cannot be reached. Check your connection; your photos are still chosen, so try again.',
+        ),
+      );
     xhr.onabort = () => reject(new DOMException('The upload was stopped.', 'AbortError'));
     if (opts.signal?.aborted) return reject(new DOMException('The upload was stopped.', 'AbortError'));
     opts.signal?.addEventListener('abort', () => xhr.abort(), { once: true });

@@ -2,6 +2,13 @@
 export { PhotoUploader } from './photo-uploader';
 export { PhotoGallery, type GalleryPhoto } from './photo-gallery';
 export {
-  blockPhotosQueryOptions, blockPhotosUrl, deletePhoto, fetchBlockPhotos, photoKeys, uploadPhotos, useBlockPhotos, useDeletePhoto,
+  blockPhotosQueryOptions,
+  blockPhotosUrl,
+  deletePhoto,
+  fetchBlockPhotos,
+  photoKeys,
+  uploadPhotos,
+  useBlockPhotos,
+  useDeletePhoto,
   type UploadProgress,
 } from './api';

@@ -35,7 +35,13 @@ function postedOn(iso?: string) {
 }
 
 /** Thumbnails that open a large view (a modal dialog with previous / next, Esc to close). */
-export function PhotoGallery<P extends GalleryPhoto>({ photos, subject = 'Photo', canRemove, onRemove, removing }: PhotoGalleryProps<P>) {
+export function PhotoGallery<P extends GalleryPhoto>({
+  photos,
+  subject = 'Photo',
+  canRemove,
+  onRemove,
+  removing,
+}: PhotoGalleryProps<P>) {
   const [open, setOpen] = useState<number | null>(null);
   const dialog = useRef<HTMLDialogElement>(null);
   const count = photos.length;
@@ -58,7 +64,10 @@ export function PhotoGallery<P extends GalleryPhoto>({ photos, subject = 'Photo'
 
   return (
     <>
-      <ul className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-4" aria-label={`${subject}: ${count === 1 ? '1 photo' : `${count} photos`}`}>
+      <ul
+        className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-4"
+        aria-label={`${subject}: ${count === 1 ? '1 photo' : `${count} photos`}`}
+      >
         {photos.map((photo, i) => (
           <li key={photo.id}>
             <button
@@ -104,7 +113,9 @@ export function PhotoGallery<P extends GalleryPhoto>({ photos, subject = 'Photo'
             />
             <div className="flex flex-wrap items-center gap-3 border-t border-walnut/10 px-4 py-3">
               <p className="mr-auto text-walnut-soft">
-                {[current.uploadedBy && `Posted by ${current.uploadedBy.displayName}`, postedOn(current.createdAt)].filter(Boolean).join(', ')}
+                {[current.uploadedBy && `Posted by ${current.uploadedBy.displayName}`, postedOn(current.createdAt)]
+                  .filter(Boolean)
+                  .join(', ')}
               </p>
               {count > 1 && (
                 <>

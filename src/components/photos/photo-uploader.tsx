@@ -17,11 +17,18 @@ interface PhotoUploaderProps<T> {
   onUploaded?: (result: T) => void;
 }
 
-type Status = { kind: 'idle' } | { kind: 'sending'; progress: UploadProgress | null } | { kind: 'failed'; message: string } | { kind: 'sent'; count: number };
+type Status =
+  | { kind: 'idle' }
+  | { kind: 'sending'; progress: UploadProgress | null }
+  | { kind: 'failed'; message: string }
+  | { kind: 'sent'; count: number };
 
 const ACCEPT = 'image/*,.heic,.heif';
 const pickerClass = (extra = '') =>
-  buttonClass('secondary', `cursor-pointer has-focus-visible:outline-[3px] has-focus-visible:outline-weld has-focus-visible:outline-offset-2 ${extra}`);
+  buttonClass(
+    'secondary',
+    `cursor-pointer has-focus-visible:outline-[3px] has-focus-visible:outline-weld has-focus-visible:outline-offset-2 ${extra}`,
+  );
 
 /**
  * Choose several photos (or take one on a phone), see them listed with any problem explained, and
@@ -53,23 +60,34 @@ export function PhotoUploader<T = BlockPhotosUploadDto>({
     abort.current = controller;
     setStatus({ kind: 'sending', progress: null });
     try {
-      const result = await uploadPhotos<T>(uploadUrl, chosen.map((c) => c.file), {
-        signal: controller.signal,
-        onProgress: (progress) => setStatus({ kind: 'sending', progress }),
-      });
+      const result = await uploadPhotos<T>(
+        uploadUrl,
+        chosen.map((c) => c.file),
+        {
+          signal: controller.signal,
+          onProgress: (progress) => setStatus({ kind: 'sending', progress }),
+        },
+      );
       const count = chosen.length;
       clear();
       setStatus({ kind: 'sent', count });
       onUploaded?.(result);
     } catch (error) {
-      if ((error as Error).name === 'AbortError') return setStatus({ kind: 'failed', message: 'You stopped the upload. Nothing was saved; your photos are still chosen.' });
-      setStatus({ kind: 'failed', message: error instanceof ApiError ? error.message : 'The photos could not be sent. Please try again.' });
+      if ((error as Error).name === 'AbortError')
+        return setStatus({ kind: 'failed', message: 'You stopped the upload. Nothing was saved; your photos are still chosen.' });
+      setStatus({
+        kind: 'failed',
+        message: error instanceof ApiError ? error.message : 'The photos could not be sent. Please try again.',
+      });
     } finally {
       abort.current = null;
     }
   }
 
-  const percent = status.kind === 'sending' && status.progress ? Math.round((100 * status.progress.loaded) / Math.max(1, status.progress.total)) : null;
+  const percent =
+    status.kind === 'sending' && status.progress
+      ? Math.round((100 * status.progress.loaded) / Math.max(1, status.progress.total))
+      : null;
   const count = chosen.length;
 
   return (
@@ -89,7 +107,14 @@ export function PhotoUploader<T = BlockPhotosUploadDto>({
         {offerCamera && (
           <label className={pickerClass(`sm:hidden ${disabled || sending ? 'pointer-events-none opacity-50' : ''}`)}>
             Take a picture
-            <input type="file" accept="image/*" capture="environment" className="sr-only" onChange={onPick} disabled={disabled || sending} />
+            <input
+              type="file"
+              accept="image/*"
+              capture="environment"
+              className="sr-only"
+              onChange={onPick}
+              disabled={disabled || sending}
+            />
           </label>
         )}
       </div>
@@ -121,9 +146,18 @@ export function PhotoUploader<T = BlockPhotosUploadDto>({
       {status.kind === 'sending' && (
         <div className="space-y-2">
           <label htmlFor={`${id}-progress`} className="block font-semibold">
-            {percent === null ? `Sending ${count === 1 ? 'the photo' : `${count} photos`}…` : percent < 100 ? `Sending… ${percent}%` : 'Sent. Preparing the photos…'}
+            {percent === null
+              ? `Sending ${count === 1 ? 'the photo' : `${count} photos`}…`
+              : percent < 100
+                ? `Sending… ${percent}%`
+                : 'Sent. Preparing the photos…'}
           </label>
-          <progress id={`${id}-progress`} className="h-4 w-full appearance-none overflow-hidden rounded-full bg-linen-deep [&::-moz-progress-bar]:bg-indigo [&::-webkit-progress-bar]:bg-linen-deep [&::-webkit-progress-value]:bg-indigo" max={100} {...(percent === null ? {} : { value: percent })} />
+          <progress
+            id={`${id}-progress`}
+            className="h-4 w-full appearance-none overflow-hidden rounded-full bg-linen-deep [&::-moz-progress-bar]:bg-indigo [&::-webkit-progress-bar]:bg-linen-deep [&::-webkit-progress-value]:bg-indigo"
+            max={100}
+            {...(percent === null ? {} : { value: percent })}
+          />
           <Button variant="quiet" onClick={() => abort.current?.abort()}>
             Stop sending
           </Button>
@@ -149,7 +183,17 @@ export function PhotoUploader<T = BlockPhotosUploadDto>({
   );
 }
 
-function ChosenRow({ photo, onRemove, disabled, atFault }: { photo: ChosenPhoto; onRemove: () => void; disabled: boolean; atFault: boolean }) {
+function ChosenRow({
+  photo,
+  onRemove,
+  disabled,
+  atFault,
+}: {
+  photo: ChosenPhoto;
+  onRemove: () => void;
+  disabled: boolean;
+  atFault: boolean;
+}) {
   return (
     <li className={`flex items-center gap-3 p-3 ${atFault ? 'bg-madder/8 ring-2 ring-madder ring-inset' : ''}`}>
       <span className="size-14 shrink-0 overflow-hidden rounded bg-linen-deep">
@@ -174,7 +218,13 @@ function ChosenRow({ photo, onRemove, disabled, atFault }: { photo: ChosenPhoto;
           {atFault && <p className="font-semibold text-madder-deep">Refused: see the message below</p>}
         </div>
         {/* Under the name on a phone, so long names keep the width; the negative margin lines the word up with them. */}
-        <Button variant="quiet" onClick={onRemove} disabled={disabled} aria-label={`Remove ${photo.file.name}`} className="-ml-5 sm:ml-0">
+        <Button
+          variant="quiet"
+          onClick={onRemove}
+          disabled={disabled}
+          aria-label={`Remove ${photo.file.name}`}
+          className="-ml-5 sm:ml-0"
+        >
           Remove
         </Button>
       </div>

@@ -28,7 +28,9 @@ export function usePhotoChoice() {
         }
         if (next.some((c) => c.key === keyOf(file))) continue;
         if (next.length >= MAX_PHOTOS_PER_UPLOAD) {
-          messages.push(`Up to ${MAX_PHOTOS_PER_UPLOAD} photos go at a time, so “${file.name}” and any after it were left out. Send them next.`);
+          messages.push(
+            `Up to ${MAX_PHOTOS_PER_UPLOAD} photos go at a time, so “${file.name}” and any after it were left out. Send them next.`,
+          );
           break;
         }
         next.push({ key: keyOf(file), file });

@@ -10,7 +10,15 @@ const tones = {
 const words = { info: 'Note', success: 'Done', warning: 'Take care', error: 'Problem' } as const;
 
 /** A message box that says its tone in words too, never by colour alone. */
-export function Alert({ tone = 'info', title, children }: { tone?: keyof typeof tones; title?: ReactNode; children?: ReactNode }) {
+export function Alert({
+  tone = 'info',
+  title,
+  children,
+}: {
+  tone?: keyof typeof tones;
+  title?: ReactNode;
+  children?: ReactNode;
+}) {
   return (
     <div role={tone === 'error' ? 'alert' : 'status'} className={`rounded-lg border-l-4 px-4 py-3 ${tones[tone]}`}>
       <p className="font-semibold">{title ?? words[tone]}</p>

@@ -20,9 +20,24 @@ interface ButtonProps extends ButtonHTMLAttributes<HTMLButtonElement> {
 }
 
 /** A 44 px tap target; while `pending` it is disabled and says what it is doing. */
-export function Button({ variant = 'primary', pending, pendingLabel, className = '', children, disabled, type = 'button', ...rest }: ButtonProps) {
+export function Button({
+  variant = 'primary',
+  pending,
+  pendingLabel,
+  className = '',
+  children,
+  disabled,
+  type = 'button',
+  ...rest
+}: ButtonProps) {
   return (
-    <button type={type} className={buttonClass(variant, className)} disabled={disabled || pending} aria-busy={pending || undefined} {...rest}>
+    <button
+      type={type}
+      className={buttonClass(variant, className)}
+      disabled={disabled || pending}
+      aria-busy={pending || undefined}
+      {...rest}
+    >
       {pending ? (pendingLabel ?? 'Working…') : children}
     </button>
   );

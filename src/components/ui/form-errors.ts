@@ -5,7 +5,11 @@ import { ApiError } from '@/lib/api-client';
  * Puts the server's field messages beside the fields and returns the message for the form as a
  * whole. The form's values are left alone, so nothing typed is lost.
  */
-export function applyServerErrors<T extends FieldValues>(error: unknown, setError: UseFormSetError<T>, known: readonly string[]): string {
+export function applyServerErrors<T extends FieldValues>(
+  error: unknown,
+  setError: UseFormSetError<T>,
+  known: readonly string[],
+): string {
   if (!(error instanceof ApiError)) return 'Something went wrong. Please try again.';
   let placed = false;
   for (const [field, message] of Object.entries(error.fields)) {

@@ -1,6 +1,15 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { QuiltInputError, finishedSize, gridBlock, gridCutList, gridRecipe, gridStripSets, stripSetWidth, unfinishedSize } from '@shared/quilt';
+import {
+  QuiltInputError,
+  finishedSize,
+  gridBlock,
+  gridCutList,
+  gridRecipe,
+  gridStripSets,
+  stripSetWidth,
+  unfinishedSize,
+} from '@shared/quilt';
 
 /** Cut widths on a 1/16″ grid, wider than two ¼″ seams. */
 const cutWidth = fc.integer({ min: 9, max: 16 * 12 }).map((k) => k / 16);
@@ -61,23 +70,31 @@ describe('gridBlock', () => {
     expect(block.finished).toEqual({ width: 8, height: 8 });
     expect(block.patches).toHaveLength(9);
     const centre = block.patches.find((p) => p.row === 1 && p.col === 1);
-    expect(centre).toMatchObject({ cut: { width: 4.5, height: 4.5 }, finished: { width: 4, height: 4 }, visibleInUnfinished: { width: 4, height: 4 } });
+    expect(centre).toMatchObject({
+      cut: { width: 4.5, height: 4.5 },
+      finished: { width: 4, height: 4 },
+      visibleInUnfinished: { width: 4, height: 4 },
+    });
     const edge = block.patches.find((p) => p.row === 0 && p.col === 1);
     expect(edge?.visibleInUnfinished).toEqual({ width: 4, height: 2.25 });
   });
 
   it('visible parts tile the unfinished block and finished parts tile the finished block', () => {
     fc.assert(
-      fc.property(fc.array(cutWidth, { minLength: 1, maxLength: 6 }), fc.array(cutWidth, { minLength: 1, maxLength: 6 }), (columns, rows) => {
-        const block = gridBlock({ columns, rows });
-        const firstRow = block.patches.filter((p) => p.row === 0);
-        const firstCol = block.patches.filter((p) => p.col === 0);
-        const sum = (xs: number[]) => xs.reduce((s, x) => s + x, 0);
-        expect(sum(firstRow.map((p) => p.visibleInUnfinished.width))).toBeCloseTo(block.unfinished.width, 12);
-        expect(sum(firstCol.map((p) => p.visibleInUnfinished.height))).toBeCloseTo(block.unfinished.height, 12);
-        expect(sum(firstRow.map((p) => p.finished.width))).toBeCloseTo(block.finished.width, 12);
-        expect(block.unfinished.width).toBe(stripSetWidth(columns));
-      }),
+      fc.property(
+        fc.array(cutWidth, { minLength: 1, maxLength: 6 }),
+        fc.array(cutWidth, { minLength: 1, maxLength: 6 }),
+        (columns, rows) => {
+          const block = gridBlock({ columns, rows });
+          const firstRow = block.patches.filter((p) => p.row === 0);
+          const firstCol = block.patches.filter((p) => p.col === 0);
+          const sum = (xs: number[]) => xs.reduce((s, x) => s + x, 0);
+          expect(sum(firstRow.map((p) => p.visibleInUnfinished.width))).toBeCloseTo(block.unfinished.width, 12);
+          expect(sum(firstCol.map((p) => p.visibleInUnfinished.height))).toBeCloseTo(block.unfinished.height, 12);
+          expect(sum(firstRow.map((p) => p.finished.width))).toBeCloseTo(block.finished.width, 12);
+          expect(block.unfinished.width).toBe(stripSetWidth(columns));
+        },
+      ),
     );
   });
 
@@ -101,7 +118,14 @@ describe('grid recipe', () => {
   it('groups rows with the same roles into one strip set', () => {
     const sets = gridStripSets(nine, { blocks: 1 });
     expect(sets).toHaveLength(2);
-    expect(sets[0]).toMatchObject({ strips: [{ width: 2.5, role: 'dark' }, { width: 2.5, role: 'light' }, { width: 2.5, role: 'dark' }], sewnWidth: 6.5 });
+    expect(sets[0]).toMatchObject({
+      strips: [
+        { width: 2.5, role: 'dark' },
+        { width: 2.5, role: 'light' },
+        { width: 2.5, role: 'dark' },
+      ],
+      sewnWidth: 6.5,
+    });
     expect(sets[0]?.subCuts).toEqual([{ height: 2.5, rows: [0, 2], perBlock: 2, total: 2 }]);
     expect(sets[1]?.subCuts).toEqual([{ height: 2.5, rows: [1], perBlock: 1, total: 1 }]);
   });

@@ -28,7 +28,10 @@ describe('checkBlock', () => {
     expect(check(8.5, 8.5, [12, 12.3]).verdict).toBe('skewed');
     expect(check(8.75, 8.75, [12, 12.3]).verdict).toBe('skewed');
     expect(check(8.25, 8.5, [12, 12.3]).verdict).toBe('short');
-    expect(checkBlock({ target, tolerance: 0.125, squareness: 0.5, measured: { width: 8.5, height: 8.5, diagonals: [12, 12.3] } }).verdict).toBe('true');
+    expect(
+      checkBlock({ target, tolerance: 0.125, squareness: 0.5, measured: { width: 8.5, height: 8.5, diagonals: [12, 12.3] } })
+        .verdict,
+    ).toBe('true');
   });
 
   it('reports deviations as measured − target and d1 − d2', () => {
@@ -39,21 +42,35 @@ describe('checkBlock', () => {
   it('follows the rules in order for any block on a 1/64″ grid', () => {
     const len = fc.integer({ min: 7 * 64, max: 10 * 64 }).map((k) => k / 64);
     fc.assert(
-      fc.property(len, len, fc.option(fc.tuple(len, len)), fc.integer({ min: 0, max: 32 }).map((k) => k / 64), (w, h, d, tol) => {
-        const { verdict } = checkBlock({ target, tolerance: tol, measured: d ? { width: w, height: h, diagonals: d } : { width: w, height: h } });
-        const short = w < 8.5 - tol || h < 8.5 - tol;
-        const skewed = d !== null && Math.abs(d[0] - d[1]) > 0.25;
-        const over = w > 8.5 + tol || h > 8.5 + tol;
-        expect(verdict).toBe(short ? 'short' : skewed ? 'skewed' : over ? 'trim' : 'true');
-      }),
+      fc.property(
+        len,
+        len,
+        fc.option(fc.tuple(len, len)),
+        fc.integer({ min: 0, max: 32 }).map((k) => k / 64),
+        (w, h, d, tol) => {
+          const { verdict } = checkBlock({
+            target,
+            tolerance: tol,
+            measured: d ? { width: w, height: h, diagonals: d } : { width: w, height: h },
+          });
+          const short = w < 8.5 - tol || h < 8.5 - tol;
+          const skewed = d !== null && Math.abs(d[0] - d[1]) > 0.25;
+          const over = w > 8.5 + tol || h > 8.5 + tol;
+          expect(verdict).toBe(short ? 'short' : skewed ? 'skewed' : over ? 'trim' : 'true');
+        },
+      ),
     );
   });
 
   it('explains bad measurements', () => {
     expect(() => check(-8, 8)).toThrow(/Measured width cannot be negative/);
     expect(() => check(Number.NaN, 8)).toThrow(QuiltInputError);
-    expect(() => checkBlock({ target, tolerance: -1, measured: { width: 8, height: 8 } })).toThrow(/Tolerance cannot be negative/);
-    expect(() => checkBlock({ target, tolerance: 0.1, measured: { width: 8, height: 8, diagonals: [1] as never } })).toThrow(/both diagonals/);
+    expect(() => checkBlock({ target, tolerance: -1, measured: { width: 8, height: 8 } })).toThrow(
+      /Tolerance cannot be negative/,
+    );
+    expect(() => checkBlock({ target, tolerance: 0.1, measured: { width: 8, height: 8, diagonals: [1] as never } })).toThrow(
+      /both diagonals/,
+    );
   });
 });
 

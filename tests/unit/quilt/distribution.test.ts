@@ -83,13 +83,21 @@ describe('planDistribution is optimal on every small instance (checked by exhaus
 
   it('random small instances with two angels', () => {
     fc.assert(
-      fc.property(fc.array(fc.integer({ min: 0, max: 3 }), { minLength: 1, maxLength: 3 }), fc.integer({ min: 0, max: 2 }), fc.integer({ min: 0, max: 2 }), (accepted, x, y) => {
-        const makers = accepted.map((a, i) => ({ id: `m${i}`, accepted: a }));
-        const angels = [{ id: 'x', blocks: x }, { id: 'y', blocks: y }];
-        const plan = planDistribution(makers, { angels });
-        expectSound(makers, angels, plan);
-        expect(summary(makers, plan)).toEqual(bruteForceDistribution(makers, angels));
-      }),
+      fc.property(
+        fc.array(fc.integer({ min: 0, max: 3 }), { minLength: 1, maxLength: 3 }),
+        fc.integer({ min: 0, max: 2 }),
+        fc.integer({ min: 0, max: 2 }),
+        (accepted, x, y) => {
+          const makers = accepted.map((a, i) => ({ id: `m${i}`, accepted: a }));
+          const angels = [
+            { id: 'x', blocks: x },
+            { id: 'y', blocks: y },
+          ];
+          const plan = planDistribution(makers, { angels });
+          expectSound(makers, angels, plan);
+          expect(summary(makers, plan)).toEqual(bruteForceDistribution(makers, angels));
+        },
+      ),
       { numRuns: 60 },
     );
   });
@@ -108,7 +116,9 @@ describe('planDistribution properties on larger swaps', () => {
         const angels = a.map((b, i) => ({ id: `a${i}`, blocks: b }));
         const plan = planDistribution(makers, { angels });
         expectSound(makers, angels, plan);
-        expect(plan.minDistinct).toBeLessThanOrEqual(Math.min(...makers.filter((m) => m.accepted > 0).map((m) => m.accepted), Infinity));
+        expect(plan.minDistinct).toBeLessThanOrEqual(
+          Math.min(...makers.filter((m) => m.accepted > 0).map((m) => m.accepted), Infinity),
+        );
       }),
       { numRuns: 150 },
     );
@@ -124,32 +134,57 @@ describe('planDistribution properties on larger swaps', () => {
   });
 
   it('spreads repeated pairs evenly and is deterministic', () => {
-    const makers = [{ id: 'a', accepted: 4 }, { id: 'b', accepted: 4 }, { id: 'c', accepted: 4 }];
+    const makers = [
+      { id: 'a', accepted: 4 },
+      { id: 'b', accepted: 4 },
+      { id: 'c', accepted: 4 },
+    ];
     const plan = planDistribution(makers);
     expect(plan.transfers.map((t) => t.count)).toEqual([2, 2, 2, 2, 2, 2]);
     expect(planDistribution(makers)).toEqual(plan);
   });
 
   it('lets an angel who is also a maker give extra blocks, never to themselves', () => {
-    const makers = [{ id: 'a', accepted: 3 }, { id: 'b', accepted: 1 }];
+    const makers = [
+      { id: 'a', accepted: 3 },
+      { id: 'b', accepted: 1 },
+    ];
     const angels = [{ id: 'b', blocks: 2 }];
     const plan = planDistribution(makers, { angels });
     expectSound(makers, angels, plan);
     expect(plan.shortfall).toEqual([]);
-    expect(plan.transfers).toEqual([{ from: 'a', to: 'b', count: 1 }, { from: 'b', to: 'a', count: 3 }]);
+    expect(plan.transfers).toEqual([
+      { from: 'a', to: 'b', count: 1 },
+      { from: 'b', to: 'a', count: 3 },
+    ]);
   });
 
   it('reports the shortfall of a lone maker', () => {
-    expect(planDistribution([{ id: 'solo', accepted: 3 }])).toMatchObject({ transfers: [], shortfall: [{ id: 'solo', missing: 3 }] });
-    expect(planDistribution([{ id: 'a', accepted: 5 }, { id: 'b', accepted: 1 }]).shortfall).toEqual([{ id: 'a', missing: 4 }]);
+    expect(planDistribution([{ id: 'solo', accepted: 3 }])).toMatchObject({
+      transfers: [],
+      shortfall: [{ id: 'solo', missing: 3 }],
+    });
+    expect(
+      planDistribution([
+        { id: 'a', accepted: 5 },
+        { id: 'b', accepted: 1 },
+      ]).shortfall,
+    ).toEqual([{ id: 'a', missing: 4 }]);
     expect(planDistribution([])).toMatchObject({ transfers: [], shortfall: [] });
   });
 
   it('explains bad input', () => {
-    expect(() => planDistribution([{ id: 'a', accepted: 1 }, { id: 'a', accepted: 2 }])).toThrow(/listed twice/);
+    expect(() =>
+      planDistribution([
+        { id: 'a', accepted: 1 },
+        { id: 'a', accepted: 2 },
+      ]),
+    ).toThrow(/listed twice/);
     expect(() => planDistribution([{ id: '', accepted: 1 }])).toThrow(/needs an id/);
     expect(() => planDistribution([{ id: 'a', accepted: -1 }])).toThrow(/whole number of at least 0/);
     expect(() => planDistribution([{ id: 'a', accepted: 1.5 }])).toThrow(/whole number/);
-    expect(() => planDistribution([{ id: 'a', accepted: 1 }], { angels: [{ id: 'z', blocks: Number.NaN }] })).toThrow(/Angels 1 blocks/);
+    expect(() => planDistribution([{ id: 'a', accepted: 1 }], { angels: [{ id: 'z', blocks: Number.NaN }] })).toThrow(
+      /Angels 1 blocks/,
+    );
   });
 });

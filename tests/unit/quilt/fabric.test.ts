@@ -23,12 +23,15 @@ describe('yards', () => {
     expect(roundUpToEighthYard(1.125)).toBe(1.125);
     expect(roundUpToEighthYard(0)).toBe(0);
     fc.assert(
-      fc.property(fc.integer({ min: 0, max: 50_000 }).map((k) => k / 1000), (y) => {
-        const r = roundUpToEighthYard(y);
-        expect(r).toBeGreaterThanOrEqual(y);
-        expect(r - y).toBeLessThan(0.125);
-        expect(Number.isInteger(r * 8)).toBe(true);
-      }),
+      fc.property(
+        fc.integer({ min: 0, max: 50_000 }).map((k) => k / 1000),
+        (y) => {
+          const r = roundUpToEighthYard(y);
+          expect(r).toBeGreaterThanOrEqual(y);
+          expect(r - y).toBeLessThan(0.125);
+          expect(Number.isInteger(r * 8)).toBe(true);
+        },
+      ),
     );
   });
 

@@ -1,6 +1,14 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { LengthParseError, formatDeviation, formatLength, inchesToMm, mmToInches, parseLength, parseLengthExact } from '@shared/quilt';
+import {
+  LengthParseError,
+  formatDeviation,
+  formatLength,
+  inchesToMm,
+  mmToInches,
+  parseLength,
+  parseLengthExact,
+} from '@shared/quilt';
 
 describe('parseLength', () => {
   it.each([

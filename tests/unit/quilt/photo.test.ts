@@ -2,13 +2,31 @@ import { describe, expect, it } from 'vitest';
 import { type Quad, QuiltInputError, applyHomography, homography, measureFromPhoto, photoMeasureQuality } from '@shared/quilt';
 import { type Camera, project, rectangle } from './support/camera';
 
-const camera = (over: Partial<Camera> = {}): Camera => ({ tilt: 15, roll: 3, focal: 3000, distance: 30, target: [10, 8], centre: [2000, 1500], ...over });
+const camera = (over: Partial<Camera> = {}): Camera => ({
+  tilt: 15,
+  roll: 3,
+  focal: 3000,
+  distance: 30,
+  target: [10, 8],
+  centre: [2000, 1500],
+  ...over,
+});
 const shoot = (cam: Camera, quad: Quad) => quad.map((p) => project(cam, p)) as Quad;
 
 describe('homography', () => {
   it('maps the four source points onto the four destination points', () => {
-    const src: Quad = [[10, 20], [400, 35], [390, 300], [5, 280]];
-    const dst: Quad = [[0, 0], [6, 0], [6, 6], [0, 6]];
+    const src: Quad = [
+      [10, 20],
+      [400, 35],
+      [390, 300],
+      [5, 280],
+    ];
+    const dst: Quad = [
+      [0, 0],
+      [6, 0],
+      [6, 6],
+      [0, 6],
+    ];
     const h = homography(src, dst);
     expect(h).toHaveLength(9);
     expect(h[8]).toBe(1);
@@ -20,24 +38,71 @@ describe('homography', () => {
   });
 
   it('is the identity and a pure scale where it should be, and accepts 3 × 3 rows', () => {
-    const sq: Quad = [[0, 0], [1, 0], [1, 1], [0, 1]];
+    const sq: Quad = [
+      [0, 0],
+      [1, 0],
+      [1, 1],
+      [0, 1],
+    ];
     homography(sq, sq).forEach((v, i) => expect(v).toBeCloseTo([1, 0, 0, 0, 1, 0, 0, 0, 1][i]!, 12));
-    const h = homography(sq, [[0, 0], [3, 0], [3, 3], [0, 3]]);
+    const h = homography(sq, [
+      [0, 0],
+      [3, 0],
+      [3, 3],
+      [0, 3],
+    ]);
     const rows = [h.slice(0, 3), h.slice(3, 6), h.slice(6, 9)];
     expect(applyHomography(rows, [0.5, 2])).toEqual([expect.closeTo(1.5, 12), expect.closeTo(6, 12)]);
   });
 
   it('refuses three corners on a line', () => {
-    expect(() => homography([[0, 0], [1, 1], [2, 2], [0, 5]], [[0, 0], [1, 0], [1, 1], [0, 1]])).toThrow(/on one line/);
-    expect(() => homography([[0, 0]] as never, [[0, 0], [1, 0], [1, 1], [0, 1]])).toThrow(/exactly four corners/);
+    expect(() =>
+      homography(
+        [
+          [0, 0],
+          [1, 1],
+          [2, 2],
+          [0, 5],
+        ],
+        [
+          [0, 0],
+          [1, 0],
+          [1, 1],
+          [0, 1],
+        ],
+      ),
+    ).toThrow(/on one line/);
+    expect(() =>
+      homography([[0, 0]] as never, [
+        [0, 0],
+        [1, 0],
+        [1, 1],
+        [0, 1],
+      ]),
+    ).toThrow(/exactly four corners/);
   });
 });
 
 describe('measureFromPhoto', () => {
   it('recovers a block seen straight down at any scale', () => {
     const m = measureFromPhoto(
-      { corners: [[100, 100], [700, 100], [700, 700], [100, 700]], size: 6 },
-      { corners: [[800, 100], [2050, 100], [2050, 1350], [800, 1350]] },
+      {
+        corners: [
+          [100, 100],
+          [700, 100],
+          [700, 700],
+          [100, 700],
+        ],
+        size: 6,
+      },
+      {
+        corners: [
+          [800, 100],
+          [2050, 100],
+          [2050, 1350],
+          [800, 1350],
+        ],
+      },
     );
     expect(m.width).toBeCloseTo(12.5, 10);
     expect(m.height).toBeCloseTo(12.5, 10);
@@ -47,7 +112,12 @@ describe('measureFromPhoto', () => {
   it('tells apart a trapezoid with equal diagonals by its sides', () => {
     const cam = camera();
     const ref = shoot(cam, rectangle(0, 0, 6, 6));
-    const trapezoid: Quad = [[8.25, 1], [16.75, 1], [17, 9.5], [8, 9.5]];
+    const trapezoid: Quad = [
+      [8.25, 1],
+      [16.75, 1],
+      [17, 9.5],
+      [8, 9.5],
+    ];
     const m = measureFromPhoto({ corners: ref, size: 6 }, { corners: shoot(cam, trapezoid) });
     expect(m.sides[0]).toBeCloseTo(8.5, 9);
     expect(m.sides[2]).toBeCloseTo(9, 9);
@@ -55,9 +125,39 @@ describe('measureFromPhoto', () => {
   });
 
   it('explains corners clicked out of order', () => {
-    const ref: Quad = [[0, 0], [100, 0], [100, 100], [0, 100]];
-    expect(() => measureFromPhoto({ corners: [[0, 0], [100, 100], [100, 0], [0, 100]], size: 6 }, { corners: ref })).toThrow(/cross over/);
-    expect(() => measureFromPhoto({ corners: ref, size: 6 }, { corners: [[0, 0], [100, 100], [100, 0], [0, 100]] })).toThrow(QuiltInputError);
+    const ref: Quad = [
+      [0, 0],
+      [100, 0],
+      [100, 100],
+      [0, 100],
+    ];
+    expect(() =>
+      measureFromPhoto(
+        {
+          corners: [
+            [0, 0],
+            [100, 100],
+            [100, 0],
+            [0, 100],
+          ],
+          size: 6,
+        },
+        { corners: ref },
+      ),
+    ).toThrow(/cross over/);
+    expect(() =>
+      measureFromPhoto(
+        { corners: ref, size: 6 },
+        {
+          corners: [
+            [0, 0],
+            [100, 100],
+            [100, 0],
+            [0, 100],
+          ],
+        },
+      ),
+    ).toThrow(QuiltInputError);
     expect(() => measureFromPhoto({ corners: ref, size: 0 }, { corners: ref })).toThrow(/Reference size must be more than zero/);
   });
 });
@@ -67,7 +167,11 @@ describe('photoMeasureQuality', () => {
 
   it('is quiet for a good photo: a reference as large as the block, clicked to within a pixel', () => {
     const cam = camera({ tilt: 5, target: [12, 7] });
-    const q = photoMeasureQuality({ corners: shoot(cam, rectangle(0, 0, 12.5, 12.5)), size: 12.5 }, { corners: shoot(cam, rectangle(13, 0, 12.5, 12.5)) }, { clickError: 1 });
+    const q = photoMeasureQuality(
+      { corners: shoot(cam, rectangle(0, 0, 12.5, 12.5)), size: 12.5 },
+      { corners: shoot(cam, rectangle(13, 0, 12.5, 12.5)) },
+      { clickError: 1 },
+    );
     expect(q.referencePixels).toBeGreaterThan(1000);
     expect(q.obliqueness).toBeLessThan(0.1);
     expect(q.expectedError).toBeLessThan(1 / 16);
@@ -76,8 +180,13 @@ describe('photoMeasureQuality', () => {
 
   it('expects less error from a larger reference square', () => {
     const cam = camera({ tilt: 5, target: [12, 7] });
-    const errors = [4, 6, 8, 12.5].map((size) =>
-      photoMeasureQuality({ corners: shoot(cam, rectangle(0, 0, size, size)), size }, { corners: shoot(cam, rectangle(13, 0, 12.5, 12.5)) }).expectedError);
+    const errors = [4, 6, 8, 12.5].map(
+      (size) =>
+        photoMeasureQuality(
+          { corners: shoot(cam, rectangle(0, 0, size, size)), size },
+          { corners: shoot(cam, rectangle(13, 0, 12.5, 12.5)) },
+        ).expectedError,
+    );
     errors.slice(1).forEach((e, i) => expect(e).toBeLessThan(errors[i]!));
   });
 
@@ -91,7 +200,10 @@ describe('photoMeasureQuality', () => {
     const s = photoMeasureQuality({ corners: shoot(steep, rectangle(0, 0, 6, 6)), size: 6 }, { corners: shoot(steep, block) });
     expect(s.obliqueness).toBeGreaterThan(0.2);
     expect(s.warnings.join(' ')).toMatch(/steep angle/);
-    const tiny = photoMeasureQuality({ corners: shoot(camera(), rectangle(0, 0, 2, 2)), size: 2 }, { corners: shoot(camera(), block) });
+    const tiny = photoMeasureQuality(
+      { corners: shoot(camera(), rectangle(0, 0, 2, 2)), size: 2 },
+      { corners: shoot(camera(), block) },
+    );
     expect(tiny.warnings.join(' ')).toMatch(/much larger than the reference/);
   });
 

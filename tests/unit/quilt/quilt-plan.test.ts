@@ -25,12 +25,23 @@ describe('layout', () => {
   });
 
   it('uses the columns it is given', () => {
-    expect(quiltPlan({ blockFinished: square8, blocks: 42, columns: 5 }).layout).toEqual({ columns: 5, rows: 9, cells: 45, emptyCells: 3 });
+    expect(quiltPlan({ blockFinished: square8, blocks: 42, columns: 5 }).layout).toEqual({
+      columns: 5,
+      rows: 9,
+      cells: 45,
+      emptyCells: 3,
+    });
   });
 
   it('finds the blocks for a target size', () => {
-    expect(layoutForTarget({ target: { width: 60, height: 80 }, blockFinished: { width: 10, height: 10 } })).toEqual({ columns: 6, rows: 8, blocks: 48 });
-    expect(layoutForTarget({ target: { width: 60, height: 80 }, blockFinished: { width: 12, height: 12 }, sashing: 2, borders: [4] })).toEqual({ columns: 4, rows: 5, blocks: 20 });
+    expect(layoutForTarget({ target: { width: 60, height: 80 }, blockFinished: { width: 10, height: 10 } })).toEqual({
+      columns: 6,
+      rows: 8,
+      blocks: 48,
+    });
+    expect(
+      layoutForTarget({ target: { width: 60, height: 80 }, blockFinished: { width: 12, height: 12 }, sashing: 2, borders: [4] }),
+    ).toEqual({ columns: 4, rows: 5, blocks: 20 });
   });
 });
 
@@ -47,7 +58,11 @@ describe('top, sashing and borders', () => {
       ],
       cornerstones: { count: 20, cut: { width: 2.5, height: 2.5 } },
     });
-    expect(plan.borders[0]).toEqual({ finished: 1.5, sides: { count: 2, cut: { width: 2, height: 58.5 } }, topAndBottom: { count: 2, cut: { width: 47.5, height: 2 } } });
+    expect(plan.borders[0]).toEqual({
+      finished: 1.5,
+      sides: { count: 2, cut: { width: 2, height: 58.5 } },
+      topAndBottom: { count: 2, cut: { width: 47.5, height: 2 } },
+    });
     expect(plan.borders[1]?.sides.cut).toEqual({ width: 4.5, height: 61.5 });
   });
 });
@@ -55,13 +70,18 @@ describe('top, sashing and borders', () => {
 describe('binding', () => {
   it('uses the fewest strips whose diagonal joins still reach the length', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 4, max: 24 }), fc.integer({ min: 1, max: 60 }), fc.constantFrom(2.25, 2.5), (blockSide, blocks, width) => {
-        const { binding } = quiltPlan({ blockFinished: { width: blockSide, height: blockSide }, blocks, bindingWidth: width });
-        const reach = (n: number) => n * 42 - (n - 1) * width;
-        expect(reach(binding.strips)).toBeGreaterThanOrEqual(binding.length);
-        if (binding.strips > 1) expect(reach(binding.strips - 1)).toBeLessThan(binding.length);
-        expect(binding.yards * 36).toBeGreaterThanOrEqual(binding.strips * width);
-      }),
+      fc.property(
+        fc.integer({ min: 4, max: 24 }),
+        fc.integer({ min: 1, max: 60 }),
+        fc.constantFrom(2.25, 2.5),
+        (blockSide, blocks, width) => {
+          const { binding } = quiltPlan({ blockFinished: { width: blockSide, height: blockSide }, blocks, bindingWidth: width });
+          const reach = (n: number) => n * 42 - (n - 1) * width;
+          expect(reach(binding.strips)).toBeGreaterThanOrEqual(binding.length);
+          if (binding.strips > 1) expect(reach(binding.strips - 1)).toBeLessThan(binding.length);
+          expect(binding.yards * 36).toBeGreaterThanOrEqual(binding.strips * width);
+        },
+      ),
     );
   });
 });
@@ -69,7 +89,15 @@ describe('binding', () => {
 describe('backing', () => {
   it('needs no seam when one width covers', () => {
     const plan = quiltPlan({ blockFinished: { width: 10, height: 10 }, blocks: 9 });
-    expect(plan.backing).toMatchObject({ width: 38, height: 38, direction: 'vertical', seams: 'none', panels: 1, fabricLength: 38, yards: 1.125 });
+    expect(plan.backing).toMatchObject({
+      width: 38,
+      height: 38,
+      direction: 'vertical',
+      seams: 'none',
+      panels: 1,
+      fabricLength: 38,
+      yards: 1.125,
+    });
   });
 
   it('picks the seam direction that uses less fabric and covers the width', () => {
@@ -106,8 +134,12 @@ describe('batting and bed sizes', () => {
 describe('bad input', () => {
   it('explains it', () => {
     expect(() => quiltPlan({ blockFinished: square8, blocks: 0 })).toThrow(/Blocks must be a whole number of at least 1/);
-    expect(() => quiltPlan({ blockFinished: { width: -8, height: 8 }, blocks: 4 })).toThrow(/Block finished width cannot be negative/);
-    expect(() => quiltPlan({ blockFinished: square8, blocks: 4, borders: [2, Number.NaN] })).toThrow(/Borders 2 must be a number/);
+    expect(() => quiltPlan({ blockFinished: { width: -8, height: 8 }, blocks: 4 })).toThrow(
+      /Block finished width cannot be negative/,
+    );
+    expect(() => quiltPlan({ blockFinished: square8, blocks: 4, borders: [2, Number.NaN] })).toThrow(
+      /Borders 2 must be a number/,
+    );
     expect(() => quiltPlan({ blockFinished: square8, blocks: 4, bindingWidth: 50 })).toThrow(/narrower than the width of fabric/);
   });
 });

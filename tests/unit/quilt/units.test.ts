@@ -1,6 +1,17 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { HST_METHODS, batchCuts, flyingGeeseCuts, hstCut, hstCutSize, hstUnits, qstCut, qstCutSize, settingTriangles, squareInSquareCuts } from '@shared/quilt';
+import {
+  HST_METHODS,
+  batchCuts,
+  flyingGeeseCuts,
+  hstCut,
+  hstCutSize,
+  hstUnits,
+  qstCut,
+  qstCutSize,
+  settingTriangles,
+  squareInSquareCuts,
+} from '@shared/quilt';
 
 const finished = fc.integer({ min: 4, max: 16 * 16 }).map((k) => k / 16);
 const isEighth = (x: number) => Number.isInteger(x * 8);

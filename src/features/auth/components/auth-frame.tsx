@@ -2,7 +2,17 @@ import type { ReactNode } from 'react';
 import { Card } from '@/components/ui/card';
 
 /** The narrow column the sign-in pages share. */
-export function AuthFrame({ title, lead, children, footer }: { title: string; lead?: ReactNode; children: ReactNode; footer?: ReactNode }) {
+export function AuthFrame({
+  title,
+  lead,
+  children,
+  footer,
+}: {
+  title: string;
+  lead?: ReactNode;
+  children: ReactNode;
+  footer?: ReactNode;
+}) {
   return (
     <div className="mx-auto w-full max-w-md py-6">
       <h1 className="mb-2 text-3xl font-bold text-indigo-deep">{title}</h1>

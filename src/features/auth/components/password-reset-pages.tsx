@@ -16,7 +16,9 @@ import { AuthFrame } from './auth-frame';
 export function ForgotPasswordPage() {
   const request = useRequestReset();
   const [formError, setFormError] = useState('');
-  const { register, handleSubmit, setError, formState } = useForm<ResetRequestInput>({ resolver: zodResolver(resetRequestSchema) });
+  const { register, handleSubmit, setError, formState } = useForm<ResetRequestInput>({
+    resolver: zodResolver(resetRequestSchema),
+  });
   const onSubmit = handleSubmit(async (values) => {
     setFormError('');
     try {
@@ -26,14 +28,32 @@ export function ForgotPasswordPage() {
     }
   });
   return (
-    <AuthFrame title="Reset your password" lead="We will e-mail you a link that works once, for an hour." footer={<Link className="text-indigo underline" to={paths.signIn}>Back to sign in</Link>}>
+    <AuthFrame
+      title="Reset your password"
+      lead="We will e-mail you a link that works once, for an hour."
+      footer={
+        <Link className="text-indigo underline" to={paths.signIn}>
+          Back to sign in
+        </Link>
+      }
+    >
       {request.isSuccess ? (
-        <Alert tone="success" title="Check your e-mail">{request.data.message}</Alert>
+        <Alert tone="success" title="Check your e-mail">
+          {request.data.message}
+        </Alert>
       ) : (
         <form onSubmit={onSubmit} noValidate className="space-y-4">
           {formError && <Alert tone="error">{formError}</Alert>}
-          <TextField label="E-mail" type="email" autoComplete="email" error={formState.errors.email?.message} {...register('email')} />
-          <Button type="submit" className="w-full" pending={request.isPending} pendingLabel="Sending…">Send the link</Button>
+          <TextField
+            label="E-mail"
+            type="email"
+            autoComplete="email"
+            error={formState.errors.email?.message}
+            {...register('email')}
+          />
+          <Button type="submit" className="w-full" pending={request.isPending} pendingLabel="Sending…">
+            Send the link
+          </Button>
         </form>
       )}
     </AuthFrame>
@@ -49,7 +69,9 @@ export function ResetPasswordPage() {
   const token = params.get('token') ?? '';
   const reset = useResetPassword();
   const [formError, setFormError] = useState('');
-  const { register, handleSubmit, setError, formState, control } = useForm<z.infer<typeof newPasswordSchema>>({ resolver: zodResolver(newPasswordSchema) });
+  const { register, handleSubmit, setError, formState, control } = useForm<z.infer<typeof newPasswordSchema>>({
+    resolver: zodResolver(newPasswordSchema),
+  });
   const password = useWatch({ control, name: 'password' });
   const onSubmit = handleSubmit(async (values) => {
     setFormError('');
@@ -62,7 +84,13 @@ export function ResetPasswordPage() {
   if (!token) {
     return (
       <AuthFrame title="Reset your password">
-        <Alert tone="error" title="This link is incomplete">Open the link from the e-mail again, or <Link className="underline" to={paths.forgotPassword}>ask for a new one</Link>.</Alert>
+        <Alert tone="error" title="This link is incomplete">
+          Open the link from the e-mail again, or{' '}
+          <Link className="underline" to={paths.forgotPassword}>
+            ask for a new one
+          </Link>
+          .
+        </Alert>
       </AuthFrame>
     );
   }
@@ -70,17 +98,35 @@ export function ResetPasswordPage() {
     <AuthFrame title="Choose a new password">
       {reset.isSuccess ? (
         <Alert tone="success" title="Password changed">
-          {reset.data.message} <Link className="font-semibold underline" to={paths.signIn}>Sign in</Link>
+          {reset.data.message}{' '}
+          <Link className="font-semibold underline" to={paths.signIn}>
+            Sign in
+          </Link>
         </Alert>
       ) : (
         <form onSubmit={onSubmit} noValidate className="space-y-4">
           {formError && <Alert tone="error">{formError}</Alert>}
           <div>
-            <TextField label="New password" type="password" hint="At least 10 characters." autoComplete="new-password" error={formState.errors.password?.message} {...register('password')} />
+            <TextField
+              label="New password"
+              type="password"
+              hint="At least 10 characters."
+              autoComplete="new-password"
+              error={formState.errors.password?.message}
+              {...register('password')}
+            />
             <PasswordStrengthMeter password={password ?? ''} />
           </div>
-          <TextField label="New password again" type="password" autoComplete="new-password" error={formState.errors.confirm?.message} {...register('confirm')} />
-          <Button type="submit" className="w-full" pending={reset.isPending} pendingLabel="Saving…">Save the new password</Button>
+          <TextField
+            label="New password again"
+            type="password"
+            autoComplete="new-password"
+            error={formState.errors.confirm?.message}
+            {...register('confirm')}
+          />
+          <Button type="submit" className="w-full" pending={reset.isPending} pendingLabel="Saving…">
+            Save the new password
+          </Button>
         </form>
       )}
     </AuthFrame>

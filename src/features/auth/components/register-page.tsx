@@ -17,7 +17,9 @@ export function RegisterPage() {
   const navigate = useNavigate();
   const registration = useRegister();
   const [formError, setFormError] = useState('');
-  const { register, handleSubmit, setError, formState, control } = useForm<RegisterInput>({ resolver: zodResolver(registerSchema) });
+  const { register, handleSubmit, setError, formState, control } = useForm<RegisterInput>({
+    resolver: zodResolver(registerSchema),
+  });
   const [password, email, displayName] = useWatch({ control, name: ['password', 'email', 'displayName'] });
 
   const onSubmit = handleSubmit(async (values) => {
@@ -37,7 +39,10 @@ export function RegisterPage() {
       footer={
         <p>
           Already have an account?{' '}
-          <Link className="font-semibold text-indigo underline" to={`${paths.signIn}${params.get('next') ? `?next=${encodeURIComponent(params.get('next')!)}` : ''}`}>
+          <Link
+            className="font-semibold text-indigo underline"
+            to={`${paths.signIn}${params.get('next') ? `?next=${encodeURIComponent(params.get('next')!)}` : ''}`}
+          >
             Sign in
           </Link>
         </p>
@@ -45,10 +50,29 @@ export function RegisterPage() {
     >
       <form onSubmit={onSubmit} noValidate className="space-y-4">
         {formError && <Alert tone="error">{formError}</Alert>}
-        <TextField label="Your name" hint="As your guild knows you." autoComplete="name" error={formState.errors.displayName?.message} {...register('displayName')} />
-        <TextField label="E-mail" type="email" autoComplete="email" error={formState.errors.email?.message} {...register('email')} />
+        <TextField
+          label="Your name"
+          hint="As your guild knows you."
+          autoComplete="name"
+          error={formState.errors.displayName?.message}
+          {...register('displayName')}
+        />
+        <TextField
+          label="E-mail"
+          type="email"
+          autoComplete="email"
+          error={formState.errors.email?.message}
+          {...register('email')}
+        />
         <div>
-          <TextField label="Password" type="password" hint="At least 10 characters." autoComplete="new-password" error={formState.errors.password?.message} {...register('password')} />
+          <TextField
+            label="Password"
+            type="password"
+            hint="At least 10 characters."
+            autoComplete="new-password"
+            error={formState.errors.password?.message}
+            {...register('password')}
+          />
           <PasswordStrengthMeter password={password ?? ''} personal={[email ?? '', displayName ?? '']} />
         </div>
         <Button type="submit" className="w-full" pending={registration.isPending} pendingLabel="Creating your account…">

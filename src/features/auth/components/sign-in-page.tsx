@@ -35,18 +35,35 @@ export function SignInPage() {
       footer={
         <>
           <p>
-            New here? <Link className="font-semibold text-indigo underline" to={paths.register}>Create an account</Link>
+            New here?{' '}
+            <Link className="font-semibold text-indigo underline" to={paths.register}>
+              Create an account
+            </Link>
           </p>
           <p>
-            <Link className="text-indigo underline" to={paths.forgotPassword}>Forgot your password?</Link>
+            <Link className="text-indigo underline" to={paths.forgotPassword}>
+              Forgot your password?
+            </Link>
           </p>
         </>
       }
     >
       <form onSubmit={onSubmit} noValidate className="space-y-4">
         {formError && <Alert tone="error">{formError}</Alert>}
-        <TextField label="E-mail" type="email" autoComplete="email" error={formState.errors.email?.message} {...register('email')} />
-        <TextField label="Password" type="password" autoComplete="current-password" error={formState.errors.password?.message} {...register('password')} />
+        <TextField
+          label="E-mail"
+          type="email"
+          autoComplete="email"
+          error={formState.errors.email?.message}
+          {...register('email')}
+        />
+        <TextField
+          label="Password"
+          type="password"
+          autoComplete="current-password"
+          error={formState.errors.password?.message}
+          {...register('password')}
+        />
         <Button type="submit" className="w-full" pending={login.isPending} pendingLabel="Signing in…">
           Sign in
         </Button>

@@ -3,7 +3,8 @@ import type { ChatMessageDto } from '@shared/schemas/chat';
 import { api } from '@/lib/api-client';
 import { upsertMessage } from './message-cache';
 
-export const editMessage = (messageId: number, body: string) => api.patch<ChatMessageDto>(`/chat/messages/${messageId}`, { body });
+export const editMessage = (messageId: number, body: string) =>
+  api.patch<ChatMessageDto>(`/chat/messages/${messageId}`, { body });
 
 export function useEditMessage() {
   const queryClient = useQueryClient();

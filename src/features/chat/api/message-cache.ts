@@ -11,7 +11,10 @@ export function upsertMessage(queryClient: QueryClient, message: ChatMessageDto)
     if (!data) return data;
     const found = data.pages.some((p) => p.messages.some((m) => m.id === message.id));
     if (found) {
-      return { ...data, pages: data.pages.map((p) => ({ ...p, messages: p.messages.map((m) => (m.id === message.id ? message : m)) })) };
+      return {
+        ...data,
+        pages: data.pages.map((p) => ({ ...p, messages: p.messages.map((m) => (m.id === message.id ? message : m)) })),
+      };
     }
     const [first, ...rest] = data.pages;
     if (!first) return data;

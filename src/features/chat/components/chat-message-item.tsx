@@ -10,7 +10,15 @@ import { LinkifiedText } from './linkified-text';
 
 const removedText = { author: 'Message deleted by its author.', moderator: 'This message was removed by a moderator.' } as const;
 
-export function ChatMessageItem({ message, mine, canModerate }: { message: ChatMessageDto; mine: boolean; canModerate: boolean }) {
+export function ChatMessageItem({
+  message,
+  mine,
+  canModerate,
+}: {
+  message: ChatMessageDto;
+  mine: boolean;
+  canModerate: boolean;
+}) {
   const edit = useEditMessage();
   const remove = useDeleteMessage();
   const [editing, setEditing] = useState(false);
@@ -44,7 +52,9 @@ export function ChatMessageItem({ message, mine, canModerate }: { message: ChatM
         <p className="italic text-walnut-soft">{removedText[message.removed]}</p>
       ) : editing ? (
         <div className="mt-2">
-          <label className="sr-only" htmlFor={`edit-${message.id}`}>Edit your message</label>
+          <label className="sr-only" htmlFor={`edit-${message.id}`}>
+            Edit your message
+          </label>
           <textarea
             id={`edit-${message.id}`}
             className="block min-h-20 w-full rounded-lg border-2 border-walnut/30 bg-white px-3 py-2"
@@ -53,19 +63,39 @@ export function ChatMessageItem({ message, mine, canModerate }: { message: ChatM
             onChange={(e) => setDraft(e.target.value)}
           />
           <div className="mt-2 flex gap-2">
-            <Button onClick={save} pending={edit.isPending} pendingLabel="Saving…">Save</Button>
-            <Button variant="quiet" onClick={() => { setEditing(false); setDraft(message.body); setProblem(''); }}>Keep as it was</Button>
+            <Button onClick={save} pending={edit.isPending} pendingLabel="Saving…">
+              Save
+            </Button>
+            <Button
+              variant="quiet"
+              onClick={() => {
+                setEditing(false);
+                setDraft(message.body);
+                setProblem('');
+              }}
+            >
+              Keep as it was
+            </Button>
           </div>
         </div>
       ) : (
         <>
-          {message.body && <p><LinkifiedText text={message.body} /></p>}
+          {message.body && (
+            <p>
+              <LinkifiedText text={message.body} />
+            </p>
+          )}
           {message.photos.length > 0 && (
             <ul className="mt-2 flex flex-wrap gap-2">
               {message.photos.map((p) => (
                 <li key={p.id}>
                   <a href={p.url} target="_blank" rel="noopener noreferrer">
-                    <img src={p.thumbnailUrl} alt={`Photo from ${message.author.displayName}`} loading="lazy" className="h-32 w-auto rounded-md ring-1 ring-walnut/15" />
+                    <img
+                      src={p.thumbnailUrl}
+                      alt={`Photo from ${message.author.displayName}`}
+                      loading="lazy"
+                      className="h-32 w-auto rounded-md ring-1 ring-walnut/15"
+                    />
                   </a>
                 </li>
               ))}
@@ -76,7 +106,14 @@ export function ChatMessageItem({ message, mine, canModerate }: { message: ChatM
       {!message.removed && !editing && (mine || canModerate) && (
         <div className="mt-1 flex flex-wrap gap-1">
           {mine && message.body && (
-            <Button variant="quiet" className="px-2" onClick={() => { setDraft(message.body); setEditing(true); }}>
+            <Button
+              variant="quiet"
+              className="px-2"
+              onClick={() => {
+                setDraft(message.body);
+                setEditing(true);
+              }}
+            >
               Edit
             </Button>
           )}
@@ -85,7 +122,11 @@ export function ChatMessageItem({ message, mine, canModerate }: { message: ChatM
           </Button>
         </div>
       )}
-      {problem && <p role="alert" className="mt-1 font-semibold text-madder-deep">{problem}</p>}
+      {problem && (
+        <p role="alert" className="mt-1 font-semibold text-madder-deep">
+          {problem}
+        </p>
+      )}
     </li>
   );
 }

@@ -39,13 +39,24 @@ export function ChatPanel({ roomId, title = 'Chat' }: { roomId: number; title?: 
   return (
     <Card title={title}>
       <p className="text-base text-walnut-soft">
-        <span aria-hidden="true" className={`mr-1 inline-block h-3 w-3 rounded-full ${status === 'connected' ? 'bg-lichen' : 'bg-weld'}`} />
+        <span
+          aria-hidden="true"
+          className={`mr-1 inline-block h-3 w-3 rounded-full ${status === 'connected' ? 'bg-lichen' : 'bg-weld'}`}
+        />
         {statusWords[status]}
       </p>
       <p className="mt-1">{others.length ? `Here now: ${names(others)}.` : 'Nobody else is here right now.'}</p>
-      {live.joinError && <div className="mt-3"><Alert tone="error">{live.joinError}</Alert></div>}
+      {live.joinError && (
+        <div className="mt-3">
+          <Alert tone="error">{live.joinError}</Alert>
+        </div>
+      )}
       <div className="mt-4">
-        {room.data.canPost ? <MessageComposer roomId={roomId} onTyping={live.notifyTyping} /> : <p>Your role here lets you read the chat.</p>}
+        {room.data.canPost ? (
+          <MessageComposer roomId={roomId} onTyping={live.notifyTyping} />
+        ) : (
+          <p>Your role here lets you read the chat.</p>
+        )}
         <p aria-live="polite" className="mt-1 min-h-7 text-base italic text-walnut-soft">
           {live.typingNames.length > 0 && `${names(live.typingNames)} ${live.typingNames.length === 1 ? 'is' : 'are'} typing…`}
         </p>

@@ -21,7 +21,13 @@ export function LinkifiedText({ text }: { text: string }) {
         typeof p === 'string' ? (
           p
         ) : (
-          <a key={`${p.at}-${i}`} href={p.href} target="_blank" rel="noopener noreferrer nofollow ugc" className="text-indigo underline">
+          <a
+            key={`${p.at}-${i}`}
+            href={p.href}
+            target="_blank"
+            rel="noopener noreferrer nofollow ugc"
+            className="text-indigo underline"
+          >
             {p.label}
           </a>
         ),

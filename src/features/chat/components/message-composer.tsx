@@ -49,7 +49,9 @@ export function MessageComposer({ roomId, onTyping }: { roomId: number; onTyping
         submit();
       }}
     >
-      <label htmlFor={`${id}-body`} className="block font-semibold">Your message</label>
+      <label htmlFor={`${id}-body`} className="block font-semibold">
+        Your message
+      </label>
       <textarea
         id={`${id}-body`}
         className="block min-h-24 w-full rounded-lg border-2 border-walnut/30 bg-white px-3 py-2 focus:border-indigo"
@@ -88,10 +90,20 @@ export function MessageComposer({ roomId, onTyping }: { roomId: number; onTyping
             }}
           />
         </label>
-        {photos.length > 0 && <span>{photos.length} photo{photos.length === 1 ? '' : 's'} ready</span>}
-        <Button type="submit" pending={send.isPending} pendingLabel="Sending…" className="ml-auto">Send</Button>
+        {photos.length > 0 && (
+          <span>
+            {photos.length} photo{photos.length === 1 ? '' : 's'} ready
+          </span>
+        )}
+        <Button type="submit" pending={send.isPending} pendingLabel="Sending…" className="ml-auto">
+          Send
+        </Button>
       </div>
-      {problem && <p role="alert" className="font-semibold text-madder-deep">{problem}</p>}
+      {problem && (
+        <p role="alert" className="font-semibold text-madder-deep">
+          {problem}
+        </p>
+      )}
     </form>
   );
 }

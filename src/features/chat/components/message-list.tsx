@@ -14,9 +14,12 @@ export function MessageList({ room }: { room: ChatRoomDto }) {
   useEffect(() => {
     const el = sentinel.current;
     if (!el || !hasNextPage) return;
-    const observer = new IntersectionObserver((entries) => {
-      if (entries.some((e) => e.isIntersecting) && !isFetchingNextPage) void fetchNextPage();
-    }, { rootMargin: '200px' });
+    const observer = new IntersectionObserver(
+      (entries) => {
+        if (entries.some((e) => e.isIntersecting) && !isFetchingNextPage) void fetchNextPage();
+      },
+      { rootMargin: '200px' },
+    );
     observer.observe(el);
     return () => observer.disconnect();
   }, [hasNextPage, isFetchingNextPage, fetchNextPage]);
@@ -34,7 +37,12 @@ export function MessageList({ room }: { room: ChatRoomDto }) {
       </ol>
       <div ref={sentinel} className="pt-3 text-center">
         {hasNextPage ? (
-          <Button variant="secondary" onClick={() => void fetchNextPage()} pending={isFetchingNextPage} pendingLabel="Loading older messages…">
+          <Button
+            variant="secondary"
+            onClick={() => void fetchNextPage()}
+            pending={isFetchingNextPage}
+            pendingLabel="Loading older messages…"
+          >
             Show older messages
           </Button>
         ) : (

@@ -14,7 +14,11 @@ export function SwapChatPage() {
   if (room.isError) return <QueryError error={room.error} what="the swap chat" />;
   return (
     <div className="space-y-4">
-      <p><Link className="font-semibold text-indigo underline" to={paths.swapBoard(guildId, swapId)}>← Live board of this swap</Link></p>
+      <p>
+        <Link className="font-semibold text-indigo underline" to={paths.swapBoard(guildId, swapId)}>
+          ← Live board of this swap
+        </Link>
+      </p>
       <ChatPanel roomId={room.data.id} title={`Chat: ${room.data.title}`} />
     </div>
   );

@@ -18,7 +18,13 @@ export function useChatLive(roomId: number, viewerId: number | undefined) {
   const [joinError, setJoinError] = useState('');
   const [typing, setTyping] = useState<Record<number, { name: string; at: number }>>({});
   const lastSent = useRef(0);
-  const viewers = useQuery<Viewer[]>({ queryKey: chatKeys.presence(roomId), queryFn: () => [], staleTime: Infinity, enabled: false, initialData: [] });
+  const viewers = useQuery<Viewer[]>({
+    queryKey: chatKeys.presence(roomId),
+    queryFn: () => [],
+    staleTime: Infinity,
+    enabled: false,
+    initialData: [],
+  });
 
   useEffect(() => {
     const socket = getSocket();
@@ -47,7 +53,8 @@ export function useChatLive(roomId: number, viewerId: number | undefined) {
       if (p.room.kind === 'chat' && p.room.roomId === roomId) queryClient.setQueryData(chatKeys.presence(roomId), p.viewers);
     };
     const onTyping = ({ roomId: id, user }: { roomId: number; user: Viewer }) => {
-      if (id === roomId && user.userId !== viewerId) setTyping((t) => ({ ...t, [user.userId]: { name: user.displayName, at: Date.now() } }));
+      if (id === roomId && user.userId !== viewerId)
+        setTyping((t) => ({ ...t, [user.userId]: { name: user.displayName, at: Date.now() } }));
     };
     socket.on('connect', join);
     socket.on('message:created', onMessage);

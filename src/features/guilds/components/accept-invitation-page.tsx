@@ -33,18 +33,28 @@ export function AcceptInvitationPage({ signedIn }: { signedIn: boolean }) {
         </p>
         {accept.isError && (
           <div className="mt-4">
-            <Alert tone="error">{accept.error instanceof ApiError ? accept.error.message : 'That did not work. Please try again.'}</Alert>
+            <Alert tone="error">
+              {accept.error instanceof ApiError ? accept.error.message : 'That did not work. Please try again.'}
+            </Alert>
           </div>
         )}
         <div className="mt-6 flex flex-wrap gap-3">
           {signedIn ? (
-            <Button pending={accept.isPending} pendingLabel="Joining…" onClick={() => accept.mutate(token, { onSuccess: (r) => navigate(paths.guild(r.guildId)) })}>
+            <Button
+              pending={accept.isPending}
+              pendingLabel="Joining…"
+              onClick={() => accept.mutate(token, { onSuccess: (r) => navigate(paths.guild(r.guildId)) })}
+            >
               Join the guild
             </Button>
           ) : (
             <>
-              <Link className={buttonClass('primary')} to={`${paths.register}?next=${back}`}>Create an account to join</Link>
-              <Link className={buttonClass('secondary')} to={`${paths.signIn}?next=${back}`}>I already have an account</Link>
+              <Link className={buttonClass('primary')} to={`${paths.register}?next=${back}`}>
+                Create an account to join
+              </Link>
+              <Link className={buttonClass('secondary')} to={`${paths.signIn}?next=${back}`}>
+                I already have an account
+              </Link>
             </>
           )}
         </div>

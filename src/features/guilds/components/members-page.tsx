@@ -60,7 +60,9 @@ export function MembersPage() {
               {members.data.map((m) => (
                 <tr key={m.userId} className="border-b border-walnut/10">
                   <td className="py-3 pr-4 font-semibold">{m.displayName}</td>
-                  <td data-label="E-mail" className="py-3 pr-4 break-all">{m.email}</td>
+                  <td data-label="E-mail" className="py-3 pr-4 break-all">
+                    {m.email}
+                  </td>
                   <td data-label="Role" className="py-3 pr-4">
                     {isAdmin ? (
                       <select

@@ -11,7 +11,11 @@ export function CameraPanel({ onCode }: { onCode: (text: string) => void }) {
     <section aria-label="Camera" className="rounded-card border border-walnut/15 bg-card px-4 py-3">
       <div className="flex flex-wrap items-center justify-between gap-3">
         <p className="font-semibold">
-          {status === 'on' ? 'Hold a label’s QR code in view.' : status === 'starting' ? 'Starting the camera…' : 'Scan labels with the camera'}
+          {status === 'on'
+            ? 'Hold a label’s QR code in view.'
+            : status === 'starting'
+              ? 'Starting the camera…'
+              : 'Scan labels with the camera'}
         </p>
         <Button variant="secondary" onClick={() => (on ? stop() : void start())}>
           {on ? 'Stop camera' : 'Start camera'}
@@ -31,7 +35,9 @@ export function CameraPanel({ onCode }: { onCode: (text: string) => void }) {
       />
       {status === 'on' && (
         <p className="mt-1 text-base text-walnut-soft">
-          {engine === 'native' ? 'Reading codes with the browser’s own detector.' : 'Reading codes on this device (no detector built into this browser).'}
+          {engine === 'native'
+            ? 'Reading codes with the browser’s own detector.'
+            : 'Reading codes on this device (no detector built into this browser).'}
         </p>
       )}
     </section>

@@ -8,7 +8,12 @@ export function LabelSheets({ data, sheet, skip }: { data: LabelSheetDataDto; sh
   return (
     <div className="overflow-x-auto print:overflow-visible">
       {pages.map((cells, page) => (
-        <section key={page} aria-label={`Sheet ${page + 1} of ${pages.length}`} className={`label-sheet sheet-${sheet.id}`} data-testid="label-sheet">
+        <section
+          key={page}
+          aria-label={`Sheet ${page + 1} of ${pages.length}`}
+          className={`label-sheet sheet-${sheet.id}`}
+          data-testid="label-sheet"
+        >
           {cells.map((cell, i) =>
             cell.kind === 'label' ? (
               <div key={cell.label.blockId} className="label-cell" data-testid="label">

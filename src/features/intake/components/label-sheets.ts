@@ -41,7 +41,10 @@ export type SheetCell<T> = { kind: 'label'; label: T } | { kind: 'skipped' };
 export function paginate<T>(labels: readonly T[], sheet: LabelSheet, skip = 0): SheetCell<T>[][] {
   const size = perSheet(sheet);
   const skipped = Math.max(0, Math.min(Math.trunc(skip), size - 1));
-  const cells: SheetCell<T>[] = [...Array.from({ length: skipped }, () => ({ kind: 'skipped' as const })), ...labels.map((label) => ({ kind: 'label' as const, label }))];
+  const cells: SheetCell<T>[] = [
+    ...Array.from({ length: skipped }, () => ({ kind: 'skipped' as const })),
+    ...labels.map((label) => ({ kind: 'label' as const, label })),
+  ];
   const pages: SheetCell<T>[][] = [];
   for (let i = 0; i < cells.length; i += size) pages.push(cells.slice(i, i + size));
   return labels.length === 0 ? [] : pages;

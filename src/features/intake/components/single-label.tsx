@@ -11,7 +11,11 @@ export function SingleLabel({ data }: { data: LabelSheetDataDto }) {
   return (
     <div className="mx-auto max-w-md">
       <article className="rounded-card border-2 border-walnut/20 bg-white p-5 text-center text-black" data-testid="label">
-        <img src={label.qr} alt={`QR code of block ${label.ordinal} of ${label.of}`} className="mx-auto aspect-square w-full max-w-80 [image-rendering:pixelated]" />
+        <img
+          src={label.qr}
+          alt={`QR code of block ${label.ordinal} of ${label.of}`}
+          className="mx-auto aspect-square w-full max-w-80 [image-rendering:pixelated]"
+        />
         <p className="mt-2 font-mono text-4xl font-bold tracking-widest" aria-label={`Short code ${code.split('').join(' ')}`}>
           {code}
         </p>
@@ -29,7 +33,12 @@ export function SingleLabel({ data }: { data: LabelSheetDataDto }) {
           <span>
             Label {index + 1} of {data.labels.length}
           </span>
-          <Button variant="secondary" className="px-3" disabled={index >= data.labels.length - 1} onClick={() => setIndex((i) => i + 1)}>
+          <Button
+            variant="secondary"
+            className="px-3"
+            disabled={index >= data.labels.length - 1}
+            onClick={() => setIndex((i) => i + 1)}
+          >
             Next →
           </Button>
         </div>

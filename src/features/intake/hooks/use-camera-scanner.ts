@@ -53,8 +53,10 @@ export const preloadDecoder = () => void import('jsqr');
 
 function cameraMessage(error: unknown): string {
   const name = (error as { name?: string })?.name;
-  if (name === 'NotAllowedError') return 'The camera was not allowed. Allow it in the browser’s settings for this site, or type the short codes.';
-  if (name === 'NotFoundError' || name === 'OverconstrainedError') return 'No camera was found on this device. Type the short codes instead.';
+  if (name === 'NotAllowedError')
+    return 'The camera was not allowed. Allow it in the browser’s settings for this site, or type the short codes.';
+  if (name === 'NotFoundError' || name === 'OverconstrainedError')
+    return 'No camera was found on this device. Type the short codes instead.';
   if (name === 'NotReadableError') return 'Another app is using the camera. Close it and try again, or type the short codes.';
   return 'The camera could not start. Type the short codes instead.';
 }
@@ -93,7 +95,10 @@ export function useCameraScanner(onCode: (text: string) => void) {
     }
     setStatus('starting');
     try {
-      const stream = await navigator.mediaDevices.getUserMedia({ video: { facingMode: { ideal: 'environment' }, width: { ideal: 1280 } }, audio: false });
+      const stream = await navigator.mediaDevices.getUserMedia({
+        video: { facingMode: { ideal: 'environment' }, width: { ideal: 1280 } },
+        audio: false,
+      });
       const s: NonNullable<typeof session.current> = { stream, stopped: false };
       session.current = s;
       const video = videoRef.current!;

@@ -4,5 +4,6 @@ import { api } from '@/lib/api-client';
 import { notificationKeys } from './notification-keys';
 
 export const getMailPreferences = () => api.get<MailPreferencesDto>('/me/mail-preferences');
-export const mailPreferencesQueryOptions = () => queryOptions({ queryKey: notificationKeys.preferences(), queryFn: getMailPreferences });
+export const mailPreferencesQueryOptions = () =>
+  queryOptions({ queryKey: notificationKeys.preferences(), queryFn: getMailPreferences });
 export const useMailPreferences = () => useQuery(mailPreferencesQueryOptions());

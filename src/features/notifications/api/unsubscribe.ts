@@ -4,7 +4,8 @@ import { api } from '@/lib/api-client';
 import { notificationKeys } from './notification-keys';
 
 /** Switches off the link's kind of mail; the signed token is the authority, no sign-in needed. */
-export const unsubscribe = (token: string) => api.post<UnsubscribeInfoDto>('/unsubscribe', undefined, { query: { token }, allowUnauthenticated: true });
+export const unsubscribe = (token: string) =>
+  api.post<UnsubscribeInfoDto>('/unsubscribe', undefined, { query: { token }, allowUnauthenticated: true });
 
 export function useUnsubscribe(token: string) {
   const queryClient = useQueryClient();

@@ -3,7 +3,8 @@ import type { MailPreferencesDto, UpdateMailPreferencesInput } from '@shared/sch
 import { api } from '@/lib/api-client';
 import { notificationKeys } from './notification-keys';
 
-export const updateMailPreferences = (changes: UpdateMailPreferencesInput) => api.patch<MailPreferencesDto>('/me/mail-preferences', changes);
+export const updateMailPreferences = (changes: UpdateMailPreferencesInput) =>
+  api.patch<MailPreferencesDto>('/me/mail-preferences', changes);
 
 export function useUpdateMailPreferences() {
   const queryClient = useQueryClient();

@@ -1,7 +1,14 @@
 import { Fragment, useState, type FormEvent } from 'react';
 import { useParams, useSearchParams } from 'react-router';
 import {
-  mailCategories, mailCategoryInfo, mailStatuses, mailStatusLabels, type AnyMailCategory, type MailLogQuery, type MailMessageDto, type MailStatus,
+  mailCategories,
+  mailCategoryInfo,
+  mailStatuses,
+  mailStatusLabels,
+  type AnyMailCategory,
+  type MailLogQuery,
+  type MailMessageDto,
+  type MailStatus,
 } from '@shared/schemas/notifications';
 import { Card } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
@@ -13,7 +20,8 @@ import { useMailMessage } from '../api/get-mail-message';
 import { MailStatusBadge } from './mail-status';
 
 const categoryLabel = (c: AnyMailCategory) => (c === 'account' ? 'Account (invitations, resets)' : mailCategoryInfo[c].label);
-const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
+const when = (iso: string) =>
+  new Date(iso).toLocaleString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
 
 function readQuery(params: URLSearchParams): MailLogQuery & { page: number } {
   const status = params.get('status');
@@ -37,7 +45,9 @@ export function MailLogPage() {
 
   const change = (patch: Partial<Record<'status' | 'category' | 'q' | 'page', string | undefined>>) => {
     const next = new URLSearchParams(params);
-    for (const [k, v] of Object.entries(patch)) if (v) next.set(k, v); else next.delete(k);
+    for (const [k, v] of Object.entries(patch))
+      if (v) next.set(k, v);
+      else next.delete(k);
     if (!('page' in patch)) next.delete('page');
     setParams(next, { replace: true });
     setOpen(null);
@@ -52,7 +62,10 @@ export function MailLogPage() {
     { value: '', label: 'Every status' },
     ...mailStatuses.map((s) => ({ value: s, label: counts ? `${mailStatusLabels[s]} (${counts[s]})` : mailStatusLabels[s] })),
   ];
-  const categoryOptions = [{ value: '', label: 'Every kind' }, ...[...mailCategories, 'account' as const].map((c) => ({ value: c, label: categoryLabel(c) }))];
+  const categoryOptions = [
+    { value: '', label: 'Every kind' },
+    ...[...mailCategories, 'account' as const].map((c) => ({ value: c, label: categoryLabel(c) })),
+  ];
   const pages = log.data ? Math.max(1, Math.ceil(log.data.total / log.data.pageSize)) : 1;
 
   return (
@@ -61,17 +74,42 @@ export function MailLogPage() {
         <p className="mb-4 max-w-3xl text-walnut-soft">
           Every e-mail Blockpost sent, or meant to send, to members of this guild. Addresses are shown to guild admins only.
         </p>
-        <form onSubmit={onSearch} className="mb-6 grid gap-4 sm:grid-cols-2 lg:grid-cols-[1fr_1fr_1.5fr_auto] lg:items-end" role="search" aria-label="Filter the e-mail history">
-          <SelectField label="Status" options={statusOptions} value={query.status ?? ''} onChange={(e) => change({ status: e.target.value || undefined })} />
-          <SelectField label="Kind of e-mail" options={categoryOptions} value={query.category ?? ''} onChange={(e) => change({ category: e.target.value || undefined })} />
-          <TextField label="Name, address or subject" type="search" value={search} onChange={(e) => setSearch(e.target.value)} maxLength={100} />
-          <Button type="submit" variant="secondary">Search</Button>
+        <form
+          onSubmit={onSearch}
+          className="mb-6 grid gap-4 sm:grid-cols-2 lg:grid-cols-[1fr_1fr_1.5fr_auto] lg:items-end"
+          role="search"
+          aria-label="Filter the e-mail history"
+        >
+          <SelectField
+            label="Status"
+            options={statusOptions}
+            value={query.status ?? ''}
+            onChange={(e) => change({ status: e.target.value || undefined })}
+          />
+          <SelectField
+            label="Kind of e-mail"
+            options={categoryOptions}
+            value={query.category ?? ''}
+            onChange={(e) => change({ category: e.target.value || undefined })}
+          />
+          <TextField
+            label="Name, address or subject"
+            type="search"
+            value={search}
+            onChange={(e) => setSearch(e.target.value)}
+            maxLength={100}
+          />
+          <Button type="submit" variant="secondary">
+            Search
+          </Button>
         </form>
 
         {log.isPending && <Loading label="Loading the e-mail history…" />}
         {log.isError && <QueryError error={log.error} what="the e-mail history" />}
         {log.data && log.data.messages.length === 0 && (
-          <EmptyState title="No e-mails match.">{query.status || query.category || query.q ? 'Try another filter.' : 'Nothing has been sent for this guild yet.'}</EmptyState>
+          <EmptyState title="No e-mails match.">
+            {query.status || query.category || query.q ? 'Try another filter.' : 'Nothing has been sent for this guild yet.'}
+          </EmptyState>
         )}
         {log.data && log.data.messages.length > 0 && (
           <>
@@ -85,11 +123,21 @@ export function MailLogPage() {
                 <caption className="sr-only">E-mails sent to members of this guild, newest first</caption>
                 <thead className="max-sm:sr-only">
                   <tr className="border-b-2 border-walnut/20">
-                    <th scope="col" className="py-2 pr-4">When</th>
-                    <th scope="col" className="py-2 pr-4">To</th>
-                    <th scope="col" className="py-2 pr-4">Subject</th>
-                    <th scope="col" className="py-2 pr-4">Status</th>
-                    <th scope="col" className="py-2"><span className="sr-only">Details</span></th>
+                    <th scope="col" className="py-2 pr-4">
+                      When
+                    </th>
+                    <th scope="col" className="py-2 pr-4">
+                      To
+                    </th>
+                    <th scope="col" className="py-2 pr-4">
+                      Subject
+                    </th>
+                    <th scope="col" className="py-2 pr-4">
+                      Status
+                    </th>
+                    <th scope="col" className="py-2">
+                      <span className="sr-only">Details</span>
+                    </th>
                   </tr>
                 </thead>
                 <tbody className="max-sm:block">
@@ -104,8 +152,16 @@ export function MailLogPage() {
             </div>
             {pages > 1 && (
               <nav aria-label="Pages" className="mt-4 flex flex-wrap items-center gap-3">
-                <Button variant="secondary" disabled={query.page <= 1} onClick={() => change({ page: String(query.page - 1) })}>Newer</Button>
-                <Button variant="secondary" disabled={query.page >= pages} onClick={() => change({ page: String(query.page + 1) })}>Older</Button>
+                <Button variant="secondary" disabled={query.page <= 1} onClick={() => change({ page: String(query.page - 1) })}>
+                  Newer
+                </Button>
+                <Button
+                  variant="secondary"
+                  disabled={query.page >= pages}
+                  onClick={() => change({ page: String(query.page + 1) })}
+                >
+                  Older
+                </Button>
               </nav>
             )}
           </>
@@ -137,7 +193,8 @@ function MessageRow({ message: m, open, onToggle }: { message: MailMessageDto; o
       </td>
       <td className="py-3 text-right max-sm:block max-sm:py-0.5 max-sm:text-left">
         <Button variant="quiet" aria-expanded={open} onClick={onToggle}>
-          {open ? 'Hide' : 'Show'}<span className="sr-only"> the e-mail to {m.recipient.email}</span>
+          {open ? 'Hide' : 'Show'}
+          <span className="sr-only"> the e-mail to {m.recipient.email}</span>
         </Button>
       </td>
     </tr>
@@ -161,7 +218,11 @@ function MessageDetails({ guildId, message }: { guildId: number; message: MailMe
         {detail.isError && <QueryError error={detail.error} what="the e-mail" />}
         {detail.data && (
           // Focusable, so the scrolling text can be read by keyboard too.
-          <pre tabIndex={0} aria-label={`Text of the e-mail to ${message.recipient.email}`} className="max-h-96 overflow-auto whitespace-pre-wrap break-words rounded-lg border border-walnut/15 bg-card p-4 font-body text-base">
+          <pre
+            tabIndex={0}
+            aria-label={`Text of the e-mail to ${message.recipient.email}`}
+            className="max-h-96 overflow-auto whitespace-pre-wrap break-words rounded-lg border border-walnut/15 bg-card p-4 font-body text-base"
+          >
             {detail.data.text}
           </pre>
         )}

@@ -2,9 +2,7 @@ import { useState } from 'react';
 import { Link } from 'react-router';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import {
-  mailCategories, mailChoicesSchema, type MailChoices, type MailPreferencesDto,
-} from '@shared/schemas/notifications';
+import { mailCategories, mailChoicesSchema, type MailChoices, type MailPreferencesDto } from '@shared/schemas/notifications';
 import { Card } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
 import { Alert } from '@/components/ui/alert';
@@ -27,7 +25,9 @@ export function MailPreferencesPage() {
       {prefs.isError && <QueryError error={prefs.error} what="your e-mail choices" />}
       {prefs.data && <ChoicesForm prefs={prefs.data} />}
       <p>
-        <Link to={paths.settings} className="font-semibold text-indigo underline underline-offset-4">Back to settings</Link>
+        <Link to={paths.settings} className="font-semibold text-indigo underline underline-offset-4">
+          Back to settings
+        </Link>
       </p>
     </div>
   );
@@ -54,19 +54,28 @@ function ChoicesForm({ prefs }: { prefs: MailPreferencesDto }) {
     <Card title="What we send you">
       <form onSubmit={onSubmit} noValidate className="max-w-2xl space-y-5">
         {formError && <Alert tone="error">{formError}</Alert>}
-        {update.isSuccess && !formState.isDirty && <Alert tone="success">Saved. We will send only the e-mails ticked below.</Alert>}
+        {update.isSuccess && !formState.isDirty && (
+          <Alert tone="success">Saved. We will send only the e-mails ticked below.</Alert>
+        )}
         <p>
           We send to <strong className="break-all">{prefs.email}</strong>.
         </p>
         <fieldset className="space-y-3">
           <legend className="sr-only">Kinds of e-mail</legend>
           {prefs.categories.map((c) => (
-            <label key={c.category} className="flex min-h-11 cursor-pointer items-start gap-4 rounded-lg border-2 border-walnut/15 bg-white p-4 hover:border-indigo/50">
+            <label
+              key={c.category}
+              className="flex min-h-11 cursor-pointer items-start gap-4 rounded-lg border-2 border-walnut/15 bg-white p-4 hover:border-indigo/50"
+            >
               <input type="checkbox" className="mt-1 h-6 w-6 shrink-0 accent-indigo" {...register(c.category)} />
               <span>
                 <span className="block font-semibold">{c.label}</span>
                 <span className="block text-walnut-soft">{c.description}</span>
-                {formState.errors[c.category] && <span role="alert" className="block font-semibold text-madder-deep">{formState.errors[c.category]?.message}</span>}
+                {formState.errors[c.category] && (
+                  <span role="alert" className="block font-semibold text-madder-deep">
+                    {formState.errors[c.category]?.message}
+                  </span>
+                )}
               </span>
             </label>
           ))}

@@ -12,7 +12,9 @@ const looks: Record<MailStatus, { glyph: string; className: string }> = {
 export function MailStatusBadge({ status }: { status: MailStatus }) {
   const look = looks[status];
   return (
-    <span className={`inline-flex items-center gap-1 whitespace-nowrap rounded-full border px-2.5 py-0.5 font-semibold ${look.className}`}>
+    <span
+      className={`inline-flex items-center gap-1 whitespace-nowrap rounded-full border px-2.5 py-0.5 font-semibold ${look.className}`}
+    >
       <span aria-hidden="true">{look.glyph}</span>
       {mailStatusLabels[status]}
     </span>

@@ -32,9 +32,19 @@ export function UnsubscribePage() {
   );
 
   let body;
-  if (!token) body = <Alert tone="error" title="This link is incomplete.">Open the link from the e-mail again, or sign in and choose your e-mails.</Alert>;
+  if (!token)
+    body = (
+      <Alert tone="error" title="This link is incomplete.">
+        Open the link from the e-mail again, or sign in and choose your e-mails.
+      </Alert>
+    );
   else if (info.isPending) body = <Loading label="Checking the link…" />;
-  else if (info.isError) body = <Alert tone="error" title="We could not use this link.">{problemText(info.error)}</Alert>;
+  else if (info.isError)
+    body = (
+      <Alert tone="error" title="We could not use this link.">
+        {problemText(info.error)}
+      </Alert>
+    );
   else {
     const { label, description, enabled, emailHint } = info.data;
     body = enabled ? (

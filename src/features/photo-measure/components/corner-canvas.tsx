@@ -23,7 +23,19 @@ const groupClass = {
  * place the next mark; drag a handle to move it (mouse, pen or finger), with a magnifier while
  * dragging; or focus a handle and nudge it with the arrow keys (Shift for 10 pixels).
  */
-export function CornerCanvas({ src, alt, width, height, marks }: { src: string; alt: string; width: number; height: number; marks: CornerMarks }) {
+export function CornerCanvas({
+  src,
+  alt,
+  width,
+  height,
+  marks,
+}: {
+  src: string;
+  alt: string;
+  width: number;
+  height: number;
+  marks: CornerMarks;
+}) {
   const frame = useRef<HTMLDivElement>(null);
   const svg = useRef<SVGSVGElement>(null);
   const image = useRef<HTMLImageElement>(null);
@@ -89,7 +101,12 @@ export function CornerCanvas({ src, alt, width, height, marks }: { src: string; 
 
   const onKeyDown = (index: number) => (e: KeyboardEvent<SVGGElement>) => {
     const step = e.shiftKey ? 10 : 1;
-    const moves: Record<string, Point> = { ArrowLeft: [-step, 0], ArrowRight: [step, 0], ArrowUp: [0, -step], ArrowDown: [0, step] };
+    const moves: Record<string, Point> = {
+      ArrowLeft: [-step, 0],
+      ArrowRight: [step, 0],
+      ArrowUp: [0, -step],
+      ArrowDown: [0, step],
+    };
     const by = moves[e.key];
     if (by) {
       e.preventDefault();
@@ -122,14 +139,23 @@ export function CornerCanvas({ src, alt, width, height, marks }: { src: string; 
         aria-label={`Marks on the photo. ${marks.next !== null ? `Next to place: ${MARKS[marks.next]!.label}.` : 'All eight corners are placed.'}`}
       >
         {(['reference', 'block'] as const).map((group) => {
-          const pts = marks.points.slice(group === 'reference' ? 0 : 4, group === 'reference' ? 4 : 8).filter((p): p is Point => p !== null);
+          const pts = marks.points
+            .slice(group === 'reference' ? 0 : 4, group === 'reference' ? 4 : 8)
+            .filter((p): p is Point => p !== null);
           if (pts.length < 2) return null;
           const list = pts.map((p) => p.join(',')).join(' ');
           const cls = `${groupClass[group].line} pointer-events-none`;
           return pts.length === 4 ? (
             <polygon key={group} points={list} className={cls} strokeWidth={2} vectorEffect="non-scaling-stroke" />
           ) : (
-            <polyline key={group} points={list} className={`${cls} fill-none`} strokeWidth={2} strokeDasharray="6 4" vectorEffect="non-scaling-stroke" />
+            <polyline
+              key={group}
+              points={list}
+              className={`${cls} fill-none`}
+              strokeWidth={2}
+              strokeDasharray="6 4"
+              vectorEffect="non-scaling-stroke"
+            />
           );
         })}
         {marks.points.map((p, i) => {
@@ -153,16 +179,43 @@ export function CornerCanvas({ src, alt, width, height, marks }: { src: string; 
               onKeyDown={onKeyDown(i)}
             >
               <circle cx={p[0]} cy={p[1]} r={r} className="fill-transparent" />
-              {chosen && <circle cx={p[0]} cy={p[1]} r={r * 0.75} className="fill-none stroke-weld" strokeWidth={3} vectorEffect="non-scaling-stroke" />}
-              <circle cx={p[0]} cy={p[1]} r={5 * scale} className={look.dot} strokeWidth={1.5} vectorEffect="non-scaling-stroke" />
-              <text x={p[0] + 9 * scale} y={p[1] - 9 * scale} fontSize={14 * scale} fontWeight={700} className={`${look.text} pointer-events-none stroke-white`} strokeWidth={3} paintOrder="stroke" vectorEffect="non-scaling-stroke">
+              {chosen && (
+                <circle
+                  cx={p[0]}
+                  cy={p[1]}
+                  r={r * 0.75}
+                  className="fill-none stroke-weld"
+                  strokeWidth={3}
+                  vectorEffect="non-scaling-stroke"
+                />
+              )}
+              <circle
+                cx={p[0]}
+                cy={p[1]}
+                r={5 * scale}
+                className={look.dot}
+                strokeWidth={1.5}
+                vectorEffect="non-scaling-stroke"
+              />
+              <text
+                x={p[0] + 9 * scale}
+                y={p[1] - 9 * scale}
+                fontSize={14 * scale}
+                fontWeight={700}
+                className={`${look.text} pointer-events-none stroke-white`}
+                strokeWidth={3}
+                paintOrder="stroke"
+                vectorEffect="non-scaling-stroke"
+              >
                 {short}
               </text>
             </g>
           );
         })}
       </svg>
-      {loupePoint && loupeIndex !== null && <Magnifier image={image} point={loupePoint} shownScale={scale} label={MARKS[loupeIndex]!.label} />}
+      {loupePoint && loupeIndex !== null && (
+        <Magnifier image={image} point={loupePoint} shownScale={scale} label={MARKS[loupeIndex]!.label} />
+      )}
     </div>
   );
 }

@@ -1,7 +1,12 @@
 import { useState } from 'react';
 import { Link, useParams } from 'react-router';
 import { LengthParseError, parseLength } from '@shared/quilt';
-import { DEFAULT_REFERENCE_SIZE, MAX_REFERENCE_SIZE, type PhotoEstimateDto, type PhotoEstimatesDto } from '@shared/schemas/photo-estimates';
+import {
+  DEFAULT_REFERENCE_SIZE,
+  MAX_REFERENCE_SIZE,
+  type PhotoEstimateDto,
+  type PhotoEstimatesDto,
+} from '@shared/schemas/photo-estimates';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { TextField } from '@/components/ui/fields';
@@ -39,7 +44,10 @@ export function PhotoMeasurePage({ units = 'in' }: { units?: Units }) {
   if (!photo) {
     return (
       <Alert tone="error" title="That photo is not one of this block’s photos">
-        It may have been removed. <Link className="underline" to={paths.swap(query.data.block.guildId, query.data.block.swapId)}>Back to the swap</Link>
+        It may have been removed.{' '}
+        <Link className="underline" to={paths.swap(query.data.block.guildId, query.data.block.swapId)}>
+          Back to the swap
+        </Link>
       </Alert>
     );
   }
@@ -47,9 +55,19 @@ export function PhotoMeasurePage({ units = 'in' }: { units?: Units }) {
   return <MeasureView key={photo.id} data={query.data} photo={photo} units={units} />;
 }
 
-function MeasureView({ data, photo, units }: { data: PhotoEstimatesDto; photo: PhotoEstimatesDto['photos'][number]; units: Units }) {
+function MeasureView({
+  data,
+  photo,
+  units,
+}: {
+  data: PhotoEstimatesDto;
+  photo: PhotoEstimatesDto['photos'][number];
+  units: Units;
+}) {
   const marks = useCornerMarks(photo.width, photo.height);
-  const [sizeText, setSizeText] = useState(() => (units === 'mm' ? String((DEFAULT_REFERENCE_SIZE * 254) / 10) : String(DEFAULT_REFERENCE_SIZE)));
+  const [sizeText, setSizeText] = useState(() =>
+    units === 'mm' ? String((DEFAULT_REFERENCE_SIZE * 254) / 10) : String(DEFAULT_REFERENCE_SIZE),
+  );
   const size = readSize(sizeText, units);
   const len = lengthIn(units);
   const { block, swap } = data;
@@ -63,8 +81,18 @@ function MeasureView({ data, photo, units }: { data: PhotoEstimatesDto; photo: P
   return (
     <div>
       <nav aria-label="Back" className="mb-2 flex flex-wrap gap-x-4">
-        <Link className="min-h-11 py-2 font-semibold text-indigo underline underline-offset-4" to={paths.swap(block.guildId, block.swapId)}>← {swap.title}</Link>
-        <Link className="min-h-11 py-2 font-semibold text-indigo underline underline-offset-4" to={paths.swapBoard(block.guildId, block.swapId)}>Swap board</Link>
+        <Link
+          className="min-h-11 py-2 font-semibold text-indigo underline underline-offset-4"
+          to={paths.swap(block.guildId, block.swapId)}
+        >
+          ← {swap.title}
+        </Link>
+        <Link
+          className="min-h-11 py-2 font-semibold text-indigo underline underline-offset-4"
+          to={paths.swapBoard(block.guildId, block.swapId)}
+        >
+          Swap board
+        </Link>
       </nav>
       <PageHeader
         title={`Measure block ${block.sequence} from its photo`}
@@ -88,12 +116,22 @@ function MeasureView({ data, photo, units }: { data: PhotoEstimatesDto; photo: P
         <div className="min-w-0 space-y-3 lg:col-span-3">
           <p role="status" aria-live="polite" className="rounded-lg bg-card px-4 py-2 font-semibold ring-1 ring-walnut/10">
             {next ? (
-              <>Next: tap the <span className={next.group === 'reference' ? 'text-indigo-deep' : 'text-madder-deep'}>{next.label}</span> corner ({marks.points.filter(Boolean).length} of 8 placed).</>
+              <>
+                Next: tap the{' '}
+                <span className={next.group === 'reference' ? 'text-indigo-deep' : 'text-madder-deep'}>{next.label}</span> corner
+                ({marks.points.filter(Boolean).length} of 8 placed).
+              </>
             ) : (
               'All eight corners are placed. Drag any mark to adjust it.'
             )}
           </p>
-          <CornerCanvas src={photo.url} alt={`Block ${block.sequence} by ${block.maker.displayName} on the cutting mat`} width={photo.width} height={photo.height} marks={marks} />
+          <CornerCanvas
+            src={photo.url}
+            alt={`Block ${block.sequence} by ${block.maker.displayName} on the cutting mat`}
+            width={photo.width}
+            height={photo.height}
+            marks={marks}
+          />
           <div className="flex flex-wrap gap-2">
             {next && (
               <Button variant="secondary" onClick={marks.placeRest}>
@@ -108,16 +146,27 @@ function MeasureView({ data, photo, units }: { data: PhotoEstimatesDto; photo: P
         <div className="min-w-0 space-y-6 lg:col-span-2">
           <Card title="How to mark">
             <ol className="list-decimal space-y-1 pl-5">
-              <li>Find a square of the mat’s grid whose size you know (<span className="text-indigo-deep">R1–R4</span>). A square that goes right round the block gives the best estimate.</li>
+              <li>
+                Find a square of the mat’s grid whose size you know (<span className="text-indigo-deep">R1–R4</span>). A square
+                that goes right round the block gives the best estimate.
+              </li>
               <li>Tap its corners in order: top-left, top-right, bottom-right, bottom-left.</li>
-              <li>Then the block’s four corners (<span className="text-madder-deep">B1–B4</span>), in the same order.</li>
-              <li>Drag a mark to adjust it; a magnifier shows while you drag. With a keyboard, Tab to a mark and use the arrow keys.</li>
+              <li>
+                Then the block’s four corners (<span className="text-madder-deep">B1–B4</span>), in the same order.
+              </li>
+              <li>
+                Drag a mark to adjust it; a magnifier shows while you drag. With a keyboard, Tab to a mark and use the arrow keys.
+              </li>
               <li>On a phone, one finger on the photo marks; scroll with a finger beside it.</li>
             </ol>
             <TextField
               wrapperClassName="mt-4"
               label="Size of the reference square"
-              hint={units === 'mm' ? 'The side of the square you marked: 152.4, 304.8 or 6″.' : 'The side of the square you marked: 6, 12, 6″ or 152 mm.'}
+              hint={
+                units === 'mm'
+                  ? 'The side of the square you marked: 152.4, 304.8 or 6″.'
+                  : 'The side of the square you marked: 6, 12, 6″ or 152 mm.'
+              }
               inputMode="decimal"
               unit={units}
               value={sizeText}

@@ -32,7 +32,10 @@ const empty = (): Marks => Array.from({ length: 8 }, () => null);
 export function useCornerMarks(width: number, height: number): CornerMarks {
   const [points, setPoints] = useState<Marks>(empty);
   const [selected, select] = useState<number | null>(null);
-  const clamp = useCallback(([x, y]: Point): Point => [Math.min(width, Math.max(0, x)), Math.min(height, Math.max(0, y))], [width, height]);
+  const clamp = useCallback(
+    ([x, y]: Point): Point => [Math.min(width, Math.max(0, x)), Math.min(height, Math.max(0, y))],
+    [width, height],
+  );
   const next = points.findIndex((p) => p === null);
 
   const set = (index: number, p: Point) => setPoints((old) => old.map((q, i) => (i === index ? clamp(p) : q)));
@@ -40,7 +43,12 @@ export function useCornerMarks(width: number, height: number): CornerMarks {
   const placeRest = () => {
     // A square on the left third and a larger one on the right: roughly where people lay them out.
     const s = Math.min(width, height);
-    const square = (cx: number, cy: number, side: number): Point[] => [[cx - side / 2, cy - side / 2], [cx + side / 2, cy - side / 2], [cx + side / 2, cy + side / 2], [cx - side / 2, cy + side / 2]];
+    const square = (cx: number, cy: number, side: number): Point[] => [
+      [cx - side / 2, cy - side / 2],
+      [cx + side / 2, cy - side / 2],
+      [cx + side / 2, cy + side / 2],
+      [cx - side / 2, cy + side / 2],
+    ];
     const start = [...square(width * 0.25, height / 2, s * 0.3), ...square(width * 0.65, height / 2, s * 0.5)];
     setPoints((old) => old.map((q, i) => q ?? clamp(start[i]!)));
   };

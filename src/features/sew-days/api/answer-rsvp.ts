@@ -3,7 +3,8 @@ import type { RsvpAnswer, SewDayDetailDto } from '@shared/schemas/sewdays';
 import { api } from '@/lib/api-client';
 import { sewDayKeys } from './sew-day-keys';
 
-export const answerRsvp = (sewDayId: number, answer: RsvpAnswer) => api.put<SewDayDetailDto>(`/sew-days/${sewDayId}/rsvp`, { answer });
+export const answerRsvp = (sewDayId: number, answer: RsvpAnswer) =>
+  api.put<SewDayDetailDto>(`/sew-days/${sewDayId}/rsvp`, { answer });
 
 export function useAnswerRsvp(guildId: number, sewDayId: number) {
   const queryClient = useQueryClient();

@@ -3,7 +3,8 @@ import type { SewDayDetailDto, SewDayFormValues } from '@shared/schemas/sewdays'
 import { api } from '@/lib/api-client';
 import { sewDayKeys } from './sew-day-keys';
 
-export const scheduleSewDay = (guildId: number, input: SewDayFormValues) => api.post<SewDayDetailDto>(`/guilds/${guildId}/sew-days`, input);
+export const scheduleSewDay = (guildId: number, input: SewDayFormValues) =>
+  api.post<SewDayDetailDto>(`/guilds/${guildId}/sew-days`, input);
 
 export function useScheduleSewDay(guildId: number) {
   const queryClient = useQueryClient();

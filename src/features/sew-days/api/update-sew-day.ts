@@ -3,7 +3,8 @@ import type { SewDayDetailDto, SewDayFormValues } from '@shared/schemas/sewdays'
 import { api } from '@/lib/api-client';
 import { sewDayKeys } from './sew-day-keys';
 
-export const updateSewDay = (sewDayId: number, input: Partial<SewDayFormValues>) => api.patch<SewDayDetailDto>(`/sew-days/${sewDayId}`, input);
+export const updateSewDay = (sewDayId: number, input: Partial<SewDayFormValues>) =>
+  api.patch<SewDayDetailDto>(`/sew-days/${sewDayId}`, input);
 
 export function useUpdateSewDay(guildId: number, sewDayId: number) {
   const queryClient = useQueryClient();

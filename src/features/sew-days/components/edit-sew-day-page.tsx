@@ -18,13 +18,26 @@ export function EditSewDayPage() {
   if (sewDay.isError) return <QueryError error={sewDay.error} what="the sew day" />;
   const s = sewDay.data;
   if (!s.canManage || s.cancelledAt) {
-    return <Alert tone="warning">{s.cancelledAt ? 'This sew day was cancelled, so it can no longer be changed.' : 'Only guild admins and coordinators can change a sew day.'}</Alert>;
+    return (
+      <Alert tone="warning">
+        {s.cancelledAt
+          ? 'This sew day was cancelled, so it can no longer be changed.'
+          : 'Only guild admins and coordinators can change a sew day.'}
+      </Alert>
+    );
   }
   return (
     <Card title={`Change “${s.title}”`}>
       <SewDayForm
         timeZone={s.timeZone}
-        defaultValues={{ title: s.title, startsAt: s.startsAtLocal, endsAt: s.endsAtLocal, place: s.place ?? '', videoUrl: s.videoUrl ?? '', notes: s.notes ?? '' }}
+        defaultValues={{
+          title: s.title,
+          startsAt: s.startsAtLocal,
+          endsAt: s.endsAtLocal,
+          place: s.place ?? '',
+          videoUrl: s.videoUrl ?? '',
+          notes: s.notes ?? '',
+        }}
         submitLabel="Save changes"
         pendingLabel="Saving…"
         onSubmit={async (values) => {

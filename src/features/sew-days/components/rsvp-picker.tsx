@@ -29,7 +29,9 @@ export function RsvpPicker({ sewDay }: { sewDay: SewDayDetailDto }) {
             className={`inline-flex min-h-11 items-center gap-2 rounded-lg border-2 px-5 font-semibold disabled:opacity-60 ${sewDay.myRsvp === a ? chosen : open}`}
             onClick={() => {
               setProblem('');
-              answer.mutate(a, { onError: (e) => setProblem(e instanceof ApiError ? e.message : 'That did not work. Please try again.') });
+              answer.mutate(a, {
+                onError: (e) => setProblem(e instanceof ApiError ? e.message : 'That did not work. Please try again.'),
+              });
             }}
           >
             {sewDay.myRsvp === a && <span aria-hidden="true">✓</span>}
@@ -37,8 +39,16 @@ export function RsvpPicker({ sewDay }: { sewDay: SewDayDetailDto }) {
           </button>
         ))}
       </div>
-      {sewDay.myRsvp && <p className="mt-2">Your answer: <strong>{rsvpLabels[sewDay.myRsvp]}</strong>. You can change it until the day ends.</p>}
-      {problem && <div className="mt-3"><Alert tone="error">{problem}</Alert></div>}
+      {sewDay.myRsvp && (
+        <p className="mt-2">
+          Your answer: <strong>{rsvpLabels[sewDay.myRsvp]}</strong>. You can change it until the day ends.
+        </p>
+      )}
+      {problem && (
+        <div className="mt-3">
+          <Alert tone="error">{problem}</Alert>
+        </div>
+      )}
     </div>
   );
 }

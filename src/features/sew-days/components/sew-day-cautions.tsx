@@ -4,7 +4,9 @@ import { sewDayCautions } from '@shared/schemas/sewdays';
 export function SewDayCautions() {
   return (
     <section aria-labelledby="sew-day-cautions" className="rounded-card border-l-4 border-weld bg-weld/10 px-5 py-4">
-      <h2 id="sew-day-cautions" className="text-xl font-semibold text-walnut">Take care at the sew day</h2>
+      <h2 id="sew-day-cautions" className="text-xl font-semibold text-walnut">
+        Take care at the sew day
+      </h2>
       <ul className="mt-2 list-disc space-y-1 pl-5">
         {sewDayCautions.map((c) => (
           <li key={c.topic}>

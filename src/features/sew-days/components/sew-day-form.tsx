@@ -37,15 +37,59 @@ export function SewDayForm({ timeZone, defaultValues, submitLabel, pendingLabel,
 
   return (
     <form onSubmit={submit} noValidate className="grid gap-5 sm:grid-cols-2">
-      {formError && <div className="sm:col-span-2"><Alert tone="error">{formError}</Alert></div>}
-      <TextField wrapperClassName="sm:col-span-2" label="Name of the sew day" autoComplete="off" error={errors.title?.message} {...register('title')} />
-      <TextField label="Starts" type="datetime-local" hint={`In the guild’s time zone, ${timeZone}.`} error={errors.startsAt?.message} {...register('startsAt')} />
-      <TextField label="Ends" type="datetime-local" hint="Same day or later." error={errors.endsAt?.message} {...register('endsAt')} />
-      <TextField label="Place" hint="Address or room; leave empty for a video call only." autoComplete="off" error={errors.place?.message} {...register('place')} />
-      <TextField label="Video call link" type="url" inputMode="url" hint="Starts with https://; optional." autoComplete="off" error={errors.videoUrl?.message} {...register('videoUrl')} />
-      <TextArea wrapperClassName="sm:col-span-2" label="Notes" hint="What to bring, parking, who has the key." error={errors.notes?.message} {...register('notes')} />
+      {formError && (
+        <div className="sm:col-span-2">
+          <Alert tone="error">{formError}</Alert>
+        </div>
+      )}
+      <TextField
+        wrapperClassName="sm:col-span-2"
+        label="Name of the sew day"
+        autoComplete="off"
+        error={errors.title?.message}
+        {...register('title')}
+      />
+      <TextField
+        label="Starts"
+        type="datetime-local"
+        hint={`In the guild’s time zone, ${timeZone}.`}
+        error={errors.startsAt?.message}
+        {...register('startsAt')}
+      />
+      <TextField
+        label="Ends"
+        type="datetime-local"
+        hint="Same day or later."
+        error={errors.endsAt?.message}
+        {...register('endsAt')}
+      />
+      <TextField
+        label="Place"
+        hint="Address or room; leave empty for a video call only."
+        autoComplete="off"
+        error={errors.place?.message}
+        {...register('place')}
+      />
+      <TextField
+        label="Video call link"
+        type="url"
+        inputMode="url"
+        hint="Starts with https://; optional."
+        autoComplete="off"
+        error={errors.videoUrl?.message}
+        {...register('videoUrl')}
+      />
+      <TextArea
+        wrapperClassName="sm:col-span-2"
+        label="Notes"
+        hint="What to bring, parking, who has the key."
+        error={errors.notes?.message}
+        {...register('notes')}
+      />
       <div className="sm:col-span-2">
-        <Button type="submit" pending={formState.isSubmitting} pendingLabel={pendingLabel}>{submitLabel}</Button>
+        <Button type="submit" pending={formState.isSubmitting} pendingLabel={pendingLabel}>
+          {submitLabel}
+        </Button>
       </div>
     </form>
   );

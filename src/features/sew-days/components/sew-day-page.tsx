@@ -39,20 +39,28 @@ export function SewDayPage({ renderChat }: SewDayPageProps) {
   return (
     <div className="space-y-6">
       <p className="flex flex-wrap justify-between gap-x-4">
-        <Link className="inline-flex min-h-11 items-center font-semibold text-indigo underline" to={paths.sewDays(guildId)}>← All sew days</Link>
+        <Link className="inline-flex min-h-11 items-center font-semibold text-indigo underline" to={paths.sewDays(guildId)}>
+          ← All sew days
+        </Link>
         {s.chatRoomId && renderChat && (
           <a className="inline-flex min-h-11 items-center font-semibold text-indigo underline" href="#chat">
             Go to the chat ↓
           </a>
         )}
       </p>
-      {s.cancelledAt && <Alert tone="warning" title="Cancelled">This sew day was cancelled. It stays here so nobody turns up by mistake.</Alert>}
+      {s.cancelledAt && (
+        <Alert tone="warning" title="Cancelled">
+          This sew day was cancelled. It stays here so nobody turns up by mistake.
+        </Alert>
+      )}
       <Card
         title={s.title}
         actions={
           s.canManage && !s.cancelledAt ? (
             <div className="flex flex-wrap gap-2">
-              <Link className={buttonClass('secondary')} to={paths.editSewDay(guildId, sewDayId)}>Change</Link>
+              <Link className={buttonClass('secondary')} to={paths.editSewDay(guildId, sewDayId)}>
+                Change
+              </Link>
               <Button
                 variant="danger"
                 pending={cancel.isPending}
@@ -60,7 +68,9 @@ export function SewDayPage({ renderChat }: SewDayPageProps) {
                 onClick={() => {
                   if (!window.confirm(`Cancel “${s.title}”? Everyone will see it as cancelled.`)) return;
                   setProblem('');
-                  cancel.mutate(undefined, { onError: (e) => setProblem(e instanceof ApiError ? e.message : 'That did not work.') });
+                  cancel.mutate(undefined, {
+                    onError: (e) => setProblem(e instanceof ApiError ? e.message : 'That did not work.'),
+                  });
                 }}
               >
                 Cancel sew day
@@ -69,22 +79,44 @@ export function SewDayPage({ renderChat }: SewDayPageProps) {
           ) : undefined
         }
       >
-        {problem && <div className="mb-4"><Alert tone="error">{problem}</Alert></div>}
+        {problem && (
+          <div className="mb-4">
+            <Alert tone="error">{problem}</Alert>
+          </div>
+        )}
         <dl className="grid gap-x-6 gap-y-2 sm:grid-cols-[auto_1fr]">
           <dt className="font-semibold">When</dt>
-          <dd><SewDayWhen sewDay={s} /></dd>
-          {s.place && (<><dt className="font-semibold">Where</dt><dd className="break-words">{s.place}</dd></>)}
+          <dd>
+            <SewDayWhen sewDay={s} />
+          </dd>
+          {s.place && (
+            <>
+              <dt className="font-semibold">Where</dt>
+              <dd className="break-words">{s.place}</dd>
+            </>
+          )}
           {s.videoUrl && (
             <>
               <dt className="font-semibold">Video call</dt>
-              <dd className="break-all"><a className="text-indigo underline" href={s.videoUrl} target="_blank" rel="noopener noreferrer nofollow">{s.videoUrl}</a></dd>
+              <dd className="break-all">
+                <a className="text-indigo underline" href={s.videoUrl} target="_blank" rel="noopener noreferrer nofollow">
+                  {s.videoUrl}
+                </a>
+              </dd>
             </>
           )}
-          {s.createdBy && (<><dt className="font-semibold">Posted by</dt><dd>{s.createdBy.displayName}</dd></>)}
+          {s.createdBy && (
+            <>
+              <dt className="font-semibold">Posted by</dt>
+              <dd>{s.createdBy.displayName}</dd>
+            </>
+          )}
         </dl>
         {s.notes && <p className="mt-4 whitespace-pre-wrap break-words">{s.notes}</p>}
         <p className="mt-4">
-          <a className={buttonClass('secondary')} href={sewDayCalendarUrl(s.id)} download>Add to my calendar (.ics)</a>
+          <a className={buttonClass('secondary')} href={sewDayCalendarUrl(s.id)} download>
+            Add to my calendar (.ics)
+          </a>
         </p>
       </Card>
 
@@ -95,7 +127,9 @@ export function SewDayPage({ renderChat }: SewDayPageProps) {
             const people = s.rsvps.filter((r) => r.answer === a);
             return (
               <div key={a}>
-                <h3 className="font-semibold">{rsvpLabels[a]} ({s.rsvpCounts[a]})</h3>
+                <h3 className="font-semibold">
+                  {rsvpLabels[a]} ({s.rsvpCounts[a]})
+                </h3>
                 <p className="text-walnut-soft">{people.length ? people.map((p) => p.displayName).join(', ') : 'Nobody yet'}</p>
               </div>
             );

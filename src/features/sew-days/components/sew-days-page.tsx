@@ -23,7 +23,9 @@ function SewDayItem({ sewDay }: { sewDay: SewDayDto }) {
             </Link>
             {sewDay.cancelledAt && <span className="ml-2 rounded bg-madder px-2 py-0.5 text-base text-white">Cancelled</span>}
           </h3>
-          <p><When sewDay={sewDay} /></p>
+          <p>
+            <When sewDay={sewDay} />
+          </p>
           <p className="break-words text-walnut-soft">
             {[sewDay.place, sewDay.videoUrl ? 'Video call' : null].filter(Boolean).join(' · ')}
           </p>
@@ -49,12 +51,20 @@ export function SewDaysPage() {
       <div className="flex flex-wrap items-center justify-between gap-3">
         <h2 className="text-2xl font-semibold text-indigo-deep">Sew days</h2>
         {list.data?.canManage && (
-          <Link className={buttonClass('primary')} to={paths.newSewDay(guildId)}>Schedule a sew day</Link>
+          <Link className={buttonClass('primary')} to={paths.newSewDay(guildId)}>
+            Schedule a sew day
+          </Link>
         )}
       </div>
       <div role="group" aria-label="Which sew days" className="flex gap-2">
         {(['upcoming', 'past'] as const).map((w) => (
-          <button key={w} type="button" aria-pressed={when === w} className={tabClass(when === w)} onClick={() => setSearch(w === 'past' ? { when: 'past' } : {})}>
+          <button
+            key={w}
+            type="button"
+            aria-pressed={when === w}
+            className={tabClass(when === w)}
+            onClick={() => setSearch(w === 'past' ? { when: 'past' } : {})}
+          >
             {w === 'upcoming' ? 'Upcoming' : 'Past'}
           </button>
         ))}
@@ -63,14 +73,19 @@ export function SewDaysPage() {
       {list.isError && <QueryError error={list.error} what="the sew days" />}
       {list.data && list.data.sewDays.length === 0 && (
         <EmptyState title={when === 'upcoming' ? 'No sew days planned yet' : 'No past sew days'}>
-          {when === 'upcoming' && (list.data.canManage ? 'Schedule one and the guild can answer and chat.' : 'A guild officer will post the next one here.')}
+          {when === 'upcoming' &&
+            (list.data.canManage
+              ? 'Schedule one and the guild can answer and chat.'
+              : 'A guild officer will post the next one here.')}
         </EmptyState>
       )}
       {list.data && list.data.sewDays.length > 0 && (
         <>
           <p className="text-walnut-soft">Times are shown in the guild’s time zone, {list.data.timeZone}.</p>
           <ul className="space-y-4">
-            {list.data.sewDays.map((s) => <SewDayItem key={s.id} sewDay={s} />)}
+            {list.data.sewDays.map((s) => (
+              <SewDayItem key={s.id} sewDay={s} />
+            ))}
           </ul>
         </>
       )}

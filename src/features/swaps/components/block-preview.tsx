@@ -37,10 +37,19 @@ function roleIndex(roles: string[], role: string | undefined, fallback: number) 
 type Shape = { key: string; points?: string; x?: number; y?: number; w?: number; h?: number; fill: number };
 
 function shapesFor(spec: BlockSpec, W: number, H: number, roles: string[]): Shape[] {
-  const poly = (key: string, pts: [number, number][], fill: number): Shape => ({ key, points: pts.map(([x, y]) => `${x * SCALE},${y * SCALE}`).join(' '), fill });
+  const poly = (key: string, pts: [number, number][], fill: number): Shape => ({
+    key,
+    points: pts.map(([x, y]) => `${x * SCALE},${y * SCALE}`).join(' '),
+    fill,
+  });
   switch (spec.kind) {
     case 'grid': {
-      const g = gridBlock({ columns: spec.columns, rows: spec.rows, seam: spec.seam ?? 0.25, ...(spec.roles ? { roles: spec.roles } : {}) });
+      const g = gridBlock({
+        columns: spec.columns,
+        rows: spec.rows,
+        seam: spec.seam ?? 0.25,
+        ...(spec.roles ? { roles: spec.roles } : {}),
+      });
       const xs = [0];
       const ys = [0];
       g.patches.filter((p) => p.row === 0).forEach((p) => xs.push(xs.at(-1)! + p.visibleInUnfinished.width));
@@ -55,16 +64,92 @@ function shapesFor(spec: BlockSpec, W: number, H: number, roles: string[]): Shap
       }));
     }
     case 'hst':
-      return [poly('a', [[0, 0], [W, 0], [0, H]], 0), poly('b', [[W, 0], [W, H], [0, H]], 1)];
+      return [
+        poly(
+          'a',
+          [
+            [0, 0],
+            [W, 0],
+            [0, H],
+          ],
+          0,
+        ),
+        poly(
+          'b',
+          [
+            [W, 0],
+            [W, H],
+            [0, H],
+          ],
+          1,
+        ),
+      ];
     case 'qst':
       return [
-        poly('t', [[0, 0], [W, 0], [W / 2, H / 2]], 0), poly('r', [[W, 0], [W, H], [W / 2, H / 2]], 1),
-        poly('b', [[W, H], [0, H], [W / 2, H / 2]], 0), poly('l', [[0, H], [0, 0], [W / 2, H / 2]], 1),
+        poly(
+          't',
+          [
+            [0, 0],
+            [W, 0],
+            [W / 2, H / 2],
+          ],
+          0,
+        ),
+        poly(
+          'r',
+          [
+            [W, 0],
+            [W, H],
+            [W / 2, H / 2],
+          ],
+          1,
+        ),
+        poly(
+          'b',
+          [
+            [W, H],
+            [0, H],
+            [W / 2, H / 2],
+          ],
+          0,
+        ),
+        poly(
+          'l',
+          [
+            [0, H],
+            [0, 0],
+            [W / 2, H / 2],
+          ],
+          1,
+        ),
       ];
     case 'flying-geese':
-      return [{ key: 'sky', x: 0, y: 0, w: W * SCALE, h: H * SCALE, fill: 1 }, poly('goose', [[0, H], [W / 2, 0], [W, H]], 0)];
+      return [
+        { key: 'sky', x: 0, y: 0, w: W * SCALE, h: H * SCALE, fill: 1 },
+        poly(
+          'goose',
+          [
+            [0, H],
+            [W / 2, 0],
+            [W, H],
+          ],
+          0,
+        ),
+      ];
     case 'square-in-square':
-      return [{ key: 'corners', x: 0, y: 0, w: W * SCALE, h: H * SCALE, fill: 1 }, poly('centre', [[W / 2, 0], [W, H / 2], [W / 2, H], [0, H / 2]], 0)];
+      return [
+        { key: 'corners', x: 0, y: 0, w: W * SCALE, h: H * SCALE, fill: 1 },
+        poly(
+          'centre',
+          [
+            [W / 2, 0],
+            [W, H / 2],
+            [W / 2, H],
+            [0, H / 2],
+          ],
+          0,
+        ),
+      ];
     case 'custom':
       return [{ key: 'plain', x: 0, y: 0, w: W * SCALE, h: H * SCALE, fill: 0 }];
   }
@@ -97,15 +182,36 @@ export function BlockPreview({ spec, roles = [], className = '' }: { spec: Block
   const label = `Preview of the block: ${sizeText(U)} unfinished, ${sizeText(sizes.finished)} finished${names.length ? `; fabrics ${names.join(', ')}` : ''}.`;
   return (
     <figure className={className}>
-      <svg viewBox={`-4 -4 ${U.width * SCALE + 8} ${U.height * SCALE + 8}`} role="img" aria-label={label} className="h-auto w-full max-w-72">
+      <svg
+        viewBox={`-4 -4 ${U.width * SCALE + 8} ${U.height * SCALE + 8}`}
+        role="img"
+        aria-label={label}
+        className="h-auto w-full max-w-72"
+      >
         {shapes.map((s) =>
           s.points ? (
             <polygon key={s.key} points={s.points} className={`${fillOf(s.fill)} stroke-walnut/40`} strokeWidth={1} />
           ) : (
-            <rect key={s.key} x={s.x} y={s.y} width={s.w} height={s.h} className={`${fillOf(s.fill)} stroke-walnut/40`} strokeWidth={1} />
+            <rect
+              key={s.key}
+              x={s.x}
+              y={s.y}
+              width={s.w}
+              height={s.h}
+              className={`${fillOf(s.fill)} stroke-walnut/40`}
+              strokeWidth={1}
+            />
           ),
         )}
-        <rect x={0} y={0} width={U.width * SCALE} height={U.height * SCALE} fill="none" className="stroke-walnut" strokeWidth={2} />
+        <rect
+          x={0}
+          y={0}
+          width={U.width * SCALE}
+          height={U.height * SCALE}
+          fill="none"
+          className="stroke-walnut"
+          strokeWidth={2}
+        />
         <rect
           x={seam * SCALE}
           y={seam * SCALE}
@@ -123,7 +229,10 @@ export function BlockPreview({ spec, roles = [], className = '' }: { spec: Block
           <span className="mt-1 flex flex-wrap gap-3">
             {names.map((n, i) => (
               <span key={n} className="inline-flex items-center gap-1.5">
-                <span aria-hidden="true" className={`inline-block h-4 w-4 rounded-sm ring-1 ring-walnut/30 ${colours[i]!.swatch}`} />
+                <span
+                  aria-hidden="true"
+                  className={`inline-block h-4 w-4 rounded-sm ring-1 ring-walnut/30 ${colours[i]!.swatch}`}
+                />
                 {n}
               </span>
             ))}

@@ -9,9 +9,15 @@ export function CuttingPlanView({ plan, showYardage = true }: { plan: CuttingPla
   if (plan.freeText !== undefined) {
     return (
       <div className="space-y-2">
-        {plan.notes.map((n) => <p key={n}>{n}</p>)}
+        {plan.notes.map((n) => (
+          <p key={n}>{n}</p>
+        ))}
         <pre className="whitespace-pre-wrap rounded-lg bg-linen p-4 font-body">{plan.freeText}</pre>
-        {plan.blocks > 1 && <p className="font-semibold">Make {plan.blocks} blocks: multiply every count by {plan.blocks}.</p>}
+        {plan.blocks > 1 && (
+          <p className="font-semibold">
+            Make {plan.blocks} blocks: multiply every count by {plan.blocks}.
+          </p>
+        )}
       </div>
     );
   }
@@ -24,19 +30,35 @@ export function CuttingPlanView({ plan, showYardage = true }: { plan: CuttingPla
           </caption>
           <thead>
             <tr className="border-b-2 border-walnut/20">
-              <th scope="col" className={th}>Fabric</th>
-              <th scope="col" className={th}>Piece</th>
-              <th scope="col" className={th}>Cut size</th>
-              <th scope="col" className={`${th} text-right`}>How many</th>
+              <th scope="col" className={th}>
+                Fabric
+              </th>
+              <th scope="col" className={th}>
+                Piece
+              </th>
+              <th scope="col" className={th}>
+                Cut size
+              </th>
+              <th scope="col" className={`${th} text-right`}>
+                How many
+              </th>
             </tr>
           </thead>
           <tbody>
             {plan.cuts.map((c, i) => (
               <tr key={i} className="border-b border-walnut/10">
-                <td data-label="Fabric" className={td}>{c.fabric}</td>
-                <td data-label="Piece" className={td}>{c.what}</td>
-                <td data-label="Cut size" className={td}>{len(c.width)} × {len(c.height)}</td>
-                <td data-label="How many" className={`${td} text-right font-semibold`}>{c.count}</td>
+                <td data-label="Fabric" className={td}>
+                  {c.fabric}
+                </td>
+                <td data-label="Piece" className={td}>
+                  {c.what}
+                </td>
+                <td data-label="Cut size" className={td}>
+                  {len(c.width)} × {len(c.height)}
+                </td>
+                <td data-label="How many" className={`${td} text-right font-semibold`}>
+                  {c.count}
+                </td>
               </tr>
             ))}
           </tbody>
@@ -49,9 +71,9 @@ export function CuttingPlanView({ plan, showYardage = true }: { plan: CuttingPla
           <ol className="mt-2 list-decimal space-y-3 pl-6">
             {plan.stripSets.map((set, i) => (
               <li key={i}>
-                Sew strips {set.strips.map((s) => `${len(s.width)}${s.role ? ` ${s.role}` : ''}`).join(' + ')} cut across the width of fabric
-                (sewn width {len(set.sewnWidth)}). Make {set.stripSets} strip set{set.stripSets === 1 ? '' : 's'}; sub-cut{' '}
-                {set.subCuts.map((c) => `${c.total} × ${len(c.height)}`).join(' and ')}.
+                Sew strips {set.strips.map((s) => `${len(s.width)}${s.role ? ` ${s.role}` : ''}`).join(' + ')} cut across the
+                width of fabric (sewn width {len(set.sewnWidth)}). Make {set.stripSets} strip set{set.stripSets === 1 ? '' : 's'};
+                sub-cut {set.subCuts.map((c) => `${c.total} × ${len(c.height)}`).join(' and ')}.
               </li>
             ))}
           </ol>
@@ -64,17 +86,21 @@ export function CuttingPlanView({ plan, showYardage = true }: { plan: CuttingPla
           <ul className="mt-2 space-y-1">
             {plan.fabrics.map((f) => (
               <li key={f.fabric}>
-                <span className="font-semibold">{f.fabric}:</span> {yards(f.yards)} — {f.strips} strip{f.strips === 1 ? '' : 's'} across a 42″ width of fabric
-                ({[...new Set(f.stripWidths)].map(len).join(', ')} wide)
+                <span className="font-semibold">{f.fabric}:</span> {yards(f.yards)} — {f.strips} strip{f.strips === 1 ? '' : 's'}{' '}
+                across a 42″ width of fabric ({[...new Set(f.stripWidths)].map(len).join(', ')} wide)
               </li>
             ))}
           </ul>
-          <p className="mt-1 text-base text-walnut-soft">Rounded up to the next ⅛ yd; allow a little more for squaring up the cut end.</p>
+          <p className="mt-1 text-base text-walnut-soft">
+            Rounded up to the next ⅛ yd; allow a little more for squaring up the cut end.
+          </p>
         </div>
       )}
       {plan.notes.length > 0 && (
         <ul className="list-disc space-y-1 pl-6 text-walnut-soft">
-          {plan.notes.map((n) => <li key={n}>{n}</li>)}
+          {plan.notes.map((n) => (
+            <li key={n}>{n}</li>
+          ))}
         </ul>
       )}
     </div>

@@ -50,7 +50,11 @@ function YardageTable({ swap }: { swap: SwapDto }) {
               {f}
             </th>
             {plans.map((p, i) => (
-              <td key={columns[i]} data-label={`${columns[i]} block${columns[i] === 1 ? '' : 's'}`} className="py-1 pr-3 text-right">
+              <td
+                key={columns[i]}
+                data-label={`${columns[i]} block${columns[i] === 1 ? '' : 's'}`}
+                className="py-1 pr-3 text-right"
+              >
                 {yards(p.fabrics.find((x) => x.fabric === f)?.yards ?? 0)}
               </td>
             ))}

@@ -10,17 +10,25 @@ export interface BruteForceBest {
   angelBlocksUsed: number;
 }
 
-export function bruteForceDistribution(makers: { id: string; accepted: number }[], angels: { id: string; blocks: number }[] = []): BruteForceBest {
-  const givers = [...makers.map((m) => ({ id: m.id, supply: m.accepted, angel: false })), ...angels.map((a) => ({ id: a.id, supply: a.blocks, angel: true }))];
+export function bruteForceDistribution(
+  makers: { id: string; accepted: number }[],
+  angels: { id: string; blocks: number }[] = [],
+): BruteForceBest {
+  const givers = [
+    ...makers.map((m) => ({ id: m.id, supply: m.accepted, angel: false })),
+    ...angels.map((a) => ({ id: a.id, supply: a.blocks, angel: true })),
+  ];
   const recipients = makers.filter((m) => m.accepted > 0);
   const left = givers.map((g) => g.supply);
   let best: BruteForceBest | null = null;
   const better = (a: BruteForceBest, b: BruteForceBest | null) =>
     b === null ||
     a.delivered > b.delivered ||
-    (a.delivered === b.delivered && (a.minDistinct > b.minDistinct ||
-      (a.minDistinct === b.minDistinct && (a.distinctPairs > b.distinctPairs ||
-        (a.distinctPairs === b.distinctPairs && a.angelBlocksUsed < b.angelBlocksUsed)))));
+    (a.delivered === b.delivered &&
+      (a.minDistinct > b.minDistinct ||
+        (a.minDistinct === b.minDistinct &&
+          (a.distinctPairs > b.distinctPairs ||
+            (a.distinctPairs === b.distinctPairs && a.angelBlocksUsed < b.angelBlocksUsed)))));
 
   const received: number[] = [];
   const distinct: number[] = [];

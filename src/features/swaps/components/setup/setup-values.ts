@@ -60,12 +60,24 @@ export function defaultValues(timeZone: string, currency = 'usd', now = Date.now
     title: '',
     description: '',
     block: {
-      kind: 'grid', columns: cells(3), rows: cells(3), seam: '1/4', finished: '3', finishedWidth: '', finishedHeight: '',
-      hstMethod: 'two-at-a-time', geeseMethod: 'no-waste', cutList: '', roles: [],
+      kind: 'grid',
+      columns: cells(3),
+      rows: cells(3),
+      seam: '1/4',
+      finished: '3',
+      finishedWidth: '',
+      finishedHeight: '',
+      hstMethod: 'two-at-a-time',
+      geeseMethod: 'no-waste',
+      cutList: '',
+      roles: [],
     },
     tolerance: '1/8',
     squareness: '1/4',
-    colourRules: [{ role: 'light', note: '' }, { role: 'dark', note: '' }],
+    colourRules: [
+      { role: 'light', note: '' },
+      { role: 'dark', note: '' },
+    ],
     quotaMin: 1,
     quotaMax: 6,
     signupCloses: at18(21),
@@ -134,7 +146,13 @@ export function blockBody(v: SetupValues['block']): Record<string, unknown> {
     case 'grid': {
       const roles = v.roles.slice(0, v.rows.length).map((r) => r.slice(0, v.columns.length));
       const anyRole = roles.some((r) => r.some(Boolean));
-      return { kind: 'grid', columns: v.columns.map((c) => c.value), rows: v.rows.map((r) => r.value), seam: v.seam, ...(anyRole ? { roles } : {}) };
+      return {
+        kind: 'grid',
+        columns: v.columns.map((c) => c.value),
+        rows: v.rows.map((r) => r.value),
+        seam: v.seam,
+        ...(anyRole ? { roles } : {}),
+      };
     }
     case 'hst':
       return { kind: 'hst', finished: v.finished, method: v.hstMethod };
@@ -152,7 +170,9 @@ export function blockBody(v: SetupValues['block']): Record<string, unknown> {
 /** The parsed block, or the first reason it cannot be read yet (for the live size). */
 export function parseBlock(v: SetupValues['block']): { spec: BlockSpec | null; problem: string | null } {
   const parsed = blockSpecSchema.safeParse(blockBody(v));
-  return parsed.success ? { spec: parsed.data, problem: null } : { spec: null, problem: parsed.error.issues[0]?.message ?? 'Check the block.' };
+  return parsed.success
+    ? { spec: parsed.data, problem: null }
+    : { spec: null, problem: parsed.error.issues[0]?.message ?? 'Check the block.' };
 }
 
 export function toBody(v: SetupValues, timeZone: string): CreateSwapInput {
@@ -186,8 +206,12 @@ function feeAmount(text: string, currency: string): number | null {
 export function scheduleBody(v: SetupValues, timeZone: string): UpdateSwapInput {
   const b = toBody(v, timeZone);
   return {
-    title: b.title, description: b.description, signupClosesAt: b.signupClosesAt, dueAt: b.dueAt,
-    signupReminderDays: b.signupReminderDays, dueReminderDays: b.dueReminderDays,
+    title: b.title,
+    description: b.description,
+    signupClosesAt: b.signupClosesAt,
+    dueAt: b.dueAt,
+    signupReminderDays: b.signupReminderDays,
+    dueReminderDays: b.dueReminderDays,
   };
 }
 
@@ -214,7 +238,8 @@ export function validateValues(v: SetupValues, timeZone: string): Record<string,
   const out: Record<string, string> = {};
   for (const kind of ['entry', 'postage'] as const) {
     if (feeAmount(v.fees[kind], v.fees.currency) === null) {
-      out[`fees.${kind}`] = `Give the fee as an amount such as 5 or 5.00 (${v.fees.currency.toUpperCase()}), or leave it empty for none.`;
+      out[`fees.${kind}`] =
+        `Give the fee as an amount such as 5 or 5.00 (${v.fees.currency.toUpperCase()}), or leave it empty for none.`;
     }
   }
   const parsed = createSwapSchema.safeParse(toBody(v, timeZone));

@@ -6,7 +6,12 @@ export function StepBasics({ form }: { form: UseFormReturn<SetupValues> }) {
   const { register, formState } = form;
   return (
     <div className="space-y-5">
-      <TextField label="Title" hint="What members will call it, e.g. “Autumn Lanterns”." error={formState.errors.title?.message} {...register('title')} />
+      <TextField
+        label="Title"
+        hint="What members will call it, e.g. “Autumn Lanterns”."
+        error={formState.errors.title?.message}
+        {...register('title')}
+      />
       <TextArea
         label="Description"
         hint="What the blocks are for and anything makers should know. Optional."

@@ -36,7 +36,13 @@ export function NewSwapPage() {
   const guild = useGuild(guildId);
   if (guild.isPending) return <Loading />;
   if (guild.isError) return <QueryError error={guild.error} what="the guild" />;
-  return <SwapSetupForm guildId={guildId} timeZone={guild.data.timeZone} initial={defaultValues(guild.data.timeZone, guild.data.currency)} />;
+  return (
+    <SwapSetupForm
+      guildId={guildId}
+      timeZone={guild.data.timeZone}
+      initial={defaultValues(guild.data.timeZone, guild.data.currency)}
+    />
+  );
 }
 
 /** Edit: /guilds/:guildId/swaps/:swapId/edit. */
@@ -48,7 +54,12 @@ export function EditSwapPage() {
   if (swap.isError) return <QueryError error={swap.error} what="the swap" />;
   if (guild.isError) return <QueryError error={guild.error} what="the guild" />;
   return (
-    <SwapSetupForm guildId={guildId} timeZone={swap.data.guild.timeZone} initial={valuesFromSwap(swap.data, guild.data.currency)} swap={swap.data} />
+    <SwapSetupForm
+      guildId={guildId}
+      timeZone={swap.data.guild.timeZone}
+      initial={valuesFromSwap(swap.data, guild.data.currency)}
+      swap={swap.data}
+    />
   );
 }
 
