@@ -454,26 +454,32 @@ ${back}`,
     );
   });
 
+  /** The session's payment intent, made on the first try to pay (as the real service does). */
+  function intentOf(session: CheckoutSession): PaymentIntent {
+    const existing = session.payment_intent ? intents.get(session.payment_intent) : undefined;
+    if (existing) return existing;
+    const intent: PaymentIntent = {
+      id: newId('pi'),
+      object: 'payment_intent',
+      amount: session.amount_total,
+      amount_received: 0,
+      currency: session.currency,
+      status: 'requires_payment_method',
+      metadata: session.intentMetadata,
+      last_payment_error: null,
+      created: now(),
+      livemode: false,
+      refunded: 0,
+    };
+    intents.set(intent.id, intent);
+    session.payment_intent = intent.id;
+    return intent;
+  }
+
   app.post('/checkout/:id/pay', (req, res) => {
     const session = sessions.get(req.params.id!);
     if (!session || session.status !== 'open') return res.redirect(303, `/checkout/${encodeURIComponent(req.params.id!)}`);
-    let intent = session.payment_intent ? intents.get(session.payment_intent) : undefined;
-    if (!intent) {
-      intent = {
-        id: newId('pi'),
-        object: 'payment_intent',
-        amount: session.amount_total,
-        amount_received: 0,
-        currency: session.currency,
-        status: 'requires_payment_method',
-        metadata: session.intentMetadata,
-        last_payment_error: null,
-        created: now(),
-        livemode: false,
-        refunded: 0,
-      };
-      intents.set(intent.id, intent);
-    }
+    const intent = intentOf(session);
     intent.status = 'succeeded';
     intent.amount_received = intent.amount;
     intent.last_payment_error = null;
@@ -489,24 +495,7 @@ ${back}`,
   app.post('/checkout/:id/decline', (req, res) => {
     const session = sessions.get(req.params.id!);
     if (!session || session.status !== 'open') return res.redirect(303, `/checkout/${encodeURIComponent(req.params.id!)}`);
-    let intent = session.payment_intent ? intents.get(session.payment_intent) : undefined;
-    if (!intent) {
-      intent = {
-        id: newId('pi'),
-        object: 'payment_intent',
-        amount: session.amount_total,
-        amount_received: 0,
-        currency: session.currency,
-        status: 'requires_payment_method',
-        metadata: session.intentMetadata,
-        last_payment_error: null,
-        created: now(),
-        livemode: false,
-        refunded: 0,
-      };
-      intents.set(intent.id, intent);
-      session.payment_intent = intent.id;
-    }
+    const intent = intentOf(session);
     intent.last_payment_error = { code: 'card_declined', message: 'Your card was declined.' };
     emit('payment_intent.payment_failed', { ...intent });
     res.redirect(303, `/checkout/${session.id}?declined=1`);
