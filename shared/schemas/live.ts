@@ -14,4 +14,6 @@ export const swapParamsSchema = z.object({ swapId: idParam });
 
 export const activityQuerySchema = z.object({
   limit: z.coerce.number().int().min(1).max(100).default(20),
+  /** the id of the oldest line already shown; the answer holds the lines before it */
+  before: z.coerce.number().int().min(-2147483648).max(2147483647).optional(),
 });

@@ -5,8 +5,9 @@ import { liveBoardKeys } from './live-board-keys';
 
 export const ACTIVITY_SHOWN = 20;
 
-export const getActivity = (swapId: number) =>
-  api.get<ActivityDto[]>(`/swaps/${swapId}/activity`, { query: { limit: ACTIVITY_SHOWN } });
+/** A page of a swap's activity, newest first; `before` is the id of the oldest line already shown. */
+export const getActivity = (swapId: number, before?: number) =>
+  api.get<ActivityDto[]>(`/swaps/${swapId}/activity`, { query: { limit: ACTIVITY_SHOWN, before } });
 export const activityQueryOptions = (swapId: number) =>
   queryOptions({ queryKey: liveBoardKeys.activity(swapId), queryFn: () => getActivity(swapId), staleTime: 5 * 60_000 });
 export const useActivity = (swapId: number) => useQuery(activityQueryOptions(swapId));

@@ -1,9 +1,13 @@
-import type { ReactNode } from 'react';
+import { useState, type ReactNode } from 'react';
+import { useMutation } from '@tanstack/react-query';
 import type { ActivityDto } from '@shared/live-events';
 import { swapStateShort, type SwapState } from '@shared/schemas/swaps';
 import type { VerdictName } from '@shared/swap-types';
 import { relativeTime } from '@/lib/dates';
 import { VerdictBadge } from '@/entities/block/components/verdict-badge';
+import { Button } from '@/components/ui/button';
+import { QueryError } from '@/components/ui/page';
+import { ACTIVITY_SHOWN, getActivity } from '../api/get-activity';
 
 const who = (p: ActivityDto['actor']) => p?.displayName ?? 'Someone';
 const whose = (a: ActivityDto) => (a.subject && a.actor?.userId === a.subject.userId ? 'their' : `${who(a.subject)}’s`);
@@ -46,21 +50,51 @@ export function describeActivity(a: ActivityDto): ReactNode {
   }
 }
 
-/** What happened lately, newest first; new lines are read out by screen readers as they come. */
-export function ActivityList({ activities }: { activities: ActivityDto[] }) {
-  if (activities.length === 0) return <p className="text-walnut-soft">Nothing has happened yet.</p>;
+/**
+ * What happened lately, newest first; new lines are read out by screen readers as they come.
+ * *Show older* adds the page before the oldest line shown, until the swap's beginning.
+ */
+export function ActivityList({ swapId, activities }: { swapId: number; activities: ActivityDto[] }) {
+  const [older, setOlder] = useState<ActivityDto[]>([]);
+  const [reachedStart, setReachedStart] = useState(false);
+  const seen = new Set(activities.map((a) => a.id));
+  const shown = [...activities, ...older.filter((a) => !seen.has(a.id))].sort((a, b) => b.id - a.id);
+  const more = useMutation({
+    mutationFn: (before: number) => getActivity(swapId, before),
+    onSuccess: (page) => {
+      setOlder((list) => [...list, ...page]);
+      if (page.length < ACTIVITY_SHOWN) setReachedStart(true);
+    },
+  });
+  if (shown.length === 0) return <p className="text-walnut-soft">Nothing has happened yet.</p>;
+  const canShowOlder = !reachedStart && activities.length >= ACTIVITY_SHOWN;
   return (
-    <ol aria-live="polite" aria-label="Recent activity, newest first" className="gap-x-10 lg:columns-2">
-      {activities.map((a) => (
-        <li key={a.id} className="break-inside-avoid border-b border-walnut/10 py-2">
-          <p>{describeActivity(a)}</p>
-          <p className="text-base text-walnut-soft">
-            <time dateTime={a.at} title={new Date(a.at).toLocaleString()}>
-              {relativeTime(a.at)}
-            </time>
-          </p>
-        </li>
-      ))}
-    </ol>
+    <>
+      <ol aria-live="polite" aria-label="Recent activity, newest first" className="gap-x-10 lg:columns-2">
+        {shown.map((a) => (
+          <li key={a.id} className="break-inside-avoid border-b border-walnut/10 py-2">
+            <p>{describeActivity(a)}</p>
+            <p className="text-base text-walnut-soft">
+              <time dateTime={a.at} title={new Date(a.at).toLocaleString()}>
+                {relativeTime(a.at)}
+              </time>
+            </p>
+          </li>
+        ))}
+      </ol>
+      {more.isError && <QueryError error={more.error} what="older activity" />}
+      {canShowOlder && (
+        <Button
+          variant="secondary"
+          className="mt-4"
+          pending={more.isPending}
+          pendingLabel="Loading older activity…"
+          onClick={() => more.mutate(shown.at(-1)!.id)}
+        >
+          Show older
+        </Button>
+      )}
+      {reachedStart && <p className="mt-4 text-walnut-soft">That is everything since the swap was set up.</p>}
+    </>
   );
 }

@@ -76,7 +76,7 @@ export function LiveBoardPage() {
         ) : activity.isError ? (
           <QueryError error={activity.error} what="the activity" />
         ) : (
-          <ActivityList activities={activity.data} />
+          <ActivityList key={swapId} swapId={swapId} activities={activity.data} />
         )}
       </Card>
     </div>
