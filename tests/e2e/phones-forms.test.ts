@@ -221,6 +221,25 @@ describe('A guild that works in millimetres', () => {
     expect(await page.getByRole('radio', { name: 'Millimetres' }).isChecked()).toBe(true);
     expect(await page.getByLabel('Usable width of fabric (WOF)').inputValue()).toBe('1066.8'); // 42″ (NIST SP 811: 25.4 mm to the inch)
 
+    // Setting up a swap: a bare 216 for a column is 216 mm, and the swap is saved as 8.5039…″ (216 / 25.4).
+    await page.goto(`${server.url}/guilds/${guildId}/swaps/new`);
+    await page.getByLabel('Title').fill('Ashgrove metric nine-patch');
+    await page.getByRole('button', { name: 'Next' }).click();
+    expect(await page.getByLabel('Column 1').inputValue()).toBe('88.9'); // 3½″
+    expect(await page.locator('[id$="-unit"]', { hasText: 'mm' }).count()).toBeGreaterThanOrEqual(8);
+    // 3 × 88.9 mm cut less 2 seams of 2 × 6.35 mm: 241.3 mm (Σ cuts − 2 × SA × seams, common practice, no source).
+    await page.getByText('241.3 mm × 241.3 mm').first().waitFor();
+    await page.getByLabel('Column 1').fill('216');
+    await page.getByText('368.4 mm × 241.3 mm').first().waitFor(); // 216 + 2 × 88.9 − 4 × 6.35
+    for (let i = 0; i < 3; i++) await page.getByRole('button', { name: 'Next' }).click();
+    await page.getByRole('button', { name: 'Save as draft' }).click();
+    await page.waitForURL(/\/swaps\/\d+$/);
+    const swapId = Number(new URL(page.url()).pathname.split('/').pop());
+    const saved = (await agent.get(`/api/swaps/${swapId}`).expect(200)).body;
+    expect(saved.block.columns[0]).toBeCloseTo(216 / 25.4, 9);
+    expect(saved.block.columns[1]).toBe(3.5);
+    expect([saved.block.seam, saved.tolerance]).toEqual([0.25, 0.125]);
+
     // Saving Settings without touching the unit keeps following the guild; choosing one wins over the guild's.
     await page.goto(`${server.url}/settings`);
     const unit = page.getByLabel('Show lengths in');

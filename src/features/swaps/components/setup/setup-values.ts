@@ -1,8 +1,12 @@
 /**
  * The set-up form's values (what people type, all text) and their mapping to the API body checked
  * by the shared createSwapSchema. Field paths map both ways so server messages land beside fields.
+ * Lengths are typed in the person's unit: in millimetre mode a bare number gets " mm" written after
+ * it in the body, so the schema (which reads a bare number as inches) reads millimetres.
  */
 import { formatLength, parseLength } from '@shared/quilt';
+import type { Units } from '@shared/schemas/auth';
+import { withUnit } from '@/entities/me/api/units';
 import { blockSpecSchema, type BlockKind, type BlockSpec } from '@shared/schemas/blocks';
 import { createSwapSchema, type CreateSwapInput, type UpdateSwapInput } from '@shared/schemas/swaps';
 import { zodFields } from '@shared/schemas/errors';
@@ -45,7 +49,10 @@ export interface SetupValues {
 }
 
 const DAY = 86_400_000;
-const cells = (n: number, value = '3 1/2') => Array.from({ length: n }, () => ({ value }));
+const cells = (n: number, value: string) => Array.from({ length: n }, () => ({ value }));
+
+/** A new column or row before anything is typed: 3½″, or 88.9 mm (1 in = 25.4 mm exactly, NIST SP 811). */
+export const defaultCell = (units: Units = 'in') => (units === 'mm' ? '88.9' : '3 1/2');
 
 /** A stored fee (minor units) as people type it: 500 usd → "5.00"; 0 → empty. */
 function feeText(amount: number, currency: string): string {
@@ -54,17 +61,19 @@ function feeText(amount: number, currency: string): string {
   return (amount / 10 ** digits).toFixed(digits);
 }
 
-export function defaultValues(timeZone: string, currency = 'usd', now = Date.now()): SetupValues {
+export function defaultValues(timeZone: string, currency = 'usd', units: Units = 'in', now = Date.now()): SetupValues {
+  // Millimetre starting values are the same lengths: 3½″, 3″, ¼″ and ⅛″ at 25.4 mm to the inch (NIST SP 811).
+  const mm = units === 'mm';
   const at18 = (days: number) => `${isoToZonedLocal(new Date(now + days * DAY).toISOString(), timeZone).slice(0, 10)}T18:00`;
   return {
     title: '',
     description: '',
     block: {
       kind: 'grid',
-      columns: cells(3),
-      rows: cells(3),
-      seam: '1/4',
-      finished: '3',
+      columns: cells(3, defaultCell(units)),
+      rows: cells(3, defaultCell(units)),
+      seam: mm ? '6.35' : '1/4',
+      finished: mm ? '76.2' : '3',
       finishedWidth: '',
       finishedHeight: '',
       hstMethod: 'two-at-a-time',
@@ -72,8 +81,8 @@ export function defaultValues(timeZone: string, currency = 'usd', now = Date.now
       cutList: '',
       roles: [],
     },
-    tolerance: '1/8',
-    squareness: '1/4',
+    tolerance: mm ? '3.175' : '1/8',
+    squareness: mm ? '6.35' : '1/4',
     colourRules: [
       { role: 'light', note: '' },
       { role: 'dark', note: '' },
@@ -92,16 +101,41 @@ export function defaultValues(timeZone: string, currency = 'usd', now = Date.now
   };
 }
 
-/** A stored length as people write it: 3½″ when that reads back exactly, else the decimal. */
-function lengthText(x: number | undefined): string {
+/**
+ * A stored length (inches) as people write it: 3½″ when that reads back exactly, else the decimal.
+ * In millimetre mode the bare millimetres (88.9) when they read back exactly, else the inches with
+ * their unit written out so they are not taken for millimetres.
+ */
+export function lengthTextIn(x: number | undefined, units: Units = 'in'): string {
   if (x === undefined) return '';
+  if (units === 'mm') {
+    const mm = String(Number((x * 25.4).toFixed(4)));
+    return parseLength(mm, { bareUnit: 'mm' }) === x ? mm : `${x} in`;
+  }
   const text = formatLength(x, { denominator: 16 });
   return parseLength(text) === x ? text : String(x);
 }
 
-export function valuesFromSwap(swap: SwapDto, currency = 'usd'): SetupValues {
+/** A size for reading back: 8½″ × 8½″, or 215.9 mm × 215.9 mm in millimetre mode. */
+export function sizeIn(size: { width: number; height: number }, units: Units): string {
+  const one = (x: number) => (units === 'mm' ? formatLength(x, { unit: 'mm' }) : formatLength(x, { denominator: 16 }));
+  return `${one(size.width)} × ${one(size.height)}`;
+}
+
+/** A typed length read back with its unit (⅛″, or 3.2 mm); left as typed if it does not read. */
+export function lengthBack(text: string, units: Units): string {
+  try {
+    const x = parseLength(text, { bareUnit: units });
+    return units === 'mm' ? formatLength(x, { unit: 'mm' }) : formatLength(x);
+  } catch {
+    return text;
+  }
+}
+
+export function valuesFromSwap(swap: SwapDto, currency = 'usd', units: Units = 'in'): SetupValues {
   const tz = swap.guild.timeZone;
-  const base = defaultValues(tz, currency);
+  const base = defaultValues(tz, currency, units);
+  const lengthText = (x: number | undefined) => lengthTextIn(x, units);
   const b = swap.block;
   const block = { ...base.block, kind: b.kind };
   if (b.kind === 'grid') {
@@ -140,49 +174,59 @@ export function valuesFromSwap(swap: SwapDto, currency = 'usd'): SetupValues {
   };
 }
 
-/** The block part of the body, as typed (the schema parses the lengths). */
-export function blockBody(v: SetupValues['block']): Record<string, unknown> {
+/** The block part of the body, as typed (the schema parses the lengths); bare numbers in mm mode get " mm". */
+export function blockBody(v: SetupValues['block'], units: Units = 'in'): Record<string, unknown> {
+  const u = (text: string) => withUnit(text, units);
   switch (v.kind) {
     case 'grid': {
       const roles = v.roles.slice(0, v.rows.length).map((r) => r.slice(0, v.columns.length));
       const anyRole = roles.some((r) => r.some(Boolean));
       return {
         kind: 'grid',
-        columns: v.columns.map((c) => c.value),
-        rows: v.rows.map((r) => r.value),
-        seam: v.seam,
+        columns: v.columns.map((c) => u(c.value)),
+        rows: v.rows.map((r) => u(r.value)),
+        seam: u(v.seam),
         ...(anyRole ? { roles } : {}),
       };
     }
     case 'hst':
-      return { kind: 'hst', finished: v.finished, method: v.hstMethod };
+      return { kind: 'hst', finished: u(v.finished), method: v.hstMethod };
     case 'qst':
-      return { kind: 'qst', finished: v.finished };
+      return { kind: 'qst', finished: u(v.finished) };
     case 'square-in-square':
-      return { kind: 'square-in-square', finished: v.finished };
+      return { kind: 'square-in-square', finished: u(v.finished) };
     case 'flying-geese':
-      return { kind: 'flying-geese', finished: { width: v.finishedWidth, height: v.finishedHeight }, method: v.geeseMethod };
+      return {
+        kind: 'flying-geese',
+        finished: { width: u(v.finishedWidth), height: u(v.finishedHeight) },
+        method: v.geeseMethod,
+      };
     case 'custom':
-      return { kind: 'custom', finished: { width: v.finishedWidth, height: v.finishedHeight }, seam: v.seam, cutList: v.cutList };
+      return {
+        kind: 'custom',
+        finished: { width: u(v.finishedWidth), height: u(v.finishedHeight) },
+        seam: u(v.seam),
+        cutList: v.cutList,
+      };
   }
 }
 
 /** The parsed block, or the first reason it cannot be read yet (for the live size). */
-export function parseBlock(v: SetupValues['block']): { spec: BlockSpec | null; problem: string | null } {
-  const parsed = blockSpecSchema.safeParse(blockBody(v));
+export function parseBlock(v: SetupValues['block'], units: Units = 'in'): { spec: BlockSpec | null; problem: string | null } {
+  const parsed = blockSpecSchema.safeParse(blockBody(v, units));
   return parsed.success
     ? { spec: parsed.data, problem: null }
     : { spec: null, problem: parsed.error.issues[0]?.message ?? 'Check the block.' };
 }
 
-export function toBody(v: SetupValues, timeZone: string): CreateSwapInput {
+export function toBody(v: SetupValues, timeZone: string, units: Units = 'in'): CreateSwapInput {
   const gift = v.mode === 'gift';
   return {
     title: v.title,
     description: v.description,
-    block: blockBody(v.block) as CreateSwapInput['block'],
-    tolerance: v.tolerance,
-    squareness: v.squareness,
+    block: blockBody(v.block, units) as CreateSwapInput['block'],
+    tolerance: withUnit(v.tolerance, units),
+    squareness: withUnit(v.squareness, units),
     colourRules: v.colourRules.filter((r) => r.role.trim() || r.note.trim()),
     quota: { min: v.quotaMin, max: v.quotaMax },
     signupClosesAt: zonedLocalToIso(v.signupCloses, timeZone) || v.signupCloses,
@@ -234,7 +278,7 @@ export function fieldName(path: string, kind: BlockKind): string {
 }
 
 /** Every problem the shared schema finds, keyed by form field name. */
-export function validateValues(v: SetupValues, timeZone: string): Record<string, string> {
+export function validateValues(v: SetupValues, timeZone: string, units: Units = 'in'): Record<string, string> {
   const out: Record<string, string> = {};
   for (const kind of ['entry', 'postage'] as const) {
     if (feeAmount(v.fees[kind], v.fees.currency) === null) {
@@ -242,7 +286,7 @@ export function validateValues(v: SetupValues, timeZone: string): Record<string,
         `Give the fee as an amount such as 5 or 5.00 (${v.fees.currency.toUpperCase()}), or leave it empty for none.`;
     }
   }
-  const parsed = createSwapSchema.safeParse(toBody(v, timeZone));
+  const parsed = createSwapSchema.safeParse(toBody(v, timeZone, units));
   if (parsed.success) return out;
   for (const [path, message] of Object.entries(zodFields(parsed.error))) out[fieldName(path, v.block.kind)] ??= message;
   return out;

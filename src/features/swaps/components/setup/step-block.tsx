@@ -3,8 +3,8 @@ import { blockKindLabels, blockSizes, type BlockKind } from '@shared/schemas/blo
 import { Button } from '@/components/ui/button';
 import { SelectField, TextArea, TextField } from '@/components/ui/fields';
 import { BlockPreview } from '../block-preview';
-import { sizeText } from '../lengths';
-import { parseBlock, type SetupValues } from './setup-values';
+import type { Units } from '@shared/schemas/auth';
+import { defaultCell, parseBlock, sizeIn, type SetupValues } from './setup-values';
 
 const kindOptions = (Object.keys(blockKindLabels) as BlockKind[]).map((k) => ({ value: k, label: blockKindLabels[k] }));
 const hstMethods = [
@@ -17,16 +17,23 @@ const geeseMethods = [
   { value: 'no-waste', label: 'No-waste, four at a time' },
   { value: 'stitch-and-flip', label: 'Stitch and flip, one at a time' },
 ];
-const lengthHint = 'Any of 3 1/2, 3½, 3.5 or 89 mm.';
+const lengthHints: Record<Units, string> = {
+  in: 'Any of 3 1/2, 3½, 3.5 or 89 mm.',
+  mm: 'A bare number is millimetres (88.9); inches need their mark (3½″ or 3.5 in).',
+};
+/** Usual sizes, in the unit in force (¼″ = 6.35 mm, ⅛″ = 3.175 mm: 25.4 mm to the inch, NIST SP 811). */
+const usual = (units: Units, inch: string, mm: string) => (units === 'mm' ? `${mm} mm (${inch})` : inch);
 
 function LengthList({
   form,
   name,
   label,
+  units,
 }: {
   form: UseFormReturn<SetupValues>;
   name: 'block.columns' | 'block.rows';
   label: string;
+  units: Units;
 }) {
   const { fields, append, remove } = useFieldArray({ control: form.control, name });
   const errors = form.formState.errors.block?.[name === 'block.columns' ? 'columns' : 'rows'];
@@ -44,6 +51,7 @@ function LengthList({
             key={field.id}
             label={`${name === 'block.columns' ? 'Column' : 'Row'} ${i + 1}`}
             inputMode="decimal"
+            unit={units}
             error={errors?.[i]?.value?.message}
             {...form.register(`${name}.${i}.value` as const)}
           />
@@ -53,7 +61,7 @@ function LengthList({
         <Button
           variant="secondary"
           onClick={() =>
-            append({ value: fields.at(-1) ? form.getValues(`${name}.${fields.length - 1}.value` as const) : '3 1/2' })
+            append({ value: fields.at(-1) ? form.getValues(`${name}.${fields.length - 1}.value` as const) : defaultCell(units) })
           }
           disabled={fields.length >= 12}
         >
@@ -76,14 +84,15 @@ function sizesOrNull(spec: ReturnType<typeof parseBlock>['spec']) {
 }
 
 /** Block kind and sizes, with the unfinished size and a drawing worked out live by the engine. */
-export function StepBlock({ form }: { form: UseFormReturn<SetupValues> }) {
+export function StepBlock({ form, units }: { form: UseFormReturn<SetupValues>; units: Units }) {
+  const lengthHint = lengthHints[units];
   const { register, formState } = form;
   const e = formState.errors.block;
   const block = useWatch({ control: form.control, name: 'block' });
   const roles = useWatch({ control: form.control, name: 'colourRules' })
     .map((r) => r.role)
     .filter(Boolean);
-  const { spec, problem } = parseBlock(block);
+  const { spec, problem } = parseBlock(block, units);
   const sizes = sizesOrNull(spec);
 
   return (
@@ -95,8 +104,8 @@ export function StepBlock({ form }: { form: UseFormReturn<SetupValues> }) {
             <p className="text-walnut-soft">
               Give the cut width of each column and the cut height of each row, seam allowance included. {lengthHint}
             </p>
-            <LengthList form={form} name="block.columns" label="Column cut widths" />
-            <LengthList form={form} name="block.rows" label="Row cut heights" />
+            <LengthList form={form} name="block.columns" label="Column cut widths" units={units} />
+            <LengthList form={form} name="block.rows" label="Row cut heights" units={units} />
           </>
         )}
         {(block.kind === 'hst' || block.kind === 'qst' || block.kind === 'square-in-square') && (
@@ -105,13 +114,14 @@ export function StepBlock({ form }: { form: UseFormReturn<SetupValues> }) {
               label="Finished size of the unit (sewn into the quilt)"
               hint={`The size once sewn in, without seam allowance: not the size you cut or measure. ${lengthHint}`}
               inputMode="decimal"
+              unit={units}
               error={e?.finished?.message}
               {...register('block.finished')}
             />
             {sizes && (
               <p className="-mt-3 text-indigo-deep">
-                As typed: finished {sizeText(sizes.finished)}; unfinished {sizeText(sizes.unfinished)} (cut edge to cut edge, what
-                you measure).
+                As typed: finished {sizeIn(sizes.finished, units)}; unfinished {sizeIn(sizes.unfinished, units)} (cut edge to cut
+                edge, what you measure).
               </p>
             )}
           </>
@@ -130,12 +140,14 @@ export function StepBlock({ form }: { form: UseFormReturn<SetupValues> }) {
               label="Finished width"
               hint={block.kind === 'flying-geese' ? 'Twice the height.' : lengthHint}
               inputMode="decimal"
+              unit={units}
               error={e?.finishedWidth?.message}
               {...register('block.finishedWidth')}
             />
             <TextField
               label="Finished height"
               inputMode="decimal"
+              unit={units}
               error={e?.finishedHeight?.message}
               {...register('block.finishedHeight')}
             />
@@ -161,8 +173,9 @@ export function StepBlock({ form }: { form: UseFormReturn<SetupValues> }) {
         {block.kind === 'grid' || block.kind === 'custom' ? (
           <TextField
             label="Seam allowance"
-            hint="¼″ is usual."
+            hint={`${usual(units, '¼″', '6.35')} is usual.`}
             inputMode="decimal"
+            unit={units}
             error={e?.seam?.message}
             {...register('block.seam')}
           />
@@ -172,15 +185,17 @@ export function StepBlock({ form }: { form: UseFormReturn<SetupValues> }) {
         <div className="grid gap-4 sm:grid-cols-2">
           <TextField
             label="Tolerance on each side"
-            hint="How far from the unfinished size a block may be, either way. ⅛″ is usual."
+            hint={`How far from the unfinished size a block may be, either way. ${usual(units, '⅛″', '3.175')} is usual.`}
             inputMode="decimal"
+            unit={units}
             error={formState.errors.tolerance?.message}
             {...register('tolerance')}
           />
           <TextField
             label="Squareness limit"
-            hint="Largest difference between the two diagonals. ¼″ is usual."
+            hint={`Largest difference between the two diagonals. ${usual(units, '¼″', '6.35')} is usual.`}
             inputMode="decimal"
+            unit={units}
             error={formState.errors.squareness?.message}
             {...register('squareness')}
           />
@@ -190,8 +205,8 @@ export function StepBlock({ form }: { form: UseFormReturn<SetupValues> }) {
         <p className="text-walnut-soft">Unfinished size (cut edge to cut edge)</p>
         {sizes ? (
           <>
-            <p className="font-display text-3xl font-bold text-indigo-deep">{sizeText(sizes.unfinished)}</p>
-            <p>Finished in the quilt: {sizeText(sizes.finished)}</p>
+            <p className="font-display text-3xl font-bold text-indigo-deep">{sizeIn(sizes.unfinished, units)}</p>
+            <p>Finished in the quilt: {sizeIn(sizes.finished, units)}</p>
             {spec && <BlockPreview spec={spec} roles={roles} className="mt-4" />}
           </>
         ) : (

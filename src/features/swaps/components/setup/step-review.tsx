@@ -1,21 +1,11 @@
 import { useWatch, type UseFormReturn } from 'react-hook-form';
-import { formatLength, parseLength } from '@shared/quilt';
 import { blockKindLabels, blockSizes } from '@shared/schemas/blocks';
 import { formatInZone } from '@/lib/dates';
 import { useCuttingPlan } from '../../hooks/use-cutting-plan';
 import { zonedLocalToIso } from '../../hooks/zoned-time';
 import { CuttingPlanView } from '../cutting-plan-view';
-import { sizeText } from '../lengths';
-import { parseBlock, type SetupValues } from './setup-values';
-
-/** Typed text such as "1/8" read back as a length with its inch mark (⅛″); left as typed if it does not read. */
-function asLength(text: string): string {
-  try {
-    return formatLength(parseLength(text));
-  } catch {
-    return text;
-  }
-}
+import type { Units } from '@shared/schemas/auth';
+import { lengthBack, parseBlock, sizeIn, type SetupValues } from './setup-values';
 
 function Row({ label, children }: { label: string; children: React.ReactNode }) {
   return (
@@ -27,9 +17,9 @@ function Row({ label, children }: { label: string; children: React.ReactNode }) 
 }
 
 /** Everything entered, read back in words, with the cutting plan for one block. */
-export function StepReview({ form, timeZone }: { form: UseFormReturn<SetupValues>; timeZone: string }) {
+export function StepReview({ form, timeZone, units }: { form: UseFormReturn<SetupValues>; timeZone: string; units: Units }) {
   const v = useWatch({ control: form.control }) as SetupValues;
-  const { spec, problem } = parseBlock(v.block);
+  const { spec, problem } = parseBlock(v.block, units);
   const roles = v.colourRules.map((r) => r.role).filter(Boolean);
   const { plan } = useCuttingPlan(spec, 1, roles);
   const when = (local: string) => {
@@ -38,7 +28,7 @@ export function StepReview({ form, timeZone }: { form: UseFormReturn<SetupValues
   };
   let size = problem ?? '';
   try {
-    if (spec) size = `${sizeText(blockSizes(spec).unfinished)} unfinished`;
+    if (spec) size = `${sizeIn(blockSizes(spec).unfinished, units)} unfinished`;
   } catch (error) {
     size = (error as Error).message;
   }
@@ -50,7 +40,7 @@ export function StepReview({ form, timeZone }: { form: UseFormReturn<SetupValues
           {blockKindLabels[v.block.kind]} · {size}
         </Row>
         <Row label="Tolerance">
-          ± {asLength(v.tolerance)} on each side; diagonals within {asLength(v.squareness)} of each other
+          ± {lengthBack(v.tolerance, units)} on each side; diagonals within {lengthBack(v.squareness, units)} of each other
         </Row>
         <Row label="Fabrics">
           {v.colourRules

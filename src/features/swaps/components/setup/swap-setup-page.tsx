@@ -6,6 +6,9 @@ import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { Loading, PageHeader, QueryError } from '@/components/ui/page';
 import { useGuild } from '@/entities/guild/api/get-guild';
+import { useMe } from '@/entities/me/api/get-me';
+import { unitsFor } from '@/entities/me/api/units';
+import type { Units } from '@shared/schemas/auth';
 import { ApiError } from '@/lib/api-client';
 import { paths } from '@/lib/paths';
 import type { SwapDto } from '@shared/swap-types';
@@ -34,13 +37,17 @@ const STEPS = ['Basics', 'Block', 'Fabric and colour', 'Quota, dates and mode', 
 export function NewSwapPage() {
   const guildId = Number(useParams().guildId);
   const guild = useGuild(guildId);
-  if (guild.isPending) return <Loading />;
+  // A bare number is in the person's unit (their own, or the guild's until they choose).
+  const me = useMe();
+  if (guild.isPending || me.isPending) return <Loading />;
   if (guild.isError) return <QueryError error={guild.error} what="the guild" />;
+  const units = unitsFor(me.data, guildId);
   return (
     <SwapSetupForm
       guildId={guildId}
       timeZone={guild.data.timeZone}
-      initial={defaultValues(guild.data.timeZone, guild.data.currency)}
+      units={units}
+      initial={defaultValues(guild.data.timeZone, guild.data.currency, units)}
     />
   );
 }
@@ -50,14 +57,17 @@ export function EditSwapPage() {
   const guildId = Number(useParams().guildId);
   const swap = useSwap(Number(useParams().swapId));
   const guild = useGuild(guildId);
-  if (swap.isPending || guild.isPending) return <Loading />;
+  const me = useMe();
+  if (swap.isPending || guild.isPending || me.isPending) return <Loading />;
   if (swap.isError) return <QueryError error={swap.error} what="the swap" />;
   if (guild.isError) return <QueryError error={guild.error} what="the guild" />;
+  const units = unitsFor(me.data, guildId);
   return (
     <SwapSetupForm
       guildId={guildId}
       timeZone={swap.data.guild.timeZone}
-      initial={valuesFromSwap(swap.data, guild.data.currency)}
+      units={units}
+      initial={valuesFromSwap(swap.data, guild.data.currency, units)}
       swap={swap.data}
     />
   );
@@ -71,9 +81,12 @@ function SwapSetupForm({
   timeZone,
   initial,
   swap,
+  units,
 }: {
   guildId: number;
   timeZone: string;
+  /** What a bare number typed as a length means. */
+  units: Units;
   initial: SetupValues;
   swap?: SwapDto;
 }) {
@@ -91,7 +104,7 @@ function SwapSetupForm({
   /** Puts the schema's messages beside the fields of the given steps; true when they are clean. */
   function check(onlySteps: number[]) {
     form.clearErrors();
-    const problems = Object.entries(validateValues(form.getValues(), timeZone)).filter(
+    const problems = Object.entries(validateValues(form.getValues(), timeZone, units)).filter(
       ([f]) => onlySteps.includes(stepOf(f)) && (!scheduleOnly || stepOf(f) !== 1),
     );
     for (const [field, message] of problems) form.setError(field as Path<SetupValues>, { type: 'schema', message });
@@ -109,8 +122,8 @@ function SwapSetupForm({
     const values = form.getValues();
     try {
       const saved = swap
-        ? await update.mutateAsync(scheduleOnly ? scheduleBody(values, timeZone) : toBody(values, timeZone))
-        : await create.mutateAsync(toBody(values, timeZone));
+        ? await update.mutateAsync(scheduleOnly ? scheduleBody(values, timeZone) : toBody(values, timeZone, units))
+        : await create.mutateAsync(toBody(values, timeZone, units));
       navigate(paths.swap(guildId, saved.id));
     } catch (error) {
       // Nothing is cleared: the values stay in the form, with the server's messages beside them.
@@ -170,10 +183,10 @@ function SwapSetupForm({
             </div>
           )}
           {step === 0 && <StepBasics form={form} />}
-          {step === 1 && <StepBlock form={form} />}
+          {step === 1 && <StepBlock form={form} units={units} />}
           {step === 2 && <StepFabric form={form} />}
           {step === 3 && <StepSchedule form={form} guildId={guildId} timeZone={timeZone} scheduleOnly={scheduleOnly} />}
-          {step === 4 && <StepReview form={form} timeZone={timeZone} />}
+          {step === 4 && <StepReview form={form} timeZone={timeZone} units={units} />}
           <div className="mt-8 flex flex-wrap justify-between gap-3">
             {at > 0 ? (
               <Button variant="secondary" onClick={() => setAt(at - 1)}>
