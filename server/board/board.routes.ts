@@ -24,7 +24,7 @@ export function boardRouter(deps: AppDeps) {
     '/swaps/:swapId/activity',
     requireUser,
     route({ params: swapParamsSchema, query: activityQuerySchema, authorize: readSwap }, async ({ params, query }, _req, res) => {
-      res.json(await listActivity(params.swapId, query.limit));
+      res.json(await listActivity(params.swapId, query.limit, query.before));
     }),
   );
   return router;
