@@ -17,9 +17,10 @@ type Deps = Pick<AppDeps, 'pool' | 'config' | 'logger' | 'events'>;
 
 const rank: Record<PaymentStatus, number> = { pending: 0, failed: 1, paid: 2, refunded: 3 };
 
+/** No key and secret: there is no payments endpoint here (a 4xx, so a misdirected service stops retrying). */
 class WebhookOffError extends AppError {
   constructor() {
-    super(503, 'payments_off', 'Payments are not set up on this server, so it takes no payment events.');
+    super(404, 'payments_off', 'Payments are not set up on this server, so it takes no payment events.');
   }
 }
 
