@@ -110,13 +110,14 @@ export interface BlockDto {
   maker: { id: number; displayName: string };
   sequence: number;
   state: BlockState;
-  /** verdict of the latest ruler measurement */
-  verdict: VerdictName | null;
-  trimmed: boolean;
+  /** verdict of the latest ruler measurement; absent when the guild keeps other makers' verdicts to its officers */
+  verdict?: VerdictName | null;
+  /** verdict, trimmed, accepted, decision, latest and photoEstimate are all absent together in that case */
+  trimmed?: boolean;
   /** true once the block counts for the return: true to size, trimmed, or accepted by decision */
-  accepted: boolean;
+  accepted?: boolean;
   /** an officer accepted this off-size block anyway: why, who and when */
-  decision: { reason: string; by: { id: number; displayName: string } | null; at: string } | null;
+  decision?: { reason: string; by: { id: number; displayName: string } | null; at: string } | null;
   handIn: { how: 'in-person' | 'post'; note: string | null } | null;
   recipient: { id: number | null; displayName: string } | null;
   times: {
@@ -127,24 +128,25 @@ export interface BlockDto {
     returned: string | null;
     trimmed: string | null;
   };
-  latest: { ruler: MeasurementDto | null; maker: MeasurementDto | null };
+  latest?: { ruler: MeasurementDto | null; maker: MeasurementDto | null };
   photos: PhotoRefDto[];
   /** the latest estimate from a photo, kept apart from the ruler verdict */
-  photoEstimate: LatestPhotoEstimateDto | null;
+  photoEstimate?: LatestPhotoEstimateDto | null;
 }
 
 export interface RosterBlockDto {
   id: number;
   sequence: number;
   state: BlockState;
-  verdict: VerdictName | null;
-  trimmed: boolean;
+  /** verdict, trimmed, acceptedByDecision and the photo estimate are absent when the guild keeps other makers' verdicts to its officers */
+  verdict?: VerdictName | null;
+  trimmed?: boolean;
   /** an officer accepted it anyway, with a reason (the block's own answer says why) */
-  acceptedByDecision: boolean;
+  acceptedByDecision?: boolean;
   handIn: { how: 'in-person' | 'post'; note: string | null } | null;
   photos: PhotoRefDto[];
   /** the latest estimate from a photo, kept apart from the ruler verdict */
-  photoEstimate: LatestPhotoEstimateDto | null;
+  photoEstimate?: LatestPhotoEstimateDto | null;
 }
 
 export interface VerdictCounts {
@@ -164,13 +166,15 @@ export interface RosterCounts {
   verdicts: VerdictCounts;
 }
 
-export interface RosterRowDto extends RosterCounts {
+/** A member's row; `verdicts` and `accepted` are absent when the guild keeps other makers' verdicts to its officers. */
+export interface RosterRowDto extends Omit<RosterCounts, 'verdicts'> {
+  verdicts?: VerdictCounts;
   userId: number;
   displayName: string;
   /** pledged blocks not handed in yet */
   owed: number;
   /** blocks accepted for the return (true, or trimmed) */
-  accepted: number;
+  accepted?: number;
   blocks: RosterBlockDto[];
   /** only for coordinators and admins */
   mailingAddress?: string | null;

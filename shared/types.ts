@@ -32,6 +32,8 @@ export interface GuildDto {
   dues: { amount: number; year: number } | null;
   /** what a bare number means for members who have not chosen a unit of their own */
   defaultUnit: Units;
+  /** who sees the verdicts on other makers' blocks (makers always see their own) */
+  verdictsVisibleTo: 'officers' | 'guild';
   createdAt: string;
   myRole: Role;
   memberCount: number;

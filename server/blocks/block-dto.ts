@@ -4,6 +4,7 @@ import type { BlockDto, MeasurementDto, PhotoRefDto } from '@shared/swap-types';
 import { Block, type Measurement, type Swap } from '../db/models';
 import { photoRef } from './photo-refs';
 import { LATEST_ESTIMATES, NEWEST_ESTIMATE_FIRST, latestEstimateDtos, type LatestEstimateRow } from './latest-estimate';
+import { blockWithoutVerdict, guildVerdictsVisibleTo, seesAllVerdicts } from '../board/verdict-visibility';
 
 /** True to size, trimmed to size, or accepted by an officer's decision. */
 export function isAccepted(block: Pick<Block, 'verdict' | 'trimmed' | 'state' | 'acceptedAt'>): boolean {
@@ -104,7 +105,10 @@ async function relatedRows(blocks: Block[], transaction?: Transaction): Promise<
 
 const iso = (d: Date | null | undefined) => d?.toISOString() ?? null;
 
-/** Who reads a block answer: the hand-in note is for the block's maker and the guild's officers only. */
+/**
+ * Who reads a block answer: the hand-in note is for the block's maker and the guild's officers only;
+ * so is the verdict, unless the guild shows verdicts to every member.
+ */
 export interface BlockViewer {
   userId: number;
   canManage: boolean;
@@ -132,7 +136,12 @@ export async function blockDtos(
   const photos = new Map<number, PhotoRefDto[]>();
   for (const p of related.photos) photos.set(p.blockId, [...(photos.get(p.blockId) ?? []), photoRef(p.id)]);
   const estimates = latestEstimateDtos(related.estimates);
-  return blocks.map((b) => {
+  // Another maker's verdict only for officers, or for everyone when the guild shows verdicts to all.
+  const othersHidden =
+    !!viewer &&
+    blocks.some((b) => b.makerId !== viewer.userId) &&
+    !seesAllVerdicts(viewer, viewer.canManage ? 'officers' : await guildVerdictsVisibleTo(swap.guildId));
+  const dtos = blocks.map((b): BlockDto => {
     const latest = measurements.get(b.id) ?? [];
     const ruler = latest.find((m) => m.source === 'ruler') ?? null;
     const maker = latest.find((m) => m.source === 'maker') ?? null;
@@ -176,6 +185,7 @@ export async function blockDtos(
       photoEstimate: estimates.get(b.id) ?? null,
     };
   });
+  return othersHidden ? dtos.map((d, i) => (blocks[i]!.makerId === viewer!.userId ? d : blockWithoutVerdict(d))) : dtos;
 }
 
 export async function blockDto(block: Block, swap: Swap, transaction?: Transaction, viewer?: BlockViewer): Promise<BlockDto> {

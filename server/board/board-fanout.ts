@@ -6,7 +6,8 @@ import { getRoster } from './roster.service';
 import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
 import { recordActivityLines, type SwapEvent } from './board-activity';
-import { boardRoom } from '../live/rooms';
+import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
+import { rosterForMember } from './verdict-visibility';
 
 const FOREIGN_KEY_VIOLATION = '23503';
 
@@ -83,11 +84,12 @@ export class BoardFanout {
     // Five round trips: BEGIN, the next number with the swap, the activity lines, the roster, COMMIT.
     const result = await sequelize.transaction(async (transaction) => {
       const [row] = await sequelize
-        .query<Record<string, unknown> & { version: string }>(
+        .query<Record<string, unknown> & { version: string; verdictsVisibleTo: string }>(
           `WITH bumped AS (
              INSERT INTO swap_versions (swap_id, version) VALUES ($swapId, 1)
              ON CONFLICT (swap_id) DO UPDATE SET version = swap_versions.version + 1 RETURNING version)
-           SELECT bumped.version, ${swapColumns()} FROM bumped JOIN swaps "Swap" ON "Swap"."id" = $swapId`,
+           SELECT bumped.version, g.verdicts_visible_to AS "verdictsVisibleTo", ${swapColumns()}
+             FROM bumped JOIN swaps "Swap" ON "Swap"."id" = $swapId JOIN guilds g ON g.id = "Swap"."guild_id"`,
           { bind: { swapId }, type: QueryTypes.SELECT, transaction },
         )
         .catch((error: { parent?: { code?: string } }) => {
@@ -95,7 +97,7 @@ export class BoardFanout {
           throw error;
         });
       if (!row) return null; // the swap was deleted since: nobody's board shows it any more
-      const { version, ...values } = row;
+      const { version, verdictsVisibleTo, ...values } = row;
       const swap = Swap.build(values as never, { isNewRecord: false, raw: true });
       const activities = await recordActivityLines(batch, transaction);
       // Read while the counter row is locked, so the next number cannot carry an older roster; on the
@@ -103,6 +105,7 @@ export class BoardFanout {
       return {
         swap,
         version: Number(version),
+        verdictsVisibleTo,
         activities,
         roster: await getRoster(this.deps, swap, { withAddresses: false, transaction }),
       };
@@ -114,7 +117,37 @@ export class BoardFanout {
       activities: result.activities,
       patch: patchFor(result.roster, batch),
     };
-    this.io.to(boardRoom(result.swap.guildId, swapId)).emit('board:changed', change);
+    this.send(result.swap.guildId, result.verdictsVisibleTo, change);
+  }
+
+  /**
+   * Everyone on the board gets the change when the guild shows verdicts to all. Otherwise its officers
+   * get it whole; each maker whose row changed gets a copy with only their own verdicts; every other
+   * member a copy without verdicts. A change of every row reaches members with no patch, and their
+   * board fetches its own roster (one message instead of one per member).
+   */
+  private send(guildId: number, verdictsVisibleTo: string, change: BoardChange) {
+    const { swapId, patch } = change;
+    const board = this.io.to(boardRoom(guildId, swapId));
+    if (verdictsVisibleTo === 'guild') {
+      board.emit('board:changed', change);
+      return;
+    }
+    const officers = boardOfficersRoom(guildId, swapId);
+    this.io.to(officers).emit('board:changed', change);
+    if (!patch || patch.complete) {
+      board.except(officers).emit('board:changed', { ...change, patch: null });
+      return;
+    }
+    const makers = patch.rows.map((r) => r.userId);
+    const viewerRooms = makers.map((userId) => boardViewerRoom(guildId, swapId, userId));
+    board.except([officers, ...viewerRooms]).emit('board:changed', { ...change, patch: rosterForMember(patch, null) });
+    for (const [i, userId] of makers.entries()) {
+      this.io
+        .to(viewerRooms[i]!)
+        .except(officers)
+        .emit('board:changed', { ...change, patch: rosterForMember(patch, userId) });
+    }
   }
 }
 

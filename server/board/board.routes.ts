@@ -16,8 +16,9 @@ export function boardRouter(deps: AppDeps) {
   router.get(
     '/swaps/:swapId/roster',
     requireUser,
-    route({ params: swapParamsSchema, authorize: readSwap }, async ({ access: { swap, canManage } }, _req, res) => {
-      res.json(await getRoster(deps, swap, { withAddresses: canManage }));
+    route({ params: swapParamsSchema, authorize: readSwap }, async ({ access: { swap, canManage } }, req, res) => {
+      const viewer = { userId: currentUser(req).id, canManage };
+      res.json(await getRoster(deps, swap, { withAddresses: canManage, viewer }));
     }),
   );
   router.get(

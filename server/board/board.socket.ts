@@ -7,7 +7,7 @@ import { BoardFanout, boardVersion } from './board-fanout';
 import type { SwapEvent } from './board-activity';
 import { handle } from '../live/socket-handler';
 import { assertSessionLive } from '../live/live-auth';
-import { boardRoom } from '../live/rooms';
+import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
 
 /** Live swap boards: committed swap events fan out to the swap's room; viewers join with their membership checked. */
 export function boardLive(): LivePart {
@@ -23,7 +23,8 @@ export function boardLive(): LivePart {
     onConnection({ deps, presence }, socket) {
       const { logger } = deps;
       const user = socket.data.user;
-      const joined = new Map<number, string>();
+      /** each joined board's rooms: the board's own first, then the viewer's and (officers) the officers' */
+      const joined = new Map<number, string[]>();
 
       handle(socket, logger, 'board:join', boardRefSchema, async ({ swapId }): Promise<BoardJoined> => {
         await assertSessionLive(socket);
@@ -33,19 +34,24 @@ export function boardLive(): LivePart {
         });
         const name = boardRoom(access.swap.guildId, swapId);
         // Join first, then read the number: any later change reaches this socket with a higher one.
-        await socket.join(name);
-        joined.set(swapId, name);
+        const rooms = [
+          name,
+          boardViewerRoom(access.swap.guildId, swapId, user.userId),
+          ...(access.canManage ? [boardOfficersRoom(access.swap.guildId, swapId)] : []),
+        ];
+        await socket.join(rooms);
+        joined.set(swapId, rooms);
         presence.announce(name);
         const [version, viewers] = await Promise.all([boardVersion(deps.sequelize, swapId), presence.viewers(name)]);
         return { version, viewers };
       });
 
       handle(socket, logger, 'board:leave', boardRefSchema, async ({ swapId }) => {
-        const name = joined.get(swapId);
-        if (name) {
-          await socket.leave(name);
+        const rooms = joined.get(swapId);
+        if (rooms) {
+          for (const room of rooms) await socket.leave(room);
           joined.delete(swapId);
-          presence.announce(name);
+          presence.announce(rooms[0]!);
         }
         return true as const;
       });

@@ -10,6 +10,7 @@ import type { AppDeps } from '../deps';
 import { photoRef } from '../blocks/photo-refs';
 import { latestEstimateDto, type LatestEstimateRow } from '../blocks/latest-estimate';
 import { ROSTER } from './board.queries';
+import { guildVerdictsVisibleTo, rosterForMember, seesAllVerdicts, type VerdictViewer } from './verdict-visibility';
 
 // A rank lookup rather than two searches of the list of states.
 const reached = (state: BlockState, step: BlockState) => blockStateRank[state] >= blockStateRank[step];
@@ -81,7 +82,7 @@ function addTally(into: Tally, from: Tally) {
 }
 
 export interface RosterData extends RosterDto {
-  rows: (RosterRowDto & { email: string })[];
+  rows: (RosterRowDto & { email: string; verdicts: RosterCounts['verdicts']; accepted: number })[];
 }
 
 /** Rows for every member with an active sign-up, sorted by name; addresses only when `withAddresses`. */
@@ -137,12 +138,20 @@ export async function buildRoster(
   };
 }
 
-/** The roster as the API answers it: e-mail addresses stay out of it. */
+/**
+ * The roster as the API answers it: e-mail addresses stay out of it. With a `viewer` who does not see
+ * every maker's verdicts (a member, while the guild keeps them to its officers), other makers' rows
+ * come without their verdicts.
+ */
 export async function getRoster(
   deps: Pick<AppDeps, 'sequelize'>,
   swap: Swap,
-  opts: { withAddresses: boolean; transaction?: Transaction },
+  opts: { withAddresses: boolean; transaction?: Transaction; viewer?: VerdictViewer },
 ): Promise<RosterDto> {
   const data = await buildRoster(deps, swap, opts);
-  return { ...data, rows: data.rows.map(({ email: _email, ...row }) => row) };
+  const roster = { ...data, rows: data.rows.map(({ email: _email, ...row }): RosterRowDto => row) };
+  const { viewer } = opts;
+  if (!viewer || seesAllVerdicts(viewer, viewer.canManage ? 'officers' : await guildVerdictsVisibleTo(swap.guildId)))
+    return roster;
+  return rosterForMember(roster, viewer.userId);
 }

@@ -29,6 +29,7 @@ function guildDto(guild: Guild, myRole: Role): Omit<GuildDto, 'memberCount'> {
     currency: guild.currency,
     dues: guild.duesAmount && guild.duesYear ? { amount: guild.duesAmount, year: guild.duesYear } : null,
     defaultUnit: guild.defaultUnit,
+    verdictsVisibleTo: guild.verdictsVisibleTo,
     createdAt: guild.createdAt.toISOString(),
     myRole,
   };

@@ -4,6 +4,10 @@ import type { RoomRef } from '@shared/live-events';
 /** Rooms are prefixed by their guild, so every room of a guild can be left at once. */
 export const guildPrefix = (guildId: number) => `g${guildId}:`;
 export const boardRoom = (guildId: number, swapId: number) => `g${guildId}:board:${swapId}`;
+/** A board's officers (they see every verdict), and one viewer of a board (they see their own); never shown. */
+export const boardOfficersRoom = (guildId: number, swapId: number) => `g${guildId}:board-officers:${swapId}`;
+export const boardViewerRoom = (guildId: number, swapId: number, userId: number) =>
+  `g${guildId}:board-viewer:${swapId}:${userId}`;
 export const chatRoom = (guildId: number, roomId: number) => `g${guildId}:chat:${roomId}`;
 export const userRoom = (userId: number) => `user:${userId}`;
 /**

@@ -41,11 +41,16 @@ export const createGuildSchema = z.object({
 });
 export type CreateGuildInput = z.infer<typeof createGuildSchema>;
 
+/** Who sees the verdicts on other makers' blocks: the guild's officers only, or every member. */
+export const verdictsVisibleToSchema = z.enum(['officers', 'guild'], { error: 'Choose officers or guild.' });
+export type VerdictsVisibleTo = z.infer<typeof verdictsVisibleToSchema>;
+
 /** PATCH /api/guilds/:guildId: any of the guild's settings (admins). */
 export const updateGuildSchema = createGuildSchema
   .partial()
   .extend(guildPaymentFields)
   .extend({ defaultUnit: unitsSchema.optional() })
+  .extend({ verdictsVisibleTo: verdictsVisibleToSchema.optional() })
   .strict()
   .refine((o) => Object.keys(o).length > 0, { message: 'Nothing to change.' });
 export type UpdateGuildInput = z.infer<typeof updateGuildSchema>;

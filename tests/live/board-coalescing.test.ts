@@ -22,11 +22,16 @@ beforeAll(async () => {
 });
 afterAll(() => app.close());
 
+/** Records what the board's officers are sent (with the guild's default, members get copies without verdicts). */
 function recordingIo() {
   const sent: { at: number; room: string; change: BoardChange }[] = [];
+  const ignored = { emit: () => undefined };
   const io = {
     to: (room: string) => ({
-      emit: (_event: string, change: BoardChange) => void sent.push({ at: performance.now(), room, change }),
+      emit: (_event: string, change: BoardChange) => {
+        if (room.includes(':board-officers:')) sent.push({ at: performance.now(), room, change });
+      },
+      except: () => ({ ...ignored, except: () => ignored }),
     }),
   };
   return { io: io as unknown as LiveServer, sent };

@@ -78,7 +78,8 @@ describe('live swap board', () => {
   });
 
   it('gives each change the next number and carries the verdict of a measurement', async () => {
-    const socket = await viewer(g.member);
+    // An officer: with the guild's default, members are not sent other makers' verdicts (board-verdicts.test.ts).
+    const socket = await viewer(g.admin);
     const { version } = await joinBoard(socket);
     const seen = collect(socket, 'board:changed');
     const blockId = blockIds.get(g.coordinator.id)![0]!;

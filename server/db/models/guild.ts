@@ -7,6 +7,7 @@ import {
   type Sequelize,
 } from 'sequelize';
 import type { Units } from '@shared/schemas/auth';
+import type { VerdictsVisibleTo } from '@shared/schemas/guilds';
 
 export class Guild extends Model<InferAttributes<Guild>, InferCreationAttributes<Guild>> {
   declare id: CreationOptional<number>;
@@ -20,6 +21,8 @@ export class Guild extends Model<InferAttributes<Guild>, InferCreationAttributes
   declare duesYear: CreationOptional<number | null>;
   /** What a bare number means to members who have not chosen a unit of their own. */
   declare defaultUnit: CreationOptional<Units>;
+  /** Who sees the verdicts on other makers' blocks; makers always see their own. */
+  declare verdictsVisibleTo: CreationOptional<VerdictsVisibleTo>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -33,6 +36,7 @@ export class Guild extends Model<InferAttributes<Guild>, InferCreationAttributes
         duesAmount: { type: DataTypes.INTEGER, allowNull: true },
         duesYear: { type: DataTypes.INTEGER, allowNull: true },
         defaultUnit: { type: DataTypes.STRING(2), allowNull: false, defaultValue: 'in' },
+        verdictsVisibleTo: { type: DataTypes.STRING(8), allowNull: false, defaultValue: 'officers' },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

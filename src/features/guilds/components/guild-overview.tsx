@@ -6,6 +6,7 @@ import { paths } from '@/lib/paths';
 import { useGuild } from '@/entities/guild/api/get-guild';
 import { DefaultUnitCard } from './default-unit-card';
 import { TimeZoneCard } from './time-zone-card';
+import { VerdictVisibilityCard } from './verdict-visibility-card';
 
 /** The guild's front page until other sections fill it. */
 export function GuildOverview() {
@@ -28,6 +29,7 @@ export function GuildOverview() {
       </Card>
       {guild.data.myRole === 'admin' && <DefaultUnitCard guild={guild.data} />}
       {guild.data.myRole === 'admin' && <TimeZoneCard guild={guild.data} />}
+      {guild.data.myRole === 'admin' && <VerdictVisibilityCard guild={guild.data} />}
     </div>
   );
 }

@@ -28,9 +28,11 @@ function RowCard({ row }: { row: RosterRowDto }) {
           </div>
         ))}
       </dl>
-      <div className="mt-2">
-        <VerdictCounts counts={row.verdicts} />
-      </div>
+      {row.verdicts && (
+        <div className="mt-2">
+          <VerdictCounts counts={row.verdicts} />
+        </div>
+      )}
       <BlockMarkers blocks={row.blocks} />
     </li>
   );
@@ -82,9 +84,7 @@ export function BoardRows({ rows }: { rows: RosterRowDto[] }) {
                 <td className={`px-2 py-3 text-right tabular-nums ${r.owed > 0 ? 'font-bold text-madder-deep' : ''}`}>
                   {r.owed}
                 </td>
-                <td className="py-3 pl-3">
-                  <VerdictCounts counts={r.verdicts} />
-                </td>
+                <td className="py-3 pl-3">{r.verdicts && <VerdictCounts counts={r.verdicts} />}</td>
               </tr>
             ))}
           </tbody>

@@ -51,7 +51,7 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
           <span>Coordinator’s verdict:</span>
           {block.verdict ? <VerdictBadge verdict={block.verdict} trimmed={block.trimmed} /> : <NoVerdict />}
         </p>
-        {block.latest.maker && (
+        {block.latest?.maker && (
           <p className="flex flex-wrap items-center gap-2">
             <span>Your own measurement:</span> <VerdictBadge verdict={block.latest.maker.verdict} source="maker" />
           </p>

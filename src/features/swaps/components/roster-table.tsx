@@ -53,10 +53,11 @@ function matchesProgress(r: RosterRowDto, f: ProgressFilter): boolean {
       return r.received > r.measured;
     case 'problems':
       return (
+        !!r.verdicts &&
         r.verdicts.short +
           r.verdicts.skewed +
           (r.verdicts.trim - r.blocks.filter((b) => b.verdict === 'trim' && b.trimmed).length) >
-        0
+          0
       );
     case 'accepted':
       return r.pledged > 0 && r.accepted === r.pledged;
@@ -89,8 +90,8 @@ const columns = helper.columns([
     filterFn: (row, _id, value: ProgressFilter) => matchesProgress(row.original, value),
     cell: (info) => {
       const v = info.row.original.verdicts;
-      const shown = VERDICTS.filter((k) => v[k] > 0);
-      return shown.length ? (
+      const shown = v ? VERDICTS.filter((k) => v[k] > 0) : [];
+      return v && shown.length ? (
         <span className="flex flex-wrap gap-1">
           {shown.map((k) => (
             <span key={k} className="inline-flex items-center gap-1">

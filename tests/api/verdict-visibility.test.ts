@@ -1,0 +1,105 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createTestApp, type TestApp } from '../helpers/test-app';
+import { guildWithRoles } from '../helpers/factories';
+import { move, myBlocks, receiveAndMeasure, sewingSwap, type Roles } from './swaps-support';
+
+let app: TestApp;
+let roles: Roles;
+let swapId: number;
+let makers: Awaited<ReturnType<typeof sewingSwap>>['makers'];
+/** each maker's one block, in the makers' order: member, coordinator, a second member */
+let blockIds: number[];
+
+interface Row {
+  userId: number;
+  measured: number;
+  verdicts?: unknown;
+  accepted?: unknown;
+  blocks: Record<string, unknown>[];
+}
+const rosterOf = async (agent: Roles['member']['agent']) =>
+  (await agent.get(`/api/swaps/${swapId}/roster`).expect(200)).body as { rows: Row[] };
+const rowOf = (roster: { rows: Row[] }, userId: number) => roster.rows.find((r) => r.userId === userId)!;
+
+beforeAll(async () => {
+  app = await createTestApp();
+  roles = await guildWithRoles(app);
+  const made = await sewingSwap(app, roles, { pledges: [1, 1, 1] });
+  swapId = made.swap.id;
+  makers = made.makers;
+  await move(roles.coordinator.agent, swapId, 'collecting');
+  blockIds = [];
+  for (const maker of makers) blockIds.push((await myBlocks(maker.agent, swapId))[0]!.id);
+  // Target 9½″ ± ⅛″ (the swap's settings): short, true to size, and one to trim.
+  await receiveAndMeasure(roles.coordinator.agent, blockIds[0]!, { width: 9.25, height: 9.5 });
+  await receiveAndMeasure(roles.coordinator.agent, blockIds[1]!, { width: 9.5, height: 9.5 });
+  await receiveAndMeasure(roles.coordinator.agent, blockIds[2]!, { width: '9 7/8', height: 9.5 });
+});
+afterAll(() => app.close());
+
+describe('who sees verdicts', () => {
+  it('keeps verdicts to officers by default', async () => {
+    const guild = await roles.member.agent.get(`/api/guilds/${roles.guildId}`).expect(200);
+    expect(guild.body.verdictsVisibleTo).toBe('officers');
+  });
+
+  it('shows a member their own verdict and leaves other makers’ verdicts out of the roster', async () => {
+    const roster = await rosterOf(roles.member.agent);
+    const own = rowOf(roster, roles.member.id);
+    expect(own.verdicts).toMatchObject({ short: 1 });
+    expect(own.blocks[0]).toMatchObject({ state: 'measured', verdict: 'short' });
+    for (const maker of makers.slice(1)) {
+      const row = rowOf(roster, maker.id);
+      expect(row.measured).toBe(1);
+      // Absent, not null: nothing in the answer hints at the verdict.
+      expect(row).not.toHaveProperty('verdicts');
+      expect(row).not.toHaveProperty('accepted');
+      expect(row.blocks[0]).toMatchObject({ state: 'measured' });
+      for (const key of ['verdict', 'trimmed', 'acceptedByDecision', 'photoEstimate'])
+        expect(row.blocks[0]).not.toHaveProperty(key);
+    }
+  });
+
+  it('leaves another maker’s verdict out of the block answer, but not the member’s own', async () => {
+    const own = await roles.member.agent.get(`/api/blocks/${blockIds[0]}`).expect(200);
+    expect(own.body).toMatchObject({ state: 'measured', verdict: 'short', accepted: false });
+    expect(own.body.latest.ruler).toMatchObject({ verdict: 'short' });
+    const other = await roles.member.agent.get(`/api/blocks/${blockIds[2]}`).expect(200);
+    expect(other.body).toMatchObject({ state: 'measured', maker: { id: makers[2]!.id } });
+    for (const key of ['verdict', 'trimmed', 'accepted', 'decision', 'latest', 'photoEstimate'])
+      expect(other.body).not.toHaveProperty(key);
+    expect(other.body.times.trimmed).toBeNull();
+  });
+
+  it('always shows officers every verdict', async () => {
+    for (const officer of [roles.coordinator, roles.admin]) {
+      const roster = await rosterOf(officer.agent);
+      expect(rowOf(roster, makers[2]!.id).blocks[0]).toMatchObject({ verdict: 'trim', trimmed: false });
+      expect(rowOf(roster, roles.member.id).verdicts).toMatchObject({ short: 1 });
+      const block = await officer.agent.get(`/api/blocks/${blockIds[0]}`).expect(200);
+      expect(block.body.verdict).toBe('short');
+    }
+  });
+
+  it('lets only admins change the setting, and only to a known value', async () => {
+    await roles.member.agent.patch(`/api/guilds/${roles.guildId}`).send({ verdictsVisibleTo: 'guild' }).expect(403);
+    const bad = await roles.admin.agent.patch(`/api/guilds/${roles.guildId}`).send({ verdictsVisibleTo: 'everyone' }).expect(400);
+    expect(bad.body.error.fields).toHaveProperty('verdictsVisibleTo');
+  });
+
+  it('shows every member all verdicts once the guild chooses so', async () => {
+    const changed = await roles.admin.agent
+      .patch(`/api/guilds/${roles.guildId}`)
+      .send({ verdictsVisibleTo: 'guild' })
+      .expect(200);
+    expect(changed.body.verdictsVisibleTo).toBe('guild');
+    const roster = await rosterOf(roles.member.agent);
+    expect(rowOf(roster, makers[1]!.id)).toMatchObject({ verdicts: { true: 1 }, accepted: 1 });
+    expect(rowOf(roster, makers[2]!.id).blocks[0]).toMatchObject({ verdict: 'trim', trimmed: false, acceptedByDecision: false });
+    const other = await roles.member.agent.get(`/api/blocks/${blockIds[2]}`).expect(200);
+    expect(other.body).toMatchObject({ verdict: 'trim', accepted: false });
+
+    await roles.admin.agent.patch(`/api/guilds/${roles.guildId}`).send({ verdictsVisibleTo: 'officers' }).expect(200);
+    expect(rowOf(await rosterOf(roles.member.agent), makers[1]!.id)).not.toHaveProperty('verdicts');
+  });
+});
