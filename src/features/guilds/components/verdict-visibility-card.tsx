@@ -32,7 +32,7 @@ export function VerdictVisibilityCard({ guild }: { guild: GuildDto }) {
               <input
                 type="radio"
                 name="verdicts-visible-to"
-                className="h-5 w-5"
+                className="h-5 w-5 shrink-0"
                 checked={current === c.value}
                 disabled={update.isPending}
                 onChange={() => update.mutate(c.value)}
