@@ -7,7 +7,7 @@ import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
 import { recordActivityLines, type SwapEvent } from './board-activity';
 import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
-import { rosterForMember } from './verdict-visibility';
+import { activitiesForMember, rosterForMember } from './verdict-visibility';
 
 const FOREIGN_KEY_VIOLATION = '23503';
 
@@ -135,18 +135,21 @@ export class BoardFanout {
     }
     const officers = boardOfficersRoom(guildId, swapId);
     this.io.to(officers).emit('board:changed', change);
+    const activities = (viewerId: number | null) => activitiesForMember(change.activities, viewerId);
     if (!patch || patch.complete) {
-      board.except(officers).emit('board:changed', { ...change, patch: null });
+      board.except(officers).emit('board:changed', { ...change, activities: activities(null), patch: null });
       return;
     }
     const makers = patch.rows.map((r) => r.userId);
     const viewerRooms = makers.map((userId) => boardViewerRoom(guildId, swapId, userId));
-    board.except([officers, ...viewerRooms]).emit('board:changed', { ...change, patch: rosterForMember(patch, null) });
+    board
+      .except([officers, ...viewerRooms])
+      .emit('board:changed', { ...change, activities: activities(null), patch: rosterForMember(patch, null) });
     for (const [i, userId] of makers.entries()) {
       this.io
         .to(viewerRooms[i]!)
         .except(officers)
-        .emit('board:changed', { ...change, patch: rosterForMember(patch, userId) });
+        .emit('board:changed', { ...change, activities: activities(userId), patch: rosterForMember(patch, userId) });
     }
   }
 }

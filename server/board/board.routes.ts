@@ -5,6 +5,7 @@ import { currentUser, requireUser } from '../auth/require-user';
 import { canReadSwap } from '../swaps/swaps.policy';
 import { listActivity } from './board-activity';
 import { getRoster } from './roster.service';
+import { activitiesForMember, guildVerdictsVisibleTo, seesAllVerdicts } from './verdict-visibility';
 import type { AppDeps } from '../deps';
 
 const readSwap = (req: Request, { params }: { params: { swapId: number } }) => canReadSwap(currentUser(req).id, params.swapId);
@@ -24,9 +25,15 @@ export function boardRouter(deps: AppDeps) {
   router.get(
     '/swaps/:swapId/activity',
     requireUser,
-    route({ params: swapParamsSchema, query: activityQuerySchema, authorize: readSwap }, async ({ params, query }, _req, res) => {
-      res.json(await listActivity(params.swapId, query.limit, query.before));
-    }),
+    route(
+      { params: swapParamsSchema, query: activityQuerySchema, authorize: readSwap },
+      async ({ params, query, access }, req, res) => {
+        const lines = await listActivity(params.swapId, query.limit, query.before);
+        const viewer = { userId: currentUser(req).id, canManage: access.canManage };
+        const seesAll = seesAllVerdicts(viewer, await guildVerdictsVisibleTo(access.swap.guildId));
+        res.json(seesAll ? lines : activitiesForMember(lines, viewer.userId));
+      },
+    ),
   );
   return router;
 }

@@ -4,6 +4,7 @@
  * the answer altogether (not sent as null), so nothing in it hints at the verdict.
  */
 import type { BlockDto, RosterDto, RosterRowDto } from '@shared/swap-types';
+import type { ActivityDto } from '@shared/live-events';
 import type { VerdictsVisibleTo } from '@shared/schemas/guilds';
 import { Guild } from '../db/models';
 
@@ -41,4 +42,13 @@ export function rosterForMember<T extends Pick<RosterDto, 'rows'>>(roster: T, vi
 export function blockWithoutVerdict(dto: BlockDto): BlockDto {
   const { verdict: _v, trimmed: _t, accepted: _a, decision: _d, latest: _l, photoEstimate: _e, ...rest } = dto;
   return { ...rest, times: { ...dto.times, trimmed: null } };
+}
+
+/** Activity lines as `viewerId` may read them: other makers' lines lose their verdict (the line itself stays). */
+export function activitiesForMember(activities: ActivityDto[], viewerId: number | null): ActivityDto[] {
+  return activities.map((a) => {
+    if (a.subject?.userId === viewerId || !('verdict' in a.detail)) return a;
+    const { verdict: _verdict, ...detail } = a.detail;
+    return { ...a, detail };
+  });
 }

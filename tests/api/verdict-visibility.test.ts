@@ -71,6 +71,19 @@ describe('who sees verdicts', () => {
     expect(other.body.times.trimmed).toBeNull();
   });
 
+  it('leaves other makers’ verdicts out of the activity list, keeping the lines', async () => {
+    type Line = { kind: string; subject: { userId: number } | null; detail: Record<string, unknown> };
+    const lines = (await roles.member.agent.get(`/api/swaps/${swapId}/activity?limit=100`).expect(200)).body as Line[];
+    const measured = lines.filter((l) => l.kind === 'block.measured');
+    expect(measured.length).toBeGreaterThanOrEqual(3);
+    for (const line of measured) {
+      if (line.subject?.userId === roles.member.id) expect(line.detail.verdict).toBe('short');
+      else expect(line.detail).not.toHaveProperty('verdict');
+    }
+    const officers = (await roles.coordinator.agent.get(`/api/swaps/${swapId}/activity?limit=100`).expect(200)).body as Line[];
+    expect(officers.filter((l) => l.kind === 'block.measured').every((l) => typeof l.detail.verdict === 'string')).toBe(true);
+  });
+
   it('always shows officers every verdict', async () => {
     for (const officer of [roles.coordinator, roles.admin]) {
       const roster = await rosterOf(officer.agent);
