@@ -22,6 +22,7 @@ import { csv, slug } from '../exports/exports.service';
 import type { AppDeps } from '../deps';
 import { canPayGuild, canPaySwap, canTreasure } from './payments.policy';
 import * as payments from './payments.service';
+import { refundById } from './payments.refunds';
 import { handlePaymentEvent } from './payments.webhook';
 
 /** POST /api/payments/webhook: raw body, signature header, no session, no CSRF header. */
@@ -159,7 +160,7 @@ export function paymentsRouter(deps: AppDeps) {
         authorize: (req, { params }) => canTreasure(me(req), params.guildId),
       },
       async ({ params }, _req, res) => {
-        res.json(await payments.refundById(deps, params.guildId, params.paymentId));
+        res.json(await refundById(deps, params.guildId, params.paymentId));
       },
     ),
   );

@@ -5,7 +5,7 @@
  */
 import type { AppDeps } from '../deps';
 import type { FeatureStartup } from '../features';
-import { refundSwapFees } from './payments.service';
+import { refundSwapFees } from './payments.refunds';
 
 export function subscribePaymentRefunds(deps: Pick<AppDeps, 'events' | 'pool' | 'config' | 'logger'>) {
   deps.events.on('swap.transitioned', async (e) => {
