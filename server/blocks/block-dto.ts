@@ -4,7 +4,7 @@ import type { BlockDto, MeasurementDto, PhotoRefDto } from '@shared/swap-types';
 import { Block, type Measurement, type Swap } from '../db/models';
 import { photoRef } from './photo-refs';
 import { LATEST_ESTIMATES, NEWEST_ESTIMATE_FIRST, latestEstimateDtos, type LatestEstimateRow } from './latest-estimate';
-import { blockWithoutVerdict, guildVerdictsVisibleTo, seesAllVerdicts } from '../board/verdict-visibility';
+import { blockWithoutVerdict, guildVerdictsVisibleTo, seesAllVerdicts } from './verdict-visibility';
 
 /** True to size, trimmed to size, or accepted by an officer's decision. */
 export function isAccepted(block: Pick<Block, 'verdict' | 'trimmed' | 'state' | 'acceptedAt'>): boolean {

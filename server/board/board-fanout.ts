@@ -7,7 +7,7 @@ import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
 import { recordActivityLines, type SwapEvent } from './board-activity';
 import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
-import { activitiesForMember, rosterForMember } from './verdict-visibility';
+import { activitiesForMember, rosterForMember } from '../blocks/verdict-visibility';
 
 const FOREIGN_KEY_VIOLATION = '23503';
 

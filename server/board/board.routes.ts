@@ -5,7 +5,7 @@ import { currentUser, requireUser } from '../auth/require-user';
 import { canReadSwap } from '../swaps/swaps.policy';
 import { listActivity } from './board-activity';
 import { getRoster } from './roster.service';
-import { activitiesForMember, guildVerdictsVisibleTo, seesAllVerdicts } from './verdict-visibility';
+import { activitiesForMember, guildVerdictsVisibleTo, seesAllVerdicts } from '../blocks/verdict-visibility';
 import type { AppDeps } from '../deps';
 
 const readSwap = (req: Request, { params }: { params: { swapId: number } }) => canReadSwap(currentUser(req).id, params.swapId);

@@ -10,7 +10,7 @@ import type { AppDeps } from '../deps';
 import { photoRef } from '../blocks/photo-refs';
 import { latestEstimateDto, type LatestEstimateRow } from '../blocks/latest-estimate';
 import { ROSTER } from './board.queries';
-import { guildVerdictsVisibleTo, rosterForMember, seesAllVerdicts, type VerdictViewer } from './verdict-visibility';
+import { guildVerdictsVisibleTo, rosterForMember, seesAllVerdicts, type VerdictViewer } from '../blocks/verdict-visibility';
 
 // A rank lookup rather than two searches of the list of states.
 const reached = (state: BlockState, step: BlockState) => blockStateRank[state] >= blockStateRank[step];
