@@ -45,20 +45,38 @@ afterAll(async () => {
   await nodeB?.close();
 });
 
+/** The board's version once changes still in their coalescing window have arrived. */
+async function settledVersion(socket: Parameters<typeof nextEvent>[0], swapId: number, joined: number): Promise<number> {
+  let version = joined;
+  const track = (c: { swapId: number; version: number }) => {
+    if (c.swapId === swapId) version = Math.max(version, c.version);
+  };
+  socket.on('board:changed', track);
+  await pause(300);
+  socket.off('board:changed', track);
+  return version;
+}
+
 describe('two app nodes behind one database', () => {
   it('carries a board change made on node A to a viewer connected to node B', async () => {
     const { swapId, blockIds } = await collectingSwap(g.coordinator, g.guildId, [g.member]);
     const onB = await socketOn(nodeB, g.member);
     const joined = await request<BoardJoined>(onB, 'board:join', { swapId });
-    const version = 'data' in joined ? joined.data.version : -1;
-    expect(version).toBeGreaterThan(0);
+    expect('data' in joined ? joined.data.version : -1).toBeGreaterThan(0);
+    // The set-up's last change may still be in its 50 ms coalescing window: let it land first.
+    const version = await settledVersion(onB, swapId, 'data' in joined ? joined.data.version : -1);
 
-    const arriving = nextEvent(onB, 'board:changed', (c) => c.swapId === swapId);
+    // The change that carries the received block, whatever else the coalescing window grouped.
+    const arriving = nextEvent(
+      onB,
+      'board:changed',
+      (c) => c.swapId === swapId && Boolean(c.patch?.rows.some((r) => r.userId === g.member.id && r.received === 1)),
+    );
     const res = await g.coordinator.api('POST', `/blocks/${blockIds.get(g.member.id)![0]}/received`, {});
     expect(res.status).toBe(200);
     const change = await arriving;
-    expect(change.version).toBe(version + 1);
-    expect(change.patch?.rows[0]).toMatchObject({ userId: g.member.id, received: 1 });
+    expect(change.version).toBeGreaterThan(version);
+    expect(change.patch?.rows.find((r) => r.userId === g.member.id)).toMatchObject({ userId: g.member.id, received: 1 });
   });
 
   it('numbers changes from one counter whichever node makes them', async () => {
@@ -66,7 +84,7 @@ describe('two app nodes behind one database', () => {
     const coordinatorOnB = onNode(g.coordinator, nodeB.url);
     const watcher = await socketOn(nodeA, g.admin);
     const joined = await request<BoardJoined>(watcher, 'board:join', { swapId });
-    const start = 'data' in joined ? joined.data.version : -1;
+    const start = await settledVersion(watcher, swapId, 'data' in joined ? joined.data.version : -1);
     const versions: number[] = [];
     watcher.on('board:changed', (c) => versions.push(c.version));
     // Alternate the node that makes the change.
@@ -75,7 +93,11 @@ describe('two app nodes behind one database', () => {
     await g.coordinator.api('POST', `/blocks/${blockIds.get(g.coordinator.id)![0]}/received`, {});
     await coordinatorOnB.api('POST', `/blocks/${blockIds.get(g.coordinator.id)![1]}/received`, {});
     for (let i = 0; i < 50 && versions.length < 4; i += 1) await pause(50);
-    expect([...versions].sort((a, b) => a - b)).toEqual([start + 1, start + 2, start + 3, start + 4]);
+    await pause(300); // a change still in its 50 ms coalescing window arrives too
+    // One counter for both nodes: every number once, none skipped, however the burst was grouped.
+    const sorted = [...versions].sort((a, b) => a - b);
+    expect(sorted.length).toBeGreaterThanOrEqual(1);
+    expect(sorted).toEqual(sorted.map((_, i) => start + 1 + i));
   });
 
   it('carries a chat message sent on node A to a reader on node B, and shows presence across both', async () => {
