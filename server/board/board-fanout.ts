@@ -6,6 +6,7 @@ import { getRoster } from './roster.service';
 import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
 import { recordActivityLines, type SwapEvent } from './board-activity';
+import { BOARD_VERSION, bumpVersion } from './board.queries';
 import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
 import { activitiesForMember, rosterForMember } from '../blocks/verdict-visibility';
 
@@ -84,14 +85,11 @@ export class BoardFanout {
     // Five round trips: BEGIN, the next number with the swap, the activity lines, the roster, COMMIT.
     const result = await sequelize.transaction(async (transaction) => {
       const [row] = await sequelize
-        .query<Record<string, unknown> & { version: string; verdictsVisibleTo: string }>(
-          `WITH bumped AS (
-             INSERT INTO swap_versions (swap_id, version) VALUES ($swapId, 1)
-             ON CONFLICT (swap_id) DO UPDATE SET version = swap_versions.version + 1 RETURNING version)
-           SELECT bumped.version, g.verdicts_visible_to AS "verdictsVisibleTo", ${swapColumns()}
-             FROM bumped JOIN swaps "Swap" ON "Swap"."id" = $swapId JOIN guilds g ON g.id = "Swap"."guild_id"`,
-          { bind: { swapId }, type: QueryTypes.SELECT, transaction },
-        )
+        .query<Record<string, unknown> & { version: string; verdictsVisibleTo: string }>(bumpVersion(swapColumns()), {
+          bind: { swapId },
+          type: QueryTypes.SELECT,
+          transaction,
+        })
         .catch((error: { parent?: { code?: string } }) => {
           if (error.parent?.code === FOREIGN_KEY_VIOLATION) return [];
           throw error;
@@ -99,7 +97,7 @@ export class BoardFanout {
       if (!row) return null; // the swap was deleted since: nobody's board shows it any more
       const { version, verdictsVisibleTo, ...values } = row;
       const swap = Swap.build(values as never, { isNewRecord: false, raw: true });
-      const activities = await recordActivityLines(batch, transaction);
+      const activities = await recordActivityLines(this.deps, batch, transaction);
       // Read while the counter row is locked, so the next number cannot carry an older roster; on the
       // transaction's own connection, so a busy pool cannot leave the lock held while it waits.
       return {
@@ -165,7 +163,7 @@ function swapColumns() {
 
 /** The swap's current change number (0 before its first change). */
 export async function boardVersion(sequelize: AppDeps['sequelize'], swapId: number): Promise<number> {
-  const [row] = await sequelize.query<{ version: string }>('SELECT version FROM swap_versions WHERE swap_id = $swapId', {
+  const [row] = await sequelize.query<{ version: string }>(BOARD_VERSION, {
     bind: { swapId },
     type: QueryTypes.SELECT,
   });

@@ -28,7 +28,7 @@ export function boardRouter(deps: AppDeps) {
     route(
       { params: swapParamsSchema, query: activityQuerySchema, authorize: readSwap },
       async ({ params, query, access }, req, res) => {
-        const lines = await listActivity(params.swapId, query.limit, query.before);
+        const lines = await listActivity(deps, params.swapId, query.limit, query.before);
         const viewer = { userId: currentUser(req).id, canManage: access.canManage };
         const seesAll = seesAllVerdicts(viewer, await guildVerdictsVisibleTo(access.swap.guildId));
         res.json(seesAll ? lines : activitiesForMember(lines, viewer.userId));

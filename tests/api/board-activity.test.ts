@@ -105,6 +105,7 @@ describe('recent activity from the stored history', () => {
     // The live board keeps a line for the measurement, written with it: that line alone tells it.
     const line = await app.deps.sequelize.transaction((transaction) =>
       recordActivityLines(
+        app.deps,
         [
           {
             name: 'block.measured',
