@@ -2,7 +2,8 @@
 import { QueryTypes } from 'sequelize';
 import type { Role } from '@shared/schemas/guilds';
 import type { SwapDto, SwapSummaryDto, SwapTransitionDto } from '@shared/swap-types';
-import { Guild, Swap, type SwapTransition, User } from '../db/models';
+import { Guild, type Swap, type SwapTransition, User } from '../db/models';
+import type { AppDeps } from '../deps';
 import { SIGNUP_STATS } from './swaps.queries';
 
 export interface SignupStats {
@@ -12,10 +13,14 @@ export interface SignupStats {
 }
 
 /** Active sign-ups, blocks pledged and the caller's own pledge, per swap, in one query. */
-export async function signupStats(swapIds: number[], userId: number): Promise<Map<number, SignupStats>> {
+export async function signupStats(
+  deps: Pick<AppDeps, 'sequelize'>,
+  swapIds: number[],
+  userId: number,
+): Promise<Map<number, SignupStats>> {
   const stats = new Map<number, SignupStats>();
   if (swapIds.length === 0) return stats;
-  const rows = await Swap.sequelize!.query<{ swap_id: number; signups: string; pledged: string; mine: string }>(SIGNUP_STATS, {
+  const rows = await deps.sequelize.query<{ swap_id: number; signups: string; pledged: string; mine: string }>(SIGNUP_STATS, {
     bind: { ids: swapIds, userId },
     type: QueryTypes.SELECT,
   });
@@ -47,11 +52,15 @@ export function summaryDto(swap: Swap, stats: SignupStats | undefined): SwapSumm
 }
 
 /** The full swap as one member sees it. */
-export async function swapDto(swap: Swap, viewer: { userId: number; role: Role; canManage: boolean }): Promise<SwapDto> {
+export async function swapDto(
+  deps: Pick<AppDeps, 'sequelize'>,
+  swap: Swap,
+  viewer: { userId: number; role: Role; canManage: boolean },
+): Promise<SwapDto> {
   const [guild, creator, stats, recipient] = await Promise.all([
     Guild.findByPk(swap.guildId),
     swap.createdById ? User.findByPk(swap.createdById, { attributes: ['id', 'displayName'] }) : null,
-    signupStats([swap.id], viewer.userId),
+    signupStats(deps, [swap.id], viewer.userId),
     swap.giftRecipientId ? User.findByPk(swap.giftRecipientId, { attributes: ['id', 'displayName'] }) : null,
   ]);
   const giftRecipient =

@@ -12,3 +12,15 @@ export const viewerRole = (swapAlias: 'Swap' | 's') =>
 export const SIGNUP_STATS = `SELECT swap_id, count(*) AS signups, coalesce(sum(blocks), 0) AS pledged,
             coalesce(sum(blocks) FILTER (WHERE user_id = $userId), 0) AS mine
        FROM signups WHERE swap_id = ANY($ids::int[]) AND status = 'active' GROUP BY swap_id`;
+
+/**
+ * How many active members of guild $guildId would get swap $swapId's announcement: not announced to
+ * before, and not switched off.
+ */
+export const ANNOUNCEMENT_AUDIENCE = `SELECT count(*) AS n FROM memberships m
+      WHERE m.guild_id = $guildId AND m.status = 'active'
+        AND NOT EXISTS (SELECT 1 FROM mail_messages mm WHERE mm.idempotency_key = 'swap:' || $swapId || ':announcement:user:' || m.user_id)
+        AND NOT EXISTS (SELECT 1 FROM mail_preferences p WHERE p.user_id = m.user_id AND p.category = 'announcements' AND p.enabled = false)`;
+
+/** Swap $swapId's blocks counted by state, verdict and whether trimmed. */
+export const BLOCK_STATE_COUNTS = `SELECT state, verdict, trimmed, count(*) AS n FROM blocks WHERE swap_id = $swapId GROUP BY state, verdict, trimmed`;

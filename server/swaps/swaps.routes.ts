@@ -35,7 +35,11 @@ export function swapsRouter(deps: AppDeps) {
       },
       async ({ params, access: { role } }, req, res) => {
         res.json(
-          await swaps.listSwaps(params.guildId, { userId: currentUser(req).id, role, canManage: can(role, 'swaps:manage') }),
+          await swaps.listSwaps(deps, params.guildId, {
+            userId: currentUser(req).id,
+            role,
+            canManage: can(role, 'swaps:manage'),
+          }),
         );
       },
     ),
@@ -62,7 +66,7 @@ export function swapsRouter(deps: AppDeps) {
     '/swaps/:swapId',
     requireUser,
     route({ params: swapParamsSchema, authorize: readSwap }, async ({ access: { swap, role, canManage } }, req, res) => {
-      res.json(await swaps.getSwap(swap, { userId: currentUser(req).id, role, canManage }));
+      res.json(await swaps.getSwap(deps, swap, { userId: currentUser(req).id, role, canManage }));
     }),
   );
 

@@ -18,6 +18,7 @@ import { daysUntil, inDays, mailDate } from '../mail/format';
 import { ConflictError, NotFoundError, ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { signupStats, summaryDto, swapDto, transitionDto } from './swap-dto';
+import { ANNOUNCEMENT_AUDIENCE, BLOCK_STATE_COUNTS } from './swaps.queries';
 
 type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
 type Viewer = { userId: number; role: Role; canManage: boolean };
@@ -85,11 +86,11 @@ export async function createSwap(deps: Deps, guildId: number, viewer: Viewer, in
     return created;
   });
   deps.events.emit('swap.created', { swapId: swap.id, guildId, actorId: viewer.userId });
-  return swapDto(await swap.reload(), viewer);
+  return swapDto(deps, await swap.reload(), viewer);
 }
 
 /** The guild's swaps, newest first; drafts only for officers. */
-export async function listSwaps(guildId: number, viewer: Viewer): Promise<SwapSummaryDto[]> {
+export async function listSwaps(deps: Pick<AppDeps, 'sequelize'>, guildId: number, viewer: Viewer): Promise<SwapSummaryDto[]> {
   const swaps = await Swap.findAll({
     where: { guildId, ...(viewer.canManage ? {} : { state: { [Op.ne]: 'draft' } }) },
     order: [
@@ -98,13 +99,14 @@ export async function listSwaps(guildId: number, viewer: Viewer): Promise<SwapSu
     ],
   });
   const stats = await signupStats(
+    deps,
     swaps.map((s) => s.id),
     viewer.userId,
   );
   return swaps.map((s) => summaryDto(s, stats.get(s.id)));
 }
 
-export const getSwap = (swap: Swap, viewer: Viewer) => swapDto(swap, viewer);
+export const getSwap = (deps: Pick<AppDeps, 'sequelize'>, swap: Swap, viewer: Viewer) => swapDto(deps, swap, viewer);
 
 /**
  * Applies a PATCH. The block, tolerance, quota and mode change only in draft or sign-up; the title,
@@ -165,7 +167,7 @@ export async function updateSwap(deps: Deps, swapId: number, viewer: Viewer, pat
     return current;
   });
   deps.events.emit('swap.updated', { swapId, guildId: swap.guildId, actorId: viewer.userId });
-  return swapDto(swap, viewer);
+  return swapDto(deps, swap, viewer);
 }
 
 async function assertPledgesFit(swapId: number, quota: { min: number; max: number }, transaction: Transaction) {
@@ -247,7 +249,7 @@ export async function transitionSwap(
     return { swap: current, from: previous };
   });
   deps.events.emit('swap.transitioned', { swapId, guildId: swap.guildId, actorId: viewer.userId, from, to });
-  return swapDto(swap, viewer);
+  return swapDto(deps, swap, viewer);
 }
 
 export async function listTransitions(swapId: number): Promise<SwapTransitionDto[]> {
@@ -266,13 +268,11 @@ type Warning = TransitionPreviewDto['warnings'][number];
 
 /** Members who would get the announcement: not announced to before, and not switched off. */
 async function announcementAudience(deps: Pick<AppDeps, 'sequelize'>, swap: Swap, transaction: Transaction): Promise<number> {
-  const [row] = await deps.sequelize.query<{ n: string }>(
-    `SELECT count(*) AS n FROM memberships m
-      WHERE m.guild_id = $guildId AND m.status = 'active'
-        AND NOT EXISTS (SELECT 1 FROM mail_messages mm WHERE mm.idempotency_key = 'swap:' || $swapId || ':announcement:user:' || m.user_id)
-        AND NOT EXISTS (SELECT 1 FROM mail_preferences p WHERE p.user_id = m.user_id AND p.category = 'announcements' AND p.enabled = false)`,
-    { bind: { guildId: swap.guildId, swapId: swap.id }, type: QueryTypes.SELECT, transaction },
-  );
+  const [row] = await deps.sequelize.query<{ n: string }>(ANNOUNCEMENT_AUDIENCE, {
+    bind: { guildId: swap.guildId, swapId: swap.id },
+    type: QueryTypes.SELECT,
+    transaction,
+  });
   return Number(row?.n ?? 0);
 }
 
@@ -292,7 +292,7 @@ export async function previewTransition(
     const swap = await Swap.findByPk(swapId, { transaction });
     if (!swap) throw new NotFoundError('That swap does not exist.');
     const counts = await deps.sequelize.query<{ state: string; verdict: string | null; trimmed: boolean; n: string }>(
-      `SELECT state, verdict, trimmed, count(*) AS n FROM blocks WHERE swap_id = $swapId GROUP BY state, verdict, trimmed`,
+      BLOCK_STATE_COUNTS,
       { bind: { swapId }, type: QueryTypes.SELECT, transaction },
     );
     const count = (match: (r: (typeof counts)[number]) => boolean) =>
