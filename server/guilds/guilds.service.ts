@@ -8,6 +8,7 @@ import { assertNameFreeInGuilds } from '../auth/display-names';
 import { invitationMail } from '../mail/account-messages';
 import { can } from './guilds.policy';
 import type { AppDeps } from '../deps';
+import { LOCK_INVITATIONS, PAYMENT_COUNT } from './guilds.queries';
 
 export const INVITATION_VALID_DAYS = 14;
 
@@ -61,8 +62,8 @@ export async function updateGuild(deps: Pick<AppDeps, 'sequelize'>, guildId: num
   if (!guild) throw new NotFoundError('That guild does not exist.');
   const { dues, currency, ...rest } = input;
   if (currency && currency !== guild.currency) {
-    const charged = await deps.sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM payments WHERE guild_id = $1', {
-      bind: [guildId],
+    const charged = await deps.sequelize.query<{ n: number }>(PAYMENT_COUNT, {
+      bind: { guildId },
       type: QueryTypes.SELECT,
     });
     if ((charged[0]?.n ?? 0) > 0) {
@@ -192,8 +193,8 @@ export async function invite(
   const expiresAt = new Date(Date.now() + INVITATION_VALID_DAYS * DAY_MS);
   const invitation = await deps.sequelize.transaction(async (transaction) => {
     // One invitation at a time per guild and per inviter, so the counts below cannot be raced past.
-    await deps.sequelize.query('SELECT pg_advisory_xact_lock(hashtext($1)), pg_advisory_xact_lock(hashtext($2))', {
-      bind: [`invite:guild:${opts.guildId}`, `invite:user:${opts.inviter.id}`],
+    await deps.sequelize.query(LOCK_INVITATIONS, {
+      bind: { guildKey: `invite:guild:${opts.guildId}`, inviterKey: `invite:user:${opts.inviter.id}` },
       transaction,
     });
     const pending = await Invitation.findOne({

@@ -47,7 +47,7 @@ export function sewDaysRouter(deps: AppDeps) {
       },
       async ({ params, query, access: membership }, req, res) => {
         const viewer = { userId: currentUser(req).id, canManage: can(membership.role, 'sewdays:manage') };
-        res.json(await sewDays.listSewDays(params.guildId, viewer, query));
+        res.json(await sewDays.listSewDays(deps, params.guildId, viewer, query));
       },
     ),
   );
@@ -72,7 +72,7 @@ export function sewDaysRouter(deps: AppDeps) {
     requireUser,
     route({ params: sewDayParamsSchema, authorize: readSewDay }, async ({ params, access: { membership } }, req, res) => {
       res.json(
-        await sewDays.getSewDay(params.sewDayId, { userId: currentUser(req).id, canManage: canManageSewDays(membership) }),
+        await sewDays.getSewDay(deps, params.sewDayId, { userId: currentUser(req).id, canManage: canManageSewDays(membership) }),
       );
     }),
   );

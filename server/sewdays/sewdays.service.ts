@@ -15,7 +15,9 @@ import { zodFields } from '@shared/schemas/errors';
 import { ChatRoom, Guild, Rsvp, SewDay, User } from '../db/models';
 import { ConflictError, NotFoundError, ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
+import { RSVP_COUNTS, UPSERT_RSVP } from './sewdays.queries';
 
+type Deps = Pick<AppDeps, 'sequelize'>;
 type Events = Pick<AppDeps, 'events' | 'sequelize'>;
 
 interface Viewer {
@@ -41,13 +43,13 @@ function toColumns(input: SewDayInput, timeZone: string) {
 }
 
 /** Builds the answers for several sew days with three queries, whatever their number. */
-async function toDtos(sewDays: SewDay[], timeZone: string, viewer: Viewer): Promise<SewDayDto[]> {
+async function toDtos(deps: Deps, sewDays: SewDay[], timeZone: string, viewer: Viewer): Promise<SewDayDto[]> {
   if (sewDays.length === 0) return [];
   const ids = sewDays.map((s) => s.id);
-  const counts = await SewDay.sequelize!.query<{ sew_day_id: number; answer: RsvpAnswer; n: string }>(
-    'SELECT sew_day_id, answer, count(*) AS n FROM rsvps WHERE sew_day_id = ANY($ids::int[]) GROUP BY sew_day_id, answer',
-    { bind: { ids }, type: QueryTypes.SELECT },
-  );
+  const counts = await deps.sequelize.query<{ sew_day_id: number; answer: RsvpAnswer; n: string }>(RSVP_COUNTS, {
+    bind: { ids },
+    type: QueryTypes.SELECT,
+  });
   const mine = await Rsvp.findAll({ where: { sewDayId: ids, userId: viewer.userId } });
   const rooms = await ChatRoom.findAll({ where: { sewDayId: ids }, attributes: ['id', 'sewDayId'] });
   return sewDays.map((s) => {
@@ -78,7 +80,7 @@ async function toDtos(sewDays: SewDay[], timeZone: string, viewer: Viewer): Prom
 const withCreator = [{ model: User, as: 'createdBy', attributes: ['id', 'displayName'] }];
 
 /** Upcoming (not yet ended, soonest first) or past (most recent first) sew days of a guild. */
-export async function listSewDays(guildId: number, viewer: Viewer, query: SewDayListQuery): Promise<SewDayListDto> {
+export async function listSewDays(deps: Deps, guildId: number, viewer: Viewer, query: SewDayListQuery): Promise<SewDayListDto> {
   const guild = await guildZone(guildId);
   const now = new Date();
   const sewDays = await SewDay.findAll({
@@ -87,15 +89,15 @@ export async function listSewDays(guildId: number, viewer: Viewer, query: SewDay
     order: [['startsAt', query.when === 'upcoming' ? 'ASC' : 'DESC']],
     limit: 100,
   });
-  return { timeZone: guild.timeZone, canManage: viewer.canManage, sewDays: await toDtos(sewDays, guild.timeZone, viewer) };
+  return { timeZone: guild.timeZone, canManage: viewer.canManage, sewDays: await toDtos(deps, sewDays, guild.timeZone, viewer) };
 }
 
 /** One sew day with everyone's answers, grouped for the page. */
-export async function getSewDay(sewDayId: number, viewer: Viewer): Promise<SewDayDetailDto> {
+export async function getSewDay(deps: Deps, sewDayId: number, viewer: Viewer): Promise<SewDayDetailDto> {
   const sewDay = await SewDay.findByPk(sewDayId, { include: withCreator });
   if (!sewDay) throw new NotFoundError('That sew day does not exist.');
   const guild = await guildZone(sewDay.guildId);
-  const [dto] = await toDtos([sewDay], guild.timeZone, viewer);
+  const [dto] = await toDtos(deps, [sewDay], guild.timeZone, viewer);
   const rsvps = await Rsvp.findAll({
     where: { sewDayId },
     include: [{ model: User, as: 'user', attributes: ['id', 'displayName'] }],
@@ -118,7 +120,7 @@ export async function scheduleSewDay(
     return created;
   });
   deps.events.emit('sewday.changed', { guildId, sewDayId: sewDay.id, actorId, change: 'scheduled' });
-  return getSewDay(sewDay.id, { userId: actorId, canManage: true });
+  return getSewDay(deps, sewDay.id, { userId: actorId, canManage: true });
 }
 
 /** Changes some fields; the result must still be a whole, valid sew day. A cancelled day stays as it was. */
@@ -145,7 +147,7 @@ export async function updateSewDay(
   }
   await sewDay.update({ ...toColumns(merged.data, guild.timeZone), revision: sewDay.revision + 1 });
   deps.events.emit('sewday.changed', { guildId: sewDay.guildId, sewDayId: sewDay.id, actorId, change: 'updated' });
-  return getSewDay(sewDay.id, { userId: actorId, canManage: true });
+  return getSewDay(deps, sewDay.id, { userId: actorId, canManage: true });
 }
 
 /** Cancels without deleting: people who planned to come still see it, marked cancelled. */
@@ -153,7 +155,7 @@ export async function cancelSewDay(deps: Events, sewDay: SewDay, actorId: number
   if (sewDay.cancelledAt) throw new ConflictError('This sew day is already cancelled.', 'sew_day_cancelled');
   await sewDay.update({ cancelledAt: new Date(), revision: sewDay.revision + 1 });
   deps.events.emit('sewday.changed', { guildId: sewDay.guildId, sewDayId: sewDay.id, actorId, change: 'cancelled' });
-  return getSewDay(sewDay.id, { userId: actorId, canManage: true });
+  return getSewDay(deps, sewDay.id, { userId: actorId, canManage: true });
 }
 
 /** Records or replaces the caller's answer; not for a cancelled or finished sew day. */
@@ -161,11 +163,7 @@ export async function answerRsvp(deps: Events, sewDay: SewDay, viewer: Viewer, a
   if (sewDay.cancelledAt) throw new ConflictError('This sew day was cancelled, so it takes no answers.', 'sew_day_cancelled');
   if (sewDay.endsAt.getTime() < Date.now())
     throw new ConflictError('This sew day is over, so it takes no answers.', 'sew_day_over');
-  await deps.sequelize.query(
-    `INSERT INTO rsvps (sew_day_id, user_id, answer, created_at, updated_at) VALUES ($sewDayId, $userId, $answer, now(), now())
-     ON CONFLICT (sew_day_id, user_id) DO UPDATE SET answer = EXCLUDED.answer, updated_at = now()`,
-    { bind: { sewDayId: sewDay.id, userId: viewer.userId, answer } },
-  );
+  await deps.sequelize.query(UPSERT_RSVP, { bind: { sewDayId: sewDay.id, userId: viewer.userId, answer } });
   deps.events.emit('rsvp.changed', { guildId: sewDay.guildId, sewDayId: sewDay.id, userId: viewer.userId, answer });
-  return getSewDay(sewDay.id, viewer);
+  return getSewDay(deps, sewDay.id, viewer);
 }
