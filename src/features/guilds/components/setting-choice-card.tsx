@@ -1,0 +1,65 @@
+import type { ReactNode } from 'react';
+import type { UseMutationResult } from '@tanstack/react-query';
+import { Alert } from '@/components/ui/alert';
+import { Card } from '@/components/ui/card';
+
+export interface SettingChoice<T extends string> {
+  value: T;
+  label: string;
+  example: string;
+}
+
+interface SettingChoiceCardProps<T extends string> {
+  title: string;
+  legend: ReactNode;
+  /** The radio group's name, one per setting on the page. */
+  name: string;
+  choices: SettingChoice<T>[];
+  saved: T;
+  /** Saves the choice as soon as it is made. */
+  update: UseMutationResult<unknown, Error, T>;
+}
+
+/** One guild setting chosen among a few options; the choice saves at once and says so. */
+export function SettingChoiceCard<T extends string>({ title, legend, name, choices, saved, update }: SettingChoiceCardProps<T>) {
+  // While saving, the choice just made shows as chosen.
+  const current = update.isPending && update.variables ? update.variables : saved;
+  return (
+    <Card title={title}>
+      <fieldset>
+        <legend className="mb-2">{legend}</legend>
+        <div className="flex flex-wrap gap-3">
+          {choices.map((c) => (
+            <label
+              key={c.value}
+              className={`flex min-h-11 cursor-pointer items-center gap-3 rounded-lg border-2 px-4 py-2 ${current === c.value ? 'border-indigo bg-indigo/10' : 'border-walnut/30 bg-card'}`}
+            >
+              <input
+                type="radio"
+                name={name}
+                className="h-5 w-5 shrink-0"
+                checked={current === c.value}
+                disabled={update.isPending}
+                onChange={() => update.mutate(c.value)}
+              />
+              <span>
+                <span className="block font-semibold">{c.label}</span>
+                <span className="block text-base text-walnut-soft">{c.example}</span>
+              </span>
+            </label>
+          ))}
+        </div>
+      </fieldset>
+      {update.isError && (
+        <div className="mt-3">
+          <Alert tone="error">{update.error.message}</Alert>
+        </div>
+      )}
+      {update.isSuccess && !update.isPending && (
+        <p className="mt-3" role="status">
+          Saved.
+        </p>
+      )}
+    </Card>
+  );
+}
