@@ -12,7 +12,7 @@ import { useLayoutAutosave } from '../hooks/use-layout-autosave';
 import { usePrintPicture } from '../hooks/use-print-picture';
 import { useWallMoves } from '../hooks/use-wall-moves';
 import { blockShapes } from '../lib/block-drawing';
-import { sizeText } from '../lib/format';
+import { sizeText } from '@/lib/lengths';
 import { indexOfBlock, resize, setAlternate, trayBlocks, type Layout } from '../lib/layout';
 import { renderWall } from '../lib/render-wall';
 import { BlockTray } from './block-tray';

@@ -1,6 +1,6 @@
 import type { FinishingPlan } from '@shared/design/finishing-plan';
 import { SafetyCautions } from '@/components/ui/safety-cautions';
-import { len, sizeText, yards } from '../lib/format';
+import { len, sizeText, yards } from '@/lib/lengths';
 
 /** The finished size, the cut list and the yardage for what goes round the blocks. */
 export function FinishingList({ plan, compact = false }: { plan: FinishingPlan; compact?: boolean }) {

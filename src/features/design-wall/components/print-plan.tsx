@@ -1,5 +1,5 @@
 import type { FinishingPlan } from '@shared/design/finishing-plan';
-import { len, sizeText } from '../lib/format';
+import { len, sizeText } from '@/lib/lengths';
 import type { Layout } from '../lib/layout';
 import { FinishingList } from './finishing-list';
 

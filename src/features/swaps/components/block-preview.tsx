@@ -1,6 +1,7 @@
 import { gridBlock } from '@shared/quilt';
+import type { Units } from '@shared/schemas/auth';
 import { blockSizes, type BlockSpec } from '@shared/schemas/blocks';
-import { sizeText } from './lengths';
+import { sizeText } from '@/lib/lengths';
 
 // Fabric roles are drawn in dye colours and always named in the legend, never by colour alone.
 // Pale-sounding roles get the undyed colour so the drawing reads the way the coordinator meant.
@@ -165,9 +166,20 @@ function legendNames(spec: BlockSpec, roles: string[]): string[] {
 
 /**
  * The block drawn to scale at its unfinished size, with the seam line (the finished edge) dashed a
- * seam allowance in from the cut edge — the same motif as the cards.
+ * seam allowance in from the cut edge — the same motif as the cards. Sizes are written in the viewer's
+ * unit.
  */
-export function BlockPreview({ spec, roles = [], className = '' }: { spec: BlockSpec; roles?: string[]; className?: string }) {
+export function BlockPreview({
+  spec,
+  roles = [],
+  units = 'in',
+  className = '',
+}: {
+  spec: BlockSpec;
+  roles?: string[];
+  units?: Units;
+  className?: string;
+}) {
   let sizes;
   try {
     sizes = blockSizes(spec);
@@ -179,7 +191,7 @@ export function BlockPreview({ spec, roles = [], className = '' }: { spec: Block
   const names = legendNames(spec, roles);
   const colours = roleColours(names.length ? names : ['light', 'dark']);
   const fillOf = (i: number) => colours[i % colours.length]!.fill;
-  const label = `Preview of the block: ${sizeText(U)} unfinished, ${sizeText(sizes.finished)} finished${names.length ? `; fabrics ${names.join(', ')}` : ''}.`;
+  const label = `Preview of the block: ${sizeText(U, units)} unfinished, ${sizeText(sizes.finished, units)} finished${names.length ? `; fabrics ${names.join(', ')}` : ''}.`;
   return (
     <figure className={className}>
       <svg
@@ -224,7 +236,7 @@ export function BlockPreview({ spec, roles = [], className = '' }: { spec: Block
         />
       </svg>
       <figcaption className="mt-2 text-base text-walnut-soft">
-        Solid edge: cut size {sizeText(U)}. Dashed line: seam line, finished size {sizeText(sizes.finished)}.
+        Solid edge: cut size {sizeText(U, units)}. Dashed line: seam line, finished size {sizeText(sizes.finished, units)}.
         {names.length > 0 && (
           <span className="mt-1 flex flex-wrap gap-3">
             {names.map((n, i) => (

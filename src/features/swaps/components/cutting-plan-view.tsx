@@ -1,5 +1,5 @@
 import type { CuttingPlan } from '../hooks/use-cutting-plan';
-import { len, yards } from './lengths';
+import { len, yards } from '@/lib/lengths';
 
 const th = 'py-2 pr-4 text-left font-semibold';
 const td = 'py-2 pr-4 align-top';
@@ -87,7 +87,7 @@ export function CuttingPlanView({ plan, showYardage = true }: { plan: CuttingPla
             {plan.fabrics.map((f) => (
               <li key={f.fabric}>
                 <span className="font-semibold">{f.fabric}:</span> {yards(f.yards)} — {f.strips} strip{f.strips === 1 ? '' : 's'}{' '}
-                across a 42″ width of fabric ({[...new Set(f.stripWidths)].map(len).join(', ')} wide)
+                across a 42″ width of fabric ({[...new Set(f.stripWidths)].map((w) => len(w)).join(', ')} wide)
               </li>
             ))}
           </ul>

@@ -13,7 +13,7 @@ import { VerdictBadge } from '@/entities/block/components/verdict-badge';
 import { useMe } from '@/entities/me/api/get-me';
 import { measuringInUnits, unitsFor } from '@/entities/me/api/units';
 import { newClientId } from '@/lib/client-id';
-import { len, sizeText } from './lengths';
+import { len, sizeText } from '@/lib/lengths';
 
 type Field = keyof MeasuringFormInput;
 const empty: MeasuringFormInput = { width: '', height: '', diagonal1: '', diagonal2: '' };

@@ -18,7 +18,7 @@ import { useUndoBlock } from '@/entities/block/api/undo-block';
 import { useUndoWindow } from '@/lib/use-undo-window';
 import { TextField } from '@/components/ui/fields';
 import { MeasureForm } from './measure-form';
-import { sizeText } from './lengths';
+import { sizeText } from '@/lib/lengths';
 import { BlockStateText } from './state-badge';
 import { NoVerdict, VerdictBadge } from '@/entities/block/components/verdict-badge';
 

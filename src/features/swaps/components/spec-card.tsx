@@ -1,21 +1,24 @@
 import { blockKindLabels } from '@shared/schemas/blocks';
 import type { SwapDto } from '@shared/swap-types';
 import { Card } from '@/components/ui/card';
+import { useMe } from '@/entities/me/api/get-me';
+import { unitsFor } from '@/entities/me/api/units';
 import { useCuttingPlan } from '../hooks/use-cutting-plan';
 import { BlockPreview } from './block-preview';
 import { CuttingPlanView } from './cutting-plan-view';
 import { Deadline } from './deadline';
-import { len, sizeText } from './lengths';
+import { len, sizeText } from '@/lib/lengths';
 
 /** The block spec: drawing, sizes, tolerance, colour rules, dates and the cut list for one block. */
 export function SpecCard({ swap }: { swap: SwapDto }) {
   const roles = swap.colourRules.map((r) => r.role);
   const { plan, problem } = useCuttingPlan(swap.block, 1, roles);
   const tz = swap.guild.timeZone;
+  const units = unitsFor(useMe().data, swap.guildId);
   return (
     <Card title="The block">
       <div className="grid gap-6 md:grid-cols-[18rem_1fr]">
-        <BlockPreview spec={swap.block} roles={roles} />
+        <BlockPreview spec={swap.block} roles={roles} units={units} />
         <div className="space-y-3">
           {swap.description && <p className="whitespace-pre-line">{swap.description}</p>}
           <dl className="grid gap-x-6 gap-y-1 sm:grid-cols-[auto_1fr]">

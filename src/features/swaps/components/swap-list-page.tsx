@@ -6,7 +6,7 @@ import { useGuild } from '@/entities/guild/api/get-guild';
 import { paths } from '@/lib/paths';
 import { useSwaps } from '@/entities/swap/api/get-swaps';
 import { Deadline } from './deadline';
-import { sizeText } from './lengths';
+import { sizeText } from '@/lib/lengths';
 import { SwapStateBadge } from './state-badge';
 
 /** The guild's front page: its swaps, open ones first, with deadlines in the guild's time zone. */

@@ -5,11 +5,13 @@ import { Button } from '@/components/ui/button';
 import { Loading, QueryError } from '@/components/ui/page';
 import { SafetyCautions } from '@/components/ui/safety-cautions';
 import { formatInZone } from '@/lib/dates';
+import { useMe } from '@/entities/me/api/get-me';
+import { unitsFor } from '@/entities/me/api/units';
 import { useSwap } from '@/entities/swap/api/get-swap';
 import { cuttingPlan, useCuttingPlan } from '../hooks/use-cutting-plan';
 import { BlockPreview } from './block-preview';
 import { CuttingPlanView } from './cutting-plan-view';
-import { len, sizeText, yards } from './lengths';
+import { len, sizeText, yards } from '@/lib/lengths';
 
 /** Block counts for the yardage table: the quota's ends and a few between. */
 function counts(min: number, max: number): number[] {
@@ -70,10 +72,12 @@ export function SwapSheetPage() {
   const swap = useSwap(Number(useParams().swapId));
   const roles = swap.data?.colourRules.map((r) => r.role) ?? [];
   const { plan } = useCuttingPlan(swap.data?.block ?? null, 1, roles);
+  const me = useMe();
   if (swap.isPending) return <Loading />;
   if (swap.isError) return <QueryError error={swap.error} what="the swap" />;
   const s = swap.data;
   const tz = s.guild.timeZone;
+  const units = unitsFor(me.data, s.guildId);
   return (
     <article className="space-y-6 rounded-card bg-card p-6 ring-1 ring-walnut/10 print:p-0 print:text-[11pt] print:ring-0">
       <div className="flex flex-wrap items-start justify-between gap-3">
@@ -87,7 +91,7 @@ export function SwapSheetPage() {
       </div>
       {s.description && <p className="whitespace-pre-line">{s.description}</p>}
       <div className="grid gap-6 sm:grid-cols-[14rem_1fr] print:grid-cols-[12rem_1fr]">
-        <BlockPreview spec={s.block} roles={roles} />
+        <BlockPreview spec={s.block} roles={roles} units={units} />
         <dl className="grid content-start gap-x-6 gap-y-1 sm:grid-cols-[auto_1fr]">
           <dt className="font-semibold">Block</dt>
           <dd>{blockKindLabels[s.block.kind]}</dd>

@@ -116,12 +116,6 @@ export function lengthTextIn(x: number | undefined, units: Units = 'in'): string
   return parseLength(text) === x ? text : String(x);
 }
 
-/** A size for reading back: 8½″ × 8½″, or 215.9 mm × 215.9 mm in millimetre mode. */
-export function sizeIn(size: { width: number; height: number }, units: Units): string {
-  const one = (x: number) => (units === 'mm' ? formatLength(x, { unit: 'mm' }) : formatLength(x, { denominator: 16 }));
-  return `${one(size.width)} × ${one(size.height)}`;
-}
-
 /** A typed length read back with its unit (⅛″, or 3.2 mm); left as typed if it does not read. */
 export function lengthBack(text: string, units: Units): string {
   try {

@@ -2,9 +2,10 @@ import { useFieldArray, useWatch, type UseFormReturn } from 'react-hook-form';
 import { blockKindLabels, blockSizes, type BlockKind } from '@shared/schemas/blocks';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextArea, TextField } from '@/components/ui/fields';
+import { sizeText } from '@/lib/lengths';
 import { BlockPreview } from '../block-preview';
 import type { Units } from '@shared/schemas/auth';
-import { defaultCell, parseBlock, sizeIn, type SetupValues } from './setup-values';
+import { defaultCell, parseBlock, type SetupValues } from './setup-values';
 
 const kindOptions = (Object.keys(blockKindLabels) as BlockKind[]).map((k) => ({ value: k, label: blockKindLabels[k] }));
 const hstMethods = [
@@ -120,8 +121,8 @@ export function StepBlock({ form, units }: { form: UseFormReturn<SetupValues>; u
             />
             {sizes && (
               <p className="-mt-3 text-indigo-deep">
-                As typed: finished {sizeIn(sizes.finished, units)}; unfinished {sizeIn(sizes.unfinished, units)} (cut edge to cut
-                edge, what you measure).
+                As typed: finished {sizeText(sizes.finished, units)}; unfinished {sizeText(sizes.unfinished, units)} (cut edge to
+                cut edge, what you measure).
               </p>
             )}
           </>
@@ -205,9 +206,9 @@ export function StepBlock({ form, units }: { form: UseFormReturn<SetupValues>; u
         <p className="text-walnut-soft">Unfinished size (cut edge to cut edge)</p>
         {sizes ? (
           <>
-            <p className="font-display text-3xl font-bold text-indigo-deep">{sizeIn(sizes.unfinished, units)}</p>
-            <p>Finished in the quilt: {sizeIn(sizes.finished, units)}</p>
-            {spec && <BlockPreview spec={spec} roles={roles} className="mt-4" />}
+            <p className="font-display text-3xl font-bold text-indigo-deep">{sizeText(sizes.unfinished, units)}</p>
+            <p>Finished in the quilt: {sizeText(sizes.finished, units)}</p>
+            {spec && <BlockPreview spec={spec} roles={roles} units={units} className="mt-4" />}
           </>
         ) : (
           <p className="mt-2">{problem ?? 'Fill in the sizes to see the block.'}</p>

@@ -1,11 +1,12 @@
 import { useFieldArray, useWatch, type UseFormReturn } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
+import type { Units } from '@shared/schemas/auth';
 import { BlockPreview } from '../block-preview';
 import { parseBlock, type SetupValues } from './setup-values';
 
 /** Fabric roles with notes, and for grid blocks which role goes in each cell. */
-export function StepFabric({ form }: { form: UseFormReturn<SetupValues> }) {
+export function StepFabric({ form, units }: { form: UseFormReturn<SetupValues>; units: Units }) {
   const { fields, append, remove } = useFieldArray({ control: form.control, name: 'colourRules' });
   const errors = form.formState.errors;
   const block = useWatch({ control: form.control, name: 'block' });
@@ -113,7 +114,7 @@ export function StepFabric({ form }: { form: UseFormReturn<SetupValues> }) {
                 </tbody>
               </table>
             </div>
-            {spec && <BlockPreview spec={spec} roles={roleNames} className="w-56" />}
+            {spec && <BlockPreview spec={spec} roles={roleNames} units={units} className="w-56" />}
           </div>
         </fieldset>
       )}

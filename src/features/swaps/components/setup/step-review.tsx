@@ -1,11 +1,12 @@
 import { useWatch, type UseFormReturn } from 'react-hook-form';
 import { blockKindLabels, blockSizes } from '@shared/schemas/blocks';
 import { formatInZone } from '@/lib/dates';
+import { sizeText } from '@/lib/lengths';
 import { useCuttingPlan } from '../../hooks/use-cutting-plan';
 import { zonedLocalToIso } from '../../hooks/zoned-time';
 import { CuttingPlanView } from '../cutting-plan-view';
 import type { Units } from '@shared/schemas/auth';
-import { lengthBack, parseBlock, sizeIn, type SetupValues } from './setup-values';
+import { lengthBack, parseBlock, type SetupValues } from './setup-values';
 
 function Row({ label, children }: { label: string; children: React.ReactNode }) {
   return (
@@ -28,7 +29,7 @@ export function StepReview({ form, timeZone, units }: { form: UseFormReturn<Setu
   };
   let size = problem ?? '';
   try {
-    if (spec) size = `${sizeIn(blockSizes(spec).unfinished, units)} unfinished`;
+    if (spec) size = `${sizeText(blockSizes(spec).unfinished, units)} unfinished`;
   } catch (error) {
     size = (error as Error).message;
   }

@@ -184,7 +184,7 @@ function SwapSetupForm({
           )}
           {step === 0 && <StepBasics form={form} />}
           {step === 1 && <StepBlock form={form} units={units} />}
-          {step === 2 && <StepFabric form={form} />}
+          {step === 2 && <StepFabric form={form} units={units} />}
           {step === 3 && <StepSchedule form={form} guildId={guildId} timeZone={timeZone} scheduleOnly={scheduleOnly} />}
           {step === 4 && <StepReview form={form} timeZone={timeZone} units={units} />}
           <div className="mt-8 flex flex-wrap justify-between gap-3">
