@@ -6,6 +6,7 @@
 import type pg from 'pg';
 import type { AnyMailCategory, MailCategory } from '@shared/schemas/notifications';
 import type { Config } from '../config';
+import type { AppDeps } from '../deps';
 import type { Mailer } from './mailer';
 import { optedOut, optedOutReason } from './preferences';
 import { unsubscribeHeaders, unsubscribeToken } from './unsubscribe-token';
@@ -34,7 +35,7 @@ export type DeliveryOutcome = 'sent' | 'skipped' | 'failed' | 'not-claimed' | 'h
 /** Thrown for a failure worth retrying; the job queue brings the job back with backoff. */
 export class RetryableDeliveryError extends Error {}
 
-export interface DeliveryDeps {
+export interface DeliveryDeps extends Pick<AppDeps, 'sequelize'> {
   pool: pg.Pool;
   mailer: Mailer;
   config: Pick<Config, 'PUBLIC_URL' | 'SESSION_SECRET' | 'MAIL_RETRY_LIMIT'>;
@@ -98,7 +99,7 @@ export async function deliverMessage(deps: DeliveryDeps, id: number): Promise<De
 
   // What the message says is checked against the swap as it is now: dropped or rewritten if it moved on.
   const asOf = new Date(Math.max(Date.now(), new Date(row.written_for).getTime()));
-  const check = await stillTrue(deps.config, row, asOf);
+  const check = await stillTrue(deps, row, asOf);
   if ('drop' in check) {
     await finish('skipped', check.drop);
     return 'skipped';

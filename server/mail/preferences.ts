@@ -2,6 +2,7 @@
 import { Op } from 'sequelize';
 import { mailCategories, mailCategoryInfo, type AnyMailCategory, type MailCategory } from '@shared/schemas/notifications';
 import { MailPreference } from '../db/models';
+import type { AppDeps } from '../deps';
 
 /** Each category's on/off for one person. */
 export async function preferencesOf(userId: number): Promise<Record<MailCategory, boolean>> {
@@ -12,8 +13,12 @@ export async function preferencesOf(userId: number): Promise<Record<MailCategory
 }
 
 /** Sets some categories on or off for one person (upsert per category). */
-export async function setPreferences(userId: number, changes: Partial<Record<MailCategory, boolean>>) {
-  await MailPreference.sequelize!.transaction(async (transaction) => {
+export async function setPreferences(
+  deps: Pick<AppDeps, 'sequelize'>,
+  userId: number,
+  changes: Partial<Record<MailCategory, boolean>>,
+) {
+  await deps.sequelize.transaction(async (transaction) => {
     for (const [category, enabled] of Object.entries(changes) as [MailCategory, boolean][]) {
       await MailPreference.upsert({ userId, category, enabled }, { transaction });
     }

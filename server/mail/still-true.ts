@@ -5,7 +5,7 @@
  * one is dropped too; the same key with other words (a date now "tomorrow", a replacement no longer
  * asked for) rewrites it. Account mail and the digest are sent as recorded.
  */
-import type { Drafted, MailConfig } from './compose/context';
+import type { Drafted, DraftDeps } from './compose/context';
 import { announcementDraft } from './compose/announcement';
 import { signupConfirmationDraft } from './compose/signup-confirmation';
 import { reminderDraft } from './compose/reminders';
@@ -34,7 +34,8 @@ const gone: Record<string, string> = {
   distribution: 'Not sent: the return had changed before it went out.',
 };
 
-async function draftNow(config: MailConfig, m: QueuedMessage, now: Date): Promise<Drafted | null | undefined> {
+async function draftNow(deps: DraftDeps, m: QueuedMessage, now: Date): Promise<Drafted | null | undefined> {
+  const { config } = deps;
   const swapId = m.swap_id;
   const userId = m.user_id;
   if (swapId === null || userId === null) return undefined;
@@ -44,13 +45,13 @@ async function draftNow(config: MailConfig, m: QueuedMessage, now: Date): Promis
     case 'signup-confirmation':
       return signupConfirmationDraft(config, swapId, userId, now);
     case 'signup-reminder':
-      return reminderDraft(config, swapId, userId, 'signup', now);
+      return reminderDraft(deps, swapId, userId, 'signup', now);
     case 'due-reminder':
-      return reminderDraft(config, swapId, userId, 'due', now);
+      return reminderDraft(deps, swapId, userId, 'due', now);
     case 'receipt':
       return (await receiptDraft(config, swapId, userId, now))?.drafted ?? null;
     case 'distribution': {
-      const drafts = await distributionDrafts(config, swapId, userId);
+      const drafts = await distributionDrafts(deps, swapId, userId);
       const r = drafts?.recipients[0];
       return drafts && r ? drafts.draft(r) : null;
     }
@@ -60,8 +61,8 @@ async function draftNow(config: MailConfig, m: QueuedMessage, now: Date): Promis
 }
 
 /** Whether a queued message still says what is true now, and what to send if so. */
-export async function stillTrue(config: MailConfig, message: QueuedMessage, now = new Date()): Promise<StillTrue> {
-  const fresh = await draftNow(config, message, now);
+export async function stillTrue(deps: DraftDeps, message: QueuedMessage, now = new Date()): Promise<StillTrue> {
+  const fresh = await draftNow(deps, message, now);
   if (fresh === undefined) return { send: 'as-recorded' };
   if (fresh === null) return { drop: gone[message.kind] ?? 'Not sent: it no longer applied.' };
   if (fresh.key !== message.idempotency_key) return { drop: 'Not sent: newer news replaced it, in its own message.' };

@@ -28,7 +28,7 @@ export function notificationsRouter(deps: AppDeps) {
     '/me/mail-preferences',
     requireUser,
     route({ body: updateMailPreferencesSchema }, async ({ body }, req, res) => {
-      res.json(await notifications.updatePreferences(currentUser(req).id, body));
+      res.json(await notifications.updatePreferences(deps, currentUser(req).id, body));
     }),
   );
 
@@ -53,14 +53,14 @@ export function notificationsRouter(deps: AppDeps) {
   router.post(
     '/unsubscribe',
     route({ query: unsubscribeQuerySchema }, async ({ query }, _req, res) => {
-      res.json(await notifications.applyUnsubscribe(secret, query.token, false));
+      res.json(await notifications.applyUnsubscribe(deps, secret, query.token, false));
     }),
   );
 
   router.post(
     '/unsubscribe/undo',
     route({ query: unsubscribeQuerySchema }, async ({ query }, _req, res) => {
-      res.json(await notifications.applyUnsubscribe(secret, query.token, true));
+      res.json(await notifications.applyUnsubscribe(deps, secret, query.token, true));
     }),
   );
 

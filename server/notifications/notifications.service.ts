@@ -17,6 +17,7 @@ import { MailMessage, User } from '../db/models';
 import { NotFoundError, ValidationError } from '../http/errors';
 import { verifyUnsubscribeToken } from '../mail/unsubscribe-token';
 import { preferencesOf, setPreferences } from '../mail/preferences';
+import type { AppDeps } from '../deps';
 
 export const LOG_PAGE_SIZE = 50;
 
@@ -29,8 +30,12 @@ export async function getPreferences(userId: number): Promise<MailPreferencesDto
   };
 }
 
-export async function updatePreferences(userId: number, changes: Partial<Record<MailCategory, boolean>>) {
-  await setPreferences(userId, changes);
+export async function updatePreferences(
+  deps: Pick<AppDeps, 'sequelize'>,
+  userId: number,
+  changes: Partial<Record<MailCategory, boolean>>,
+) {
+  await setPreferences(deps, userId, changes);
   return getPreferences(userId);
 }
 
@@ -61,11 +66,16 @@ export async function unsubscribeInfo(secret: string, token: string): Promise<Un
 }
 
 /** Switches the link's category off (or back on); the token alone is the authority. */
-export async function applyUnsubscribe(secret: string, token: string, enabled: boolean): Promise<UnsubscribeInfoDto> {
+export async function applyUnsubscribe(
+  deps: Pick<AppDeps, 'sequelize'>,
+  secret: string,
+  token: string,
+  enabled: boolean,
+): Promise<UnsubscribeInfoDto> {
   const { userId, category } = tokenOrThrow(secret, token);
   if (!(await User.findByPk(userId, { attributes: ['id'] })))
     throw new NotFoundError('The account this link was sent to no longer exists.');
-  await setPreferences(userId, { [category]: enabled });
+  await setPreferences(deps, userId, { [category]: enabled });
   return unsubscribeInfo(secret, token);
 }
 

@@ -7,6 +7,7 @@ import type { Units } from '@shared/schemas/auth';
 import type { Role } from '@shared/schemas/guilds';
 import { Guild, Membership, Swap, User } from '../../db/models';
 import type { Config } from '../../config';
+import type { AppDeps } from '../../deps';
 import type { Logger } from '../../logger';
 import { optedOut, optedOutReason } from '../preferences';
 import type { OutgoingRecord } from '../outbox';
@@ -16,7 +17,12 @@ import { unsubscribePageUrl, unsubscribeToken } from '../unsubscribe-token';
 /** What drafting a message needs of the configuration: links and unsubscribe tokens. */
 export type MailConfig = Pick<Config, 'PUBLIC_URL' | 'SESSION_SECRET'>;
 
-export interface ComposeDeps {
+/** What drafting a message from the database needs: the configuration and the connection. */
+export interface DraftDeps extends Pick<AppDeps, 'sequelize'> {
+  config: MailConfig;
+}
+
+export interface ComposeDeps extends Pick<AppDeps, 'sequelize'> {
   pool: pg.Pool;
   config: Config;
   logger: Logger;

@@ -13,6 +13,8 @@ import { inDays, daysUntil, isoWeek, mailDate, plural } from '../format';
 import { renderMail } from '../render';
 import { recordAndQueue, type RecordResult } from '../outbox';
 import { frameFor, guildMembers, recordsFor, swapUrl, type ComposeDeps } from './context';
+import type { AppDeps } from '../../deps';
+import { SWAP_TOTALS, WEEK_BLOCKS, WEEK_SIGNUPS, WEEK_TRANSITIONS, WEEK_VERDICTS } from '../mail.queries';
 
 const WEEK_MS = 7 * 86_400_000;
 const LIVE: SwapState[] = ['signup', 'sewing', 'collecting', 'sorting'];
@@ -25,40 +27,15 @@ interface WeekCounts {
   totals: { pledged: number; makers: number; handed_in: number; measured: number; owed: number; owing: number };
 }
 
-async function weekOf(swapId: number, from: Date, to: Date): Promise<WeekCounts> {
+async function weekOf(deps: Pick<AppDeps, 'sequelize'>, swapId: number, from: Date, to: Date): Promise<WeekCounts> {
   const q = <T extends object>(sql: string) =>
-    Swap.sequelize!.query<T>(sql, { bind: { swapId, from, to }, type: QueryTypes.SELECT });
+    deps.sequelize.query<T>(sql, { bind: { swapId, from, to }, type: QueryTypes.SELECT });
   const [transitions, signups, blocks, verdicts, totals] = await Promise.all([
-    q<WeekCounts['transitions'][number]>(
-      `SELECT from_state, to_state, at FROM swap_transitions
-        WHERE swap_id = $swapId AND from_state IS NOT NULL AND at >= $from AND at < $to ORDER BY at`,
-    ),
-    q<Record<keyof WeekCounts['signups'], string>>(
-      `SELECT count(*) FILTER (WHERE status = 'active' AND created_at >= $from AND created_at < $to) AS joined,
-              coalesce(sum(blocks) FILTER (WHERE status = 'active' AND created_at >= $from AND created_at < $to), 0) AS joined_blocks,
-              count(*) FILTER (WHERE status = 'withdrawn' AND updated_at >= $from AND updated_at < $to) AS withdrawn
-         FROM signups WHERE swap_id = $swapId`,
-    ),
-    q<Record<keyof WeekCounts['blocks'], string>>(
-      `SELECT count(*) FILTER (WHERE sewn_at >= $from AND sewn_at < $to) AS sewn,
-              count(*) FILTER (WHERE handed_in_at >= $from AND handed_in_at < $to) AS handed_in,
-              count(*) FILTER (WHERE received_at >= $from AND received_at < $to) AS received,
-              count(*) FILTER (WHERE returned_at >= $from AND returned_at < $to) AS returned
-         FROM blocks WHERE swap_id = $swapId`,
-    ),
-    q<{ verdict: VerdictName; count: string }>(
-      `SELECT verdict, count(*) AS count FROM blocks
-        WHERE swap_id = $swapId AND verdict IS NOT NULL AND measured_at >= $from AND measured_at < $to GROUP BY verdict`,
-    ),
-    q<Record<keyof WeekCounts['totals'], string>>(
-      `SELECT (SELECT coalesce(sum(blocks), 0) FROM signups WHERE swap_id = $swapId AND status = 'active') AS pledged,
-              (SELECT count(*) FROM signups WHERE swap_id = $swapId AND status = 'active') AS makers,
-              count(*) FILTER (WHERE state NOT IN ('pledged', 'sewn')) AS handed_in,
-              count(*) FILTER (WHERE verdict IS NOT NULL) AS measured,
-              count(*) FILTER (WHERE state IN ('pledged', 'sewn')) AS owed,
-              count(DISTINCT maker_id) FILTER (WHERE state IN ('pledged', 'sewn')) AS owing
-         FROM blocks WHERE swap_id = $swapId`,
-    ),
+    q<WeekCounts['transitions'][number]>(WEEK_TRANSITIONS),
+    q<Record<keyof WeekCounts['signups'], string>>(WEEK_SIGNUPS),
+    q<Record<keyof WeekCounts['blocks'], string>>(WEEK_BLOCKS),
+    q<{ verdict: VerdictName; count: string }>(WEEK_VERDICTS),
+    q<Record<keyof WeekCounts['totals'], string>>(SWAP_TOTALS),
   ]);
   const num = <T extends Record<string, string>>(row: T | undefined) =>
     Object.fromEntries(Object.entries(row ?? {}).map(([k, v]) => [k, Number(v)])) as { [K in keyof T]: number };
@@ -109,7 +86,7 @@ async function digestForGuild(deps: ComposeDeps, guild: Guild, from: Date, now: 
   const reported: Record<string, unknown>[] = [];
   for (const swap of swaps) {
     if (swap.state === 'draft') continue;
-    const week = await weekOf(swap.id, from, now);
+    const week = await weekOf(deps, swap.id, from, now);
     const changes = changeLines(week, guild.timeZone);
     if (!LIVE.includes(swap.state) && changes.length === 0) continue;
     reported.push({

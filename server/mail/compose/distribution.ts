@@ -1,6 +1,7 @@
 /** "Your blocks are coming back": after the coordinator confirms the return, to each recipient. */
 import { QueryTypes } from 'sequelize';
-import { Swap } from '../../db/models';
+import type { AppDeps } from '../../deps';
+import { MAKERS_TAKEN_IN, RETURN_SHARES } from '../mail.queries';
 import { plural } from '../format';
 import { renderMail } from '../render';
 import { recordAndQueue, type RecordResult } from '../outbox';
@@ -12,7 +13,7 @@ import {
   usersByIds,
   type ComposeDeps,
   type Drafted,
-  type MailConfig,
+  type DraftDeps,
   type Recipient,
 } from './context';
 import { composeReceipt } from './receipt';
@@ -24,15 +25,11 @@ interface Share {
 }
 
 /** Per recipient: how many returned blocks, from which makers. */
-async function sharesOf(swapId: number): Promise<Share[]> {
-  const rows = await Swap.sequelize!.query<{ recipient_id: number; maker: string; count: string }>(
-    `SELECT b.recipient_id, u.display_name AS maker, count(*) AS count
-       FROM blocks b JOIN users u ON u.id = b.maker_id
-      WHERE b.swap_id = $swapId AND b.state = 'returned' AND b.recipient_id IS NOT NULL
-      GROUP BY b.recipient_id, u.display_name
-      ORDER BY b.recipient_id, u.display_name`,
-    { bind: { swapId }, type: QueryTypes.SELECT },
-  );
+async function sharesOf(deps: Pick<AppDeps, 'sequelize'>, swapId: number): Promise<Share[]> {
+  const rows = await deps.sequelize.query<{ recipient_id: number; maker: string; count: string }>(RETURN_SHARES, {
+    bind: { swapId },
+    type: QueryTypes.SELECT,
+  });
   const shares = new Map<number, Share>();
   for (const r of rows) {
     const share = shares.get(r.recipient_id) ?? { recipientId: r.recipient_id, makers: [], count: 0 };
@@ -55,14 +52,14 @@ export interface DistributionDrafts {
  * is not confirmed. Used to compose and, at send time, to check a queued notice.
  */
 export async function distributionDrafts(
-  config: MailConfig,
+  deps: DraftDeps,
   swapId: number,
   onlyUserId?: number,
 ): Promise<DistributionDrafts | null> {
   const loaded = await loadSwap(swapId);
   if (!loaded || !loaded.swap.distributionConfirmedAt || loaded.swap.state === 'cancelled') return null;
   const { swap, guild } = loaded;
-  const shares = (await sharesOf(swapId)).filter((s) => onlyUserId === undefined || s.recipientId === onlyUserId);
+  const shares = (await sharesOf(deps, swapId)).filter((s) => onlyUserId === undefined || s.recipientId === onlyUserId);
   const users = await usersByIds(shares.map((s) => s.recipientId));
   const byUser = new Map(shares.map((s) => [s.recipientId, s]));
   const recipients = shares.map((s) => users.get(s.recipientId)).filter((u): u is Recipient => Boolean(u));
@@ -82,9 +79,9 @@ export async function distributionDrafts(
           makersText,
           makers: share.makers,
           gift: swap.mode === 'gift',
-          url: swapUrl(config, guild.id, swap.id),
+          url: swapUrl(deps.config, guild.id, swap.id),
         },
-        frameFor(config, r.id, 'distribution', {
+        frameFor(deps.config, r.id, 'distribution', {
           subject: `${countText} from ${makersText} coming back to you: ${swap.title}`,
           preheader: `The blocks of ${swap.title} have been shared out.`,
           heading: `${countText} coming your way`,
@@ -101,12 +98,12 @@ export async function distributionDrafts(
  * first, so it is recorded (and so sent) before any return notice.
  */
 export async function composeDistribution(deps: ComposeDeps, swapId: number): Promise<RecordResult> {
-  const makers = await Swap.sequelize!.query<{ maker_id: number }>(
-    `SELECT DISTINCT maker_id FROM blocks WHERE swap_id = $swapId AND state IN ('received', 'measured', 'returned') ORDER BY maker_id`,
-    { bind: { swapId }, type: QueryTypes.SELECT },
-  );
+  const makers = await deps.sequelize.query<{ maker_id: number }>(MAKERS_TAKEN_IN, {
+    bind: { swapId },
+    type: QueryTypes.SELECT,
+  });
   for (const m of makers) await composeReceipt(deps, swapId, m.maker_id);
-  const drafts = await distributionDrafts(deps.config, swapId);
+  const drafts = await distributionDrafts(deps, swapId);
   if (!drafts) return { queued: 0, skipped: 0, existing: 0 };
   const records = await recordsFor(
     'distribution',

@@ -6,6 +6,8 @@
  */
 import { Op, QueryTypes } from 'sequelize';
 import { Guild, Swap } from '../../db/models';
+import type { AppDeps } from '../../deps';
+import { DEBTS } from '../mail.queries';
 import { localDateKey, plural } from '../format';
 import { renderMail } from '../render';
 import { recordAndQueue, type RecordResult } from '../outbox';
@@ -16,6 +18,7 @@ import {
   usersByIds,
   type ComposeDeps,
   type Drafted,
+  type DraftDeps,
   type MailConfig,
   type Recipient,
 } from './context';
@@ -33,19 +36,11 @@ export interface Debt {
 }
 
 /** Each active, still-member signer's pledge and how many blocks they still owe. */
-export async function debtsOf(swapId: number, guildId: number): Promise<Debt[]> {
-  const rows = await Swap.sequelize!.query<{ user_id: number; pledged: number; handed_in: string; owed: string }>(
-    `SELECT s.user_id, s.blocks AS pledged,
-            count(b.id) FILTER (WHERE b.state NOT IN ('pledged', 'sewn')) AS handed_in,
-            count(b.id) FILTER (WHERE b.state IN ('pledged', 'sewn')) AS owed
-       FROM signups s
-       JOIN memberships m ON m.user_id = s.user_id AND m.guild_id = $guildId AND m.status = 'active'
-       LEFT JOIN blocks b ON b.swap_id = s.swap_id AND b.maker_id = s.user_id
-      WHERE s.swap_id = $swapId AND s.status = 'active'
-      GROUP BY s.user_id, s.blocks
-      ORDER BY s.user_id`,
-    { bind: { swapId, guildId }, type: QueryTypes.SELECT },
-  );
+export async function debtsOf(deps: Pick<AppDeps, 'sequelize'>, swapId: number, guildId: number): Promise<Debt[]> {
+  const rows = await deps.sequelize.query<{ user_id: number; pledged: number; handed_in: string; owed: string }>(DEBTS, {
+    bind: { swapId, guildId },
+    type: QueryTypes.SELECT,
+  });
   return rows.map((r) => ({
     userId: r.user_id,
     pledged: Number(r.pledged),
@@ -116,7 +111,7 @@ function draftReminder(config: MailConfig, swap: Swap, guild: Guild, which: Whic
 }
 
 async function remind(deps: ComposeDeps, swap: Swap, guild: Guild, which: Which, now: Date): Promise<RecordResult> {
-  const debts = (await debtsOf(swap.id, guild.id)).filter((d) => d.owed > 0);
+  const debts = (await debtsOf(deps, swap.id, guild.id)).filter((d) => d.owed > 0);
   const users = await usersByIds(debts.map((d) => d.userId));
   const byUser = new Map(debts.map((d) => [d.userId, d]));
   const recipients = debts.map((d) => users.get(d.userId)).filter((u): u is Recipient => Boolean(u));
@@ -131,7 +126,7 @@ async function remind(deps: ComposeDeps, swap: Swap, guild: Guild, which: Which,
  * deadline passed or the member owes nothing. Used at send time to check a queued reminder.
  */
 export async function reminderDraft(
-  config: MailConfig,
+  deps: DraftDeps,
   swapId: number,
   userId: number,
   which: Which,
@@ -140,10 +135,10 @@ export async function reminderDraft(
   const swap = await Swap.findByPk(swapId);
   if (!swap || !reminderApplies(swap, which, now)) return null;
   const guild = await Guild.findByPk(swap.guildId);
-  const debt = guild ? (await debtsOf(swap.id, guild.id)).find((d) => d.userId === userId) : undefined;
+  const debt = guild ? (await debtsOf(deps, swap.id, guild.id)).find((d) => d.userId === userId) : undefined;
   const r = (await usersByIds([userId])).get(userId);
   if (!guild || !debt || debt.owed === 0 || !r) return null;
-  return draftReminder(config, swap, guild, which, debt, r, now);
+  return draftReminder(deps.config, swap, guild, which, debt, r, now);
 }
 
 /** Sends every reminder that is due now and has not gone yet. */
