@@ -1,5 +1,6 @@
 /** CSV exports of the roster and the confirmed return, built with csv-stringify. */
 import { stringify } from 'csv-stringify/sync';
+import { instantToWallTime } from '@shared/schemas/sewdays';
 import { VERDICTS, VERDICT_LABELS, blockStateLabels } from '@shared/vocabulary';
 import type { Swap } from '../db/models';
 import type { AppDeps } from '../deps';
@@ -17,6 +18,14 @@ function safeCell(value: unknown): string | number {
 export function csv(header: string[], rows: (string | number | null | undefined)[][]): string {
   // A byte-order mark so spreadsheet programs read names such as “Ibáñez” as UTF-8.
   return '\uFEFF' + stringify([header, ...rows.map((r) => r.map(safeCell))], { record_delimiter: 'windows' });
+}
+
+/**
+ * An instant as the guild's wall-clock time, "2027-01-16 10:00", the way a spreadsheet reads a date
+ * and time; empty when there is none. Exports of a guild speak its time zone, as its pages and mail do.
+ */
+export function csvWallTime(instant: Date | string | null | undefined, timeZone: string): string {
+  return instant == null ? '' : instantToWallTime(new Date(instant), timeZone).replace('T', ' ');
 }
 
 /** "Harvest Stripes" → "harvest-stripes", for file names. */

@@ -18,7 +18,8 @@ import {
 } from '@shared/schemas/payments';
 import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
-import { csv, slug } from '../exports/exports.service';
+import { Guild } from '../db/models';
+import { csv, csvWallTime, slug } from '../exports/exports.service';
 import type { AppDeps } from '../deps';
 import { canPayGuild, canPaySwap, canTreasure } from './payments.policy';
 import * as payments from './payments.service';
@@ -35,7 +36,7 @@ export function paymentsWebhookRouter(deps: AppDeps) {
   return router;
 }
 
-function paymentsCsv(guildName: string, dto: GuildPaymentsDto) {
+function paymentsCsv(guildName: string, dto: GuildPaymentsDto, timeZone: string) {
   const header = [
     'Date',
     'Member',
@@ -51,7 +52,7 @@ function paymentsCsv(guildName: string, dto: GuildPaymentsDto) {
     'Note',
   ];
   const rows = dto.payments.map((p) => [
-    p.createdAt,
+    csvWallTime(p.createdAt, timeZone),
     p.displayName,
     paymentKindLabels[p.kind],
     p.swapTitle ?? '',
@@ -60,8 +61,8 @@ function paymentsCsv(guildName: string, dto: GuildPaymentsDto) {
     p.currency.toUpperCase(),
     p.status,
     paymentStatusLabels[p.status],
-    p.paidAt ?? '',
-    p.refundedAt ?? '',
+    csvWallTime(p.paidAt, timeZone),
+    csvWallTime(p.refundedAt, timeZone),
     p.refundError ?? p.statusReason ?? '',
   ]);
   return { fileName: `${slug(guildName)}-payments.csv`, body: csv(header, rows) };
@@ -140,7 +141,8 @@ export function paymentsRouter(deps: AppDeps) {
         const { format, ...filters } = query;
         const dto = await payments.guildPayments(deps, params.guildId, filters);
         if (format !== 'csv') return void res.json(dto);
-        const file = paymentsCsv(dto.guildName, dto);
+        const guild = await Guild.findByPk(params.guildId, { attributes: ['timeZone'] });
+        const file = paymentsCsv(dto.guildName, dto, guild?.timeZone ?? 'UTC');
         res
           .status(200)
           .set('Content-Type', 'text/csv; charset=utf-8')
