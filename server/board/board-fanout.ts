@@ -22,7 +22,7 @@ function affectedUser(event: SwapEvent): number | null {
 }
 
 /** The rows the batch touched, recomputed; every row when the swap as a whole changed. */
-export function patchFor(roster: RosterDto, batch: SwapEvent[]): BoardPatch {
+function patchFor(roster: RosterDto, batch: SwapEvent[]): BoardPatch {
   if (batch.some((e) => WHOLE_BOARD.has(e.name))) {
     return { swap: roster.swap, totals: roster.totals, rows: roster.rows, removedUserIds: [], complete: true };
   }

@@ -10,7 +10,7 @@ import { can } from './guilds.policy';
 import type { AppDeps } from '../deps';
 import { LOCK_INVITATIONS, PAYMENT_COUNT } from './guilds.queries';
 
-export const INVITATION_VALID_DAYS = 14;
+const INVITATION_VALID_DAYS = 14;
 
 /** Creates a guild; its creator becomes its first admin. */
 export async function createGuild(deps: Pick<AppDeps, 'sequelize'>, userId: number, input: CreateGuildInput): Promise<GuildDto> {

@@ -30,12 +30,12 @@ interface ClaimedRow {
   written_for: Date;
 }
 
-export type DeliveryOutcome = 'sent' | 'skipped' | 'failed' | 'not-claimed' | 'held';
+type DeliveryOutcome = 'sent' | 'skipped' | 'failed' | 'not-claimed' | 'held';
 
 /** Thrown for a failure worth retrying; the job queue brings the job back with backoff. */
 export class RetryableDeliveryError extends Error {}
 
-export interface DeliveryDeps extends Pick<AppDeps, 'sequelize'> {
+interface DeliveryDeps extends Pick<AppDeps, 'sequelize'> {
   pool: pg.Pool;
   mailer: Mailer;
   config: Pick<Config, 'PUBLIC_URL' | 'SESSION_SECRET' | 'MAIL_RETRY_LIMIT'>;

@@ -13,7 +13,7 @@ import { receiptDraft } from './compose/receipt';
 import { distributionDrafts } from './compose/distribution';
 import type { RenderedMail } from './render';
 
-export interface QueuedMessage {
+interface QueuedMessage {
   kind: string;
   swap_id: number | null;
   user_id: number | null;
@@ -22,7 +22,7 @@ export interface QueuedMessage {
   text_body: string;
 }
 
-export type StillTrue = { send: 'as-recorded' } | { send: 'rewritten'; mail: RenderedMail } | { drop: string };
+type StillTrue = { send: 'as-recorded' } | { send: 'rewritten'; mail: RenderedMail } | { drop: string };
 
 /** Why a message of this kind has nothing left to say, in words for the mail log. */
 const gone: Record<string, string> = {

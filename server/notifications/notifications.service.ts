@@ -19,7 +19,7 @@ import { verifyUnsubscribeToken } from '../mail/unsubscribe-token';
 import { preferencesOf, setPreferences } from '../mail/preferences';
 import type { AppDeps } from '../deps';
 
-export const LOG_PAGE_SIZE = 50;
+const LOG_PAGE_SIZE = 50;
 
 export async function getPreferences(userId: number): Promise<MailPreferencesDto> {
   const [user, prefs] = await Promise.all([User.findByPk(userId, { attributes: ['email'] }), preferencesOf(userId)]);

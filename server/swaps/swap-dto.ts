@@ -6,7 +6,7 @@ import { Guild, type Swap, type SwapTransition, User } from '../db/models';
 import type { AppDeps } from '../deps';
 import { SIGNUP_STATS } from './swaps.queries';
 
-export interface SignupStats {
+interface SignupStats {
   signups: number;
   pledged: number;
   myPledge: number;

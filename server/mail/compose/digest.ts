@@ -49,7 +49,7 @@ async function weekOf(deps: Pick<AppDeps, 'sequelize'>, swapId: number, from: Da
 }
 
 /** The week's changes as short sentences. */
-export function changeLines(w: WeekCounts, timeZone: string): string[] {
+function changeLines(w: WeekCounts, timeZone: string): string[] {
   const lines = w.transitions.map(
     (t) => `Moved from ${swapStateShort[t.from_state!]} to ${swapStateShort[t.to_state]} on ${mailDate(t.at, timeZone, false)}.`,
   );

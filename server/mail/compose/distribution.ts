@@ -40,7 +40,7 @@ async function sharesOf(deps: Pick<AppDeps, 'sequelize'>, swapId: number): Promi
   return [...shares.values()];
 }
 
-export interface DistributionDrafts {
+interface DistributionDrafts {
   guildId: number;
   swapId: number;
   recipients: Recipient[];

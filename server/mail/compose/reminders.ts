@@ -26,7 +26,7 @@ import { swapView } from './swap-view';
 
 const DAY_MS = 86_400_000;
 
-export interface Debt {
+interface Debt {
   userId: number;
   pledged: number;
   /** blocks handed in, received, measured or returned */
@@ -36,7 +36,7 @@ export interface Debt {
 }
 
 /** Each active, still-member signer's pledge and how many blocks they still owe. */
-export async function debtsOf(deps: Pick<AppDeps, 'sequelize'>, swapId: number, guildId: number): Promise<Debt[]> {
+async function debtsOf(deps: Pick<AppDeps, 'sequelize'>, swapId: number, guildId: number): Promise<Debt[]> {
   const rows = await deps.sequelize.query<{ user_id: number; pledged: number; handed_in: string; owed: string }>(DEBTS, {
     bind: { swapId, guildId },
     type: QueryTypes.SELECT,
@@ -50,7 +50,7 @@ export async function debtsOf(deps: Pick<AppDeps, 'sequelize'>, swapId: number, 
 }
 
 /** True from `days` days before the deadline until the deadline; 0 days means no reminder. */
-export function inReminderWindow(deadline: Date, days: number, now: Date) {
+function inReminderWindow(deadline: Date, days: number, now: Date) {
   return days > 0 && now.getTime() >= deadline.getTime() - days * DAY_MS && now.getTime() < deadline.getTime();
 }
 
