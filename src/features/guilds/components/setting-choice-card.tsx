@@ -9,12 +9,16 @@ export interface SettingChoice<T extends string> {
   example: string;
 }
 
-interface SettingChoiceCardProps<T extends string> {
+/** What a setting's card says: its title, question and choices. */
+export interface SettingChoiceText<T extends string> {
   title: string;
   legend: ReactNode;
   /** The radio group's name, one per setting on the page. */
   name: string;
   choices: SettingChoice<T>[];
+}
+
+interface SettingChoiceCardProps<T extends string> extends SettingChoiceText<T> {
   saved: T;
   /** Saves the choice as soon as it is made. */
   update: UseMutationResult<unknown, Error, T>;

@@ -1,9 +1,10 @@
-import { formatDeviation, formatLength } from '@shared/quilt';
+import { formatDeviation } from '@shared/quilt';
+import { len } from '@/lib/lengths';
 
 export type Units = 'in' | 'mm';
 
 /** A length in the person's units: inches to the nearest 1/16″, or millimetres. */
-export const lengthIn = (units: Units) => (x: number) => formatLength(x, units === 'mm' ? { unit: 'mm' } : { denominator: 16 });
+export const lengthIn = (units: Units) => (x: number) => len(x, units);
 export const deviationIn = (units: Units) => (x: number) =>
   formatDeviation(x, units === 'mm' ? { unit: 'mm' } : { denominator: 16 });
 

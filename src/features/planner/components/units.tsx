@@ -1,11 +1,11 @@
-import { formatLength } from '@shared/quilt';
+import { len } from '@/lib/lengths';
 import type { Units } from '../hooks/use-length-field';
 
 export type { Units };
 export type LengthFormat = (inches: number) => string;
 
 export function useLengthFormat(units: Units): LengthFormat {
-  return (inches) => formatLength(inches, { unit: units, denominator: 16 });
+  return (inches) => len(inches, units);
 }
 
 export function UnitsToggle({ units, onChange }: { units: Units; onChange(u: Units): void }) {
