@@ -41,6 +41,10 @@ export interface DomainEventMap {
   };
   /** Sign-in sessions that ended (signed out, or every session of an account after a password reset or change). */
   'session.ended': { userId: number; sessionIds: string[] };
+  /** Someone asked for an account; the mail job looks the address up (never the request, so it answers alike). */
+  'account.signup-requested': { pendingSignupId: number };
+  /** Someone asked for a password reset link; the mail job looks the address up. */
+  'account.reset-requested': { email: string };
   /** Payments changed by a verified webhook: paid or refunded (receipts), or failed. */
   'payment.settled': {
     guildId: number;

@@ -3,6 +3,7 @@ import passport from 'passport';
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import {
   changePasswordSchema,
+  confirmEmailSchema,
   loginSchema,
   profileUpdateSchema,
   registerSchema,
@@ -12,7 +13,16 @@ import {
 import { route, runMiddleware } from '../http/route';
 import { AppError, UnauthorizedError } from '../http/errors';
 import { currentUser, requireUser } from './require-user';
-import { changePassword, endSessions, getMe, register, requestPasswordReset, resetPassword, updateProfile } from './auth.service';
+import {
+  changePassword,
+  confirmSignup,
+  endSessions,
+  getMe,
+  requestPasswordReset,
+  requestSignup,
+  resetPassword,
+  updateProfile,
+} from './auth.service';
 import type { AppDeps } from '../deps';
 
 function logIn(req: Request, user: Express.User) {
@@ -25,6 +35,9 @@ function tooMany(message: string) {
 }
 
 const clientKey = (req: Request) => ipKeyGenerator(req.ip ?? '');
+
+export const SIGNUP_SENT_MESSAGE =
+  'Check your inbox: we sent a message to that address. Open the link in it within 24 hours to finish signing up.';
 
 export function authRouter(deps: AppDeps) {
   const router = Router();
@@ -55,6 +68,14 @@ export function authRouter(deps: AppDeps) {
     keyGenerator: clientKey,
     handler: (_req, _res, next) => next(tooMany('Too many new accounts from this network. Try again in an hour.')),
   });
+  // Tokens are too long to guess; this only keeps one client from hammering the table.
+  const confirmLimiter = rateLimit({
+    ...limits,
+    windowMs: 15 * 60_000,
+    limit: 30,
+    keyGenerator: clientKey,
+    handler: (_req, _res, next) => next(tooMany('Too many tries with confirmation links. Wait 15 minutes and try again.')),
+  });
   const mailLimiter = rateLimit({
     ...limits,
     windowMs: 15 * 60_000,
@@ -65,8 +86,18 @@ export function authRouter(deps: AppDeps) {
   router.post(
     '/auth/register',
     registerLimiter,
-    route({ body: registerSchema }, async ({ body }, req, res) => {
-      const user = await register(body);
+    route({ body: registerSchema }, async ({ body }, _req, res) => {
+      await requestSignup(deps, body);
+      // The same words whether or not the address has an account: the mail says which it is.
+      res.status(202).json({ message: SIGNUP_SENT_MESSAGE });
+    }),
+  );
+
+  router.post(
+    '/auth/confirm-email',
+    confirmLimiter,
+    route({ body: confirmEmailSchema }, async ({ body }, req, res) => {
+      const { user } = await confirmSignup(deps, body.token);
       await logIn(req, user);
       res.status(201).json(await getMe(user.id));
     }),
@@ -106,9 +137,9 @@ export function authRouter(deps: AppDeps) {
     '/auth/reset-request',
     mailLimiter,
     route({ body: resetRequestSchema }, ({ body }, _req, res) => {
+      // The mail job looks the address up, so this answer takes the same time either way.
+      requestPasswordReset(deps, body.email);
       res.status(202).json({ message: 'If that address has an account, a reset link is on its way.' });
-      // After the answer: looking the address up and mailing take time only when it has an account.
-      requestPasswordReset(deps, body.email).catch((err: unknown) => deps.logger.error({ err }, 'password reset request failed'));
     }),
   );
 

@@ -2,16 +2,16 @@ import { Op, QueryTypes, UniqueConstraintError } from 'sequelize';
 import type { RegisterInput, ProfileUpdateInput } from '@shared/schemas/auth';
 import type { MeDto } from '@shared/types';
 import { passwordStrength } from '@shared/password-strength';
-import { Guild, Membership, PasswordReset, User } from '../db/models';
+import { Guild, Membership, PasswordReset, PendingSignup, User } from '../db/models';
 import { ConflictError, UnauthorizedError, ValidationError } from '../http/errors';
 import { hashPassword, verifyPassword } from './passwords';
-import { hashToken, newToken } from './tokens';
+import { hashToken } from './tokens';
 import { toSessionUser } from './passport';
 import { assertNameFreeInGuilds } from './display-names';
-import { passwordResetMail } from '../mail/account-messages';
+import { SIGNUP_VALID_HOURS } from '../mail/compose/account';
 import type { AppDeps } from '../deps';
 
-export const RESET_VALID_MINUTES = 60;
+export { RESET_VALID_MINUTES } from '../mail/compose/account';
 
 /**
  * Refuses a password that is quick to guess (common, a pattern, a repeat, or made of the person's
@@ -24,16 +24,64 @@ export function assertStrongPassword(password: string, personal: string[], field
   throw new ValidationError(message, { [field]: message });
 }
 
-/** Creates an account; the e-mail must be unused and the password hard to guess. */
-export async function register(input: RegisterInput): Promise<Express.User> {
+/**
+ * Records a sign-up to be confirmed by mail and queues that mail. Whether the address already has an
+ * account is not looked up here but in the mail job, and the password is hashed either way, so the
+ * answer is the same, in the same time, for a new address and a taken one. No account exists until
+ * the link is opened, so nobody can hold an address they cannot read.
+ */
+export async function requestSignup(deps: Pick<AppDeps, 'events'>, input: RegisterInput): Promise<void> {
   assertStrongPassword(input.password, [input.email, input.displayName]);
   const passwordHash = await hashPassword(input.password);
+  const pending = await PendingSignup.create({
+    email: input.email,
+    displayName: input.displayName,
+    passwordHash,
+    nextPath: input.next ?? null,
+    expiresAt: new Date(Date.now() + SIGNUP_VALID_HOURS * 3_600_000),
+  });
+  deps.events.emit('account.signup-requested', { pendingSignupId: pending.id });
+}
+
+/**
+ * Turns a pending sign-up into an account, once: the link's token is spent with every other pending
+ * sign-up for the address. Returns the new account and the path to continue to.
+ */
+export async function confirmSignup(
+  deps: Pick<AppDeps, 'sequelize'>,
+  token: string,
+): Promise<{ user: Express.User; next: string | null }> {
+  const pending = await PendingSignup.findOne({ where: { tokenHash: hashToken(token) } });
+  if (!pending) {
+    throw new ValidationError('This confirmation link was already used or is not one of ours. Sign in, or sign up again.', {
+      token: 'This confirmation link was already used or is not valid.',
+    });
+  }
+  if (pending.expiresAt <= new Date()) {
+    await pending.destroy();
+    throw new ValidationError(`This confirmation link has expired (links work for ${SIGNUP_VALID_HOURS} hours). Sign up again.`, {
+      token: 'This confirmation link has expired.',
+    });
+  }
   try {
-    const user = await User.create({ email: input.email, displayName: input.displayName, passwordHash });
-    return toSessionUser(user);
+    const user = await deps.sequelize.transaction(async (transaction) => {
+      const spent = await PendingSignup.destroy({ where: { id: pending.id }, transaction });
+      if (spent !== 1) throw new ValidationError('This confirmation link was already used. Sign in instead.');
+      await PendingSignup.destroy({ where: { email: pending.email }, transaction });
+      return User.create(
+        { email: pending.email, displayName: pending.displayName, passwordHash: pending.passwordHash },
+        { transaction },
+      );
+    });
+    return { user: toSessionUser(user), next: pending.nextPath };
   } catch (error) {
     if (error instanceof UniqueConstraintError) {
-      throw new ConflictError('An account with that e-mail already exists. Sign in, or reset your password.', 'email_taken');
+      // Someone confirmed this address first: the link is spent, and the address has its account.
+      await PendingSignup.destroy({ where: { email: pending.email } });
+      throw new ConflictError(
+        'This address already has an account. Sign in, or reset your password if you forgot it.',
+        'email_taken',
+      );
     }
     throw error;
   }
@@ -79,22 +127,11 @@ export async function updateProfile(userId: number, input: ProfileUpdateInput) {
 }
 
 /**
- * Sends a reset link if the address has an account, and nothing otherwise. Call it after the answer
- * has gone out: the caller then waits the same time either way.
+ * Queues a reset link for the address. The mail job looks the address up and mails only if it has an
+ * account, so the request waits the same time either way.
  */
-export async function requestPasswordReset(deps: Pick<AppDeps, 'mailer' | 'config' | 'logger'>, email: string) {
-  const user = await User.findOne({ where: { email } });
-  if (!user) return;
-  const { token, tokenHash } = newToken();
-  await PasswordReset.create({ userId: user.id, tokenHash, expiresAt: new Date(Date.now() + RESET_VALID_MINUTES * 60_000) });
-  const url = `${deps.config.PUBLIC_URL}/reset-password?token=${encodeURIComponent(token)}`;
-  try {
-    await deps.mailer.send(
-      passwordResetMail({ to: user.email, displayName: user.displayName, url, validMinutes: RESET_VALID_MINUTES }),
-    );
-  } catch (error) {
-    deps.logger.error({ err: error }, 'password reset mail failed');
-  }
+export function requestPasswordReset(deps: Pick<AppDeps, 'events'>, email: string) {
+  deps.events.emit('account.reset-requested', { email });
 }
 
 /** Uses a reset token once; every other open token for the account is spent too. */

@@ -1,11 +1,2 @@
-import { createHash, randomBytes } from 'node:crypto';
-
-/** A random URL-safe token and the SHA-256 we store instead of it. */
-export function newToken(): { token: string; tokenHash: string } {
-  const token = randomBytes(32).toString('base64url');
-  return { token, tokenHash: hashToken(token) };
-}
-
-export function hashToken(token: string): string {
-  return createHash('sha256').update(token).digest('hex');
-}
+// The helpers live with the mail that carries the links, so the mail jobs can make tokens too.
+export { hashToken, newToken } from '../mail/link-tokens';

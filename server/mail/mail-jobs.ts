@@ -17,6 +17,7 @@ import { composeReceipt } from './compose/receipt';
 import { composeDistribution } from './compose/distribution';
 import { composeDigests } from './compose/digest';
 import { composePaymentReceipt } from './compose/payment-receipt';
+import { sendPasswordReset, sendSignupMail, tidyPendingSignups } from './compose/account';
 import { queues, startBoss } from '../jobs/queue';
 
 const SEND_WORKERS = 4;
@@ -26,7 +27,9 @@ export type ComposeJob =
   | { kind: 'signup-confirmation'; swapId: number; userId: number }
   | { kind: 'receipt'; swapId: number; userId: number }
   | { kind: 'distribution'; swapId: number }
-  | { kind: 'payment-receipt'; paymentIds: number[]; news: 'paid' | 'refunded' };
+  | { kind: 'payment-receipt'; paymentIds: number[]; news: 'paid' | 'refunded' }
+  | { kind: 'account-signup'; pendingSignupId: number }
+  | { kind: 'password-reset'; email: string };
 
 export interface MailJobs {
   boss: PgBoss;
@@ -54,6 +57,9 @@ export interface MailJobsOptions {
 /** One waiting compose job per subject: a burst of events for it makes one message. */
 function singletonKey(job: ComposeJob) {
   if (job.kind === 'payment-receipt') return `${job.kind}:${job.paymentIds.join('-')}:${job.news}`;
+  if (job.kind === 'account-signup') return `${job.kind}:${job.pendingSignupId}`;
+  // A burst of reset requests for one address makes one message.
+  if (job.kind === 'password-reset') return `${job.kind}:${job.email}`;
   return 'userId' in job ? `${job.kind}:${job.swapId}:${job.userId}` : `${job.kind}:${job.swapId}`;
 }
 
@@ -61,9 +67,10 @@ function singletonKey(job: ComposeJob) {
 export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): Promise<MailJobs> {
   const { config, logger } = deps;
   const boss = await startBoss(config, logger, { schedule: opts.schedule ?? true });
-  const composeDeps: ComposeDeps = { pool: deps.pool, config, logger, boss };
+  const composeDeps: ComposeDeps = { pool: deps.pool, sequelize: deps.sequelize, config, logger, boss };
   const delivery = {
     pool: deps.pool,
+    sequelize: deps.sequelize,
     mailer: opts.mailer ?? deps.mailer,
     config,
     // The send queue keeps one waiting job per key (a missing key counts as one key): each held message needs its own.
@@ -71,6 +78,8 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
       boss.send(queues.send, { messageId }, { startAfter: seconds, singletonKey: `held:${messageId}` }),
   };
   let closed = false;
+  // Account mail carries live links, so it is sent straight away (see compose/account.ts).
+  const sent = (outcome: string): RecordResult => ({ queued: outcome === 'nothing' ? 0 : 1, skipped: 0, existing: 0 });
 
   const compose = async (job: ComposeJob): Promise<RecordResult> => {
     switch (job.kind) {
@@ -84,11 +93,19 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
         return composeDistribution(composeDeps, job.swapId);
       case 'payment-receipt':
         return composePaymentReceipt(composeDeps, job.paymentIds, job.news);
+      case 'account-signup':
+        return sent(await sendSignupMail({ config, mailer: delivery.mailer }, job.pendingSignupId));
+      case 'password-reset':
+        return sent(await sendPasswordReset({ config, mailer: delivery.mailer }, job.email));
     }
   };
   const sweep = async (now = new Date()) => {
     const reminders = await composeReminders(composeDeps, now);
-    return { ...reminders, requeued: await requeueStalled(deps.pool, boss) };
+    let requeued = await requeueStalled(deps.pool, boss);
+    for (const pendingSignupId of await tidyPendingSignups(now)) {
+      if (await enqueue({ kind: 'account-signup', pendingSignupId })) requeued += 1;
+    }
+    return { ...reminders, requeued };
   };
   const digest = (now = new Date()) => composeDigests(composeDeps, now);
   const enqueue = (job: ComposeJob, delaySeconds = 0) =>
@@ -149,6 +166,8 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
       e.source === 'ruler' ? on({ kind: 'receipt', swapId: e.swapId, userId: e.makerId }, delay) : undefined,
     );
     deps.events.on('distribution.confirmed', (e) => on({ kind: 'distribution', swapId: e.swapId }));
+    deps.events.on('account.signup-requested', (e) => on({ kind: 'account-signup', pendingSignupId: e.pendingSignupId }));
+    deps.events.on('account.reset-requested', (e) => on({ kind: 'password-reset', email: e.email }));
     deps.events.on('payment.settled', (e) =>
       e.status === 'failed' ? undefined : on({ kind: 'payment-receipt', paymentIds: e.paymentIds, news: e.status }),
     );

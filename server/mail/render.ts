@@ -14,6 +14,8 @@ const templateDir = fileURLToPath(new URL('./templates/', import.meta.url));
 export const templateNames = [
   'invitation',
   'password-reset',
+  'account-confirm',
+  'account-exists',
   'swap-announcement',
   'signup-confirmation',
   'signup-reminder',

@@ -52,12 +52,27 @@ export const displayNameSchema = z
       .regex(/[\p{L}\p{N}]/u, 'Use at least one letter or number in your name.'),
   );
 
+/** A page of this site to go on to (an invitation, say): a path, never another site ("//x", "/\\x"). */
+export const nextPathSchema = z
+  .string()
+  .max(500, 'That return path is too long.')
+  .regex(/^\/(?![/\\])[^\s\\]*$/, 'The return path must be a page of this site.');
+
 export const registerSchema = z.object({
   email: emailSchema,
   password: passwordSchema,
   displayName: displayNameSchema,
+  next: nextPathSchema.optional(),
 });
 export type RegisterInput = z.infer<typeof registerSchema>;
+
+export const confirmEmailSchema = z.object({
+  token: z
+    .string({ error: 'The confirmation link is incomplete. Open it again from the e-mail.' })
+    .min(20, 'The confirmation link is incomplete. Open it again from the e-mail.')
+    .max(200, 'The confirmation link is not one of ours. Open it again from the e-mail.'),
+});
+export type ConfirmEmailInput = z.infer<typeof confirmEmailSchema>;
 
 export const loginSchema = z.object({
   email: emailSchema,

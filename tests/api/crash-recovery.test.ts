@@ -12,7 +12,7 @@ import sharp from 'sharp';
 import supertest from 'supertest';
 import { afterAll, beforeAll, expect, inject, it } from 'vitest';
 import { createTestDatabase } from '../helpers/test-app';
-import { PASSWORD } from '../helpers/factories';
+import { insertConfirmedAccount, signIn } from '../helpers/factories';
 import { freePort } from '../../scripts/lib/ports';
 import { createSequelize } from '../../server/db/sequelize';
 import { sweepPendingUploads } from '../../server/uploads/photo-ledger';
@@ -73,12 +73,9 @@ afterAll(async () => {
 });
 
 async function register(name: string) {
-  const a = agent();
-  const res = await a
-    .post('/api/auth/register')
-    .send({ email: `${name.toLowerCase().replace(/\W/g, '')}-${port}@example.test`, password: PASSWORD, displayName: name })
-    .expect(201);
-  return { agent: a, id: res.body.user.id as number };
+  const email = `${name.toLowerCase().replace(/\W/g, '')}-${port}@example.test`;
+  const id = await insertConfirmedAccount(db, { email, displayName: name });
+  return { agent: await signIn(agent(), email), id };
 }
 
 it('keeps every acknowledged measurement and photo across a SIGKILL, with nothing half-written', async () => {

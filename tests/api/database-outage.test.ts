@@ -16,7 +16,7 @@ import {
 import { freePort } from '../../scripts/lib/ports';
 import { startServer, type RunningServer } from '../../server/index';
 import { testConfig } from '../helpers/test-app';
-import { PASSWORD, uniqueEmail } from '../helpers/factories';
+import { insertConfirmedAccount, signIn, uniqueEmail } from '../helpers/factories';
 
 let pgBin: string;
 let cluster: ClusterOptions;
@@ -48,10 +48,9 @@ afterAll(async () => {
 
 it('answers 503 with a clear message while the database is down and recovers when it returns', async () => {
   const agent = supertest.agent(server.url).set('X-Requested-With', 'blockpost');
-  await agent
-    .post('/api/auth/register')
-    .send({ email: uniqueEmail('outage'), password: PASSWORD, displayName: 'Iris Vantongeren' })
-    .expect(201);
+  const email = uniqueEmail('outage');
+  await insertConfirmedAccount(server.deps.pool, { email, displayName: 'Iris Vantongeren' });
+  await signIn(agent, email);
   await agent.get('/api/me').expect(200);
 
   stopCluster(pgBin, cluster.dataDir);

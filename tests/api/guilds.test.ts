@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type supertest from 'supertest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
-import { guildWithRoles, signedInUser, uniqueEmail, PASSWORD } from '../helpers/factories';
+import { guildWithRoles, insertConfirmedAccount, signedInUser, signIn, uniqueEmail } from '../helpers/factories';
 import { linkIn, waitForMail } from '../helpers/maildev';
 
 let app: TestApp;
@@ -69,7 +69,8 @@ describe('invitations', () => {
 
     const newcomer = app.agent();
     await newcomer.post(`/api/invitations/${token}/accept`).expect(401);
-    await newcomer.post('/api/auth/register').send({ email, password: PASSWORD, displayName: 'Wren Adeyemi' }).expect(201);
+    await insertConfirmedAccount(app.deps.pool, { email, displayName: 'Wren Adeyemi' });
+    await signIn(newcomer, email);
     const accepted = await newcomer.post(`/api/invitations/${token}/accept`).expect(200);
     expect(accepted.body).toMatchObject({ guildId: g.guildId, role: 'coordinator' });
     const members = await newcomer.get(`/api/guilds/${g.guildId}/members`).expect(200);

@@ -40,6 +40,12 @@ const swapView = {
 };
 
 const fixtures: Record<Exclude<TemplateName, 'invitation' | 'password-reset'>, object> = {
+  'account-confirm': { url: 'http://127.0.0.1:3000/confirm-email?token=abc&next=%2Fguilds', validHours: 24 },
+  'account-exists': {
+    displayName: 'Nell',
+    signInUrl: 'http://127.0.0.1:3000/sign-in',
+    forgotUrl: 'http://127.0.0.1:3000/forgot-password',
+  },
   'payment-receipt': {
     name: 'Nell',
     guildName: 'Kestrel Hollow Quilters',

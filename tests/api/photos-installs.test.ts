@@ -14,7 +14,7 @@ import sharp from 'sharp';
 import supertest from 'supertest';
 import { afterAll, beforeAll, expect, inject, it } from 'vitest';
 import { createTestDatabase } from '../helpers/test-app';
-import { PASSWORD } from '../helpers/factories';
+import { insertConfirmedAccount, PASSWORD, signIn } from '../helpers/factories';
 import { clusterUrl, ensureDatabase } from '../../scripts/lib/postgres';
 import { createSequelize } from '../../server/db/sequelize';
 import { runPhotoSweeps } from '../../server/uploads/photo-ledger';
@@ -93,17 +93,15 @@ async function stop(install: Install) {
 async function makerWithBlock(install: Install) {
   const agent = supertest.agent(install.url).set('X-Requested-With', 'blockpost');
   const email = `maker-${randomBytes(4).toString('hex')}@example.test`;
-  const user = await agent
-    .post('/api/auth/register')
-    .send({ email, password: PASSWORD, displayName: `Maker of ${install.name}` })
-    .expect(201);
-  const guild = await agent
-    .post('/api/guilds')
-    .send({ name: `${install.name} Quilters` })
-    .expect(201);
   const db = new pg.Client({ connectionString: install.databaseUrl });
   await db.connect();
   try {
+    const userId = await insertConfirmedAccount(db, { email, displayName: `Maker of ${install.name}` });
+    await signIn(agent, email);
+    const guild = await agent
+      .post('/api/guilds')
+      .send({ name: `${install.name} Quilters` })
+      .expect(201);
     const swap = await db.query<{ id: number }>(
       `INSERT INTO swaps (guild_id, title, block_spec, seam, unfinished_width, unfinished_height, finished_width, finished_height,
          tolerance, squareness, quota_min, quota_max, signup_closes_at, due_at, state, created_at, updated_at)
@@ -113,7 +111,7 @@ async function makerWithBlock(install: Install) {
     );
     const block = await db.query<{ id: number }>(
       `INSERT INTO blocks (swap_id, maker_id, sequence, state, created_at, updated_at) VALUES ($1, $2, 1, 'pledged', now(), now()) RETURNING id`,
-      [swap.rows[0]!.id, user.body.user.id],
+      [swap.rows[0]!.id, userId],
     );
     return { agent, email, blockId: block.rows[0]!.id };
   } finally {

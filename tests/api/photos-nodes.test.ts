@@ -8,7 +8,7 @@ import { join } from 'node:path';
 import supertest from 'supertest';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import { createTestDatabase, testConfig, type TestApp } from '../helpers/test-app';
-import { PASSWORD, uniqueEmail } from '../helpers/factories';
+import { insertConfirmedAccount, PASSWORD, signIn, uniqueEmail } from '../helpers/factories';
 import { startServer, type RunningServer } from '../../server/index';
 import { picture } from '../fixtures/photos';
 import { filesUnder, swapWithBlock } from '../fixtures/photo-blocks';
@@ -38,12 +38,10 @@ it('serves a photo uploaded through one node from the other, and removing it on 
   const [first, second] = nodes as [RunningServer, RunningServer];
   const email = uniqueEmail('node');
   const onFirst = supertest.agent(first.url).set('X-Requested-With', 'blockpost');
-  const user = await onFirst
-    .post('/api/auth/register')
-    .send({ email, password: PASSWORD, displayName: 'Nell Nodes' })
-    .expect(201);
+  const userId = await insertConfirmedAccount(first.deps.pool, { email, displayName: 'Nell Nodes' });
+  await signIn(onFirst, email);
   const guild = await onFirst.post('/api/guilds').send({ name: 'Two Node Quilters' }).expect(201);
-  const { blockId } = await swapWithBlock({ deps: first.deps } as TestApp, guild.body.id, user.body.user.id);
+  const { blockId } = await swapWithBlock({ deps: first.deps } as TestApp, guild.body.id, userId);
 
   const sent = await picture('jpeg', 1600, 1200);
   const upload = await onFirst.post(`/api/blocks/${blockId}/photos`).attach('photos', sent, 'on-node-a.jpg').expect(201);

@@ -90,6 +90,12 @@ const cases: Record<string, Case> = {
     path: () => '/api/auth/register',
     body: () => ({ email: uniqueEmail('m'), password: PASSWORD, displayName: 'Matrix' }),
   },
+  'POST /api/auth/confirm-email': {
+    access: 'public',
+    fresh: 'anonymous',
+    path: () => '/api/auth/confirm-email',
+    body: () => ({ token: 'x'.repeat(43) }),
+  },
   'POST /api/auth/login': {
     access: 'public',
     fresh: 'anonymous',

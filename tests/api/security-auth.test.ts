@@ -1,35 +1,92 @@
 /**
  * Accounts under attack: the sign-in limits cannot be dodged with spaces or look-alike forms of an
  * address, one client cannot spray a password over many accounts or open accounts without end,
- * easily guessed passwords are refused everywhere a password is set, a reset request answers
- * before anything is looked up, and a password change signs out every other session.
+ * easily guessed passwords are refused everywhere a password is set, a sign-up and a reset request
+ * answer alike before anything is looked up (the mail job looks the address up), and a password
+ * change signs out every other session.
  */
 import { randomInt } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
-import { PASSWORD, uniqueEmail } from '../helpers/factories';
+import { insertConfirmedAccount, PASSWORD, uniqueEmail } from '../helpers/factories';
+import { waitForMail } from '../helpers/maildev';
+import { startMailJobs, type MailJobs } from '../../server/mail/mail-jobs';
+import { User } from '../../server/db/models';
 
 let app: TestApp;
+let jobs: MailJobs;
 beforeAll(async () => {
   // Behind a trusted proxy, so each test can be its own client (X-Forwarded-For) on one app.
-  app = await createTestApp({ TRUST_PROXY: 'true', LOGIN_RATE_LIMIT: '3', LOGIN_IP_RATE_LIMIT: '5', REGISTER_RATE_LIMIT: '3' });
+  app = await createTestApp({
+    TRUST_PROXY: 'true',
+    LOGIN_RATE_LIMIT: '3',
+    LOGIN_IP_RATE_LIMIT: '5',
+    REGISTER_RATE_LIMIT: '3',
+    JOBS_POLL_SECONDS: '0.5',
+  });
+  jobs = await startMailJobs(app.deps, { schedule: false });
 });
-afterAll(() => app.close());
+afterAll(async () => {
+  await jobs.close();
+  await app.close();
+});
 
 /** A browser on its own network address. */
 function client(ip = `10.${randomInt(256)}.${randomInt(256)}.${randomInt(1, 255)}`) {
   return app.agent().set('X-Forwarded-For', ip);
 }
 
-/** A new account, registered and signed in from a client of its own. */
+/** A confirmed account, signed in from a client of its own. */
 async function signedInUser(_app?: TestApp) {
   const agent = client();
   const email = uniqueEmail('sec');
-  const res = await agent
-    .post('/api/auth/register')
-    .send({ email, password: PASSWORD, displayName: `Maker ${email.slice(4, 12)}` })
-    .expect(201);
-  return { agent, email, id: res.body.user.id as number };
+  const id = await insertConfirmedAccount(app.deps.pool, { email, displayName: `Maker ${email.slice(4, 12)}` });
+  await agent.post('/api/auth/login').send({ email, password: PASSWORD }).expect(200);
+  return { agent, email, id };
+}
+
+/**
+ * A mail server slower than the requests' 3-second timeout: a request that waited for it would fail.
+ * Counts the messages tried, by recipient.
+ */
+function slowMailServer(delayMs = 3500) {
+  const mailer = app.deps.mailer;
+  const send = mailer.send;
+  const tried: string[] = [];
+  mailer.send = (mail) => {
+    tried.push(mail.to);
+    return new Promise((resolve) => setTimeout(() => resolve({ messageId: 'slow' }), delayMs));
+  };
+  return {
+    tried,
+    /** Waits until a message to each of `addresses` was tried (mail left over from other tests may come first). */
+    async until(addresses: string[]) {
+      for (let i = 0; i < 300 && !addresses.every((a) => tried.includes(a)); i += 1) await new Promise((r) => setTimeout(r, 50));
+    },
+    restore() {
+      mailer.send = send;
+    },
+  };
+}
+
+/** Calls of User's finders made from request code (server/auth), not from the mail job. */
+function userLookupsFromRequests() {
+  const finders = ['findOne', 'findAll', 'findByPk', 'count'] as const;
+  const saved = finders.map((name) => [name, User[name]] as const);
+  const seen: string[] = [];
+  for (const [name, original] of saved) {
+    (User as unknown as Record<string, unknown>)[name] = function (this: unknown, ...args: unknown[]) {
+      const stack = new Error().stack ?? '';
+      if (/server\/auth\//.test(stack)) seen.push(name);
+      return (original as (...a: unknown[]) => unknown).apply(this, args);
+    };
+  }
+  return {
+    seen,
+    restore: () => {
+      for (const [name, original] of saved) (User as unknown as Record<string, unknown>)[name] = original;
+    },
+  };
 }
 
 const weakPasswords = ['          ', 'aaaaaaaaaa', '1234567890', 'password12'];
@@ -96,7 +153,7 @@ describe('sign-in limits', () => {
       await client(cafe)
         .post('/api/auth/register')
         .send({ email: uniqueEmail(`cafe${i}`), password: PASSWORD, displayName: `Cafe Maker ${i}` })
-        .expect(201);
+        .expect(202);
     }
     const refused = await client(cafe)
       .post('/api/auth/register')
@@ -109,7 +166,7 @@ describe('sign-in limits', () => {
     await client()
       .post('/api/auth/register')
       .send({ email: uniqueEmail('elsewhere'), password: PASSWORD, displayName: 'Elsewhere' })
-      .expect(201);
+      .expect(202);
   });
 });
 
@@ -176,29 +233,73 @@ describe('password change', () => {
   });
 });
 
+describe('who has an account does not leak', () => {
+  it('answers a sign-up with a taken address exactly as a new one, before looking either up', async () => {
+    const { email } = await signedInUser();
+    const fresh = uniqueEmail('fresh');
+    const mailServer = slowMailServer();
+    const lookups = userLookupsFromRequests();
+    try {
+      const send = (address: string) =>
+        client()
+          .post('/api/auth/register')
+          .send({ email: address, password: 'thimble-orchard-lantern', displayName: 'Quinn Query' })
+          .timeout(3000);
+      const taken = await send(email);
+      const unused = await send(fresh);
+      expect(taken.status).toBe(202);
+      expect(unused.status).toBe(taken.status);
+      expect(unused.body).toEqual(taken.body);
+      expect(lookups.seen).toEqual([]); // the request never asks whether the address has an account
+      await mailServer.until([email, fresh]); // both mails are tried by the job, after the answers
+      expect(mailServer.tried).toEqual(expect.arrayContaining([email, fresh]));
+    } finally {
+      lookups.restore();
+      mailServer.restore();
+    }
+    expect(await User.count({ where: { email } })).toBe(1);
+    expect(await User.count({ where: { email: fresh } })).toBe(0); // not until the link is opened
+  });
+
+  it('tells the owner, and never makes a second account, however often the address is tried', async () => {
+    const { email } = await signedInUser();
+    for (const spelling of [email, email.toUpperCase(), ` ${email} `]) {
+      await client()
+        .post('/api/auth/register')
+        .send({ email: spelling, password: 'copper-lantern-meadow', displayName: 'Copy Cat' })
+        .expect(202);
+    }
+    await waitForMail(email, (m) => /Someone tried to sign up with your address/.test(m.subject));
+    expect(await User.count({ where: { email } })).toBe(1);
+    await client().post('/api/auth/login').send({ email, password: 'copper-lantern-meadow' }).expect(401);
+  });
+
+  it('refuses a confirmation link that is unknown with 400 and words to act on', async () => {
+    const res = await client()
+      .post('/api/auth/confirm-email')
+      .send({ token: 'A'.repeat(43) })
+      .expect(400);
+    expect(res.body.error.message).toMatch(/Sign in, or sign up again/);
+  });
+});
+
 describe('reset requests', () => {
   it('answers before looking the address up, so a slow mail server cannot tell accounts apart', async () => {
     const { email } = await signedInUser();
-    const mailer = app.deps.mailer as { send: (...args: unknown[]) => Promise<unknown> };
-    const send = mailer.send;
-    let attempted = 0;
-    // A mail server that never answers: the request must not wait for it.
-    mailer.send = () => {
-      attempted += 1;
-      return new Promise(() => undefined);
-    };
+    const mailServer = slowMailServer();
+    const lookups = userLookupsFromRequests();
     try {
       const known = await client().post('/api/auth/reset-request').send({ email }).timeout(3000).expect(202);
-      const unknown = await client()
-        .post('/api/auth/reset-request')
-        .send({ email: uniqueEmail('nobody') })
-        .timeout(3000)
-        .expect(202);
+      const nobody = uniqueEmail('nobody');
+      const unknown = await client().post('/api/auth/reset-request').send({ email: nobody }).timeout(3000).expect(202);
       expect(known.body).toEqual(unknown.body);
-      for (let i = 0; i < 50 && attempted === 0; i += 1) await new Promise((r) => setTimeout(r, 50));
-      expect(attempted).toBe(1); // the link still goes out to the real account, after the answer
+      expect(lookups.seen).toEqual([]);
+      await mailServer.until([email]); // the link still goes out to the real account, from the job
+      expect(mailServer.tried).toContain(email);
+      expect(mailServer.tried).not.toContain(nobody);
     } finally {
-      mailer.send = send;
+      lookups.restore();
+      mailServer.restore();
     }
   });
 });

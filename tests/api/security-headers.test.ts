@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
+import { insertConfirmedAccount, PASSWORD } from '../helpers/factories';
 
 let app: TestApp;
 beforeAll(async () => {
@@ -36,12 +37,13 @@ it('sends helmet’s headers and a strict Content-Security-Policy, and no X-Powe
 it('marks the session cookie Secure when the app is served over https', async () => {
   const secure = await createTestApp({ PUBLIC_URL: 'https://guild.example.test', TRUST_PROXY: 'true' });
   try {
+    await insertConfirmedAccount(secure.deps.pool, { email: 'secure-cookie@example.test', displayName: 'Sigrid Holm' });
     const res = await secure
       .agent()
       .set('X-Forwarded-Proto', 'https')
-      .post('/api/auth/register')
-      .send({ email: 'secure-cookie@example.test', password: 'correct-horse-staple', displayName: 'Sigrid Holm' })
-      .expect(201);
+      .post('/api/auth/login')
+      .send({ email: 'secure-cookie@example.test', password: PASSWORD })
+      .expect(200);
     const cookie = (res.headers['set-cookie'] as unknown as string[]).find((c) => c.startsWith('blockpost.sid='))!;
     expect(cookie).toMatch(/; Secure/i);
     expect(cookie).toMatch(/HttpOnly/i);

@@ -7,7 +7,7 @@ import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { BrowserContext } from 'playwright-core';
 import { launchBrowser } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
-import { PASSWORD, uniqueEmail } from '../helpers/factories';
+import { insertConfirmedAccount, PASSWORD, signIn as signInAgent, uniqueEmail } from '../helpers/factories';
 import { swapBody } from '../api/swaps-support';
 import type { RunningServer } from '../../server/index';
 
@@ -22,10 +22,8 @@ const email = uniqueEmail('inject');
 beforeAll(async () => {
   server = await startE2eServer();
   const agent = supertest.agent(server.url).set('X-Requested-With', 'blockpost');
-  await agent
-    .post('/api/auth/register')
-    .send({ email, password: PASSWORD, displayName: payload('name') })
-    .expect(201);
+  await insertConfirmedAccount(server.deps.pool, { email, displayName: payload('name') });
+  await signInAgent(agent, email);
   const guild = await agent
     .post('/api/guilds')
     .send({ name: payload('guild') })

@@ -13,7 +13,7 @@ import sharp from 'sharp';
 import { chromium, type BrowserContext } from 'playwright-core';
 import { CHROMIUM } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
-import { PASSWORD, uniqueEmail } from '../helpers/factories';
+import { insertConfirmedAccount, PASSWORD, signIn as signInAgent, uniqueEmail } from '../helpers/factories';
 import { swapBody } from '../api/swaps-support';
 import type { RunningServer } from '../../server/index';
 import type { LabelSheetDataDto } from '../../shared/schemas/intake';
@@ -55,7 +55,8 @@ beforeAll(async () => {
   server = await startE2eServer();
   agent = supertest.agent(server.url).set('X-Requested-With', 'blockpost');
   email = uniqueEmail('camera');
-  await agent.post('/api/auth/register').send({ email, password: PASSWORD, displayName: 'Perpetua Lindqvist' }).expect(201);
+  await insertConfirmedAccount(server.deps.pool, { email, displayName: 'Perpetua Lindqvist' });
+  await signInAgent(agent, email);
   guildId = (await agent.post('/api/guilds').send({ name: 'Hollow Oak Stitchers' }).expect(201)).body.id;
   swapId = (
     await agent

@@ -8,7 +8,7 @@ import type { BrowserContext, Page } from 'playwright-core';
 import { launchBrowser } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
 import { seriousViolations } from '../helpers/axe';
-import { PASSWORD, uniqueEmail } from '../helpers/factories';
+import { insertConfirmedAccount, PASSWORD, signIn as signInAgent, uniqueEmail } from '../helpers/factories';
 import { swapBody } from '../api/swaps-support';
 import type { RunningServer } from '../../server/index';
 import type { IntakePackDto } from '../../shared/schemas/intake';
@@ -22,8 +22,9 @@ let swapId: number;
 async function register(displayName: string) {
   const agent = supertest.agent(server.url).set('X-Requested-With', 'blockpost');
   const email = uniqueEmail('intake');
-  const res = await agent.post('/api/auth/register').send({ email, password: PASSWORD, displayName }).expect(201);
-  return { agent, email, id: res.body.user.id as number };
+  const id = await insertConfirmedAccount(server.deps.pool, { email, displayName });
+  await signInAgent(agent, email);
+  return { agent, email, id };
 }
 
 /** A guild whose swap is collecting 25 blocks: the coordinator's 5 and four members' 5 each. */

@@ -11,7 +11,7 @@ import Stripe from 'stripe';
 import type { BrowserContext, Page } from 'playwright-core';
 import { launchBrowser } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
-import { PASSWORD, uniqueEmail } from '../helpers/factories';
+import { insertConfirmedAccount, PASSWORD, signIn as signInAgent, uniqueEmail } from '../helpers/factories';
 import { paymentsOverrides } from '../helpers/payments';
 import { freePort } from '../../scripts/lib/ports';
 import type { RunningServer } from '../../server/index';
@@ -30,8 +30,9 @@ const shots = process.env.SCREENSHOT_DIR;
 async function register(displayName: string): Promise<Person> {
   const agent = supertest.agent(server.url).set('X-Requested-With', 'blockpost');
   const email = uniqueEmail('pay');
-  const res = await agent.post('/api/auth/register').send({ email, password: PASSWORD, displayName }).expect(201);
-  return { agent, email, id: res.body.user.id as number };
+  const id = await insertConfirmedAccount(server.deps.pool, { email, displayName });
+  await signInAgent(agent, email);
+  return { agent, email, id };
 }
 
 async function signIn(page: Page, email: string) {

@@ -9,7 +9,7 @@ import supertest from 'supertest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { launchBrowser } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
-import { PASSWORD, uniqueEmail } from '../helpers/factories';
+import { insertConfirmedAccount, PASSWORD, signIn as signInAgent, uniqueEmail } from '../helpers/factories';
 import { swapBody } from '../api/swaps-support';
 import type { IntakePackDto } from '../../shared/schemas/intake';
 import type { RunningServer } from '../../server/index';
@@ -131,7 +131,8 @@ describe('Intake on a phone', () => {
   beforeAll(async () => {
     agent = supertest.agent(server.url).set('X-Requested-With', 'blockpost');
     const email = uniqueEmail('phone-intake');
-    await agent.post('/api/auth/register').send({ email, password: PASSWORD, displayName: 'Ottoline Brackley' }).expect(201);
+    await insertConfirmedAccount(server.deps.pool, { email, displayName: 'Ottoline Brackley' });
+    await signInAgent(agent, email);
     const guildId = (await agent.post('/api/guilds').send({ name: 'Weir Lane Stitchers' }).expect(201)).body.id as number;
     const swapId = (
       await agent
@@ -205,7 +206,8 @@ describe('A guild that works in millimetres', () => {
   it('starts its members in millimetres until they choose a unit of their own, and lets its admin switch it', async () => {
     const agent = supertest.agent(server.url).set('X-Requested-With', 'blockpost');
     const email = uniqueEmail('mm-guild');
-    await agent.post('/api/auth/register').send({ email, password: PASSWORD, displayName: 'Henrietta Voss' }).expect(201);
+    await insertConfirmedAccount(server.deps.pool, { email, displayName: 'Henrietta Voss' });
+    await signInAgent(agent, email);
     const guildId = (await agent.post('/api/guilds').send({ name: 'Ashgrove Metric Quilters' }).expect(201)).body.id as number;
     const context = await launchBrowser({ viewport: { width: 360, height: 740 } });
     const page = await context.newPage();

@@ -10,7 +10,7 @@ import sharp from 'sharp';
 import type { BrowserContext, Page } from 'playwright-core';
 import { launchBrowser } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
-import { PASSWORD, uniqueEmail } from '../helpers/factories';
+import { insertConfirmedAccount, PASSWORD, signIn as signInAgent, uniqueEmail } from '../helpers/factories';
 import type { RunningServer } from '../../server/index';
 
 let server: RunningServer;
@@ -24,8 +24,9 @@ let guildId: number;
 async function register(displayName: string): Promise<Person> {
   const agent = supertest.agent(server.url).set('X-Requested-With', 'blockpost');
   const email = uniqueEmail('swap');
-  const res = await agent.post('/api/auth/register').send({ email, password: PASSWORD, displayName }).expect(201);
-  return { agent, email, id: res.body.user.id as number };
+  const id = await insertConfirmedAccount(server.deps.pool, { email, displayName });
+  await signInAgent(agent, email);
+  return { agent, email, id };
 }
 
 /** A big step asks first: press its button, then confirm it in the dialog that says what it will do. */

@@ -1,6 +1,9 @@
 import { randomBytes } from 'node:crypto';
+import type supertest from 'supertest';
 import type { TestApp } from './test-app';
 import type { Role } from '../../shared/schemas/guilds';
+import { normaliseEmail } from '../../shared/schemas/auth';
+import { hashPassword } from '../../server/auth/passwords';
 
 export const PASSWORD = 'correct-horse-staple';
 
@@ -8,15 +11,46 @@ export function uniqueEmail(prefix = 'quilter') {
   return `${prefix}-${randomBytes(4).toString('hex')}@example.test`;
 }
 
-/** Registers a new account and returns its signed-in agent. */
+/** A pg pool or client on the app's database. */
+export interface Queryable {
+  query<R extends object>(text: string, values?: unknown[]): Promise<{ rows: R[] }>;
+}
+
+let passwordHash: Promise<string> | null = null;
+/** A real argon2id hash of PASSWORD, made once per test file (every test account shares the password). */
+export function testPasswordHash() {
+  return (passwordHash ??= hashPassword(PASSWORD));
+}
+
+/**
+ * Writes an account as opening its confirmation link would, straight into the database: sign-up
+ * by mail takes a mail job and a mailbox, and has its own tests (tests/api/auth.test.ts walks it).
+ * Returns the new account's id.
+ */
+export async function insertConfirmedAccount(db: Queryable, opts: { email: string; displayName: string }) {
+  const { rows } = await db.query<{ id: number }>(
+    `INSERT INTO users (email, display_name, password_hash, created_at, updated_at) VALUES ($1, $2, $3, now(), now()) RETURNING id`,
+    [normaliseEmail(opts.email), opts.displayName, await testPasswordHash()],
+  );
+  return rows[0]!.id;
+}
+
+/** Signs in through the real sign-in route (the agent keeps the session cookie). */
+export async function signIn(agent: ReturnType<typeof supertest.agent>, email: string) {
+  await agent.post('/api/auth/login').send({ email, password: PASSWORD }).expect(200);
+  return agent;
+}
+
+/** A confirmed account, signed in through /api/auth/login; returns its signed-in agent. */
 export async function signedInUser(app: TestApp, opts: { email?: string; displayName?: string } = {}) {
   const agent = app.agent();
   const email = opts.email ?? uniqueEmail();
-  const res = await agent
-    .post('/api/auth/register')
-    .send({ email, password: PASSWORD, displayName: opts.displayName ?? `Maker ${email.slice(0, 12)}` })
-    .expect(201);
-  return { agent, email, id: res.body.user.id as number };
+  const id = await insertConfirmedAccount(app.deps.pool, {
+    email,
+    displayName: opts.displayName ?? `Maker ${email.slice(0, 12)}`,
+  });
+  await signIn(agent, email);
+  return { agent, email, id };
 }
 
 /** A guild with one account per role, plus a stranger who belongs to another guild. */

@@ -1,10 +1,11 @@
-/** Real servers and real socket.io clients for the live tests; people sign up over HTTP like a browser. */
+/** Real servers and real socket.io clients for the live tests; people sign in over HTTP like a browser. */
 import { randomBytes } from 'node:crypto';
 import { io as connectClient, type Socket } from 'socket.io-client';
 import type { Ack, ClientToServerEvents, ServerToClientEvents } from '../../shared/live-events';
 import type { Role } from '../../shared/schemas/guilds';
 import { startServer, type RunningServer } from '../../server/index';
 import { createTestDatabase, testConfig } from '../helpers/test-app';
+import { PASSWORD, testPasswordHash } from '../helpers/factories';
 
 export type ClientSocket = Socket<ServerToClientEvents, ClientToServerEvents>;
 
@@ -39,15 +40,20 @@ function caller(baseUrl: string, cookie: string) {
   };
 }
 
-/** Registers a new account on `baseUrl` and keeps its session cookie. */
+/**
+ * A new confirmed account (written as opening its confirmation link would; sign-up by mail has its
+ * own tests), signed in on `baseUrl` through the sign-in route, keeping its session cookie.
+ */
 export async function register(baseUrl: string, displayName = `Maker ${randomBytes(2).toString('hex')}`): Promise<Person> {
   const email = `live-${randomBytes(5).toString('hex')}@example.test`;
-  const res = await fetch(`${baseUrl}/api/auth/register`, {
+  const { User } = await import('../../server/db/models');
+  await User.create({ email, displayName, passwordHash: await testPasswordHash() });
+  const res = await fetch(`${baseUrl}/api/auth/login`, {
     method: 'POST',
     headers: { 'content-type': 'application/json', 'x-requested-with': 'blockpost' },
-    body: JSON.stringify({ email, password: 'correct-horse-staple', displayName }),
+    body: JSON.stringify({ email, password: PASSWORD }),
   });
-  if (res.status !== 201) throw new Error(`register answered ${res.status}: ${await res.text()}`);
+  if (res.status !== 200) throw new Error(`sign-in answered ${res.status}: ${await res.text()}`);
   const cookie = res.headers
     .getSetCookie()
     .map((c) => c.split(';')[0])

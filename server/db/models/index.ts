@@ -4,6 +4,7 @@ import { Guild } from './guild';
 import { Membership } from './membership';
 import { Invitation } from './invitation';
 import { PasswordReset } from './password-reset';
+import { PendingSignup } from './pending-signup';
 import { Photo } from './photo';
 import { Swap } from './swap';
 import { SwapTransition } from './swap-transition';
@@ -20,7 +21,7 @@ import { ChatMessage } from './chat-message';
 import { Activity } from './activity';
 import { PhotoEstimate } from './photo-estimate';
 
-export { User, Guild, Membership, Invitation, PasswordReset };
+export { User, Guild, Membership, Invitation, PasswordReset, PendingSignup };
 export { Photo };
 export { Swap, SwapTransition, Signup, Block, Measurement, BlockRequest };
 export { MailMessage, MailPreference };
@@ -36,7 +37,7 @@ let initialised: Sequelize | null = null;
 export function initModels(sequelize: Sequelize) {
   if (initialised === sequelize) return;
   initialised = sequelize;
-  for (const model of [User, Guild, Membership, Invitation, PasswordReset]) model.initModel(sequelize);
+  for (const model of [User, Guild, Membership, Invitation, PasswordReset, PendingSignup]) model.initModel(sequelize);
 
   User.hasMany(Membership, { foreignKey: 'userId', as: 'memberships' });
   Membership.belongsTo(User, { foreignKey: 'userId', as: 'user' });
