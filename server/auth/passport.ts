@@ -4,6 +4,8 @@ import { QueryTypes } from 'sequelize';
 import { normaliseEmail } from '@shared/schemas/auth';
 import { User } from '../db/models';
 import { decoyVerify, verifyPassword } from './passwords';
+import { preloadedUser } from './session';
+import type { Request } from 'express';
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
@@ -35,8 +37,10 @@ export function configurePassport() {
     }),
   );
   passport.serializeUser((user, done) => done(null, user.id));
-  // Runs on every signed-in request: a plain query, since a model instance would only be copied out.
-  passport.deserializeUser((id: number, done) => {
+  // Runs on every signed-in request; the session store has usually read the user with the session.
+  passport.deserializeUser((req: Request, id: number, done: (err: unknown, user?: Express.User | false) => void) => {
+    const known = preloadedUser(req, id);
+    if (known !== undefined) return done(null, known ?? false);
     User.sequelize!.query<Express.User>('SELECT id, email, display_name AS "displayName", units FROM users WHERE id = $id', {
       bind: { id },
       type: QueryTypes.SELECT,

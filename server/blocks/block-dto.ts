@@ -1,7 +1,7 @@
 /** Turns block and measurement rows into the API's answers, loading related rows in batches. */
-import { QueryTypes, type Transaction } from 'sequelize';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { BlockDto, MeasurementDto, PhotoRefDto } from '@shared/swap-types';
-import { Block, type Measurement, type Swap } from '../db/models';
+import type { Block, Measurement, Swap } from '../db/models';
 import { photoRef } from './photo-refs';
 import { LATEST_ESTIMATES, NEWEST_ESTIMATE_FIRST, latestEstimateDtos, type LatestEstimateRow } from './latest-estimate';
 import { blockWithoutVerdict, guildVerdictsVisibleTo, seesAllVerdicts } from './verdict-visibility';
@@ -89,13 +89,12 @@ function relatedSql() {
     (SELECT coalesce(json_agg(estimate), '[]') FROM (${LATEST_ESTIMATES} WHERE e.block_id = ANY($ids::int[]) ${NEWEST_ESTIMATE_FIRST}) estimate) AS estimates`;
 }
 
-async function relatedRows(blocks: Block[], transaction?: Transaction): Promise<RelatedJson> {
-  const sequelize = Block.sequelize!;
+async function relatedRows(db: Sequelize, blocks: Block[], transaction?: Transaction): Promise<RelatedJson> {
   const ids = blocks.map((b) => b.id);
   const userIds = [
     ...new Set(blocks.flatMap((b) => [b.makerId, b.recipientId, b.acceptedById].filter((x): x is number => x != null))),
   ];
-  const [row] = await sequelize.query<RelatedJson>(relatedSql(), {
+  const [row] = await db.query<RelatedJson>(relatedSql(), {
     bind: { ids, userIds },
     type: QueryTypes.SELECT,
     transaction,
@@ -119,13 +118,13 @@ export interface BlockViewer {
  * `viewer`, another maker's hand-in note (tracking numbers, addresses) is left out unless they manage the swap.
  */
 export async function blockDtos(
+  db: Sequelize,
   blocks: Block[],
   swap: Swap,
-  transaction?: Transaction,
-  viewer?: BlockViewer,
+  { transaction, viewer }: { transaction?: Transaction; viewer?: BlockViewer } = {},
 ): Promise<BlockDto[]> {
   if (blocks.length === 0) return [];
-  const related = await relatedRows(blocks, transaction);
+  const related = await relatedRows(db, blocks, transaction);
   const names = new Map(related.users.map((u) => [u.id, u.displayName]));
   const measurements = new Map<number, MeasurementDto[]>();
   for (const { measuredById, measuredByName, createdAt, ...m } of related.measurements) {
@@ -188,7 +187,12 @@ export async function blockDtos(
   return othersHidden ? dtos.map((d, i) => (blocks[i]!.makerId === viewer!.userId ? d : blockWithoutVerdict(d))) : dtos;
 }
 
-export async function blockDto(block: Block, swap: Swap, transaction?: Transaction, viewer?: BlockViewer): Promise<BlockDto> {
-  const [dto] = await blockDtos([block], swap, transaction, viewer);
+export async function blockDto(
+  db: Sequelize,
+  block: Block,
+  swap: Swap,
+  options: { transaction?: Transaction; viewer?: BlockViewer } = {},
+): Promise<BlockDto> {
+  const [dto] = await blockDtos(db, [block], swap, options);
   return dto!;
 }

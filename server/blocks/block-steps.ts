@@ -10,8 +10,10 @@ import { Measurement, type Swap } from '../db/models';
 import { ConflictError, ForbiddenError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { blockDto, isAccepted } from './block-dto';
-import { assertSwapIn, lockedBlock } from './blocks.service';
-import { recordStep, snapshotOf, type Snapshot, type StepAction } from './step-log';
+import { assertSwapIn, blockChanged, type LockedBlock } from './blocks.service';
+import { LAST_STEP } from './blocks.queries';
+import { applyStep, type Snapshot, type StepAction } from './step-log';
+import type { Reply } from '../http/route';
 
 type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
 
@@ -57,76 +59,62 @@ function assertChangeable(swap: Swap, doing: string) {
  */
 export async function undoLastStep(
   deps: Deps,
-  blockId: number,
+  locked: LockedBlock,
   actor: { userId: number; canManage: boolean },
-): Promise<BlockDto & { undone: string }> {
-  const { dto, after, undone } = await deps.sequelize.transaction(async (transaction) => {
-    const { block, swap } = await lockedBlock(blockId, transaction);
-    assertChangeable(swap, 'changed');
-    const [step] = await deps.sequelize.query<StepRow>(
-      `SELECT id, action, by_id, before, measurement_id FROM block_steps WHERE block_id = $blockId AND undone_at IS NULL ORDER BY id DESC LIMIT 1`,
-      { bind: { blockId }, type: QueryTypes.SELECT, transaction },
-    );
-    if (!step) throw new ConflictError('There is no step on this block left to undo.', 'nothing_to_undo');
-    if (step.by_id !== actor.userId && !actor.canManage) {
-      throw new ForbiddenError('Someone else took the last step on this block; only they or a coordinator can undo it.');
-    }
-    const from = block.state;
-    await block.update(restored(step.before), { transaction });
-    if (step.measurement_id !== null) {
-      await Measurement.update(
-        { withdrawnAt: new Date(), withdrawnById: actor.userId },
-        { where: { id: step.measurement_id }, transaction },
-      );
-    }
-    await deps.sequelize.query(`UPDATE block_steps SET undone_at = now(), undone_by_id = $userId WHERE id = $id`, {
-      bind: { id: step.id, userId: actor.userId },
-      type: QueryTypes.UPDATE,
-      transaction,
-    });
-    const emit = () =>
-      deps.events.emit('block.changed', {
-        swapId: swap.id,
-        guildId: swap.guildId,
-        actorId: actor.userId,
-        blockId,
-        makerId: block.makerId,
-        from,
-        to: block.state,
-      });
-    return { dto: await blockDto(block, swap, transaction), after: emit, undone: undoWords[step.action] };
+): Promise<Reply<BlockDto & { undone: string }>> {
+  const { block, swap, transaction } = locked;
+  assertChangeable(swap, 'changed');
+  const [step] = await deps.sequelize.query<StepRow>(LAST_STEP, {
+    bind: { blockId: block.id },
+    type: QueryTypes.SELECT,
+    transaction,
   });
-  after();
-  return { ...dto, undone };
+  if (!step) throw new ConflictError('There is no step on this block left to undo.', 'nothing_to_undo');
+  if (step.by_id !== actor.userId && !actor.canManage) {
+    throw new ForbiddenError('Someone else took the last step on this block; only they or a coordinator can undo it.');
+  }
+  const from = block.state;
+  await block.update(restored(step.before), { transaction });
+  if (step.measurement_id !== null) {
+    await Measurement.update(
+      { withdrawnAt: new Date(), withdrawnById: actor.userId },
+      { where: { id: step.measurement_id }, transaction },
+    );
+  }
+  await deps.sequelize.query(`UPDATE block_steps SET undone_at = now(), undone_by_id = $userId WHERE id = $id`, {
+    bind: { id: step.id, userId: actor.userId },
+    type: QueryTypes.UPDATE,
+    transaction,
+  });
+  const dto = await blockDto(deps.sequelize, block, swap, { transaction });
+  return { body: { ...dto, undone: undoWords[step.action] }, after: blockChanged(deps, locked, actor.userId, from) };
 }
 
 /**
  * An officer accepts a measured block that is off size or out of square, with a reason; it then
  * takes part in the return like an accepted block. Undo takes the decision back.
  */
-export async function acceptByDecision(deps: Deps, blockId: number, actorId: number, input: AcceptBlockInput): Promise<BlockDto> {
-  const { dto, after } = await deps.sequelize.transaction(async (transaction) => {
-    const { block, swap } = await lockedBlock(blockId, transaction);
-    assertSwapIn(swap, ['collecting', 'sorting'], 'accepted');
-    assertChangeable(swap, 'accepted');
-    if (block.state !== 'measured') throw new ConflictError('Measure the block before deciding to accept it.', 'not_measured');
-    if (isAccepted(block))
-      throw new ConflictError('This block is accepted already; there is nothing to decide.', 'already_accepted');
-    const before = snapshotOf(block);
-    await block.update({ acceptedAt: new Date(), acceptedById: actorId, acceptedReason: input.reason }, { transaction });
-    await recordStep(transaction, { blockId, action: 'accepted', byId: actorId, before });
-    const emit = () =>
-      deps.events.emit('block.changed', {
-        swapId: swap.id,
-        guildId: swap.guildId,
-        actorId,
-        blockId,
-        makerId: block.makerId,
-        from: 'measured',
-        to: 'measured',
-      });
-    return { dto: await blockDto(block, swap, transaction), after: emit };
-  });
-  after();
-  return dto;
+export async function acceptByDecision(
+  deps: Deps,
+  locked: LockedBlock,
+  actorId: number,
+  input: AcceptBlockInput,
+): Promise<Reply<BlockDto>> {
+  const { block, swap, transaction } = locked;
+  assertSwapIn(swap, ['collecting', 'sorting'], 'accepted');
+  assertChangeable(swap, 'accepted');
+  if (block.state !== 'measured') throw new ConflictError('Measure the block before deciding to accept it.', 'not_measured');
+  if (isAccepted(block))
+    throw new ConflictError('This block is accepted already; there is nothing to decide.', 'already_accepted');
+  await applyStep(
+    deps.sequelize,
+    transaction,
+    block,
+    { acceptedAt: new Date(), acceptedById: actorId, acceptedReason: input.reason },
+    { action: 'accepted', byId: actorId },
+  );
+  return {
+    body: await blockDto(deps.sequelize, block, swap, { transaction }),
+    after: blockChanged(deps, locked, actorId, 'measured'),
+  };
 }

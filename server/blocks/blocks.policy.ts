@@ -3,6 +3,7 @@
  * sewn, hands it in and measures it; coordinators and admins of the guild take it in, measure it
  * with the ruler and trim it; both may read it.
  */
+import type { Sequelize, Transaction } from 'sequelize';
 import type { Role } from '@shared/schemas/guilds';
 import type { Block, Swap } from '../db/models';
 import { assertGuildRole } from '../guilds/guilds.policy';
@@ -16,32 +17,47 @@ export interface BlockAccess extends SwapAccess {
   isMaker: boolean;
 }
 
+/**
+ * Where a policy reads the block: with a transaction, the block is locked there for the change the
+ * request is about to make, and the service works on the instance read here.
+ */
+export interface BlockRead {
+  db: Sequelize;
+  transaction?: Transaction;
+}
+
 /** The block with its swap and the caller's role in the swap's guild, in one query. */
-async function loadBlock(userId: number, blockId: number): Promise<{ block: Block; swap: Swap; role: Role | null }> {
-  const found = await findBlockWithSwap(blockId, {
+async function loadBlock(
+  { db, transaction }: BlockRead,
+  userId: number,
+  blockId: number,
+): Promise<{ block: Block; swap: Swap; role: Role | null }> {
+  const found = await findBlockWithSwap(db, blockId, {
     extraSwapColumns: `${viewerRole('s')} AS "swap.viewerRole"`,
     bind: { viewerId: userId },
+    transaction,
+    lockForChange: !!transaction,
   });
   if (!found) throw new NotFoundError('That block does not exist.');
   return { ...found, role: takeViewerRole(found.swap) };
 }
 
 /** The block's maker or an officer of its guild may read it. */
-export async function canReadBlock(userId: number, blockId: number): Promise<BlockAccess> {
-  const { block, swap, role } = await loadBlock(userId, blockId);
+export async function canReadBlock(read: BlockRead, userId: number, blockId: number): Promise<BlockAccess> {
+  const { block, swap, role } = await loadBlock(read, userId, blockId);
   return { ...readAccess(swap, role, 'That block does not exist.'), block, isMaker: block.makerId === userId };
 }
 
 /** Sewn, handed in and the maker's own measurement: only the maker. */
-export async function canActAsMaker(userId: number, blockId: number): Promise<BlockAccess> {
-  const access = await canReadBlock(userId, blockId);
+export async function canActAsMaker(read: BlockRead, userId: number, blockId: number): Promise<BlockAccess> {
+  const access = await canReadBlock(read, userId, blockId);
   if (!access.isMaker) throw new ForbiddenError('This block belongs to another maker; only they can change it.');
   return access;
 }
 
 /** Received, ruler measurements and trimming: coordinators and admins. */
-export async function canManageBlock(userId: number, blockId: number): Promise<BlockAccess> {
-  const { block, swap, role } = await loadBlock(userId, blockId);
+export async function canManageBlock(read: BlockRead, userId: number, blockId: number): Promise<BlockAccess> {
+  const { block, swap, role } = await loadBlock(read, userId, blockId);
   return {
     swap,
     role: assertGuildRole(role, 'swaps:manage', 'That block does not exist.'),

@@ -1,5 +1,7 @@
 /** Block routes: a swap's block list, the maker's steps, the coordinator's intake and measuring. */
-import { Router, type Request, type Response } from 'express';
+import { Router, type Request } from 'express';
+import type { Transaction } from 'sequelize';
+import type { ZodType } from 'zod';
 import {
   acceptBlockSchema,
   blockParamsSchema,
@@ -9,29 +11,36 @@ import {
   receiveSchema,
 } from '@shared/schemas/blocks';
 import { blocksQuerySchema, swapParamsSchema } from '@shared/schemas/swaps';
-import { route } from '../http/route';
+import { route, transactionRoute } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { canReadSwap } from '../swaps/swaps.policy';
-import { canActAsMaker, canManageBlock, canReadBlock, measuringAs } from './blocks.policy';
+import { canActAsMaker, canManageBlock, canReadBlock, measuringAs, type BlockAccess } from './blocks.policy';
 import type { AppDeps } from '../deps';
 import * as blocks from './blocks.service';
 import { listMeasurements, recordMeasurement } from './measurements.service';
-import type { Answer } from './idempotency';
+import { answerAsBefore } from './idempotency';
 import { acceptByDecision, undoLastStep } from './block-steps';
 import { handInMany } from './hand-in-many';
 
-type BlockInput = { params: { blockId: number } };
-const readBlock = (req: Request, { params }: BlockInput) => canReadBlock(currentUser(req).id, params.blockId);
-const maker = (req: Request, { params }: BlockInput) => canActAsMaker(currentUser(req).id, params.blockId);
-const officer = (req: Request, { params }: BlockInput) => canManageBlock(currentUser(req).id, params.blockId);
-
-function reply<T>(res: Response, answer: Answer<T>) {
-  if (answer.replayed) res.set('Idempotent-Replay', 'true');
-  res.status(answer.status).json(answer.body);
-}
+type BlockInput = { params: { blockId: number }; transaction?: Transaction };
+type BlockPolicy = typeof canReadBlock;
 
 export function blocksRouter(deps: AppDeps) {
   const router = Router();
+  const db = deps.sequelize;
+  // With the route's transaction the policy locks the block it reads; the service changes that instance.
+  const as =
+    (policy: BlockPolicy) =>
+    (req: Request, { params, transaction }: BlockInput) =>
+      policy({ db, transaction }, currentUser(req).id, params.blockId);
+  const locked = (access: BlockAccess, transaction: Transaction) => ({ block: access.block, swap: access.swap, transaction });
+  /** A change to one block: the policy's read is the locked read, and the answer is sent after commit. */
+  const change = <B extends ZodType | undefined>(body: B, policy: BlockPolicy) => ({
+    params: blockParamsSchema,
+    body,
+    authorize: as(policy),
+    recover: answerAsBefore,
+  });
 
   router.get(
     '/swaps/:swapId/blocks',
@@ -43,7 +52,7 @@ export function blocksRouter(deps: AppDeps) {
         authorize: (req, { params }) => canReadSwap(currentUser(req).id, params.swapId),
       },
       async ({ query, access: { swap, canManage } }, req, res) => {
-        res.json(await blocks.listBlocks(swap, { userId: currentUser(req).id, canManage }, query));
+        res.json(await blocks.listBlocks(deps, swap, { userId: currentUser(req).id, canManage }, query));
       },
     ),
   );
@@ -51,15 +60,15 @@ export function blocksRouter(deps: AppDeps) {
   router.get(
     '/blocks/:blockId',
     requireUser,
-    route({ params: blockParamsSchema, authorize: readBlock }, async ({ access: { block, canManage } }, req, res) => {
-      res.json(await blocks.getBlock(block, { userId: currentUser(req).id, canManage }));
+    route({ params: blockParamsSchema, authorize: as(canReadBlock) }, async ({ access }, req, res) => {
+      res.json(await blocks.getBlock(deps, access, { userId: currentUser(req).id, canManage: access.canManage }));
     }),
   );
 
   router.get(
     '/blocks/:blockId/measurements',
     requireUser,
-    route({ params: blockParamsSchema, authorize: readBlock }, async ({ access: { block } }, _req, res) => {
+    route({ params: blockParamsSchema, authorize: as(canReadBlock) }, async ({ access: { block } }, _req, res) => {
       res.json(await listMeasurements(block));
     }),
   );
@@ -67,48 +76,43 @@ export function blocksRouter(deps: AppDeps) {
   router.post(
     '/blocks/:blockId/sewn',
     requireUser,
-    route({ params: blockParamsSchema, authorize: maker }, async ({ params }, req, res) => {
-      res.json(await blocks.markSewn(deps, params.blockId, currentUser(req).id));
-    }),
+    transactionRoute(db, change(undefined, canActAsMaker), ({ access, transaction }, req) =>
+      blocks.markSewn(deps, locked(access, transaction), currentUser(req).id),
+    ),
   );
 
   router.post(
     '/blocks/:blockId/handed-in',
     requireUser,
-    route({ params: blockParamsSchema, body: handInSchema, authorize: maker }, async ({ params, body }, req, res) => {
-      res.json(await blocks.handIn(deps, params.blockId, currentUser(req).id, body));
-    }),
+    transactionRoute(db, change(handInSchema, canActAsMaker), ({ access, transaction, body }, req) =>
+      blocks.handIn(deps, locked(access, transaction), currentUser(req).id, body),
+    ),
   );
 
   router.post(
     '/blocks/:blockId/received',
     requireUser,
-    route({ params: blockParamsSchema, body: receiveSchema, authorize: officer }, async ({ params, body }, req, res) => {
-      reply(res, await blocks.receive(deps, params.blockId, currentUser(req).id, body.clientId));
-    }),
+    transactionRoute(db, change(receiveSchema, canManageBlock), ({ access, transaction, body }, req) =>
+      blocks.receive(deps, locked(access, transaction), currentUser(req).id, body.clientId),
+    ),
   );
 
   router.post(
     '/blocks/:blockId/trimmed',
     requireUser,
-    route({ params: blockParamsSchema, authorize: officer }, async ({ params }, req, res) => {
-      res.json(await blocks.markTrimmed(deps, params.blockId, currentUser(req).id));
-    }),
+    transactionRoute(db, change(undefined, canManageBlock), ({ access, transaction }, req) =>
+      blocks.markTrimmed(deps, locked(access, transaction), currentUser(req).id),
+    ),
   );
 
   router.post(
     '/blocks/:blockId/measurements',
     requireUser,
-    route(
-      { params: blockParamsSchema, body: measurementBodySchema, authorize: readBlock },
-      async ({ params, body, access }, req, res) => {
-        const { id: userId, displayName } = currentUser(req);
-        reply(
-          res,
-          await recordMeasurement(deps, params.blockId, { userId, displayName, source: measuringAs(access, body.source) }, body),
-        );
-      },
-    ),
+    transactionRoute(db, change(measurementBodySchema, canReadBlock), ({ access, transaction, body }, req) => {
+      const { id: userId, displayName } = currentUser(req);
+      const actor = { userId, displayName, source: measuringAs(access, body.source) };
+      return recordMeasurement(deps, locked(access, transaction), actor, body);
+    }),
   );
 
   router.post(
@@ -129,17 +133,17 @@ export function blocksRouter(deps: AppDeps) {
   router.post(
     '/blocks/:blockId/undo',
     requireUser,
-    route({ params: blockParamsSchema, authorize: readBlock }, async ({ params, access }, req, res) => {
-      res.json(await undoLastStep(deps, params.blockId, { userId: currentUser(req).id, canManage: access.canManage }));
-    }),
+    transactionRoute(db, change(undefined, canReadBlock), ({ access, transaction }, req) =>
+      undoLastStep(deps, locked(access, transaction), { userId: currentUser(req).id, canManage: access.canManage }),
+    ),
   );
 
   router.post(
     '/blocks/:blockId/accept',
     requireUser,
-    route({ params: blockParamsSchema, body: acceptBlockSchema, authorize: officer }, async ({ params, body }, req, res) => {
-      res.json(await acceptByDecision(deps, params.blockId, currentUser(req).id, body));
-    }),
+    transactionRoute(db, change(acceptBlockSchema, canManageBlock), ({ access, transaction, body }, req) =>
+      acceptByDecision(deps, locked(access, transaction), currentUser(req).id, body),
+    ),
   );
 
   return router;

@@ -1,30 +1,39 @@
 /** A block's life between pledge and return: sewn, handed in, received, trimmed. */
 import type { Transaction } from 'sequelize';
 import type { HandInInput } from '@shared/schemas/blocks';
-import type { BlockState, BlocksQuery, SwapState } from '@shared/schemas/swaps';
+import type { BlocksQuery, BlockState, SwapState } from '@shared/schemas/swaps';
 import type { BlockDto } from '@shared/swap-types';
-import { Block, Swap } from '../db/models';
+import { isBlockStateBefore } from '@shared/vocabulary';
+import { Block, type Swap } from '../db/models';
 import { ConflictError, ForbiddenError, NotFoundError } from '../http/errors';
+import type { Reply } from '../http/route';
 import type { AppDeps } from '../deps';
 import { blockDto, blockDtos, type BlockViewer } from './block-dto';
-import { idempotent, type Answer } from './idempotency';
+import { idempotent } from './idempotency';
 import { findBlockWithSwap } from './blocks.queries';
-import { recordStep, snapshotOf } from './step-log';
+import { applyStep } from './step-log';
 
 type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
 
-const ORDER: readonly BlockState[] = ['pledged', 'sewn', 'handed_in', 'received', 'measured', 'returned'];
-const before = (a: BlockState, b: BlockState) => ORDER.indexOf(a) < ORDER.indexOf(b);
-
 /**
- * The block, locked for a change of its state, and its swap, in one query. NO KEY UPDATE, the lock an UPDATE takes
- * anyway, still serialises changes to the block but lets rows that merely reference it (a measurement,
- * an activity line, a photo) be inserted meanwhile.
+ * A block to change, as the route's policy read and locked it, with the transaction it is locked
+ * in: the service works on this instance and never reads the block again.
  */
-export async function lockedBlock(blockId: number, transaction: Transaction): Promise<{ block: Block; swap: Swap }> {
-  const found = await findBlockWithSwap(blockId, { transaction, lockForChange: true });
+export interface LockedBlock {
+  block: Block;
+  swap: Swap;
+  transaction: Transaction;
+}
+
+/** The block, locked for a change of its state, and its swap, in one query (for changes outside a block route). */
+export async function lockedBlock(
+  deps: Pick<AppDeps, 'sequelize'>,
+  blockId: number,
+  transaction: Transaction,
+): Promise<LockedBlock> {
+  const found = await findBlockWithSwap(deps.sequelize, blockId, { transaction, lockForChange: true });
   if (!found) throw new NotFoundError('That block does not exist.');
-  return found;
+  return { ...found, transaction };
 }
 
 export function assertSwapIn(swap: Swap, states: readonly SwapState[], doing: string) {
@@ -35,7 +44,13 @@ export function assertSwapIn(swap: Swap, states: readonly SwapState[], doing: st
   );
 }
 
-function changed(deps: Deps, swap: Swap, block: Block, actorId: number, from: BlockState) {
+/** The domain event for a block that moved from `from`, to emit after commit. */
+export function blockChanged(
+  deps: Pick<AppDeps, 'events'>,
+  { block, swap }: Pick<LockedBlock, 'block' | 'swap'>,
+  actorId: number,
+  from: BlockState,
+) {
   return () =>
     deps.events.emit('block.changed', {
       swapId: swap.id,
@@ -48,114 +63,107 @@ function changed(deps: Deps, swap: Swap, block: Block, actorId: number, from: Bl
     });
 }
 
-/**
- * Marks a pledged block sewn (the maker says so, or a photo of it was posted). Already sewn or
- * further along: nothing changes. Exported for the photo upload, which calls it inside its own
- * transaction and emits the returned event after commit.
- */
-export async function markBlockSewn(
-  deps: Deps,
-  blockId: number,
-  actorId: number,
-  transaction: Transaction,
-): Promise<{ block: Block; swap: Swap; after?: () => void }> {
-  const { block, swap } = await lockedBlock(blockId, transaction);
-  assertSwapIn(swap, ['signup', 'sewing', 'collecting'], 'marked sewn');
-  if (block.state !== 'pledged') return { block, swap };
-  const was = snapshotOf(block);
-  await block.update({ state: 'sewn', sewnAt: new Date() }, { transaction });
-  await recordStep(transaction, { blockId, action: 'sewn', byId: actorId, before: was });
-  return { block, swap, after: changed(deps, swap, block, actorId, 'pledged') };
+/** The block's answer as it is after the change, read in the change's transaction. */
+async function answer(deps: Deps, { block, swap, transaction }: LockedBlock, after?: () => void, status = 200) {
+  return { status, body: await blockDto(deps.sequelize, block, swap, { transaction }), after };
 }
 
-export async function markSewn(deps: Deps, blockId: number, actorId: number): Promise<BlockDto> {
-  const { dto, after } = await deps.sequelize.transaction(async (transaction) => {
-    const { block, swap, after: emit } = await markBlockSewn(deps, blockId, actorId, transaction);
-    return { dto: await blockDto(block, swap, transaction), after: emit };
-  });
-  after?.();
-  return dto;
+/**
+ * Marks a pledged block sewn (the maker says so, or a photo of it was posted). Already sewn or
+ * further along: nothing changes. The photo upload calls it inside its own transaction and emits
+ * the returned event after commit.
+ */
+export async function markBlockSewn(deps: Deps, locked: LockedBlock, actorId: number): Promise<(() => void) | undefined> {
+  const { block, swap, transaction } = locked;
+  assertSwapIn(swap, ['signup', 'sewing', 'collecting'], 'marked sewn');
+  if (block.state !== 'pledged') return undefined;
+  await applyStep(deps.sequelize, transaction, block, { state: 'sewn', sewnAt: new Date() }, { action: 'sewn', byId: actorId });
+  return blockChanged(deps, locked, actorId, 'pledged');
+}
+
+export async function markSewn(deps: Deps, locked: LockedBlock, actorId: number): Promise<Reply<BlockDto>> {
+  return answer(deps, locked, await markBlockSewn(deps, locked, actorId));
 }
 
 /** The maker hands a block in, at a meeting or by post (with an optional tracking note). */
-export async function handIn(deps: Deps, blockId: number, actorId: number, input: HandInInput): Promise<BlockDto> {
-  const { dto, after } = await deps.sequelize.transaction(async (transaction) => {
-    const { block, swap } = await lockedBlock(blockId, transaction);
-    assertSwapIn(swap, ['signup', 'sewing', 'collecting'], 'handed in');
-    if (!before(block.state, 'received')) {
-      throw new ConflictError(
-        'The coordinator has already received this block, so its hand-in cannot change.',
-        'already_received',
-      );
-    }
-    const from = block.state;
-    const now = new Date();
-    const was = snapshotOf(block);
-    await block.update(
-      {
-        state: 'handed_in',
-        handInHow: input.how,
-        handInNote: input.note || null,
-        handedInAt: block.handedInAt ?? now,
-        sewnAt: block.sewnAt ?? now,
-      },
-      { transaction },
-    );
-    await recordStep(transaction, { blockId, action: 'handed_in', byId: actorId, before: was });
-    return {
-      dto: await blockDto(block, swap, transaction),
-      after: from !== 'handed_in' ? changed(deps, swap, block, actorId, from) : undefined,
-    };
-  });
-  after?.();
-  return dto;
+export async function handIn(deps: Deps, locked: LockedBlock, actorId: number, input: HandInInput): Promise<Reply<BlockDto>> {
+  const { block, swap, transaction } = locked;
+  assertSwapIn(swap, ['signup', 'sewing', 'collecting'], 'handed in');
+  if (!isBlockStateBefore(block.state, 'received')) {
+    throw new ConflictError('The coordinator has already received this block, so its hand-in cannot change.', 'already_received');
+  }
+  const from = block.state;
+  const now = new Date();
+  await applyStep(
+    deps.sequelize,
+    transaction,
+    block,
+    {
+      state: 'handed_in',
+      handInHow: input.how,
+      handInNote: input.note || null,
+      handedInAt: block.handedInAt ?? now,
+      sewnAt: block.sewnAt ?? now,
+    },
+    { action: 'handed_in', byId: actorId },
+  );
+  return answer(deps, locked, from !== 'handed_in' ? blockChanged(deps, locked, actorId, from) : undefined);
 }
 
 /** A coordinator takes a block in. Repeating it changes nothing; a measured block cannot be received again. */
-export function receive(deps: Deps, blockId: number, actorId: number, clientId?: string): Promise<Answer<BlockDto>> {
-  return idempotent(deps, { clientId, userId: actorId, blockId, action: 'received' }, async (transaction) => {
-    const { block, swap } = await lockedBlock(blockId, transaction);
-    assertSwapIn(swap, ['sewing', 'collecting'], 'received');
-    if (block.state === 'received') return { status: 200, body: await blockDto(block, swap, transaction) };
-    if (!before(block.state, 'received')) {
-      throw new ConflictError(`This block is already ${block.state}; there is nothing to receive.`, 'already_received');
-    }
-    const from = block.state;
-    const now = new Date();
-    const was = snapshotOf(block);
-    await block.update(
-      { state: 'received', receivedAt: now, receivedById: actorId, sewnAt: block.sewnAt ?? now },
-      { transaction },
-    );
-    await recordStep(transaction, { blockId, action: 'received', byId: actorId, before: was });
-    return { status: 200, body: await blockDto(block, swap, transaction), after: changed(deps, swap, block, actorId, from) };
-  });
+export function receive(deps: Deps, locked: LockedBlock, actorId: number, clientId?: string): Promise<Reply<BlockDto>> {
+  const { block, swap, transaction } = locked;
+  return idempotent(
+    deps.sequelize,
+    transaction,
+    { clientId, userId: actorId, blockId: block.id, action: 'received' },
+    async () => {
+      assertSwapIn(swap, ['sewing', 'collecting'], 'received');
+      if (block.state === 'received') return answer(deps, locked);
+      if (!isBlockStateBefore(block.state, 'received')) {
+        throw new ConflictError(`This block is already ${block.state}; there is nothing to receive.`, 'already_received');
+      }
+      const from = block.state;
+      const now = new Date();
+      await applyStep(
+        deps.sequelize,
+        transaction,
+        block,
+        { state: 'received', receivedAt: now, receivedById: actorId, sewnAt: block.sewnAt ?? now },
+        { action: 'received', byId: actorId },
+      );
+      return answer(deps, locked, blockChanged(deps, locked, actorId, from));
+    },
+  );
 }
 
 /** A coordinator records that a `trim` block was cut down to size; it then counts as accepted. */
-export async function markTrimmed(deps: Deps, blockId: number, actorId: number): Promise<BlockDto> {
-  const { dto, after } = await deps.sequelize.transaction(async (transaction) => {
-    const { block, swap } = await lockedBlock(blockId, transaction);
-    assertSwapIn(swap, ['collecting', 'sorting'], 'marked trimmed');
-    if (swap.distributionConfirmedAt)
-      throw new ConflictError('The return of blocks is already confirmed.', 'distribution_confirmed');
-    if (block.state !== 'measured' || block.verdict !== 'trim') {
-      throw new ConflictError('Only a measured block with the verdict “Trim to size” can be marked trimmed.', 'not_trim');
-    }
-    if (block.trimmed) return { dto: await blockDto(block, swap, transaction), after: undefined };
-    const was = snapshotOf(block);
-    await block.update({ trimmed: true, trimmedAt: new Date() }, { transaction });
-    await recordStep(transaction, { blockId, action: 'trimmed', byId: actorId, before: was });
-    return { dto: await blockDto(block, swap, transaction), after: changed(deps, swap, block, actorId, 'measured') };
-  });
-  after?.();
-  return dto;
+export async function markTrimmed(deps: Deps, locked: LockedBlock, actorId: number): Promise<Reply<BlockDto>> {
+  const { block, swap, transaction } = locked;
+  assertSwapIn(swap, ['collecting', 'sorting'], 'marked trimmed');
+  if (swap.distributionConfirmedAt)
+    throw new ConflictError('The return of blocks is already confirmed.', 'distribution_confirmed');
+  if (block.state !== 'measured' || block.verdict !== 'trim') {
+    throw new ConflictError('Only a measured block with the verdict “Trim to size” can be marked trimmed.', 'not_trim');
+  }
+  if (block.trimmed) return answer(deps, locked);
+  await applyStep(
+    deps.sequelize,
+    transaction,
+    block,
+    { trimmed: true, trimmedAt: new Date() },
+    { action: 'trimmed', byId: actorId },
+  );
+  return answer(deps, locked, blockChanged(deps, locked, actorId, 'measured'));
 }
 
-export async function getBlock(block: Block, viewer: BlockViewer): Promise<BlockDto> {
-  // The policy loads the swap with the block; anyone else passes the block alone.
-  const swap = block.swap ?? (await Swap.findByPk(block.swapId));
-  return blockDto(block, swap!, undefined, viewer);
+/** One block as the policy read it (with its swap). */
+export function getBlock(
+  deps: Pick<AppDeps, 'sequelize'>,
+  { block, swap }: { block: Block; swap: Swap },
+  viewer: BlockViewer,
+): Promise<BlockDto> {
+  return blockDto(deps.sequelize, block, swap, { viewer });
 }
 
 /**
@@ -163,6 +171,7 @@ export async function getBlock(block: Block, viewer: BlockViewer): Promise<Block
  * caller) are open to every member; anyone else's blocks, or all of them, only to officers.
  */
 export async function listBlocks(
+  deps: Pick<AppDeps, 'sequelize'>,
   swap: Swap,
   viewer: { userId: number; canManage: boolean },
   query: BlocksQuery,
@@ -181,5 +190,5 @@ export async function listBlocks(
       ['sequence', 'ASC'],
     ],
   });
-  return blockDtos(blocks, swap, undefined, viewer);
+  return blockDtos(deps.sequelize, blocks, swap, { viewer });
 }

@@ -7,7 +7,7 @@ import { ConflictError, ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { blockDtos } from './block-dto';
 import { assertSwapIn, lockedBlock } from './blocks.service';
-import { recordStep, snapshotOf } from './step-log';
+import { applyStep } from './step-log';
 
 type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
 
@@ -22,7 +22,7 @@ export async function handInMany(deps: Deps, swap: Swap, actorId: number, input:
     const changes: { blockId: number; from: Block['state'] }[] = [];
     // Locked in id order, so two overlapping requests cannot wait on each other.
     for (const id of ids) {
-      const { block, swap: own } = await lockedBlock(id, transaction);
+      const { block, swap: own } = await lockedBlock(deps, id, transaction);
       // Someone else's block, or one of another swap, is a mistake in the list, not a matter of rights.
       if (own.id !== swap.id || block.makerId !== actorId) {
         throw new ValidationError('Choose only your own blocks of this swap.', {
@@ -38,8 +38,10 @@ export async function handInMany(deps: Deps, swap: Swap, actorId: number, input:
       }
       const from = block.state;
       const now = new Date();
-      const was = snapshotOf(block);
-      await block.update(
+      await applyStep(
+        deps.sequelize,
+        transaction,
+        block,
         {
           state: 'handed_in',
           handInHow: input.how,
@@ -47,13 +49,12 @@ export async function handInMany(deps: Deps, swap: Swap, actorId: number, input:
           handedInAt: block.handedInAt ?? now,
           sewnAt: block.sewnAt ?? now,
         },
-        { transaction },
+        { action: 'handed_in', byId: actorId },
       );
-      await recordStep(transaction, { blockId: id, action: 'handed_in', byId: actorId, before: was });
       if (from !== 'handed_in') changes.push({ blockId: id, from });
       done.push(block);
     }
-    return { dtos: await blockDtos(done, swap, transaction), changes };
+    return { dtos: await blockDtos(deps.sequelize, done, swap, { transaction }), changes };
   });
   for (const c of changes) {
     deps.events.emit('block.changed', {

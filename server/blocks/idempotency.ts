@@ -2,68 +2,68 @@
  * clientId idempotency for block requests sent by offline tools: the first answer is stored in the
  * same transaction as the change, and a repeat with the same clientId gets that answer back without
  * changing anything. A failed request stores nothing, so it may be retried with the same id.
+ *
+ * The route's policy has already locked the block, so repeats on one block queue there; the answer
+ * is stored last, and a repeat finds the id taken, undoes its own change and answers as the first did.
  */
-import { QueryTypes, type Transaction } from 'sequelize';
+import type { Sequelize, Transaction } from 'sequelize';
 import { BlockRequest } from '../db/models';
 import { ConflictError } from '../http/errors';
-import type { AppDeps } from '../deps';
+import type { Reply } from '../http/route';
+import { storeAnswer } from './blocks.queries';
 
-export interface Outcome<T> {
-  status: number;
-  body: T;
-  /** work to do after commit (domain events); skipped on a replay */
-  after?: () => void;
-}
-
-export interface Answer<T> {
-  status: number;
-  body: T;
-  replayed: boolean;
-}
-
-interface Claim {
+export interface Claim {
   clientId?: string;
   userId: number;
   blockId: number;
   action: string;
 }
 
+/** A request with a clientId did not change anything: its answer may be stored already. */
+class ClaimedRequestUndone extends Error {
+  constructor(
+    readonly claim: Claim & { clientId: string },
+    readonly failure?: unknown,
+  ) {
+    super('request with a clientId undone');
+  }
+}
+
+/** Runs the change and stores its answer under the clientId, in the route's transaction. */
 export async function idempotent<T>(
-  deps: Pick<AppDeps, 'sequelize'>,
+  db: Sequelize,
+  transaction: Transaction,
   claim: Claim,
-  run: (transaction: Transaction) => Promise<Outcome<T>>,
-): Promise<Answer<T>> {
-  const { sequelize } = deps;
+  run: () => Promise<Reply<T> & { status: number }>,
+): Promise<Reply<T>> {
   const { clientId } = claim;
-  const result = await sequelize.transaction(async (transaction): Promise<Outcome<T> & { replayed: boolean }> => {
-    if (clientId) {
-      // A concurrent request with the same id waits here until the first one commits or rolls back.
-      const claimed = await sequelize.query(
-        `INSERT INTO block_requests (client_id, user_id, block_id, action, created_at)
-         VALUES ($clientId, $userId, $blockId, $action, now()) ON CONFLICT (client_id) DO NOTHING RETURNING client_id`,
-        {
-          bind: { clientId, userId: claim.userId, blockId: claim.blockId, action: claim.action },
-          type: QueryTypes.SELECT,
-          transaction,
-        },
-      );
-      if (claimed.length === 0) {
-        const prior = await BlockRequest.findByPk(clientId, { transaction });
-        if (!prior || prior.blockId !== claim.blockId || prior.action !== claim.action || prior.userId !== claim.userId) {
-          throw new ConflictError('This clientId was already used for a different request; send a new one.', 'client_id_reused');
-        }
-        return { status: prior.statusCode ?? 200, body: prior.response as T, replayed: true };
-      }
-    }
-    const outcome = await run(transaction);
-    if (clientId) {
-      await BlockRequest.update(
-        { statusCode: outcome.status, response: outcome.body as object },
-        { where: { clientId }, transaction },
-      );
-    }
-    return { ...outcome, replayed: false };
-  });
-  if (!result.replayed) result.after?.();
-  return { status: result.status, body: result.body, replayed: result.replayed };
+  if (!clientId) return run();
+  let reply: Reply<T> & { status: number };
+  try {
+    reply = await run();
+  } catch (failure) {
+    // It may have failed only because the first request with this id already did the work.
+    throw new ClaimedRequestUndone({ ...claim, clientId }, failure);
+  }
+  const stored = await storeAnswer(db, transaction, { ...claim, clientId, status: reply.status, response: reply.body });
+  if (!stored) throw new ClaimedRequestUndone({ ...claim, clientId });
+  return reply;
+}
+
+/**
+ * After the rollback of a request with a clientId: the stored answer when the same request was
+ * answered before; otherwise the request's own failure.
+ */
+export async function answerAsBefore(error: unknown): Promise<Reply> {
+  if (!(error instanceof ClaimedRequestUndone)) throw error;
+  const { claim, failure } = error;
+  const prior = await BlockRequest.findByPk(claim.clientId);
+  if (!prior) {
+    if (failure) throw failure;
+    throw new ConflictError('This request is being answered already; send it again in a moment.', 'client_id_busy');
+  }
+  if (prior.blockId !== claim.blockId || prior.action !== claim.action || prior.userId !== claim.userId) {
+    throw new ConflictError('This clientId was already used for a different request; send a new one.', 'client_id_reused');
+  }
+  return { status: prior.statusCode ?? 200, body: prior.response, headers: { 'Idempotent-Replay': 'true' } };
 }

@@ -10,10 +10,11 @@ import { type Block, Measurement, type Swap, User } from '../db/models';
 import { ConflictError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { blockDto, measurementDto } from './block-dto';
-import { idempotent, type Answer } from './idempotency';
-import { assertSwapIn, lockedBlock } from './blocks.service';
+import { idempotent } from './idempotency';
+import { assertSwapIn, blockChanged, type LockedBlock } from './blocks.service';
 import type { MeasuringAs } from './blocks.policy';
-import { recordStep, snapshotOf } from './step-log';
+import { applyStep } from './step-log';
+import type { Reply } from '../http/route';
 
 type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
 
@@ -39,103 +40,92 @@ function verdictFor(swap: Swap, m: { width: number; height: number; diagonals?: 
  */
 export function recordMeasurement(
   deps: Deps,
-  blockId: number,
+  locked: LockedBlock,
   actor: { userId: number; displayName: string; source: MeasuringAs },
   body: MeasurementBody,
-): Promise<Answer<MeasurementAnswer>> {
+): Promise<Reply<MeasurementAnswer>> {
+  const { block, swap, transaction } = locked;
   const { source } = actor;
-  return idempotent(
-    deps,
-    { clientId: body.clientId, userId: actor.userId, blockId, action: `measurement:${source}` },
-    async (transaction) => {
-      const { block, swap } = await lockedBlock(blockId, transaction);
-      if (source === 'ruler') {
-        assertSwapIn(swap, ['sewing', 'collecting', 'sorting'], 'measured');
-        if (swap.distributionConfirmedAt)
-          throw new ConflictError(
-            'The return of blocks is already confirmed; measurements are closed.',
-            'distribution_confirmed',
-          );
-        if (block.state !== 'received' && block.state !== 'measured') {
-          throw new ConflictError('Mark the block received before measuring it.', 'not_received');
-        }
-      } else {
-        assertSwapIn(swap, ['signup', 'sewing', 'collecting', 'sorting'], 'measured by their maker');
+  const blockId = block.id;
+  const claim = { clientId: body.clientId, userId: actor.userId, blockId, action: `measurement:${source}` };
+  return idempotent(deps.sequelize, transaction, claim, async () => {
+    if (source === 'ruler') {
+      assertSwapIn(swap, ['sewing', 'collecting', 'sorting'], 'measured');
+      if (swap.distributionConfirmedAt)
+        throw new ConflictError('The return of blocks is already confirmed; measurements are closed.', 'distribution_confirmed');
+      if (block.state !== 'received' && block.state !== 'measured') {
+        throw new ConflictError('Mark the block received before measuring it.', 'not_received');
       }
-      const measured = {
-        width: four(body.width),
-        height: four(body.height),
-        ...(body.diagonals ? { diagonals: [four(body.diagonals[0]), four(body.diagonals[1])] as [number, number] } : {}),
-      };
-      const { verdict, deviations } = verdictFor(swap, measured);
-      const row = await Measurement.create(
+    } else {
+      assertSwapIn(swap, ['signup', 'sewing', 'collecting', 'sorting'], 'measured by their maker');
+    }
+    const measured = {
+      width: four(body.width),
+      height: four(body.height),
+      ...(body.diagonals ? { diagonals: [four(body.diagonals[0]), four(body.diagonals[1])] as [number, number] } : {}),
+    };
+    const { verdict, deviations } = verdictFor(swap, measured);
+    const row = await Measurement.create(
+      {
+        blockId,
+        measuredById: actor.userId,
+        source,
+        width: measured.width,
+        height: measured.height,
+        diagonal1: measured.diagonals?.[0] ?? null,
+        diagonal2: measured.diagonals?.[1] ?? null,
+        verdict,
+        deviationWidth: deviations.width,
+        deviationHeight: deviations.height,
+        deviationDiagonal: deviations.diagonal ?? null,
+        note: body.note || null,
+      },
+      { transaction },
+    );
+    const from = block.state;
+    if (source === 'ruler') {
+      // A new ruler measurement replaces the verdict; an earlier trim or decision no longer applies to it.
+      await applyStep(
+        deps.sequelize,
+        transaction,
+        block,
         {
-          blockId,
-          measuredById: actor.userId,
-          source,
-          width: measured.width,
-          height: measured.height,
-          diagonal1: measured.diagonals?.[0] ?? null,
-          diagonal2: measured.diagonals?.[1] ?? null,
+          state: 'measured',
           verdict,
-          deviationWidth: deviations.width,
-          deviationHeight: deviations.height,
-          deviationDiagonal: deviations.diagonal ?? null,
-          note: body.note || null,
+          measuredAt: row.createdAt,
+          trimmed: false,
+          trimmedAt: null,
+          acceptedAt: null,
+          acceptedById: null,
+          acceptedReason: null,
         },
-        { transaction },
+        { action: 'measured', byId: actor.userId, measurementId: row.id },
       );
-      const from = block.state;
-      if (source === 'ruler') {
-        // A new ruler measurement replaces the verdict; an earlier trim or decision no longer applies to it.
-        const before = snapshotOf(block);
-        await block.update(
-          {
-            state: 'measured',
-            verdict,
-            measuredAt: row.createdAt,
-            trimmed: false,
-            trimmedAt: null,
-            acceptedAt: null,
-            acceptedById: null,
-            acceptedReason: null,
-          },
-          { transaction },
-        );
-        await recordStep(transaction, { blockId, action: 'measured', byId: actor.userId, before, measurementId: row.id });
-      }
-      // The INSERT returned every column as stored, and the one who measured is the signed-in actor.
-      const measuredBy = { id: actor.userId, displayName: actor.displayName };
-      const body_ = { ...measurementDto({ ...row.get(), measuredBy }), block: await blockDto(block, swap, transaction) };
-      return {
-        status: 201,
-        body: body_,
-        after: () => {
-          deps.events.emit('block.measured', {
-            swapId: swap.id,
-            guildId: swap.guildId,
-            actorId: actor.userId,
-            blockId,
-            makerId: block.makerId,
-            measurementId: row.id,
-            verdict,
-            source,
-          });
-          if (from !== block.state) {
-            deps.events.emit('block.changed', {
-              swapId: swap.id,
-              guildId: swap.guildId,
-              actorId: actor.userId,
-              blockId,
-              makerId: block.makerId,
-              from,
-              to: block.state,
-            });
-          }
-        },
-      };
-    },
-  );
+    }
+    // The INSERT returned every column as stored, and the one who measured is the signed-in actor.
+    const measuredBy = { id: actor.userId, displayName: actor.displayName };
+    const answer = {
+      ...measurementDto({ ...row.get(), measuredBy }),
+      block: await blockDto(deps.sequelize, block, swap, { transaction }),
+    };
+    return {
+      status: 201,
+      body: answer,
+      after: () => {
+        deps.events.emit('block.measured', {
+          swapId: swap.id,
+          guildId: swap.guildId,
+          actorId: actor.userId,
+          blockId,
+          makerId: block.makerId,
+          measurementId: row.id,
+          verdict,
+          source,
+        });
+        if (from !== block.state) blockChanged(deps, locked, actor.userId, from)();
+      },
+    };
+  });
 }
 
 /** Every measurement of a block, newest first. */

@@ -1,5 +1,5 @@
 /** The record of steps taken on a block, with the columns just before each, so a step can be undone. */
-import { QueryTypes, type Transaction } from 'sequelize';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { Block } from '../db/models';
 
 export type StepAction = 'sewn' | 'handed_in' | 'received' | 'measured' | 'trimmed' | 'accepted';
@@ -28,23 +28,45 @@ export function snapshotOf(block: Block): Snapshot {
   return Object.fromEntries(RESTORED.map((k) => [k, block.get(k) ?? null]));
 }
 
+type Step = { blockId: number; action: StepAction; byId: number; before: Snapshot; measurementId?: number | null };
+
+const stepBind = (step: Step) => ({
+  blockId: step.blockId,
+  action: step.action,
+  byId: step.byId,
+  before: JSON.stringify(step.before),
+  measurementId: step.measurementId ?? null,
+});
+
 /** Records a step taken on a block, inside the transaction that took it. */
-export async function recordStep(
-  transaction: Transaction,
-  step: { blockId: number; action: StepAction; byId: number; before: Snapshot; measurementId?: number | null },
-): Promise<void> {
-  await Block.sequelize!.query(
+export async function recordStep(db: Sequelize, transaction: Transaction, step: Step): Promise<void> {
+  await db.query(
     `INSERT INTO block_steps (block_id, action, by_id, before, measurement_id) VALUES ($blockId, $action, $byId, $before::jsonb, $measurementId)`,
-    {
-      bind: {
-        blockId: step.blockId,
-        action: step.action,
-        byId: step.byId,
-        before: JSON.stringify(step.before),
-        measurementId: step.measurementId ?? null,
-      },
-      type: QueryTypes.INSERT,
-      transaction,
-    },
+    { bind: stepBind(step), type: QueryTypes.INSERT, transaction },
   );
+}
+
+/**
+ * Takes a step: changes the block's columns and records the step with the columns as they were, in
+ * one statement. The instance is changed to match, so the answer is built without reading it again.
+ */
+export async function applyStep(
+  db: Sequelize,
+  transaction: Transaction,
+  block: Block,
+  changes: Partial<Record<(typeof RESTORED)[number], unknown>>,
+  step: Omit<Step, 'blockId' | 'before'>,
+): Promise<void> {
+  const before = snapshotOf(block);
+  const attributes = Block.getAttributes();
+  const names = Object.keys(changes) as (keyof typeof changes)[];
+  const assignments = names.map((name, i) => `"${attributes[name]!.field ?? name}" = $c${i}`);
+  const values = Object.fromEntries(names.map((name, i) => [`c${i}`, changes[name] ?? null]));
+  await db.query(
+    `WITH changed AS (UPDATE blocks SET ${assignments.join(', ')}, updated_at = now() WHERE id = $blockId RETURNING id)
+     INSERT INTO block_steps (block_id, action, by_id, before, measurement_id)
+     SELECT id, $action, $byId, $before::jsonb, $measurementId FROM changed`,
+    { bind: { ...values, ...stepBind({ ...step, blockId: block.id, before }) }, type: QueryTypes.INSERT, transaction },
+  );
+  block.set(changes as never, { raw: true });
 }

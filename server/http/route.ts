@@ -1,4 +1,5 @@
 import type { Request, RequestHandler, Response } from 'express';
+import type { Sequelize, Transaction } from 'sequelize';
 import type { z, ZodError, ZodType } from 'zod';
 import { zodFields } from '@shared/schemas/errors';
 import { ID_TOO_LARGE } from '@shared/schemas/ids';
@@ -90,5 +91,64 @@ export function route<
     if (spec.receive) await runMiddleware(spec.receive, req, res);
     const body = early ? parse(req, schemas, ['body']).body : parsed.body;
     await handler({ ...input, body: body as Out<B>, access: access as Awaited<A> }, req, res);
+  };
+}
+
+/** What a handler in a transaction answers; it is sent, and `after` runs, once the transaction has committed. */
+export interface Reply<T = unknown> {
+  status?: number;
+  body: T;
+  headers?: Record<string, string>;
+  /** Work for after the commit (domain events). */
+  after?: () => void;
+}
+
+export interface TransactionRouteSpec<P, Q, B, A> extends Omit<RouteSpec<P, Q, B, A>, 'authorize' | 'receive'> {
+  /** Decides access inside the transaction, so it can read and lock what the handler then changes. */
+  authorize: (req: Request, input: { params: Out<P>; query: Out<Q>; transaction: Transaction }) => A | Promise<A>;
+  /**
+   * Turns a failed transaction into an answer after its rollback (a repeated request answered as
+   * the first time); rethrows anything it does not handle.
+   */
+  recover?: (error: unknown) => Promise<Reply>;
+}
+
+function send(res: Response, reply: Reply) {
+  reply.after?.();
+  if (reply.headers) res.set(reply.headers);
+  res.status(reply.status ?? 200).json(reply.body);
+}
+
+/**
+ * A route whose policy check and change run in one transaction: `authorize` reads (and may lock) the
+ * row the handler changes and hands it over, so the request reads it once; order as in `route`. The
+ * handler returns its answer instead of writing it, so nothing is sent before the commit succeeds.
+ */
+export function transactionRoute<
+  P extends ZodType | undefined = undefined,
+  Q extends ZodType | undefined = undefined,
+  B extends ZodType | undefined = undefined,
+  A = undefined,
+>(
+  sequelize: Sequelize,
+  spec: TransactionRouteSpec<P, Q, B, A>,
+  handler: (input: RouteInput<P, Q, B, A> & { transaction: Transaction }, req: Request) => Promise<Reply>,
+): RequestHandler {
+  const schemas = { params: spec.params, query: spec.query, body: spec.body } as Partial<Record<Part, ZodType>>;
+  return async (req, res) => {
+    const parsed = parse(req, schemas, ['params', 'query']);
+    const input = { params: parsed.params as Out<P>, query: parsed.query as Out<Q> };
+    let reply: Reply;
+    try {
+      reply = await sequelize.transaction(async (transaction) => {
+        const access = await spec.authorize(req, { ...input, transaction });
+        const body = parse(req, schemas, ['body']).body as Out<B>;
+        return handler({ ...input, body, access: access as Awaited<A>, transaction }, req);
+      });
+    } catch (error) {
+      if (!spec.recover) throw error;
+      reply = await spec.recover(error);
+    }
+    send(res, reply);
   };
 }

@@ -4,20 +4,25 @@
  * history; other members see only the latest estimate, on the roster, beside the ruler verdict.
  */
 import { ForbiddenError } from '../http/errors';
-import { canReadBlock, type BlockAccess } from '../blocks/blocks.policy';
+import { canReadBlock, type BlockAccess, type BlockRead } from '../blocks/blocks.policy';
 
-async function makerOrOfficer(userId: number, blockId: number, refusal: string): Promise<BlockAccess> {
-  const access = await canReadBlock(userId, blockId);
+async function makerOrOfficer(read: BlockRead, userId: number, blockId: number, refusal: string): Promise<BlockAccess> {
+  const access = await canReadBlock(read, userId, blockId);
   if (!access.isMaker && !access.canManage) throw new ForbiddenError(refusal);
   return access;
 }
 
 /** The maker, or a coordinator or admin of the block's guild. */
-export function canEstimateBlock(userId: number, blockId: number): Promise<BlockAccess> {
-  return makerOrOfficer(userId, blockId, 'Only the maker of this block or a coordinator can measure it from a photo.');
+export function canEstimateBlock(read: BlockRead, userId: number, blockId: number): Promise<BlockAccess> {
+  return makerOrOfficer(read, userId, blockId, 'Only the maker of this block or a coordinator can measure it from a photo.');
 }
 
 /** The same people may read the estimates with their marked corners. */
-export function canSeeEstimates(userId: number, blockId: number): Promise<BlockAccess> {
-  return makerOrOfficer(userId, blockId, 'Only the maker of this block and the guild’s coordinators see its photo estimates.');
+export function canSeeEstimates(read: BlockRead, userId: number, blockId: number): Promise<BlockAccess> {
+  return makerOrOfficer(
+    read,
+    userId,
+    blockId,
+    'Only the maker of this block and the guild’s coordinators see its photo estimates.',
+  );
 }

@@ -6,11 +6,11 @@
 import { Photo } from '../db/models';
 import { authorizeGuild, can } from '../guilds/guilds.policy';
 import { ForbiddenError, NotFoundError } from '../http/errors';
-import { canReadBlock, type BlockAccess } from '../blocks/blocks.policy';
+import { canReadBlock, type BlockAccess, type BlockRead } from '../blocks/blocks.policy';
 
 /** The block's maker, or a coordinator or admin of its guild. */
-export async function canAddBlockPhotos(userId: number, blockId: number): Promise<BlockAccess> {
-  const access = await canReadBlock(userId, blockId);
+export async function canAddBlockPhotos(read: BlockRead, userId: number, blockId: number): Promise<BlockAccess> {
+  const access = await canReadBlock(read, userId, blockId);
   if (!access.isMaker && !can(access.role, 'photos:manage')) {
     throw new ForbiddenError('Only the maker of this block or a coordinator can add photos to it.');
   }
@@ -18,8 +18,8 @@ export async function canAddBlockPhotos(userId: number, blockId: number): Promis
 }
 
 /** Any active member of the block's guild sees its photos. */
-export async function canSeeBlockPhotos(userId: number, blockId: number): Promise<BlockAccess> {
-  const access = await canReadBlock(userId, blockId);
+export async function canSeeBlockPhotos(read: BlockRead, userId: number, blockId: number): Promise<BlockAccess> {
+  const access = await canReadBlock(read, userId, blockId);
   if (!can(access.role, 'photos:read')) throw new ForbiddenError();
   return access;
 }

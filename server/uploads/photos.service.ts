@@ -48,9 +48,9 @@ export async function uploadBlockPhotos(
   let outcome;
   try {
     outcome = await deps.sequelize.transaction(async (transaction) => {
-      let { block, swap } = await lockedBlock(blockId, transaction);
-      let sewn: (() => void) | undefined;
-      if (block.state === 'pledged') ({ block, swap, after: sewn } = await markBlockSewn(deps, blockId, actorId, transaction));
+      const locked = await lockedBlock(deps, blockId, transaction);
+      const { block, swap } = locked;
+      const sewn = block.state === 'pledged' ? await markBlockSewn(deps, locked, actorId) : undefined;
       const stored = await commitStagedPhotos(deps, { staged, guildId: swap.guildId, uploadedBy: actorId, owner: { blockId }, transaction });
       return { rows: stored, state: block.state, swapId: swap.id, makerId: block.makerId, guildId: swap.guildId, afterCommit: sewn };
     });

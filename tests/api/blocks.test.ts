@@ -187,6 +187,26 @@ describe('clientId idempotency', () => {
     expect(reused.body.error.code).toBe('client_id_reused');
   });
 
+  it('answers a late repeat as the first time, even after the block has moved on', async () => {
+    const { swap } = await sewingSwap(app, roles, { pledges: [1, 1] });
+    const [block] = await myBlocks(roles.member.agent, swap.id);
+    const receiptId = randomUUID();
+    const first = await roles.coordinator.agent
+      .post(`/api/blocks/${block!.id}/received`)
+      .send({ clientId: receiptId })
+      .expect(200);
+    await roles.coordinator.agent.post(`/api/blocks/${block!.id}/measurements`).send({ width: 9.5, height: 9.5 }).expect(201);
+    // An offline station resends its receipt after the block was measured: the stored answer, no 409.
+    const late = await roles.coordinator.agent
+      .post(`/api/blocks/${block!.id}/received`)
+      .send({ clientId: receiptId })
+      .expect(200);
+    expect(late.headers['idempotent-replay']).toBe('true');
+    expect(late.body).toEqual(first.body);
+    const now = await roles.coordinator.agent.get(`/api/blocks/${block!.id}`).expect(200);
+    expect(now.body.state).toBe('measured');
+  });
+
   it('lets a failed request be retried with the same clientId', async () => {
     const { swap } = await sewingSwap(app, roles, { pledges: [1, 1] });
     const [block] = await myBlocks(roles.member.agent, swap.id);

@@ -302,7 +302,8 @@ describe('roster', () => {
     expect(roster.body.rows).toHaveLength(8);
     expect(roster.body.totals).toMatchObject({ pledged: 32, measured: 12, verdicts: { true: 12 } });
     const [few, many] = [await queriesFor(small.swap.id), await queriesFor(large.swap.id)];
-    expect(few).toBeGreaterThan(2);
+    // The swap with the caller's role, then the roster (the session's pool reads the session and its user).
+    expect(few).toBeGreaterThanOrEqual(2);
     expect(many).toBe(few);
   });
 });
