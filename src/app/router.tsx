@@ -49,6 +49,10 @@ export const routes: RouteObject[] = [
         ],
       },
       {
+        path: paths.confirmEmail,
+        lazy: () => import('@/features/auth/components/confirm-email-page').then((m) => ({ Component: m.ConfirmEmailPage })),
+      },
+      {
         path: paths.resetPassword,
         lazy: () => import('@/features/auth/components/password-reset-pages').then((m) => ({ Component: m.ResetPasswordPage })),
       },

@@ -5,6 +5,7 @@ export const paths = {
   register: '/register',
   forgotPassword: '/forgot-password',
   resetPassword: '/reset-password',
+  confirmEmail: '/confirm-email',
   invitation: (token = ':token') => `/invitations/${token}`,
   guilds: '/guilds',
   guild: (guildId: number | string = ':guildId') => `/guilds/${guildId}`,

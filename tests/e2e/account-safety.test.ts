@@ -7,14 +7,14 @@ import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { launchBrowser } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
-import { uniqueEmail } from '../helpers/factories';
+import { finishSignUp, mailJobsOn, uniqueEmail } from '../helpers/factories';
 import type { RunningServer } from '../../server/index';
 
 let server: RunningServer;
 let phone: BrowserContext;
 
 beforeAll(async () => {
-  server = await startE2eServer({ INVITES_PER_INVITER_DAY: '4', INVITES_PER_GUILD_DAY: '10' });
+  server = await startE2eServer({ ...mailJobsOn, INVITES_PER_INVITER_DAY: '4', INVITES_PER_GUILD_DAY: '10' });
   phone = await launchBrowser({ viewport: { width: 360, height: 800 } });
 });
 afterAll(async () => {
@@ -46,6 +46,7 @@ it('rates the password while it is typed and refuses a weak one without losing t
   await page.getByLabel('Password', { exact: true }).fill('thimble orchard copper lantern');
   await page.getByText('Strength: Very strong.').waitFor();
   await page.getByRole('button', { name: 'Create account' }).click();
+  await finishSignUp(page, email);
   await page.getByRole('heading', { name: 'Your guilds' }).waitFor();
 });
 
@@ -54,6 +55,7 @@ it('changes the password in the settings, with the meter there too', async () =>
   const email = uniqueEmail('change');
   await fillRegistration(page, email, 'thimble orchard copper lantern');
   await page.getByRole('button', { name: 'Create account' }).click();
+  await finishSignUp(page, email);
   await page.getByRole('heading', { name: 'Your guilds' }).waitFor();
   await page.goto(`${server.url}/settings`);
   await page.getByLabel('Current password').fill('thimble orchard copper lantern');
@@ -67,8 +69,10 @@ it('changes the password in the settings, with the meter there too', async () =>
 
 it('shows an officer how many invitations are left today', async () => {
   const page = await phone.newPage();
-  await fillRegistration(page, uniqueEmail('officer'), 'thimble orchard copper lantern');
+  const officer = uniqueEmail('officer');
+  await fillRegistration(page, officer, 'thimble orchard copper lantern');
   await page.getByRole('button', { name: 'Create account' }).click();
+  await finishSignUp(page, officer);
   await page.getByLabel('Guild name').fill('Larkspur Lane Quilters');
   await page.getByRole('button', { name: 'Create guild' }).click();
   await page.getByRole('heading', { name: 'Larkspur Lane Quilters' }).waitFor();

@@ -3,7 +3,7 @@ import type { BrowserContext } from 'playwright-core';
 import { launchBrowser } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
 import { linkIn, waitForMail } from '../helpers/maildev';
-import { uniqueEmail } from '../helpers/factories';
+import { finishSignUp, mailJobsOn, uniqueEmail } from '../helpers/factories';
 import type { RunningServer } from '../../server/index';
 
 let server: RunningServer;
@@ -11,7 +11,7 @@ let officer: BrowserContext;
 let invitee: BrowserContext;
 
 beforeAll(async () => {
-  server = await startE2eServer();
+  server = await startE2eServer(mailJobsOn);
   officer = await launchBrowser();
   invitee = await launchBrowser({ viewport: { width: 390, height: 844 } }); // a phone
 });
@@ -29,6 +29,7 @@ it('registers, creates a guild, invites a member who accepts in another browser,
   await page.getByLabel('E-mail').fill(officerEmail);
   await page.getByLabel('Password', { exact: true }).fill('seam-ripper-2027');
   await page.getByRole('button', { name: 'Create account' }).click();
+  await finishSignUp(page, officerEmail);
   await page.getByRole('heading', { name: 'Your guilds' }).waitFor();
 
   await page.getByLabel('Guild name').fill('Fernbrook Patchwork Circle');
@@ -52,6 +53,7 @@ it('registers, creates a guild, invites a member who accepts in another browser,
   await phone.getByLabel('E-mail').fill(inviteeEmail);
   await phone.getByLabel('Password', { exact: true }).fill('quarter-inch-seam');
   await phone.getByRole('button', { name: 'Create account' }).click();
+  await finishSignUp(phone, inviteeEmail); // the link brings the newcomer back to the invitation
   await phone.getByRole('button', { name: 'Join the guild' }).click();
   await phone.getByRole('heading', { name: 'Fernbrook Patchwork Circle' }).waitFor();
 

@@ -9,7 +9,14 @@ import supertest from 'supertest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { launchBrowser } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
-import { insertConfirmedAccount, PASSWORD, signIn as signInAgent, uniqueEmail } from '../helpers/factories';
+import {
+  finishSignUp,
+  insertConfirmedAccount,
+  mailJobsOn,
+  PASSWORD,
+  signIn as signInAgent,
+  uniqueEmail,
+} from '../helpers/factories';
 import { swapBody } from '../api/swaps-support';
 import type { IntakePackDto } from '../../shared/schemas/intake';
 import type { RunningServer } from '../../server/index';
@@ -18,14 +25,16 @@ let server: RunningServer;
 let browser: BrowserContext;
 let page: Page;
 beforeAll(async () => {
-  server = await startE2eServer();
+  server = await startE2eServer(mailJobsOn);
   browser = await launchBrowser({ viewport: { width: 360, height: 740 } });
   page = await browser.newPage();
   await page.goto(`${server.url}/register?next=/planner`);
   await page.getByLabel('Your name').fill('Wilhelmina Acheson');
-  await page.getByLabel('E-mail').fill(uniqueEmail('phone-forms'));
+  const email = uniqueEmail('phone-forms');
+  await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password', { exact: true }).fill(PASSWORD);
   await page.getByRole('button', { name: 'Create account' }).click();
+  await finishSignUp(page, email);
   await page.getByRole('heading', { name: 'Cutting planner' }).waitFor();
 });
 afterAll(async () => {

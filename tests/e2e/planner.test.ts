@@ -2,13 +2,13 @@ import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { BrowserContext } from 'playwright-core';
 import { launchBrowser } from '../helpers/browser';
 import { startE2eServer } from '../helpers/e2e-server';
-import { PASSWORD, uniqueEmail } from '../helpers/factories';
+import { finishSignUp, mailJobsOn, PASSWORD, uniqueEmail } from '../helpers/factories';
 import type { RunningServer } from '../../server/index';
 
 let server: RunningServer;
 let browser: BrowserContext;
 beforeAll(async () => {
-  server = await startE2eServer();
+  server = await startE2eServer(mailJobsOn);
   browser = await launchBrowser({ viewport: { width: 390, height: 844 } });
 });
 afterAll(async () => {
@@ -20,9 +20,11 @@ it('works out the 4-3-2-1 strip block and a 6 × 7 quilt of 42 such blocks', asy
   const page = await browser.newPage();
   await page.goto(`${server.url}/register?next=/planner`);
   await page.getByLabel('Your name').fill('Agnes Whitcombe');
-  await page.getByLabel('E-mail').fill(uniqueEmail('planner'));
+  const email = uniqueEmail('planner');
+  await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password', { exact: true }).fill(PASSWORD);
   await page.getByRole('button', { name: 'Create account' }).click();
+  await finishSignUp(page, email);
   await page.getByRole('heading', { name: 'Cutting planner' }).waitFor();
 
   // Strips cut 4", 3", 2", 1" with ¼" seams (common practice, no source): 8½" unfinished, 8" finished.

@@ -3,7 +3,9 @@ import type supertest from 'supertest';
 import type { TestApp } from './test-app';
 import type { Role } from '../../shared/schemas/guilds';
 import { normaliseEmail } from '../../shared/schemas/auth';
+import type { Page } from 'playwright-core';
 import { hashPassword } from '../../server/auth/passwords';
+import { linkIn, waitForMail } from './maildev';
 
 export const PASSWORD = 'correct-horse-staple';
 
@@ -52,6 +54,25 @@ export async function signedInUser(app: TestApp, opts: { email?: string; display
   await signIn(agent, email);
   return { agent, email, id };
 }
+
+/**
+ * The confirmation link mailed after a sign-up with `email`. The mail job must run: a server
+ * started with JOBS=true, or startMailJobs(app.deps) beside a test app.
+ */
+export async function confirmLinkFor(email: string) {
+  const mail = await waitForMail(email, (m) => /Confirm your address/.test(m.subject), 20_000);
+  return linkIn(mail, /https?:\/\/\S+\/confirm-email\?\S+/);
+}
+
+/** In the browser, after "Create account": the check-your-inbox screen, the mailed link, and its button. */
+export async function finishSignUp(page: Page, email: string) {
+  await page.getByRole('heading', { name: 'Check your inbox' }).waitFor();
+  await page.goto(await confirmLinkFor(email));
+  await page.getByRole('button', { name: 'Confirm and sign in' }).click();
+}
+
+/** Server settings for e2e tests that sign up in the browser: the mail job runs, and looks often. */
+export const mailJobsOn = { JOBS: 'true', JOBS_POLL_SECONDS: '0.5' } as const;
 
 /** A guild with one account per role, plus a stranger who belongs to another guild. */
 export async function guildWithRoles(app: TestApp) {

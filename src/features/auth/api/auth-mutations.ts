@@ -1,5 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { LoginInput, ProfileUpdateInput, RegisterInput, ResetInput, ResetRequestInput } from '@shared/schemas/auth';
+import type {
+  ConfirmEmailInput,
+  LoginInput,
+  ProfileUpdateInput,
+  RegisterInput,
+  ResetInput,
+  ResetRequestInput,
+} from '@shared/schemas/auth';
 import type { MeDto } from '@shared/types';
 import { api } from '@/lib/api-client';
 import { paths } from '@/lib/paths';
@@ -7,7 +14,10 @@ import { closeSocket } from '@/lib/socket';
 import { meKeys } from '@/entities/me/api/me-keys';
 
 export const login = (input: LoginInput) => api.post<MeDto>('/auth/login', input);
-export const register = (input: RegisterInput) => api.post<MeDto>('/auth/register', input);
+/** Asks for an account: the answer is the same whether or not the address has one; the mail says which. */
+export const register = (input: RegisterInput) => api.post<{ message: string }>('/auth/register', input);
+/** Opens the link from the sign-up mail: makes the account and signs in. */
+export const confirmEmail = (input: ConfirmEmailInput) => api.post<MeDto>('/auth/confirm-email', input);
 export const logout = () => api.post<void>('/auth/logout');
 export const requestReset = (input: ResetRequestInput) => api.post<{ message: string }>('/auth/reset-request', input);
 export const resetPassword = (input: ResetInput) => api.post<{ message: string }>('/auth/reset', input);
@@ -26,7 +36,8 @@ function useSessionChange<I>(fn: (input: I) => Promise<MeDto | void>) {
 }
 
 export const useLogin = () => useSessionChange(login);
-export const useRegister = () => useSessionChange(register);
+export const useRegister = () => useMutation({ mutationFn: register });
+export const useConfirmEmail = () => useSessionChange(confirmEmail);
 /**
  * Signing out ends with a full page load of the sign-in page: nothing the last person saw stays in
  * memory, and the page guards never see a half-cleared cache (which used to race them to a

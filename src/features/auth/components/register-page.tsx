@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { Link, useNavigate, useSearchParams } from 'react-router';
+import { Link, useSearchParams } from 'react-router';
 import { registerSchema, type RegisterInput } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
@@ -11,12 +11,14 @@ import { paths, safeNext } from '@/lib/paths';
 import { useRegister } from '../api/auth-mutations';
 import { AuthFrame } from './auth-frame';
 import { PasswordStrengthMeter } from './password-strength-meter';
+import { CheckInbox } from './check-inbox';
 
 export function RegisterPage() {
   const [params] = useSearchParams();
-  const navigate = useNavigate();
+  const next = params.get('next');
   const registration = useRegister();
   const [formError, setFormError] = useState('');
+  const [sentTo, setSentTo] = useState<string | null>(null);
   const { register, handleSubmit, setError, formState, control } = useForm<RegisterInput>({
     resolver: zodResolver(registerSchema),
   });
@@ -25,24 +27,29 @@ export function RegisterPage() {
   const onSubmit = handleSubmit(async (values) => {
     setFormError('');
     try {
-      await registration.mutateAsync(values);
-      navigate(safeNext(params.get('next')), { replace: true });
+      // Only a path of this site goes along; the link in the mail brings the person back to it.
+      const back = next && safeNext(next) === next ? next : undefined;
+      await registration.mutateAsync({ ...values, next: back });
+      setSentTo(values.email);
     } catch (error) {
       setFormError(applyServerErrors(error, setError, ['email', 'password', 'displayName']));
     }
   });
 
+  const signInLink = `${paths.signIn}${next ? `?next=${encodeURIComponent(next)}` : ''}`;
+
+  if (sentTo) {
+    return <CheckInbox email={sentTo} signInLink={signInLink} onChangeAddress={() => setSentTo(null)} />;
+  }
+
   return (
     <AuthFrame
       title="Create your account"
-      lead="One account for every guild you belong to."
+      lead="One account for every guild you belong to. We will e-mail you a link to confirm your address."
       footer={
         <p>
           Already have an account?{' '}
-          <Link
-            className="font-semibold text-indigo underline"
-            to={`${paths.signIn}${params.get('next') ? `?next=${encodeURIComponent(params.get('next')!)}` : ''}`}
-          >
+          <Link className="font-semibold text-indigo underline" to={signInLink}>
             Sign in
           </Link>
         </p>
@@ -75,7 +82,7 @@ export function RegisterPage() {
           />
           <PasswordStrengthMeter password={password ?? ''} personal={[email ?? '', displayName ?? '']} />
         </div>
-        <Button type="submit" className="w-full" pending={registration.isPending} pendingLabel="Creating your account…">
+        <Button type="submit" className="w-full" pending={registration.isPending} pendingLabel="Sending the link…">
           Create account
         </Button>
       </form>
