@@ -131,7 +131,9 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
     }
     await boss.work<ComposeJob>(queues.compose, work, async ([job]) => {
       const result = await compose(job!.data);
-      logger.info({ job: job!.data, ...result }, 'mail composed');
+      // A reset job carries an address someone typed; the log keeps only the kind.
+      const logged = job!.data.kind === 'password-reset' ? { kind: job!.data.kind } : job!.data;
+      logger.info({ job: logged, ...result }, 'mail composed');
     });
     await boss.work(queues.sweep, work, async () => {
       const result = await sweep();

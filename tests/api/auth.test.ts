@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
-import { PASSWORD, signedInUser, uniqueEmail } from '../helpers/factories';
+import { PASSWORD, signedInUser, testPasswordHash, uniqueEmail } from '../helpers/factories';
 import { linkIn, mailTo, waitForMail } from '../helpers/maildev';
 import { startMailJobs, type MailJobs } from '../../server/mail/mail-jobs';
 
@@ -150,6 +150,27 @@ describe('sign-up by mail', () => {
       message: expect.stringMatching(/already has an account\. Sign in/),
     });
     expect(await pendingFor(owner.email)).toEqual([]);
+  });
+
+  it('mails a sign-up whose job was lost at the next sweep, and deletes expired ones with their password hash', async () => {
+    const { PendingSignup } = await import('../../server/db/models');
+    const row = async (email: string, expiresInMs: number) =>
+      PendingSignup.create({
+        email,
+        displayName: 'Lou Lost',
+        passwordHash: await testPasswordHash(),
+        nextPath: null,
+        expiresAt: new Date(Date.now() + expiresInMs),
+      });
+    // Made on a node without the job worker, say: no job was queued for it.
+    const lost = await row(uniqueEmail('lost'), 3_600_000);
+    const expired = await row(uniqueEmail('expired'), -1000);
+    await app.deps.pool.query(`UPDATE pending_signups SET created_at = now() - interval '10 minutes' WHERE id = $1`, [lost.id]);
+
+    const swept = await jobs.sweep();
+    expect(swept.requeued).toBeGreaterThanOrEqual(1);
+    await mailedToken(lost.email);
+    expect(await PendingSignup.findByPk(expired.id)).toBeNull();
   });
 
   it('refuses a bad body with field messages, and a return path to another site', async () => {
