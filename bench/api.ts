@@ -14,7 +14,7 @@ import type { LoadOptions, LoadResult } from './load';
 import { clusterCpuSeconds, cpuSeconds, runNodeScript, startNodeServer, type NodeProcess } from './lib/processes';
 import { median, round, withSpread } from './lib/stats';
 import { startAppProcess } from './lib/app';
-import { seedSwap, signIn, type SeededSwap } from './lib/seed';
+import { newAccount, seedSwap, type SeededSwap } from './lib/seed';
 
 type Row = Record<string, string | number>;
 type ServerKey = 'app' | 'express' | 'http';
@@ -69,7 +69,7 @@ export async function runApiBench(
     });
     const url = (s: ServerKey) => servers[s]!.url;
 
-    const coordinator = await signIn(url('app'), 'bench-coordinator@example.test', 'Bench Coordinator');
+    const coordinator = await newAccount(url('app'), databaseUrl, 'bench-coordinator@example.test', 'Bench Coordinator');
     const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Benchmark Bee' });
     const swaps: SeededSwap[] = [];
     for (const size of SIZES) swaps.push(await seedSwap(databaseUrl, coordinator, guild.id, size));

@@ -16,7 +16,7 @@ import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
 import { startAppProcess } from './lib/app';
 import { cpuSeconds } from './lib/processes';
 import { quantile, round } from './lib/stats';
-import { seedSwap, signIn, type Session } from './lib/seed';
+import { newAccount, seedSwap, signIn, type Session } from './lib/seed';
 
 type Client = Socket<ServerToClientEvents, ClientToServerEvents>;
 type Row = Record<string, string | number>;
@@ -62,14 +62,13 @@ export async function runLiveBurstBench(
   try {
     const databaseUrl = await cluster.database('burst');
     app = await startAppProcess(databaseUrl, { profileDir: opts.profileDir });
-    const coordinator = await signIn(app.url, 'burst-coordinator@example.test', 'Burst Coordinator');
+    const coordinator = await newAccount(app.url, databaseUrl, 'burst-coordinator@example.test', 'Burst Coordinator');
     const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Burst Bee' });
     const swap = await seedSwap(databaseUrl, coordinator, guild.id, { members: 60, blocksEach: 4, tag: 'burst' });
 
     // Viewers: twenty members, ten tabs each; stations: the coordinator signed in ten times.
     const members: Session[] = [];
-    for (let i = 1; i <= Math.min(20, socketCount); i++)
-      members.push(await signIn(app.url, `bench-burst-${i}@example.test`, '', false));
+    for (let i = 1; i <= Math.min(20, socketCount); i++) members.push(await signIn(app.url, `bench-burst-${i}@example.test`));
     const viewers: Viewer[] = [];
     for (let i = 0; i < socketCount; i++) {
       const socket = await connect(app.url, members[i % members.length]!.cookie);
@@ -81,7 +80,7 @@ export async function runLiveBurstBench(
     }
     await new Promise((r) => setTimeout(r, 500)); // let the presence announcements settle
     const desks: Session[] = [];
-    for (let i = 0; i < stations; i++) desks.push(await signIn(app.url, 'burst-coordinator@example.test', '', false));
+    for (let i = 0; i < stations; i++) desks.push(await signIn(app.url, 'burst-coordinator@example.test'));
 
     // Each station measures its own share of the received blocks in turn, one at a time.
     const shares = desks.map((_, i) => swap.measuredBlockIds.filter((_, j) => j % stations === i));

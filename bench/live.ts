@@ -15,6 +15,7 @@ import { loadConfig } from '../server/config';
 import { startServer, type RunningServer } from '../server/index';
 import { Membership } from '../server/db/models';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
+import { newAccount } from './lib/seed';
 
 type Client = Socket<ServerToClientEvents, ClientToServerEvents>;
 
@@ -43,32 +44,14 @@ function row(name: string, samples: number[]): LiveRow {
   };
 }
 
-async function person(baseUrl: string, i: number) {
-  const res = await fetch(`${baseUrl}/api/auth/register`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json', 'x-requested-with': 'blockpost' },
-    body: JSON.stringify({
-      email: `live-bench-${i}@example.test`,
-      password: 'bench-password-1',
-      displayName: `Bench Maker ${String(i).padStart(2, '0')}`,
-    }),
-  });
-  if (res.status !== 201) throw new Error(`register answered ${res.status}`);
-  const cookie = res.headers
-    .getSetCookie()
-    .map((c) => c.split(';')[0])
-    .join('; ');
-  const { user } = (await res.json()) as { user: { id: number } };
-  const api = async <T>(method: string, path: string, body?: unknown): Promise<T> => {
-    const r = await fetch(`${baseUrl}/api${path}`, {
-      method,
-      headers: { cookie, 'x-requested-with': 'blockpost', 'content-type': 'application/json' },
-      body: body === undefined ? undefined : JSON.stringify(body),
-    });
-    if (r.status >= 400) throw new Error(`${method} ${path} answered ${r.status}: ${await r.text()}`);
-    return (await r.json()) as T;
-  };
-  return { id: user.id, cookie, api };
+async function person(baseUrl: string, databaseUrl: string, i: number) {
+  const session = await newAccount(
+    baseUrl,
+    databaseUrl,
+    `live-bench-${i}@example.test`,
+    `Bench Maker ${String(i).padStart(2, '0')}`,
+  );
+  return { id: session.userId, cookie: session.cookie, api: session.api };
 }
 
 function connect(url: string, cookie: string): Promise<Client> {
@@ -150,7 +133,7 @@ export async function runLiveBench(opts: { sockets?: number; members?: number; m
     const [nodeA, nodeB] = nodes as [RunningServer, RunningServer];
 
     // A swap in collecting with `members` makers of 2 blocks each: a realistic roster to recompute per change.
-    const coordinator = await person(nodeA.url, 0);
+    const coordinator = await person(nodeA.url, url, 0);
     const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Live Bench Bee' });
     const swap = await coordinator.api<{ id: number }>('POST', `/guilds/${guild.id}/swaps`, {
       title: 'Bench Stripes',
@@ -162,7 +145,7 @@ export async function runLiveBench(opts: { sockets?: number; members?: number; m
     await coordinator.api('POST', `/swaps/${swap.id}/transitions`, { to: 'signup' });
     const people = [];
     for (let i = 1; i <= members; i++) {
-      const p = await person(nodeA.url, i);
+      const p = await person(nodeA.url, url, i);
       await Membership.create({ guildId: guild.id, userId: p.id, role: 'member' });
       await p.api('POST', `/swaps/${swap.id}/signups`, { blocks: 2 });
       people.push(p);

@@ -14,7 +14,7 @@ import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
 import { startAppProcess } from './lib/app';
 import { cpuSeconds, runNodeScript } from './lib/processes';
 import { quantile, round } from './lib/stats';
-import { seedSwap, signIn } from './lib/seed';
+import { newAccount, seedSwap, signIn } from './lib/seed';
 import type { PhotoBurstLoad, PhotoBurstResult } from './photo-burst-load';
 
 type Row = Record<string, string | number>;
@@ -38,12 +38,11 @@ export async function runPhotoBurstBench(opts: { uploads?: number; photosEach?: 
 
     const databaseUrl = await cluster.database('photoburst');
     app = await startAppProcess(databaseUrl);
-    const coordinator = await signIn(app.url, 'photo-burst-coordinator@example.test', 'Photo Burst Coordinator');
+    const coordinator = await newAccount(app.url, databaseUrl, 'photo-burst-coordinator@example.test', 'Photo Burst Coordinator');
     const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Photo Burst Bee' });
     const swap = await seedSwap(databaseUrl, coordinator, guild.id, { members: uploads, blocksEach: 2, tag: 'photos' });
     const cookies: string[] = [];
-    for (let i = 0; i < uploads; i++)
-      cookies.push((await signIn(app.url, 'photo-burst-coordinator@example.test', '', false)).cookie);
+    for (let i = 0; i < uploads; i++) cookies.push((await signIn(app.url, 'photo-burst-coordinator@example.test')).cookie);
 
     const cpuBefore = cpuSeconds(app.pid);
     const load: PhotoBurstLoad = {

@@ -33,13 +33,13 @@ const SESSION_WITH_USER = `
 /**
  * Sessions live in PostgreSQL so any app node can serve any request. The store reads the session's
  * user in the same query as the session: every signed-in request needs both, and one round trip
- * instead of two is most of what the session costs.
+ * instead of two is most of what the session costs. The statement is named, so PostgreSQL keeps its plan.
  */
 export function createSessionMiddleware(config: Config, pool: pg.Pool) {
   const PgStore = connectPgSimple(session);
   class PgStoreWithUser extends PgStore {
     override get(sid: string, fn: (err: unknown, sess?: session.SessionData | null) => void) {
-      pool.query(SESSION_WITH_USER, [sid]).then(({ rows: [row] }) => {
+      pool.query({ name: 'session-with-user', text: SESSION_WITH_USER, values: [sid] }).then(({ rows: [row] }) => {
         if (!row) return fn(null, null);
         const sess = (typeof row.sess === 'string' ? JSON.parse(row.sess) : row.sess) as session.SessionData & {
           passport?: { user?: unknown };

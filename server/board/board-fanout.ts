@@ -51,7 +51,7 @@ export class BoardFanout {
 
   constructor(
     private io: LiveServer,
-    private deps: Pick<AppDeps, 'sequelize' | 'logger'>,
+    private deps: Pick<AppDeps, 'sequelize' | 'pool' | 'logger'>,
     private intervalMs = BOARD_CHANGE_INTERVAL_MS,
   ) {}
 

@@ -32,6 +32,9 @@ export const ROSTER = `WITH swap_blocks AS (SELECT * FROM blocks WHERE swap_id =
    WHERE s.swap_id = $swapId AND s.status = 'active'
    ORDER BY lower(u.display_name), u.id`;
 
+/** The same with `$1` for the swap, for a named statement on the plain pool (which numbers its parameters). */
+export const ROSTER_POSITIONAL = ROSTER.replaceAll('$swapId', '$1');
+
 /**
  * Activity lines in ($lines, a JSON array with each line's place `n`) stamped $at, with their block's
  * number read on the way; they come back newest first with the names of who acted and whom it was about.

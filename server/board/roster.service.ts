@@ -9,7 +9,7 @@ import type { Swap } from '../db/models';
 import type { AppDeps } from '../deps';
 import { photoRef } from '../blocks/photo-refs';
 import { latestEstimateDto, type LatestEstimateRow } from '../blocks/latest-estimate';
-import { ROSTER } from './board.queries';
+import { ROSTER, ROSTER_POSITIONAL } from './board.queries';
 import { guildVerdictsVisibleTo, rosterForMember, seesAllVerdicts, type VerdictViewer } from '../blocks/verdict-visibility';
 
 // A rank lookup rather than two searches of the list of states.
@@ -87,16 +87,16 @@ export interface RosterData extends RosterDto {
 
 /** Rows for every member with an active sign-up, sorted by name; addresses only when `withAddresses`. */
 export async function buildRoster(
-  deps: Pick<AppDeps, 'sequelize'>,
+  deps: Pick<AppDeps, 'sequelize' | 'pool'>,
   swap: Swap,
   opts: { withAddresses: boolean; transaction?: Transaction },
 ): Promise<RosterData> {
   const { transaction } = opts;
-  const signups = await deps.sequelize.query<SignupRow>(ROSTER, {
-    bind: { swapId: swap.id },
-    type: QueryTypes.SELECT,
-    transaction,
-  });
+  // Outside a transaction, a named statement on the plain pool: PostgreSQL keeps its plan, and
+  // planning this query cost about as much as running it.
+  const signups = transaction
+    ? await deps.sequelize.query<SignupRow>(ROSTER, { bind: { swapId: swap.id }, type: QueryTypes.SELECT, transaction })
+    : (await deps.pool.query<SignupRow>({ name: 'roster', text: ROSTER_POSITIONAL, values: [swap.id] })).rows;
 
   const totals = { ...emptyCounts(), accepted: 0, members: signups.length };
   const rows = signups.map((s) => {
@@ -144,7 +144,7 @@ export async function buildRoster(
  * come without their verdicts.
  */
 export async function getRoster(
-  deps: Pick<AppDeps, 'sequelize'>,
+  deps: Pick<AppDeps, 'sequelize' | 'pool'>,
   swap: Swap,
   opts: { withAddresses: boolean; transaction?: Transaction; viewer?: VerdictViewer },
 ): Promise<RosterDto> {
