@@ -49,7 +49,7 @@ export function blocksRouter(deps: AppDeps) {
       {
         params: swapParamsSchema,
         query: blocksQuerySchema,
-        authorize: (req, { params }) => canReadSwap(currentUser(req).id, params.swapId),
+        authorize: (req, { params }) => canReadSwap(deps, currentUser(req).id, params.swapId),
       },
       async ({ query, access: { swap, canManage } }, req, res) => {
         res.json(await blocks.listBlocks(deps, swap, { userId: currentUser(req).id, canManage }, query));
@@ -122,7 +122,7 @@ export function blocksRouter(deps: AppDeps) {
       {
         params: swapParamsSchema,
         body: handInManySchema,
-        authorize: (req, { params }) => canReadSwap(currentUser(req).id, params.swapId),
+        authorize: (req, { params }) => canReadSwap(deps, currentUser(req).id, params.swapId),
       },
       async ({ body, access }, req, res) => {
         res.json(await handInMany(deps, access.swap, currentUser(req).id, body));

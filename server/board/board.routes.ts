@@ -8,11 +8,11 @@ import { getRoster } from './roster.service';
 import { activitiesForMember, guildVerdictsVisibleTo, seesAllVerdicts } from '../blocks/verdict-visibility';
 import type { AppDeps } from '../deps';
 
-const readSwap = (req: Request, { params }: { params: { swapId: number } }) => canReadSwap(currentUser(req).id, params.swapId);
-
 /** The board's roster (addresses only for coordinators and admins) and its recent-activity list. */
 export function boardRouter(deps: AppDeps) {
   const router = Router();
+  const readSwap = (req: Request, { params }: { params: { swapId: number } }) =>
+    canReadSwap(deps, currentUser(req).id, params.swapId);
 
   router.get(
     '/swaps/:swapId/roster',

@@ -28,7 +28,7 @@ export function boardLive(): LivePart {
 
       handle(socket, logger, 'board:join', boardRefSchema, async ({ swapId }): Promise<BoardJoined> => {
         await assertSessionLive(socket);
-        const access = await canReadSwap(user.userId, swapId).catch((error: unknown) => {
+        const access = await canReadSwap(deps, user.userId, swapId).catch((error: unknown) => {
           if (error instanceof AppError) logger.warn({ userId: user.userId, swapId, code: error.code }, 'socket join refused');
           throw error;
         });

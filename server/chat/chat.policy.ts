@@ -2,6 +2,7 @@ import { ChatRoom, type Membership } from '../db/models';
 import { NotFoundError } from '../http/errors';
 import { authorizeGuild, can } from '../guilds/guilds.policy';
 import { canReadSwap } from '../swaps/swaps.policy';
+import type { AppDeps } from '../deps';
 
 export interface RoomAccess {
   room: ChatRoom;
@@ -20,6 +21,7 @@ const hideMissingSwap = (missing: string) => (error: unknown) => {
  * follows the swap's own visibility (a draft is for its officers only).
  */
 export async function authorizeRoom(
+  deps: Pick<AppDeps, 'sequelize'>,
   userId: number,
   roomId: number,
   missing = 'That chat room does not exist.',
@@ -27,6 +29,6 @@ export async function authorizeRoom(
   const room = await ChatRoom.findByPk(roomId);
   if (!room) throw new NotFoundError('That chat room does not exist.');
   const membership = await authorizeGuild(userId, room.guildId, 'guild:read', missing);
-  if (room.kind === 'swap' && room.swapId) await canReadSwap(userId, room.swapId).catch(hideMissingSwap(missing));
+  if (room.kind === 'swap' && room.swapId) await canReadSwap(deps, userId, room.swapId).catch(hideMissingSwap(missing));
   return { room, membership, canPost: can(membership.role, 'chat:post'), canModerate: can(membership.role, 'chat:moderate') };
 }

@@ -15,11 +15,11 @@ import { authorizeRoom } from './chat.policy';
 import { roomDto, swapRoom } from './chat-rooms.service';
 import * as chat from './chat.service';
 
-const inRoom = (req: Request, { params }: { params: { roomId: number } }) => authorizeRoom(currentUser(req).id, params.roomId);
-
 /** Chat: rooms, history and messages over REST; the live part broadcasts every change to the room. */
 export function chatRouter(deps: AppDeps) {
   const router = Router();
+  const inRoom = (req: Request, { params }: { params: { roomId: number } }) =>
+    authorizeRoom(deps, currentUser(req).id, params.roomId);
   const upload = photoUploadMiddleware();
   // A message with photos comes as multipart/form-data (field `photos`, caption in `body`); text alone as JSON.
   const photosIfAny: RequestHandler = (req, res, next) => (req.is('multipart/form-data') ? upload(req, res, next) : next());

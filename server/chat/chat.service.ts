@@ -131,7 +131,7 @@ async function loadMessage(messageId: number) {
  */
 export async function editMessage(deps: ChatDeps, userId: number, messageId: number, body: string): Promise<ChatMessageDto> {
   const message = await loadMessage(messageId);
-  const access = await authorizeRoom(userId, message.roomId, 'That message does not exist.');
+  const access = await authorizeRoom(deps, userId, message.roomId, 'That message does not exist.');
   if (message.authorId !== userId) throw new ForbiddenError('You can edit only your own messages.');
   if (message.deletedAt) throw new ConflictError('That message was deleted, so it cannot be edited.', 'message_deleted');
   await deps.sequelize.transaction(async (transaction) => {
@@ -175,7 +175,7 @@ export async function editMessage(deps: ChatDeps, userId: number, messageId: num
  */
 export async function deleteMessage(deps: ChatDeps, userId: number, messageId: number): Promise<ChatMessageDto> {
   const message = await loadMessage(messageId);
-  const access = await authorizeRoom(userId, message.roomId, 'That message does not exist.');
+  const access = await authorizeRoom(deps, userId, message.roomId, 'That message does not exist.');
   const own = message.authorId === userId;
   if (!own && !access.canModerate)
     throw new ForbiddenError('You can delete only your own messages; a guild admin can remove others.');

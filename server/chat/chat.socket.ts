@@ -34,7 +34,7 @@ export const chatLive: LivePart = {
     const access = async ({ roomId }: ChatRoomRef) => {
       await assertSessionLive(socket);
       try {
-        return await authorizeRoom(user.userId, roomId);
+        return await authorizeRoom(deps, user.userId, roomId);
       } catch (error) {
         if (error instanceof AppError) logger.warn({ userId: user.userId, roomId, code: error.code }, 'socket join refused');
         throw error;

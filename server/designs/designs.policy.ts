@@ -4,6 +4,7 @@
  * blocks returned to them and blocks they made; in a gift swap, coordinators and admins may place
  * every returned block.
  */
+import type { AppDeps } from '../deps';
 import { canReadSwap, type SwapAccess } from '../swaps/swaps.policy';
 
 export interface DesignAccess extends SwapAccess {
@@ -12,7 +13,7 @@ export interface DesignAccess extends SwapAccess {
   allReturned: boolean;
 }
 
-export async function canUseDesignWall(userId: number, swapId: number): Promise<DesignAccess> {
-  const access = await canReadSwap(userId, swapId);
+export async function canUseDesignWall(deps: Pick<AppDeps, 'sequelize'>, userId: number, swapId: number): Promise<DesignAccess> {
+  const access = await canReadSwap(deps, userId, swapId);
   return { ...access, userId, allReturned: access.swap.mode === 'gift' && access.canManage };
 }

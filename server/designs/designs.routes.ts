@@ -16,11 +16,10 @@ import { photoColour } from '../uploads/photo-colour';
 import { canUseDesignWall } from './designs.policy';
 import { arrangeDesign, getDesign, saveDesign } from './designs.service';
 
-const designer = (req: Request, { params }: { params: { swapId: number } }) =>
-  canUseDesignWall(currentUser(req).id, params.swapId);
-
 export function designsRouter(deps: AppDeps) {
   const router = Router();
+  const designer = (req: Request, { params }: { params: { swapId: number } }) =>
+    canUseDesignWall(deps, currentUser(req).id, params.swapId);
 
   router.get(
     '/photos/:photoId/colour',

@@ -7,11 +7,10 @@ import { canManageSwap } from '../swaps/swaps.policy';
 import type { AppDeps } from '../deps';
 import { confirmReturn, distributionListing, planReturn } from './distribution.service';
 
-const manageSwap = (req: Request, { params }: { params: { swapId: number } }) =>
-  canManageSwap(currentUser(req).id, params.swapId);
-
 export function distributionRouter(deps: AppDeps) {
   const router = Router();
+  const manageSwap = (req: Request, { params }: { params: { swapId: number } }) =>
+    canManageSwap(deps, currentUser(req).id, params.swapId);
 
   router.post(
     '/swaps/:swapId/distribution/plan',

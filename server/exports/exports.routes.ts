@@ -7,12 +7,11 @@ import { canManageSwap } from '../swaps/swaps.policy';
 import { distributionCsv, rosterCsv } from './exports.service';
 import type { AppDeps } from '../deps';
 
-const manageSwap = (req: Request, { params }: { params: { swapId: number } }) =>
-  canManageSwap(currentUser(req).id, params.swapId);
-const coordinators = { params: swapParamsSchema, authorize: manageSwap };
-
 export function exportsRouter(deps: AppDeps) {
   const router = Router();
+  const manageSwap = (req: Request, { params }: { params: { swapId: number } }) =>
+    canManageSwap(deps, currentUser(req).id, params.swapId);
+  const coordinators = { params: swapParamsSchema, authorize: manageSwap };
 
   router.get(
     '/swaps/:swapId/export/roster.csv',

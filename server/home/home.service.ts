@@ -82,6 +82,6 @@ export async function markRoomSeen(
   userId: number,
   roomId: number,
 ): Promise<{ roomId: number; seenAt: string }> {
-  await authorizeRoom(userId, roomId);
+  await authorizeRoom(deps, userId, roomId);
   return { roomId, seenAt: (await q.markRoomSeen(deps.sequelize, roomId, userId)).toISOString() };
 }

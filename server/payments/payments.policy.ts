@@ -6,6 +6,7 @@
 import type { Role } from '@shared/schemas/guilds';
 import { authorizeGuild, can } from '../guilds/guilds.policy';
 import { canReadSwap } from '../swaps/swaps.policy';
+import type { AppDeps } from '../deps';
 
 export async function canPayGuild(userId: number, guildId: number): Promise<{ role: Role; isTreasurer: boolean }> {
   const membership = await authorizeGuild(userId, guildId, 'payments:pay');
@@ -17,8 +18,12 @@ export async function canTreasure(userId: number, guildId: number): Promise<void
 }
 
 /** Members of the swap's guild pay its fees; officers also see everyone's standing. */
-export async function canPaySwap(userId: number, swapId: number): Promise<{ canManage: boolean }> {
-  const access = await canReadSwap(userId, swapId);
+export async function canPaySwap(
+  deps: Pick<AppDeps, 'sequelize'>,
+  userId: number,
+  swapId: number,
+): Promise<{ canManage: boolean }> {
+  const access = await canReadSwap(deps, userId, swapId);
   if (!can(access.role, 'payments:pay')) return { canManage: false };
   return { canManage: access.canManage };
 }

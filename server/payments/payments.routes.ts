@@ -84,7 +84,7 @@ export function paymentsRouter(deps: AppDeps) {
     '/swaps/:swapId/fees',
     requireUser,
     route(
-      { params: swapParamsSchema, authorize: (req, { params }) => canPaySwap(me(req), params.swapId) },
+      { params: swapParamsSchema, authorize: (req, { params }) => canPaySwap(deps, me(req), params.swapId) },
       async ({ params, access }, req, res) => {
         res.json(await payments.swapFees(deps, params.swapId, me(req), access.canManage));
       },
@@ -95,7 +95,11 @@ export function paymentsRouter(deps: AppDeps) {
     '/swaps/:swapId/checkout',
     requireUser,
     route(
-      { params: swapParamsSchema, body: swapCheckoutSchema, authorize: (req, { params }) => canPaySwap(me(req), params.swapId) },
+      {
+        params: swapParamsSchema,
+        body: swapCheckoutSchema,
+        authorize: (req, { params }) => canPaySwap(deps, me(req), params.swapId),
+      },
       async ({ params, body }, req, res) => {
         res.json(await payments.startSwapCheckout(deps, params.swapId, me(req), body.kinds));
       },

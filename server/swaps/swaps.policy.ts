@@ -8,7 +8,8 @@ import type { Role } from '@shared/schemas/guilds';
 import { Swap } from '../db/models';
 import { assertGuildRole, can } from '../guilds/guilds.policy';
 import { ForbiddenError, NotFoundError } from '../http/errors';
-import { viewerRole } from './swaps.queries';
+import type { AppDeps } from '../deps';
+import { swapWithViewerRole } from './swaps.queries';
 
 export interface SwapAccess {
   swap: Swap;
@@ -24,21 +25,20 @@ export function takeViewerRole(swap: Swap): Role | null {
   return role;
 }
 
-let swapColumns: string | undefined;
-
 /**
  * The swap and the caller's role in one query, its SQL written out once: on every swap request
  * Sequelize spent more CPU building a findByPk with the role's subquery than the database spent
  * answering it. The instance is built from the row as findByPk would build it.
  */
-async function loadSwap(userId: number, swapId: number): Promise<{ swap: Swap; role: Role | null }> {
-  swapColumns ??= Object.entries(Swap.getAttributes())
-    .map(([name, a]) => `"Swap"."${a.field ?? name}" AS "${name}"`)
-    .join(', ');
-  const [row] = await Swap.sequelize!.query<Record<string, unknown>>(
-    `SELECT ${swapColumns}, ${viewerRole('Swap')} AS "viewerRole" FROM swaps "Swap" WHERE "Swap"."id" = $swapId`,
-    { bind: { swapId, viewerId: userId }, type: QueryTypes.SELECT },
-  );
+async function loadSwap(
+  deps: Pick<AppDeps, 'sequelize'>,
+  userId: number,
+  swapId: number,
+): Promise<{ swap: Swap; role: Role | null }> {
+  const [row] = await deps.sequelize.query<Record<string, unknown>>(swapWithViewerRole(), {
+    bind: { swapId, viewerId: userId },
+    type: QueryTypes.SELECT,
+  });
   if (!row) throw new NotFoundError('That swap does not exist.');
   const { viewerRole: role, ...values } = row;
   return { swap: Swap.build(values as never, { isNewRecord: false, raw: true }), role: (role ?? null) as Role | null };
@@ -53,20 +53,20 @@ export function readAccess(swap: Swap, role: Role | null, missing = 'That swap d
 }
 
 /** Any active member of the swap's guild; drafts are visible only to coordinators and admins. */
-export async function canReadSwap(userId: number, swapId: number): Promise<SwapAccess> {
-  const { swap, role } = await loadSwap(userId, swapId);
+export async function canReadSwap(deps: Pick<AppDeps, 'sequelize'>, userId: number, swapId: number): Promise<SwapAccess> {
+  const { swap, role } = await loadSwap(deps, userId, swapId);
   return readAccess(swap, role);
 }
 
 /** Coordinators and admins of the swap's guild. */
-export async function canManageSwap(userId: number, swapId: number): Promise<SwapAccess> {
-  const { swap, role } = await loadSwap(userId, swapId);
+export async function canManageSwap(deps: Pick<AppDeps, 'sequelize'>, userId: number, swapId: number): Promise<SwapAccess> {
+  const { swap, role } = await loadSwap(deps, userId, swapId);
   return { swap, role: assertGuildRole(role, 'swaps:manage', 'That swap does not exist.'), canManage: true };
 }
 
 /** Members of the guild may sign up for its swaps. */
-export async function canJoinSwap(userId: number, swapId: number): Promise<SwapAccess> {
-  const access = await canReadSwap(userId, swapId);
+export async function canJoinSwap(deps: Pick<AppDeps, 'sequelize'>, userId: number, swapId: number): Promise<SwapAccess> {
+  const access = await canReadSwap(deps, userId, swapId);
   if (!can(access.role, 'swaps:join')) throw new ForbiddenError();
   return access;
 }

@@ -1,4 +1,5 @@
 /** The swaps feature's hand-written SQL; every value arrives as a bind parameter. */
+import { Swap } from '../db/models';
 
 /**
  * The role of the person `$viewerId` in the guild of the swap aliased `swapAlias`, as a subquery read in
@@ -7,6 +8,19 @@
  */
 export const viewerRole = (swapAlias: 'Swap' | 's') =>
   `(SELECT m.role FROM memberships m WHERE m.guild_id = "${swapAlias}"."guild_id" AND m.user_id = $viewerId AND m.status = 'active')`;
+
+let swapWithRoleSql: string | undefined;
+
+/**
+ * Swap $swapId with every column aliased to its attribute name (the row findByPk would read) and the
+ * role of `$viewerId` in its guild as "viewerRole". Built once, on first use, from the model.
+ */
+export function swapWithViewerRole(): string {
+  swapWithRoleSql ??= `SELECT ${Object.entries(Swap.getAttributes())
+    .map(([name, a]) => `"Swap"."${a.field ?? name}" AS "${name}"`)
+    .join(', ')}, ${viewerRole('Swap')} AS "viewerRole" FROM swaps "Swap" WHERE "Swap"."id" = $swapId`;
+  return swapWithRoleSql;
+}
 
 /** Active sign-ups, blocks pledged and the pledge of `$userId`, for each swap in `$ids`. */
 export const SIGNUP_STATS = `SELECT swap_id, count(*) AS signups, coalesce(sum(blocks), 0) AS pledged,

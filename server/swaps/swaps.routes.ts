@@ -18,12 +18,12 @@ import * as swaps from './swaps.service';
 import * as signups from './signups.service';
 
 type SwapInput = { params: { swapId: number } };
-const readSwap = (req: Request, { params }: SwapInput) => canReadSwap(currentUser(req).id, params.swapId);
-const manageSwap = (req: Request, { params }: SwapInput) => canManageSwap(currentUser(req).id, params.swapId);
-const joinSwap = (req: Request, { params }: SwapInput) => canJoinSwap(currentUser(req).id, params.swapId);
 
 export function swapsRouter(deps: AppDeps) {
   const router = Router();
+  const readSwap = (req: Request, { params }: SwapInput) => canReadSwap(deps, currentUser(req).id, params.swapId);
+  const manageSwap = (req: Request, { params }: SwapInput) => canManageSwap(deps, currentUser(req).id, params.swapId);
+  const joinSwap = (req: Request, { params }: SwapInput) => canJoinSwap(deps, currentUser(req).id, params.swapId);
 
   router.get(
     '/guilds/:guildId/swaps',
