@@ -85,13 +85,19 @@ export async function markSewn(deps: Deps, locked: LockedBlock, actorId: number)
   return answer(deps, locked, await markBlockSewn(deps, locked, actorId));
 }
 
-/** The maker hands a block in, at a meeting or by post (with an optional tracking note). */
-export async function handIn(deps: Deps, locked: LockedBlock, actorId: number, input: HandInInput): Promise<Reply<BlockDto>> {
-  const { block, swap, transaction } = locked;
+/**
+ * Hands a locked block in, unless the coordinator has taken it in already (`refusal` says so); a
+ * block handed in before keeps its first hand-in time. Answers the state it came from.
+ */
+export async function handInLocked(
+  deps: Deps,
+  { block, swap, transaction }: LockedBlock,
+  actorId: number,
+  input: HandInInput,
+  refusal: string,
+): Promise<BlockState> {
   assertSwapIn(swap, ['signup', 'sewing', 'collecting'], 'handed in');
-  if (!isBlockStateBefore(block.state, 'received')) {
-    throw new ConflictError('The coordinator has already received this block, so its hand-in cannot change.', 'already_received');
-  }
+  if (!isBlockStateBefore(block.state, 'received')) throw new ConflictError(refusal, 'already_received');
   const from = block.state;
   const now = new Date();
   await applyStep(
@@ -107,6 +113,13 @@ export async function handIn(deps: Deps, locked: LockedBlock, actorId: number, i
     },
     { action: 'handed_in', byId: actorId },
   );
+  return from;
+}
+
+/** The maker hands a block in, at a meeting or by post (with an optional tracking note). */
+export async function handIn(deps: Deps, locked: LockedBlock, actorId: number, input: HandInInput): Promise<Reply<BlockDto>> {
+  const refusal = 'The coordinator has already received this block, so its hand-in cannot change.';
+  const from = await handInLocked(deps, locked, actorId, input, refusal);
   return answer(deps, locked, from !== 'handed_in' ? blockChanged(deps, locked, actorId, from) : undefined);
 }
 

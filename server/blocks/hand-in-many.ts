@@ -1,13 +1,11 @@
 /** A maker hands several of their blocks in at once: all of them, or none if one cannot be. */
 import type { HandInManyInput } from '@shared/schemas/blocks';
 import type { BlockDto } from '@shared/swap-types';
-import { isBlockStateBefore } from '@shared/vocabulary';
 import type { Block, Swap } from '../db/models';
-import { ConflictError, ValidationError } from '../http/errors';
+import { ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { blockDtos } from './block-dto';
-import { assertSwapIn, lockedBlock } from './blocks.service';
-import { applyStep } from './step-log';
+import { handInLocked, lockedBlock } from './blocks.service';
 
 type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
 
@@ -29,28 +27,8 @@ export async function handInMany(deps: Deps, swap: Swap, actorId: number, input:
           blockIds: `Block ${id} is not one of your blocks in this swap.`,
         });
       }
-      assertSwapIn(own, ['signup', 'sewing', 'collecting'], 'handed in');
-      if (!isBlockStateBefore(block.state, 'received')) {
-        throw new ConflictError(
-          `Block ${block.sequence} has already been taken in, so its hand-in cannot change.`,
-          'already_received',
-        );
-      }
-      const from = block.state;
-      const now = new Date();
-      await applyStep(
-        deps.sequelize,
-        transaction,
-        block,
-        {
-          state: 'handed_in',
-          handInHow: input.how,
-          handInNote: input.note || null,
-          handedInAt: block.handedInAt ?? now,
-          sewnAt: block.sewnAt ?? now,
-        },
-        { action: 'handed_in', byId: actorId },
-      );
+      const refusal = `Block ${block.sequence} has already been taken in, so its hand-in cannot change.`;
+      const from = await handInLocked(deps, { block, swap: own, transaction }, actorId, input, refusal);
       if (from !== 'handed_in') changes.push({ blockId: id, from });
       done.push(block);
     }
