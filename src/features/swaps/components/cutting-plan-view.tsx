@@ -1,11 +1,12 @@
+import type { Units } from '@shared/schemas/auth';
 import type { CuttingPlan } from '../hooks/use-cutting-plan';
 import { len, yards } from '@/lib/lengths';
 
 const th = 'py-2 pr-4 text-left font-semibold';
 const td = 'py-2 pr-4 align-top';
 
-/** The cut list, the strip-set recipe (grid blocks) and the yardage of a cutting plan. */
-export function CuttingPlanView({ plan, showYardage = true }: { plan: CuttingPlan; showYardage?: boolean }) {
+/** The cut list, the strip-set recipe (grid blocks) and the yardage of a cutting plan; lengths in the viewer's unit. */
+export function CuttingPlanView({ plan, units, showYardage = true }: { plan: CuttingPlan; units: Units; showYardage?: boolean }) {
   if (plan.freeText !== undefined) {
     return (
       <div className="space-y-2">
@@ -54,7 +55,7 @@ export function CuttingPlanView({ plan, showYardage = true }: { plan: CuttingPla
                   {c.what}
                 </td>
                 <td data-label="Cut size" className={td}>
-                  {len(c.width)} × {len(c.height)}
+                  {len(c.width, units)} × {len(c.height, units)}
                 </td>
                 <td data-label="How many" className={`${td} text-right font-semibold`}>
                   {c.count}
@@ -71,9 +72,10 @@ export function CuttingPlanView({ plan, showYardage = true }: { plan: CuttingPla
           <ol className="mt-2 list-decimal space-y-3 pl-6">
             {plan.stripSets.map((set, i) => (
               <li key={i}>
-                Sew strips {set.strips.map((s) => `${len(s.width)}${s.role ? ` ${s.role}` : ''}`).join(' + ')} cut across the
-                width of fabric (sewn width {len(set.sewnWidth)}). Make {set.stripSets} strip set{set.stripSets === 1 ? '' : 's'};
-                sub-cut {set.subCuts.map((c) => `${c.total} × ${len(c.height)}`).join(' and ')}.
+                Sew strips {set.strips.map((s) => `${len(s.width, units)}${s.role ? ` ${s.role}` : ''}`).join(' + ')} cut across
+                the width of fabric (sewn width {len(set.sewnWidth, units)}). Make {set.stripSets} strip set
+                {set.stripSets === 1 ? '' : 's'}; sub-cut{' '}
+                {set.subCuts.map((c) => `${c.total} × ${len(c.height, units)}`).join(' and ')}.
               </li>
             ))}
           </ol>
@@ -87,7 +89,8 @@ export function CuttingPlanView({ plan, showYardage = true }: { plan: CuttingPla
             {plan.fabrics.map((f) => (
               <li key={f.fabric}>
                 <span className="font-semibold">{f.fabric}:</span> {yards(f.yards)} — {f.strips} strip{f.strips === 1 ? '' : 's'}{' '}
-                across a 42″ width of fabric ({[...new Set(f.stripWidths)].map((w) => len(w)).join(', ')} wide)
+                across a {len(plan.wof, units)} width of fabric (
+                {[...new Set(f.stripWidths)].map((w) => len(w, units)).join(', ')} wide)
               </li>
             ))}
           </ul>

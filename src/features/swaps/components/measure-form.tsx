@@ -1,8 +1,9 @@
 import { useState } from 'react';
 import { useForm, useWatch, type Resolver } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { checkBlock, formatDeviation, type CheckBlockResult } from '@shared/quilt';
+import { checkBlock, type CheckBlockResult } from '@shared/quilt';
 import { measuringFormSchema, type MeasuringFormInput, type MeasuringFormOutput } from '@shared/schemas/intake';
+import type { Units } from '@shared/schemas/auth';
 import type { SwapDto } from '@shared/swap-types';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
@@ -13,15 +14,15 @@ import { VerdictBadge } from '@/entities/block/components/verdict-badge';
 import { useMe } from '@/entities/me/api/get-me';
 import { measuringInUnits, unitsFor } from '@/entities/me/api/units';
 import { newClientId } from '@/lib/client-id';
-import { len, sizeText } from '@/lib/lengths';
+import { deviation, len, sizeText } from '@/lib/lengths';
 
 type Field = keyof MeasuringFormInput;
 const empty: MeasuringFormInput = { width: '', height: '', diagonal1: '', diagonal2: '' };
 const schemaResolver = zodResolver(measuringFormSchema);
 
 /** The verdict as the engine sees what is typed so far (a lone diagonal is left out), or null while it cannot be read. */
-/** How far a side is off, in sixteenths; a side exactly on size reads in words, not as a bare 0″. */
-const deviationWords = (x: number) => (x === 0 ? 'on size' : formatDeviation(x, { denominator: 16 }));
+/** How far a side is off in the viewer's unit; a side exactly on size reads in words, not as a bare 0″. */
+const deviationWords = (x: number, units: Units) => (x === 0 ? 'on size' : deviation(x, units));
 
 function preview(swap: SwapDto, v: MeasuringFormInput): CheckBlockResult | null {
   const pair = v.diagonal1.trim() !== '' && v.diagonal2.trim() !== '';
@@ -95,7 +96,7 @@ export function MeasureForm({
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label={label}>
       <p className="text-walnut-soft">
-        Target {sizeText(swap.unfinished)} ± {len(swap.tolerance)}.{' '}
+        Target {sizeText(swap.unfinished, units)} ± {len(swap.tolerance, units)}.{' '}
         {units === 'mm' ? 'Type 241.3, or 9½″ with its mark.' : 'Type 9 1/2, 9½, 9.5 or 241 mm.'}
       </p>
       {problem && <Alert tone="error">{problem}</Alert>}
@@ -140,16 +141,16 @@ export function MeasureForm({
           <p className="flex flex-wrap items-center gap-2">
             <span>As typed:</span> <VerdictBadge verdict={live.verdict} />
             <span className="text-walnut-soft">
-              width {deviationWords(live.deviations.width)}, height {deviationWords(live.deviations.height)}
+              width {deviationWords(live.deviations.width, units)}, height {deviationWords(live.deviations.height, units)}
               {live.deviations.diagonal !== undefined &&
-                `, diagonals differ by ${formatDeviation(Math.abs(live.deviations.diagonal), { denominator: 16 })}`}
+                `, diagonals differ by ${deviation(Math.abs(live.deviations.diagonal), units)}`}
             </span>
           </p>
         )}
         {saved && (
           <p className="flex flex-wrap items-center gap-2" role="status">
             <span className="font-semibold">Saved:</span> <VerdictBadge verdict={saved.verdict} source={saved.source} />
-            <span className="text-walnut-soft">({sizeText(saved)})</span>
+            <span className="text-walnut-soft">({sizeText(saved, units)})</span>
           </p>
         )}
       </div>

@@ -7,6 +7,8 @@ import { TextField } from '@/components/ui/fields';
 import { SafetyCautions } from '@/components/ui/safety-cautions';
 import { ApiError } from '@/lib/api-client';
 import { useBlocks } from '@/entities/block/api/get-blocks';
+import { useMe } from '@/entities/me/api/get-me';
+import { unitsFor } from '@/entities/me/api/units';
 import { usePledge } from '../api/pledge';
 import { useWithdraw } from '../api/withdraw';
 import { useCuttingPlan } from '../hooks/use-cutting-plan';
@@ -110,7 +112,8 @@ export function MySwapPanel({ swap }: { swap: SwapDto }) {
   const mine = blocks.data ?? [];
   const pledged = mine.length || swap.myPledge;
   const roles = swap.colourRules.map((r) => r.role);
-  const { plan, problem } = useCuttingPlan(pledged > 0 ? swap.block : null, pledged, roles);
+  const units = unitsFor(useMe().data, swap.guildId);
+  const { plan, problem } = useCuttingPlan(pledged > 0 ? swap.block : null, pledged, roles, units);
 
   if (swap.state === 'draft' || swap.state === 'cancelled') return null;
   return (
@@ -132,7 +135,7 @@ export function MySwapPanel({ swap }: { swap: SwapDto }) {
               <h3 className="text-xl font-semibold text-indigo-deep">
                 Cutting plan for your {pledged} block{pledged === 1 ? '' : 's'}
               </h3>
-              <div className="mt-3">{plan ? <CuttingPlanView plan={plan} /> : problem && <p>{problem}</p>}</div>
+              <div className="mt-3">{plan ? <CuttingPlanView plan={plan} units={units} /> : problem && <p>{problem}</p>}</div>
             </section>
             <SafetyCautions topics={['cutting', 'pressing']} />
             <section>

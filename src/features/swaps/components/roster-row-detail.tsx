@@ -10,6 +10,8 @@ import { ApiError } from '@/lib/api-client';
 import { formatInZone } from '@/lib/dates';
 import { paths } from '@/lib/paths';
 import { useMeasurements } from '@/entities/block/api/get-measurements';
+import { useMe } from '@/entities/me/api/get-me';
+import { unitsFor } from '@/entities/me/api/units';
 import { useReceiveBlock } from '@/entities/block/api/receive-block';
 import { invalidateSwapData } from '@/entities/block/api/block-keys';
 import { useTrimBlock } from '../api/trim-block';
@@ -26,13 +28,14 @@ const MEASURABLE = ['received', 'measured'];
 
 function History({ swap, blockId }: { swap: SwapDto; blockId: number }) {
   const history = useMeasurements(blockId);
+  const units = unitsFor(useMe().data, swap.guildId);
   if (history.isPending) return <p>Loading…</p>;
   if (history.isError || history.data.length === 0) return <p className="text-walnut-soft">No measurements yet.</p>;
   return (
     <ol className="space-y-1">
       {history.data.map((m) => (
         <li key={m.id} className="flex flex-wrap items-center gap-2">
-          <time dateTime={m.at}>{formatInZone(m.at, swap.guild.timeZone)}</time> {sizeText(m)}
+          <time dateTime={m.at}>{formatInZone(m.at, swap.guild.timeZone)}</time> {sizeText(m, units)}
           <VerdictBadge verdict={m.verdict} source={m.source} />
           {m.measuredBy && <span className="text-walnut-soft">by {m.measuredBy.displayName}</span>}
           {m.withdrawnAt && <span className="font-semibold text-madder-deep">withdrawn (undone)</span>}

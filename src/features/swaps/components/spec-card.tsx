@@ -12,9 +12,9 @@ import { len, sizeText } from '@/lib/lengths';
 /** The block spec: drawing, sizes, tolerance, colour rules, dates and the cut list for one block. */
 export function SpecCard({ swap }: { swap: SwapDto }) {
   const roles = swap.colourRules.map((r) => r.role);
-  const { plan, problem } = useCuttingPlan(swap.block, 1, roles);
-  const tz = swap.guild.timeZone;
   const units = unitsFor(useMe().data, swap.guildId);
+  const { plan, problem } = useCuttingPlan(swap.block, 1, roles, units);
+  const tz = swap.guild.timeZone;
   return (
     <Card title="The block">
       <div className="grid gap-6 md:grid-cols-[18rem_1fr]">
@@ -25,14 +25,14 @@ export function SpecCard({ swap }: { swap: SwapDto }) {
             <dt className="font-semibold">Kind</dt>
             <dd>{blockKindLabels[swap.block.kind]}</dd>
             <dt className="font-semibold">Unfinished</dt>
-            <dd>{sizeText(swap.unfinished)} (cut edge to cut edge)</dd>
+            <dd>{sizeText(swap.unfinished, units)} (cut edge to cut edge)</dd>
             <dt className="font-semibold">Finished</dt>
             <dd>
-              {sizeText(swap.finished)} in the quilt, with {len(swap.seam)} seams
+              {sizeText(swap.finished, units)} in the quilt, with {len(swap.seam, units)} seams
             </dd>
             <dt className="font-semibold">Tolerance</dt>
             <dd>
-              ± {len(swap.tolerance)} on each side; diagonals within {len(swap.squareness)} of each other
+              ± {len(swap.tolerance, units)} on each side; diagonals within {len(swap.squareness, units)} of each other
             </dd>
             <dt className="font-semibold">Blocks each</dt>
             <dd>{swap.quota.min === swap.quota.max ? swap.quota.min : `${swap.quota.min} to ${swap.quota.max}`}</dd>
@@ -75,7 +75,11 @@ export function SpecCard({ swap }: { swap: SwapDto }) {
         </div>
       </div>
       <div className="mt-6">
-        {plan ? <CuttingPlanView plan={plan} showYardage={false} /> : problem && <p className="text-madder-deep">{problem}</p>}
+        {plan ? (
+          <CuttingPlanView plan={plan} units={units} showYardage={false} />
+        ) : (
+          problem && <p className="text-madder-deep">{problem}</p>
+        )}
       </div>
     </Card>
   );

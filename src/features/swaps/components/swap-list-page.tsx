@@ -3,6 +3,8 @@ import { buttonClass } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { EmptyState, Loading, QueryError } from '@/components/ui/page';
 import { useGuild } from '@/entities/guild/api/get-guild';
+import { useMe } from '@/entities/me/api/get-me';
+import { unitsFor } from '@/entities/me/api/units';
 import { paths } from '@/lib/paths';
 import { useSwaps } from '@/entities/swap/api/get-swaps';
 import { Deadline } from './deadline';
@@ -14,6 +16,7 @@ export function SwapListPage() {
   const guildId = Number(useParams().guildId);
   const guild = useGuild(guildId);
   const swaps = useSwaps(guildId);
+  const units = unitsFor(useMe().data, guildId);
   if (guild.isPending || swaps.isPending) return <Loading label="Loading swaps…" />;
   if (guild.isError) return <QueryError error={guild.error} what="the guild" />;
   if (swaps.isError) return <QueryError error={swaps.error} what="the swaps" />;
@@ -50,7 +53,7 @@ export function SwapListPage() {
                   <SwapStateBadge state={s.state} />
                 </div>
                 <p className="mt-3">
-                  {sizeText(s.unfinished)} unfinished ·{' '}
+                  {sizeText(s.unfinished, units)} unfinished ·{' '}
                   {s.quota.min === s.quota.max ? s.quota.min : `${s.quota.min}–${s.quota.max}`} blocks each ·{' '}
                   {s.mode === 'gift' ? 'gift swap' : 'blocks come back to the makers'}
                 </p>

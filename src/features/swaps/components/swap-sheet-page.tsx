@@ -71,13 +71,13 @@ function YardageTable({ swap }: { swap: SwapDto }) {
 export function SwapSheetPage() {
   const swap = useSwap(Number(useParams().swapId));
   const roles = swap.data?.colourRules.map((r) => r.role) ?? [];
-  const { plan } = useCuttingPlan(swap.data?.block ?? null, 1, roles);
   const me = useMe();
+  const units = unitsFor(me.data, swap.data?.guildId);
+  const { plan } = useCuttingPlan(swap.data?.block ?? null, 1, roles, units);
   if (swap.isPending) return <Loading />;
   if (swap.isError) return <QueryError error={swap.error} what="the swap" />;
   const s = swap.data;
   const tz = s.guild.timeZone;
-  const units = unitsFor(me.data, s.guildId);
   return (
     <article className="space-y-6 rounded-card bg-card p-6 ring-1 ring-walnut/10 print:p-0 print:text-[11pt] print:ring-0">
       <div className="flex flex-wrap items-start justify-between gap-3">
@@ -96,14 +96,14 @@ export function SwapSheetPage() {
           <dt className="font-semibold">Block</dt>
           <dd>{blockKindLabels[s.block.kind]}</dd>
           <dt className="font-semibold">Unfinished size</dt>
-          <dd>{sizeText(s.unfinished)}</dd>
+          <dd>{sizeText(s.unfinished, units)}</dd>
           <dt className="font-semibold">Finished size</dt>
           <dd>
-            {sizeText(s.finished)} ({len(s.seam)} seams)
+            {sizeText(s.finished, units)} ({len(s.seam, units)} seams)
           </dd>
           <dt className="font-semibold">Tolerance</dt>
           <dd>
-            ± {len(s.tolerance)} each side; diagonals within {len(s.squareness)}
+            ± {len(s.tolerance, units)} each side; diagonals within {len(s.squareness, units)}
           </dd>
           <dt className="font-semibold">Blocks each</dt>
           <dd>{s.quota.min === s.quota.max ? s.quota.min : `${s.quota.min} to ${s.quota.max}`}</dd>
@@ -119,11 +119,11 @@ export function SwapSheetPage() {
           ))}
         </dl>
       </div>
-      {plan && <CuttingPlanView plan={plan} showYardage={false} />}
+      {plan && <CuttingPlanView plan={plan} units={units} showYardage={false} />}
       <YardageTable swap={s} />
       <SafetyCautions topics={['cutting', 'pressing']} className="print:break-inside-avoid" />
       <p className="text-base text-walnut-soft">
-        Times are {tz} time. Measure your block before handing it in: {sizeText(s.unfinished)} from cut edge to cut edge.
+        Times are {tz} time. Measure your block before handing it in: {sizeText(s.unfinished, units)} from cut edge to cut edge.
       </p>
     </article>
   );

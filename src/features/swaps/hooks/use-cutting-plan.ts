@@ -6,7 +6,6 @@ import { useMemo } from 'react';
 import {
   batchCuts,
   flyingGeeseCuts,
-  formatLength,
   gridRecipe,
   hstCut,
   qstCut,
@@ -15,7 +14,9 @@ import {
   type Piece,
   type StripSetDesign,
 } from '@shared/quilt';
+import type { Units } from '@shared/schemas/auth';
 import type { BlockSpec } from '@shared/schemas/blocks';
+import { len } from '@/lib/lengths';
 
 export interface CutRow {
   fabric: string;
@@ -34,6 +35,8 @@ export interface FabricNeed {
 
 export interface CuttingPlan {
   blocks: number;
+  /** width of fabric the strips are cut across, inches */
+  wof: number;
   cuts: CutRow[];
   fabrics: FabricNeed[];
   stripSets: StripSetDesign[];
@@ -54,13 +57,17 @@ function yardage(cuts: CutRow[], wof: number): FabricNeed[] {
   });
 }
 
-/** Pure: the plan for `blocks` blocks; `roles` names the fabrics (from the swap's colour rules). */
-export function cuttingPlan(spec: BlockSpec, blocks: number, roles: string[] = [], wof = 42): CuttingPlan {
+/**
+ * Pure: the plan for `blocks` blocks; `roles` names the fabrics (from the swap's colour rules). Lengths
+ * stay in inches; the notes, being text, are written in `units`.
+ */
+export function cuttingPlan(spec: BlockSpec, blocks: number, roles: string[] = [], units: Units = 'in', wof = 42): CuttingPlan {
   const n = Math.max(1, Math.floor(blocks));
   const notes: string[] = [];
   if (spec.kind === 'custom') {
     return {
       blocks: n,
+      wof,
       cuts: [],
       fabrics: [],
       stripSets: [],
@@ -97,7 +104,7 @@ export function cuttingPlan(spec: BlockSpec, blocks: number, roles: string[] = [
       );
     }
     notes.push('Sew the strips of each strip set together along their length, press, then sub-cut across at the heights given.');
-    return { blocks: n, cuts, fabrics: [...merged.values()], stripSets: recipe.stripSets, notes };
+    return { blocks: n, wof, cuts, fabrics: [...merged.values()], stripSets: recipe.stripSets, notes };
   }
   let cuts: CutRow[];
   if (spec.kind === 'hst') {
@@ -110,7 +117,7 @@ export function cuttingPlan(spec: BlockSpec, blocks: number, roles: string[] = [
       { fabric: b, what: 'Square', width: unit.square, height: unit.square, count: batches },
     ];
     notes.push(`Each pair of squares makes ${unit.yields} HSTs${spare ? `; you will have ${spare} spare` : ''}.`);
-    if (unit.trimTo) notes.push(`Trim each HST to ${formatLength(unit.trimTo)} square.`);
+    if (unit.trimTo) notes.push(`Trim each HST to ${len(unit.trimTo, units)} square.`);
   } else if (spec.kind === 'qst') {
     const unit = qstCut(spec.finished);
     const { batches, spare } = batchCuts([{ count: 1, yields: unit.yields }], n);
@@ -148,9 +155,11 @@ export function cuttingPlan(spec: BlockSpec, blocks: number, roles: string[] = [
         count: 2 * n,
       },
     ];
-    notes.push('Sizes with √2 are rounded up to the next ⅛″; trim the finished unit square.');
+    // The rounding step is an inch step whatever the viewer's unit; in millimetres it is named exactly.
+    const step = units === 'mm' ? '⅛″ (3.175 mm)' : '⅛″';
+    notes.push(`Sizes with √2 are rounded up to the next ${step}; trim the finished unit square.`);
   }
-  return { blocks: n, cuts, fabrics: yardage(cuts, wof), stripSets: [], notes };
+  return { blocks: n, wof, cuts, fabrics: yardage(cuts, wof), stripSets: [], notes };
 }
 
 /** Memoised cuttingPlan; null while the spec cannot be planned (an engine error is returned as text). */
@@ -158,12 +167,13 @@ export function useCuttingPlan(
   spec: BlockSpec | null,
   blocks: number,
   roles: string[],
+  units: Units = 'in',
 ): { plan: CuttingPlan | null; problem: string | null } {
-  const key = JSON.stringify([spec, blocks, roles]);
+  const key = JSON.stringify([spec, blocks, roles, units]);
   return useMemo(() => {
     if (!spec) return { plan: null, problem: null };
     try {
-      return { plan: cuttingPlan(spec, blocks, roles), problem: null };
+      return { plan: cuttingPlan(spec, blocks, roles, units), problem: null };
     } catch (error) {
       return { plan: null, problem: error instanceof Error ? error.message : 'This block cannot be planned.' };
     }

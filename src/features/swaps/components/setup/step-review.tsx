@@ -22,7 +22,7 @@ export function StepReview({ form, timeZone, units }: { form: UseFormReturn<Setu
   const v = useWatch({ control: form.control }) as SetupValues;
   const { spec, problem } = parseBlock(v.block, units);
   const roles = v.colourRules.map((r) => r.role).filter(Boolean);
-  const { plan } = useCuttingPlan(spec, 1, roles);
+  const { plan } = useCuttingPlan(spec, 1, roles, units);
   const when = (local: string) => {
     const iso = zonedLocalToIso(local, timeZone);
     return iso ? formatInZone(iso, timeZone) : 'not set';
@@ -69,7 +69,7 @@ export function StepReview({ form, timeZone, units }: { form: UseFormReturn<Setu
       {plan && (
         <section>
           <h3 className="mb-2 text-xl font-semibold text-indigo-deep">Cutting for one block</h3>
-          <CuttingPlanView plan={plan} />
+          <CuttingPlanView plan={plan} units={units} />
         </section>
       )}
     </div>
