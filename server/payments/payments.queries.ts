@@ -209,12 +209,13 @@ export async function updatePayment(
   await db.query(`UPDATE payments SET ${sets}, updated_at = now() WHERE id = $1`, [id, ...columns.map((c) => patch[c] ?? null)]);
 }
 
-const LIST = `
-  SELECT p.*, g.name AS guild_name, s.title AS swap_title, u.display_name
+const LIST_COLUMNS = 'p.*, g.name AS guild_name, s.title AS swap_title, u.display_name';
+const LIST_FROM = `
     FROM payments p
     JOIN guilds g ON g.id = p.guild_id
     JOIN users u ON u.id = p.user_id
     LEFT JOIN swaps s ON s.id = p.swap_id`;
+const LIST = `SELECT ${LIST_COLUMNS}${LIST_FROM}`;
 
 export async function listForUser(db: Db, userId: number, sessionId: string | null): Promise<PaymentListRow[]> {
   const { rows } = await db.query<PaymentListRow>(
@@ -224,18 +225,30 @@ export async function listForUser(db: Db, userId: number, sessionId: string | nu
   return rows;
 }
 
+export interface GuildPaymentListRow extends PaymentListRow {
+  /** the membership year of dues, else the year on the guild's calendar when the payment was made */
+  guild_year: number;
+}
+
+/**
+ * The year a payment counts in for the treasurer: dues in their membership year, anything else in the
+ * year of its creation on the guild's own calendar (a payment at 00:30 UTC on 1 January is still
+ * 31 December in Chicago).
+ */
+const GUILD_YEAR = 'COALESCE(p.dues_year, EXTRACT(YEAR FROM p.created_at AT TIME ZONE g.time_zone)::int)';
+
 export async function listForGuild(
   db: Db,
   guildId: number,
   f: { status?: PaymentStatus; kind?: PaymentKind; swapId?: number; year?: number },
-): Promise<PaymentListRow[]> {
-  const { rows } = await db.query<PaymentListRow>(
-    `${LIST}
+): Promise<GuildPaymentListRow[]> {
+  const { rows } = await db.query<GuildPaymentListRow>(
+    `SELECT ${LIST_COLUMNS}, ${GUILD_YEAR} AS guild_year${LIST_FROM}
       WHERE p.guild_id = $1
         AND ($2::text IS NULL OR p.status = $2)
         AND ($3::text IS NULL OR p.kind = $3)
         AND ($4::int IS NULL OR p.swap_id = $4)
-        AND ($5::int IS NULL OR COALESCE(p.dues_year, EXTRACT(YEAR FROM p.created_at)::int) = $5)
+        AND ($5::int IS NULL OR ${GUILD_YEAR} = $5)
       ORDER BY p.created_at DESC, p.id DESC
       LIMIT 5000`,
     [guildId, f.status ?? null, f.kind ?? null, f.swapId ?? null, f.year ?? null],

@@ -332,7 +332,7 @@ export async function guildPayments(
       addTo(t, r);
       bySwap.set(r.swap_id, t);
     }
-    const year = r.dues_year ?? r.created_at.getUTCFullYear();
+    const year = r.guild_year;
     const y = byYear.get(year) ?? { ...emptyTotals(), year };
     addTo(y, r);
     byYear.set(year, y);
