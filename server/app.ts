@@ -65,7 +65,7 @@ export function createApp(deps: AppDeps): BuiltApp {
   );
 
   const sessionMiddleware = createSessionMiddleware(config, deps.pool);
-  const passport = configurePassport();
+  const passport = configurePassport(deps);
   const passportMiddleware = [passport.initialize(), passport.session()];
 
   const api = express.Router();

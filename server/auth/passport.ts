@@ -6,6 +6,7 @@ import { User } from '../db/models';
 import { decoyVerify, verifyPassword } from './passwords';
 import { preloadedUser } from './session';
 import type { Request } from 'express';
+import type { AppDeps } from '../deps';
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
@@ -20,8 +21,16 @@ declare global {
   }
 }
 
+/**
+ * The connection the user fallback below reads through. Passport is one instance per process and keeps
+ * every deserializer it was given, the first one answering, so the deserializer reads the connection
+ * of the app configured last (as the models do) rather than capturing the first app's.
+ */
+let connection: AppDeps['sequelize'] | undefined;
+
 /** Configures the one passport instance: e-mail + password, sessions keyed by user id. */
-export function configurePassport() {
+export function configurePassport(deps: Pick<AppDeps, 'sequelize'>) {
+  connection = deps.sequelize;
   passport.use(
     new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
       User.findOne({ where: { email: normaliseEmail(email) } })
@@ -41,10 +50,11 @@ export function configurePassport() {
   passport.deserializeUser((req: Request, id: number, done: (err: unknown, user?: Express.User | false) => void) => {
     const known = preloadedUser(req, id);
     if (known !== undefined) return done(null, known ?? false);
-    User.sequelize!.query<Express.User>('SELECT id, email, display_name AS "displayName", units FROM users WHERE id = $id', {
-      bind: { id },
-      type: QueryTypes.SELECT,
-    })
+    connection!
+      .query<Express.User>('SELECT id, email, display_name AS "displayName", units FROM users WHERE id = $id', {
+        bind: { id },
+        type: QueryTypes.SELECT,
+      })
       .then(([user]) =>
         done(null, user ? { id: user.id, email: user.email, displayName: user.displayName, units: user.units } : false),
       )
