@@ -7,6 +7,9 @@
  * Server and clients share this process (and its two cores), so figures include the clients' own work.
  * Run alone with `npx tsx bench/live.ts`.
  */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { io as connectClient, type Socket } from 'socket.io-client';
 import type { Ack, BoardChange, ClientToServerEvents, ServerToClientEvents } from '../shared/live-events';
@@ -116,11 +119,15 @@ export async function runLiveBench(opts: { sockets?: number; members?: number; m
   const cluster = await startThrowawayCluster('blockpost-live-bench-');
   const nodes: RunningServer[] = [];
   const sockets: Client[] = [];
+  let uploads: string | undefined;
   try {
     const url = await cluster.database('live_bench');
+    // The two nodes share this throwaway install's own photo store, never the repository's uploads/.
+    uploads = mkdtempSync(join(tmpdir(), 'blockpost-live-bench-uploads-'));
     const config = (port = '0') =>
       loadConfig({
         DATABASE_URL: url,
+        UPLOAD_DIR: uploads,
         SESSION_SECRET: 'bench-secret-bench-secret',
         PORT: port,
         LOG_LEVEL: 'silent',
@@ -206,6 +213,7 @@ export async function runLiveBench(opts: { sockets?: number; members?: number; m
     for (const s of sockets) s.disconnect();
     for (const node of nodes.reverse()) await node.close().catch(() => undefined);
     cluster.stop();
+    if (uploads) rmSync(uploads, { recursive: true, force: true });
   }
 }
 
