@@ -11,6 +11,7 @@ import type { Mailer } from './mailer';
 import { optedOut, optedOutReason } from './preferences';
 import { unsubscribeHeaders, unsubscribeToken } from './unsubscribe-token';
 import { stillTrue } from './still-true';
+import { CLAIM_MESSAGE, FINISH_MESSAGE, RECEIPT_PENDING, REWRITE_MESSAGE } from './mail.queries';
 
 /** How long a claim holds; a worker that dies mid-send lets the message go after this. */
 const LEASE_MINUTES = 15;
@@ -46,16 +47,6 @@ interface DeliveryDeps extends Pick<AppDeps, 'sequelize'> {
 /** How long a return notice waits for the same maker's receipt before looking again. */
 const HOLD_SECONDS = 2;
 
-/**
- * A return notice waits while the same person's receipt for that swap is still on its way, so
- * "your blocks arrived" always lands before "blocks coming your way".
- */
-const RECEIPT_PENDING = `
-  SELECT 1 FROM mail_messages d
-    JOIN mail_messages r ON r.swap_id = d.swap_id AND r.user_id = d.user_id AND r.kind = 'receipt' AND r.status IN ('queued', 'sending')
-   WHERE d.id = $1 AND d.kind = 'distribution' AND d.status = 'queued'
-   LIMIT 1`;
-
 function reasonOf(error: unknown): string {
   const e = error as { message?: string; responseCode?: number; code?: string };
   return (e?.message ?? String(error)).replace(/\s+/g, ' ').trim().slice(0, 500);
@@ -73,24 +64,12 @@ export async function deliverMessage(deps: DeliveryDeps, id: number): Promise<De
     await deps.later(id, HOLD_SECONDS);
     return 'held';
   }
-  const claimed = await deps.pool.query<ClaimedRow>(
-    `UPDATE mail_messages
-        SET status = 'sending', attempts = attempts + 1, locked_until = now() + make_interval(mins => $2), updated_at = now()
-      WHERE id = $1 AND (status = 'queued' OR (status = 'sending' AND locked_until < now()))
-      RETURNING id, category, user_id, to_address, subject, text_body, html_body, attempts, kind, swap_id, idempotency_key, written_for`,
-    [id, LEASE_MINUTES],
-  );
+  const claimed = await deps.pool.query<ClaimedRow>(CLAIM_MESSAGE, [id, LEASE_MINUTES]);
   const row = claimed.rows[0];
   if (!row) return 'not-claimed';
 
   const finish = (status: 'sent' | 'skipped' | 'failed' | 'queued', reason: string | null, providerId: string | null = null) =>
-    deps.pool.query(
-      `UPDATE mail_messages
-          SET status = $2::text, status_reason = $3, provider_message_id = COALESCE($4, provider_message_id),
-              sent_at = CASE WHEN $2::text = 'sent' THEN now() ELSE sent_at END, locked_until = NULL, updated_at = now()
-        WHERE id = $1`,
-      [id, status, reason, providerId],
-    );
+    deps.pool.query(FINISH_MESSAGE, [id, status, reason, providerId]);
 
   if (row.category !== 'account' && row.user_id !== null && (await optedOut([row.user_id], row.category)).has(row.user_id)) {
     await finish('skipped', optedOutReason(row.category as MailCategory));
@@ -106,10 +85,7 @@ export async function deliverMessage(deps: DeliveryDeps, id: number): Promise<De
   }
   if (check.send === 'rewritten') {
     const { subject, text, html } = check.mail;
-    await deps.pool.query(
-      `UPDATE mail_messages SET subject = $2, text_body = $3, html_body = $4, updated_at = now() WHERE id = $1`,
-      [id, subject.slice(0, 300), text, html],
-    );
+    await deps.pool.query(REWRITE_MESSAGE, [id, subject.slice(0, 300), text, html]);
     Object.assign(row, { subject: subject.slice(0, 300), text_body: text, html_body: html });
   }
 

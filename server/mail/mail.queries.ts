@@ -1,4 +1,7 @@
-/** Hand-written SQL of the mail composers; every value arrives as a bind parameter. */
+/**
+ * Hand-written SQL of mail; every value arrives as a bind parameter: named (`$swapId`) through
+ * Sequelize, numbered (`$1`) through the plain pool, which numbers its parameters.
+ */
 
 /** Each active, still-member signer of swap $swapId (guild $guildId): their pledge, blocks handed in and still owed. */
 export const DEBTS = `SELECT s.user_id, s.blocks AS pledged,
@@ -50,3 +53,52 @@ export const SWAP_TOTALS = `SELECT (SELECT coalesce(sum(blocks), 0) FROM signups
               count(*) FILTER (WHERE state IN ('pledged', 'sewn')) AS owed,
               count(DISTINCT maker_id) FILTER (WHERE state IN ('pledged', 'sewn')) AS owing
          FROM blocks WHERE swap_id = $swapId`;
+
+/** The payments $1 (an array of ids) with their guild, swap and payer, for a receipt; oldest first. */
+export const PAYMENT_RECEIPT_ROWS = `SELECT p.id, p.kind, p.amount, p.currency, p.status, p.dues_year, p.guild_id, p.swap_id, p.user_id, p.paid_at, p.refunded_at,
+            s.title AS swap_title, g.name AS guild_name, g.time_zone, u.email, u.display_name
+       FROM payments p JOIN guilds g ON g.id = p.guild_id JOIN users u ON u.id = p.user_id LEFT JOIN swaps s ON s.id = p.swap_id
+      WHERE p.id = ANY($1::int[]) ORDER BY p.id`;
+
+/**
+ * Records a message once: key $1, category $2, kind $3, guild $4, swap $5, user $6, address $7, subject $8,
+ * text $9, html $10, status $11, its reason $12, written for $13 (now when null). Returns the new row's id,
+ * nothing when the key was recorded before.
+ */
+export const INSERT_MESSAGE = `
+  INSERT INTO mail_messages
+    (idempotency_key, category, kind, guild_id, swap_id, user_id, to_address, subject, text_body, html_body, status, status_reason, written_for)
+  VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, COALESCE($13::timestamptz, now()))
+  ON CONFLICT (idempotency_key) DO NOTHING
+  RETURNING id`;
+
+/** Messages whose delivery was lost: queued untouched for $1 minutes, or claimed with the lease run out. */
+export const STALLED_MESSAGES = `SELECT id, idempotency_key FROM mail_messages
+      WHERE (status = 'queued' AND updated_at < now() - make_interval(mins => $1))
+         OR (status = 'sending' AND locked_until < now())
+      ORDER BY id LIMIT 500`;
+
+/**
+ * A return notice waits while the same person's receipt for that swap is still on its way, so
+ * "your blocks arrived" always lands before "blocks coming your way": a row when message $1 must wait.
+ */
+export const RECEIPT_PENDING = `
+  SELECT 1 FROM mail_messages d
+    JOIN mail_messages r ON r.swap_id = d.swap_id AND r.user_id = d.user_id AND r.kind = 'receipt' AND r.status IN ('queued', 'sending')
+   WHERE d.id = $1 AND d.kind = 'distribution' AND d.status = 'queued'
+   LIMIT 1`;
+
+/** Claims message $1 for sending with a lease of $2 minutes, if it is queued or its last claim ran out. */
+export const CLAIM_MESSAGE = `UPDATE mail_messages
+        SET status = 'sending', attempts = attempts + 1, locked_until = now() + make_interval(mins => $2), updated_at = now()
+      WHERE id = $1 AND (status = 'queued' OR (status = 'sending' AND locked_until < now()))
+      RETURNING id, category, user_id, to_address, subject, text_body, html_body, attempts, kind, swap_id, idempotency_key, written_for`;
+
+/** Message $1's outcome: status $2, its reason $3, the provider's id $4 (kept when null); the claim ends. */
+export const FINISH_MESSAGE = `UPDATE mail_messages
+          SET status = $2::text, status_reason = $3, provider_message_id = COALESCE($4, provider_message_id),
+              sent_at = CASE WHEN $2::text = 'sent' THEN now() ELSE sent_at END, locked_until = NULL, updated_at = now()
+        WHERE id = $1`;
+
+/** Message $1 written anew just before sending: subject $2, text $3, html $4. */
+export const REWRITE_MESSAGE = `UPDATE mail_messages SET subject = $2, text_body = $3, html_body = $4, updated_at = now() WHERE id = $1`;

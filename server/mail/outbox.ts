@@ -8,6 +8,7 @@ import type pg from 'pg';
 import type { AnyMailCategory } from '@shared/schemas/notifications';
 import { inTransaction, queues } from '../jobs/queue';
 import type { RenderedMail, TemplateName } from './render';
+import { INSERT_MESSAGE, STALLED_MESSAGES } from './mail.queries';
 
 export interface OutgoingRecord {
   /** Unique per message and recipient, e.g. `swap:12:due-reminder:2027-04-03:user:7`. */
@@ -30,13 +31,6 @@ export interface RecordResult {
   existing: number;
 }
 
-const INSERT = `
-  INSERT INTO mail_messages
-    (idempotency_key, category, kind, guild_id, swap_id, user_id, to_address, subject, text_body, html_body, status, status_reason, written_for)
-  VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, COALESCE($13::timestamptz, now()))
-  ON CONFLICT (idempotency_key) DO NOTHING
-  RETURNING id`;
-
 /**
  * Records each message once and queues its delivery; a key seen before is left alone. `writtenFor`
  * is the moment the words were worked out for (now, unless a sweep was run for another time).
@@ -53,7 +47,7 @@ export async function recordAndQueue(
     try {
       await client.query('BEGIN');
       const status = r.skipReason ? 'skipped' : 'queued';
-      const inserted = await client.query<{ id: number }>(INSERT, [
+      const inserted = await client.query<{ id: number }>(INSERT_MESSAGE, [
         r.key,
         r.category,
         r.kind,
@@ -92,13 +86,7 @@ export async function recordAndQueue(
  * meanwhile is not sent again.
  */
 export async function requeueStalled(pool: pg.Pool, boss: PgBoss, olderThanMinutes = 60): Promise<number> {
-  const { rows } = await pool.query<{ id: number; idempotency_key: string }>(
-    `SELECT id, idempotency_key FROM mail_messages
-      WHERE (status = 'queued' AND updated_at < now() - make_interval(mins => $1))
-         OR (status = 'sending' AND locked_until < now())
-      ORDER BY id LIMIT 500`,
-    [olderThanMinutes],
-  );
+  const { rows } = await pool.query<{ id: number; idempotency_key: string }>(STALLED_MESSAGES, [olderThanMinutes]);
   let count = 0;
   for (const row of rows) {
     if (await boss.send(queues.send, { messageId: row.id }, { singletonKey: row.idempotency_key })) count += 1;

@@ -10,6 +10,7 @@ import { recordAndQueue } from '../outbox';
 import { renderMail } from '../render';
 import { mailDate } from '../format';
 import { appUrl, type ComposeDeps } from './context';
+import { PAYMENT_RECEIPT_ROWS } from '../mail.queries';
 
 interface ReceiptRow {
   id: number;
@@ -36,13 +37,7 @@ export async function composePaymentReceipt(
   news: 'paid' | 'refunded',
 ): Promise<RecordResult> {
   const nothing = { queued: 0, skipped: 0, existing: 0 };
-  const { rows } = await deps.pool.query<ReceiptRow>(
-    `SELECT p.id, p.kind, p.amount, p.currency, p.status, p.dues_year, p.guild_id, p.swap_id, p.user_id, p.paid_at, p.refunded_at,
-            s.title AS swap_title, g.name AS guild_name, g.time_zone, u.email, u.display_name
-       FROM payments p JOIN guilds g ON g.id = p.guild_id JOIN users u ON u.id = p.user_id LEFT JOIN swaps s ON s.id = p.swap_id
-      WHERE p.id = ANY($1::int[]) ORDER BY p.id`,
-    [paymentIds],
-  );
+  const { rows } = await deps.pool.query<ReceiptRow>(PAYMENT_RECEIPT_ROWS, [paymentIds]);
   // Checked at send time: only what is still true is said.
   const current = rows.filter((r) => r.status === news);
   if (current.length === 0) return nothing;
