@@ -147,7 +147,7 @@ export function authRouter(deps: AppDeps) {
     '/auth/reset',
     mailLimiter,
     route({ body: resetSchema }, async ({ body }, _req, res) => {
-      const userId = await resetPassword(body.token, body.password);
+      const userId = await resetPassword(deps, body.token, body.password);
       // Sign out every session of the account: whoever held the old password is out, sockets included.
       await endSessions(deps, userId);
       res.json({ message: 'Your password is changed. Sign in with the new one.' });

@@ -10,6 +10,7 @@ import { toSessionUser } from './passport';
 import { assertNameFreeInGuilds } from './display-names';
 import { SIGNUP_VALID_HOURS } from '../mail/compose/account';
 import type { AppDeps } from '../deps';
+import { END_SESSIONS } from './auth.queries';
 
 export { RESET_VALID_MINUTES } from '../mail/compose/account';
 
@@ -135,7 +136,7 @@ export function requestPasswordReset(deps: Pick<AppDeps, 'events'>, email: strin
 }
 
 /** Uses a reset token once; every other open token for the account is spent too. */
-export async function resetPassword(token: string, password: string) {
+export async function resetPassword(deps: Pick<AppDeps, 'sequelize'>, token: string, password: string) {
   const reset = await PasswordReset.findOne({
     where: { tokenHash: hashToken(token), usedAt: null, expiresAt: { [Op.gt]: new Date() } },
   });
@@ -147,8 +148,7 @@ export async function resetPassword(token: string, password: string) {
   const owner = await User.findByPk(reset.userId, { attributes: ['email', 'displayName'] });
   assertStrongPassword(password, owner ? [owner.email, owner.displayName] : []);
   const passwordHash = await hashPassword(password);
-  const sequelize = PasswordReset.sequelize!;
-  await sequelize.transaction(async (transaction) => {
+  await deps.sequelize.transaction(async (transaction) => {
     const [spent] = await PasswordReset.update({ usedAt: new Date() }, { where: { id: reset.id, usedAt: null }, transaction });
     if (spent !== 1) throw new ValidationError('This reset link was already used. Ask for a new one.');
     await PasswordReset.update({ usedAt: new Date() }, { where: { userId: reset.userId, usedAt: null }, transaction });
@@ -178,10 +178,10 @@ export async function changePassword(userId: number, currentPassword: string, ne
  * and the live sockets opened with them, on every node.
  */
 export async function endSessions(deps: Pick<AppDeps, 'sequelize' | 'events'>, userId: number, keep?: string) {
-  const rows = await deps.sequelize.query<{ sid: string }>(
-    `DELETE FROM session WHERE (sess->'passport'->>'user')::int = $userId AND sid IS DISTINCT FROM $keep RETURNING sid`,
-    { bind: { userId, keep: keep ?? null }, type: QueryTypes.SELECT },
-  );
+  const rows = await deps.sequelize.query<{ sid: string }>(END_SESSIONS, {
+    bind: { userId, keep: keep ?? null },
+    type: QueryTypes.SELECT,
+  });
   const sessionIds = rows.map((r) => r.sid);
   if (sessionIds.length) deps.events.emit('session.ended', { userId, sessionIds });
   return sessionIds.length;

@@ -5,6 +5,7 @@ import { normaliseEmail } from '@shared/schemas/auth';
 import { User } from '../db/models';
 import { decoyVerify, verifyPassword } from './passwords';
 import { preloadedUser } from './session';
+import { SESSION_USER } from './auth.queries';
 import type { Request } from 'express';
 import type { AppDeps } from '../deps';
 
@@ -51,7 +52,7 @@ export function configurePassport(deps: Pick<AppDeps, 'sequelize'>) {
     const known = preloadedUser(req, id);
     if (known !== undefined) return done(null, known ?? false);
     connection!
-      .query<Express.User>('SELECT id, email, display_name AS "displayName", units FROM users WHERE id = $id', {
+      .query<Express.User>(SESSION_USER, {
         bind: { id },
         type: QueryTypes.SELECT,
       })

@@ -3,6 +3,7 @@ import connectPgSimple from 'connect-pg-simple';
 import type { Request } from 'express';
 import type pg from 'pg';
 import type { Config } from '../config';
+import { SESSION_WITH_USER } from './auth.queries';
 
 export const SESSION_COOKIE = 'blockpost.sid';
 
@@ -22,13 +23,6 @@ export function preloadedUser(req: Request, id: number): Express.User | null | u
   const found = preloaded.get(req);
   return found && found.id === id ? found.user : undefined;
 }
-
-const SESSION_WITH_USER = `
-  SELECT s.sess, u.id, u.email, u.display_name AS "displayName", u.units
-    FROM "session" s
-    LEFT JOIN users u ON u.id = CASE WHEN json_typeof(s.sess #> '{passport,user}') = 'number'
-                                     THEN (s.sess #>> '{passport,user}')::int END
-   WHERE s.sid = $1 AND s.expire >= now()`;
 
 /**
  * Sessions live in PostgreSQL so any app node can serve any request. The store reads the session's
