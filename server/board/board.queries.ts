@@ -1,4 +1,5 @@
 /** The board's hand-written SQL; every value arrives as a bind parameter. */
+import { viewerRole } from '../swaps/swaps.queries';
 
 /**
  * The roster ($swapId): one row per active sign-up, sorted by name, carrying the member's blocks as a
@@ -8,7 +9,9 @@
  * by_maker is MATERIALIZED so it is computed once: before a new swap's rows have statistics the
  * planner would otherwise re-aggregate it for every member (seconds for 600 members).
  */
-export const ROSTER = `WITH swap_blocks AS (SELECT * FROM blocks WHERE swap_id = $swapId),
+export const ROSTER = `WITH swap_blocks AS (
+         SELECT id, maker_id, sequence, state, verdict, trimmed, accepted_at, hand_in_how, hand_in_note
+           FROM blocks WHERE swap_id = $swapId),
        block_photos AS (
          SELECT p.block_id, array_agg(p.id ORDER BY p.created_at, p.id) AS ids
            FROM photos p JOIN swap_blocks b ON b.id = p.block_id GROUP BY p.block_id),
@@ -34,6 +37,17 @@ export const ROSTER = `WITH swap_blocks AS (SELECT * FROM blocks WHERE swap_id =
 
 /** The same with `$1` for the swap, for a named statement on the plain pool (which numbers its parameters). */
 export const ROSTER_POSITIONAL = ROSTER.replaceAll('$swapId', '$1');
+
+/**
+ * The roster's rows as one JSON array, read in the swap policy's own query (`SwapReadExtra` in
+ * swaps.policy.ts), so a roster request needs one round trip after the session's. Only for someone
+ * with a role in the swap's guild; the policy still decides on the row as for any swap request.
+ */
+export const ROSTER_WITH_SWAP = {
+  name: 'swap-with-roster',
+  columns: `CASE WHEN ${viewerRole('Swap')} IS NULL THEN NULL ELSE
+              (SELECT coalesce(json_agg(r ORDER BY lower(r.display_name), r.user_id), '[]') FROM (${ROSTER}) r) END AS "roster"`,
+};
 
 /**
  * Activity lines in ($lines, a JSON array with each line's place `n`) stamped $at, with their block's

@@ -2,9 +2,10 @@ import { Router, type Request } from 'express';
 import { activityQuerySchema, swapParamsSchema } from '@shared/schemas/live';
 import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
-import { canReadSwap } from '../swaps/swaps.policy';
+import { canReadSwap, takeColumn } from '../swaps/swaps.policy';
 import { listActivity } from './board-activity';
-import { getRoster } from './roster.service';
+import { getRoster, type SignupRow } from './roster.service';
+import { ROSTER_WITH_SWAP } from './board.queries';
 import { activitiesForMember, guildVerdictsVisibleTo, seesAllVerdicts } from '../blocks/verdict-visibility';
 import type { AppDeps } from '../deps';
 
@@ -17,10 +18,18 @@ export function boardRouter(deps: AppDeps) {
   router.get(
     '/swaps/:swapId/roster',
     requireUser,
-    route({ params: swapParamsSchema, authorize: readSwap }, async ({ access: { swap, canManage } }, req, res) => {
-      const viewer = { userId: currentUser(req).id, canManage };
-      res.json(await getRoster(deps, swap, { withAddresses: canManage, viewer }));
-    }),
+    route(
+      {
+        params: swapParamsSchema,
+        // The roster is read in the policy's query of the swap: one round trip for both.
+        authorize: (req, { params }) => canReadSwap(deps, currentUser(req).id, params.swapId, ROSTER_WITH_SWAP),
+      },
+      async ({ access: { swap, canManage } }, req, res) => {
+        const viewer = { userId: currentUser(req).id, canManage };
+        const signups = takeColumn<SignupRow[]>(swap, 'roster');
+        res.json(await getRoster(deps, swap, { withAddresses: canManage, viewer, signups }));
+      },
+    ),
   );
   router.get(
     '/swaps/:swapId/activity',

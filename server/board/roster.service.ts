@@ -23,7 +23,7 @@ interface BlockJson extends Pick<RosterBlockDto, 'id' | 'sequence' | 'state' | '
   estimate: LatestEstimateRow | null;
 }
 
-interface SignupRow {
+export interface SignupRow {
   user_id: number;
   display_name: string;
   email: string;
@@ -89,14 +89,16 @@ export interface RosterData extends RosterDto {
 export async function buildRoster(
   deps: Pick<AppDeps, 'sequelize' | 'pool'>,
   swap: Swap,
-  opts: { withAddresses: boolean; transaction?: Transaction },
+  opts: { withAddresses: boolean; transaction?: Transaction; signups?: SignupRow[] },
 ): Promise<RosterData> {
   const { transaction } = opts;
-  // Outside a transaction, a named statement on the plain pool: PostgreSQL keeps its plan, and
-  // planning this query cost about as much as running it.
-  const signups = transaction
-    ? await deps.sequelize.query<SignupRow>(ROSTER, { bind: { swapId: swap.id }, type: QueryTypes.SELECT, transaction })
-    : (await deps.pool.query<SignupRow>({ name: 'roster', text: ROSTER_POSITIONAL, values: [swap.id] })).rows;
+  // Rows read with the swap (the GET route) are used as they are. Outside a transaction, a named
+  // statement on the plain pool: PostgreSQL keeps its plan, and planning it cost about as much as running it.
+  const signups =
+    opts.signups ??
+    (transaction
+      ? await deps.sequelize.query<SignupRow>(ROSTER, { bind: { swapId: swap.id }, type: QueryTypes.SELECT, transaction })
+      : (await deps.pool.query<SignupRow>({ name: 'roster', text: ROSTER_POSITIONAL, values: [swap.id] })).rows);
 
   const totals = { ...emptyCounts(), accepted: 0, members: signups.length };
   const rows = signups.map((s) => {
@@ -146,7 +148,7 @@ export async function buildRoster(
 export async function getRoster(
   deps: Pick<AppDeps, 'sequelize' | 'pool'>,
   swap: Swap,
-  opts: { withAddresses: boolean; transaction?: Transaction; viewer?: VerdictViewer },
+  opts: { withAddresses: boolean; transaction?: Transaction; viewer?: VerdictViewer; signups?: SignupRow[] },
 ): Promise<RosterDto> {
   const data = await buildRoster(deps, swap, opts);
   const roster = { ...data, rows: data.rows.map(({ email: _email, ...row }): RosterRowDto => row) };

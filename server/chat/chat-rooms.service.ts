@@ -31,7 +31,7 @@ export async function roomDto(
 }
 
 /** The swap's chat room, opened the first time anyone asks for it (two people asking at once get the same room). */
-export async function swapRoom(deps: Pick<AppDeps, 'sequelize'>, userId: number, swapId: number): Promise<ChatRoomDto> {
+export async function swapRoom(deps: Pick<AppDeps, 'sequelize' | 'pool'>, userId: number, swapId: number): Promise<ChatRoomDto> {
   const { swap } = await canReadSwap(deps, userId, swapId);
   const membership = await authorizeGuild(userId, swap.guildId, 'guild:read');
   await deps.sequelize.query(

@@ -21,7 +21,7 @@ const hideMissingSwap = (missing: string) => (error: unknown) => {
  * follows the swap's own visibility (a draft is for its officers only).
  */
 export async function authorizeRoom(
-  deps: Pick<AppDeps, 'sequelize'>,
+  deps: Pick<AppDeps, 'sequelize' | 'pool'>,
   userId: number,
   roomId: number,
   missing = 'That chat room does not exist.',

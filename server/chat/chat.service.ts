@@ -15,7 +15,7 @@ import type { AppDeps } from '../deps';
 import { authorInclude, messageDto, messageDtos, photoDto } from './chat-dto';
 import { authorizeRoom, type RoomAccess } from './chat.policy';
 
-type ChatDeps = Pick<AppDeps, 'events' | 'sequelize' | 'config'>;
+type ChatDeps = Pick<AppDeps, 'events' | 'sequelize' | 'pool' | 'config'>;
 
 export class RateLimitedError extends AppError {
   constructor(

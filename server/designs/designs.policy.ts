@@ -13,7 +13,7 @@ export interface DesignAccess extends SwapAccess {
   allReturned: boolean;
 }
 
-export async function canUseDesignWall(deps: Pick<AppDeps, 'sequelize'>, userId: number, swapId: number): Promise<DesignAccess> {
+export async function canUseDesignWall(deps: Pick<AppDeps, 'pool'>, userId: number, swapId: number): Promise<DesignAccess> {
   const access = await canReadSwap(deps, userId, swapId);
   return { ...access, userId, allReturned: access.swap.mode === 'gift' && access.canManage };
 }

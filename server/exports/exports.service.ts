@@ -39,7 +39,10 @@ export function slug(title: string): string {
   return s.slice(0, 60) || 'swap';
 }
 
-export async function rosterCsv(deps: Pick<AppDeps, 'sequelize' | 'pool'>, swap: Swap): Promise<{ fileName: string; body: string }> {
+export async function rosterCsv(
+  deps: Pick<AppDeps, 'sequelize' | 'pool'>,
+  swap: Swap,
+): Promise<{ fileName: string; body: string }> {
   const roster = await buildRoster(deps, swap, { withAddresses: true });
   const header = [
     'Member',

@@ -78,7 +78,7 @@ export async function nextForMe(deps: Pick<AppDeps, 'sequelize'>, userId: number
 
 /** Notes that the person has seen a chat room's messages up to now; only someone who may read the room can. */
 export async function markRoomSeen(
-  deps: Pick<AppDeps, 'sequelize'>,
+  deps: Pick<AppDeps, 'sequelize' | 'pool'>,
   userId: number,
   roomId: number,
 ): Promise<{ roomId: number; seenAt: string }> {

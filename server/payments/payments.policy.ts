@@ -18,11 +18,7 @@ export async function canTreasure(userId: number, guildId: number): Promise<void
 }
 
 /** Members of the swap's guild pay its fees; officers also see everyone's standing. */
-export async function canPaySwap(
-  deps: Pick<AppDeps, 'sequelize'>,
-  userId: number,
-  swapId: number,
-): Promise<{ canManage: boolean }> {
+export async function canPaySwap(deps: Pick<AppDeps, 'pool'>, userId: number, swapId: number): Promise<{ canManage: boolean }> {
   const access = await canReadSwap(deps, userId, swapId);
   if (!can(access.role, 'payments:pay')) return { canManage: false };
   return { canManage: access.canManage };

@@ -9,17 +9,22 @@ import { Swap } from '../db/models';
 export const viewerRole = (swapAlias: 'Swap' | 's') =>
   `(SELECT m.role FROM memberships m WHERE m.guild_id = "${swapAlias}"."guild_id" AND m.user_id = $viewerId AND m.status = 'active')`;
 
-let swapWithRoleSql: string | undefined;
+let swapColumns: string | undefined;
 
 /**
- * Swap $swapId with every column aliased to its attribute name (the row findByPk would read) and the
- * role of `$viewerId` in its guild as "viewerRole". Built once, on first use, from the model.
+ * Swap $1 with every column aliased to its attribute name (the row findByPk would read) and the role
+ * of $2 in its guild as "viewerRole", numbered for a named statement on the plain pool; `extra`
+ * columns (on "Swap", with the same parameters) are read in the same row. The column list is built
+ * once, on first use, from the model.
  */
-export function swapWithViewerRole(): string {
-  swapWithRoleSql ??= `SELECT ${Object.entries(Swap.getAttributes())
+export function swapWithViewerRole(extra?: string): string {
+  swapColumns ??= Object.entries(Swap.getAttributes())
     .map(([name, a]) => `"Swap"."${a.field ?? name}" AS "${name}"`)
-    .join(', ')}, ${viewerRole('Swap')} AS "viewerRole" FROM swaps "Swap" WHERE "Swap"."id" = $swapId`;
-  return swapWithRoleSql;
+    .join(', ');
+  return `SELECT ${swapColumns}, ${viewerRole('Swap')} AS "viewerRole"${extra ? `, ${extra}` : ''}
+            FROM swaps "Swap" WHERE "Swap"."id" = $swapId`
+    .replaceAll('$swapId', '$1')
+    .replaceAll('$viewerId', '$2');
 }
 
 /** Active sign-ups, blocks pledged and the pledge of `$userId`, for each swap in `$ids`. */
