@@ -1,8 +1,7 @@
-import { Link } from 'react-router';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
-import { paths } from '@/lib/paths';
 import { AuthFrame } from './auth-frame';
+import { ForgotPasswordLink, SignInInstead } from './auth-links';
 
 /**
  * After the sign-up form: what happens next. It reads the same whether or not the address already
@@ -23,17 +22,8 @@ export function CheckInbox({
       lead="One more step before your account is ready."
       footer={
         <>
-          <p>
-            Already have an account?{' '}
-            <Link className="font-semibold text-indigo underline" to={signInLink}>
-              Sign in
-            </Link>
-          </p>
-          <p>
-            <Link className="text-indigo underline" to={paths.forgotPassword}>
-              Forgot your password?
-            </Link>
-          </p>
+          <SignInInstead to={signInLink} />
+          <ForgotPasswordLink />
         </>
       }
     >

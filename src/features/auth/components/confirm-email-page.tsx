@@ -4,6 +4,7 @@ import { Button } from '@/components/ui/button';
 import { paths, safeNext } from '@/lib/paths';
 import { useConfirmEmail } from '../api/auth-mutations';
 import { AuthFrame } from './auth-frame';
+import { SignInInstead } from './auth-links';
 
 /**
  * Where the link in the sign-up mail leads. The account is made only when the person presses the
@@ -31,14 +32,7 @@ export function ConfirmEmailPage() {
     <AuthFrame
       title="Confirm your address"
       lead="Press the button to finish making your account. You will be signed in straight away."
-      footer={
-        <p>
-          Already have an account?{' '}
-          <Link className="font-semibold text-indigo underline" to={paths.signIn}>
-            Sign in
-          </Link>
-        </p>
-      }
+      footer={<SignInInstead />}
     >
       <div className="space-y-4">
         {!token && (

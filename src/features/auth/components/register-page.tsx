@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { Link, useSearchParams } from 'react-router';
+import { useSearchParams } from 'react-router';
 import { registerSchema, type RegisterInput } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
@@ -10,6 +10,7 @@ import { applyServerErrors } from '@/components/ui/form-errors';
 import { paths, safeNext } from '@/lib/paths';
 import { useRegister } from '../api/auth-mutations';
 import { AuthFrame } from './auth-frame';
+import { SignInInstead } from './auth-links';
 import { PasswordStrengthMeter } from './password-strength-meter';
 import { CheckInbox } from './check-inbox';
 
@@ -46,14 +47,7 @@ export function RegisterPage() {
     <AuthFrame
       title="Create your account"
       lead="One account for every guild you belong to. We will e-mail you a link to confirm your address."
-      footer={
-        <p>
-          Already have an account?{' '}
-          <Link className="font-semibold text-indigo underline" to={signInLink}>
-            Sign in
-          </Link>
-        </p>
-      }
+      footer={<SignInInstead to={signInLink} />}
     >
       <form onSubmit={onSubmit} noValidate className="space-y-4">
         {formError && <Alert tone="error">{formError}</Alert>}

@@ -1,15 +1,16 @@
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { Link, useNavigate, useSearchParams } from 'react-router';
+import { useNavigate, useSearchParams } from 'react-router';
 import { loginSchema, type LoginInput } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
 import { Alert } from '@/components/ui/alert';
 import { applyServerErrors } from '@/components/ui/form-errors';
-import { paths, safeNext } from '@/lib/paths';
+import { safeNext } from '@/lib/paths';
 import { useLogin } from '../api/auth-mutations';
 import { AuthFrame } from './auth-frame';
+import { ForgotPasswordLink, RegisterInstead } from './auth-links';
 
 export function SignInPage() {
   const [params] = useSearchParams();
@@ -34,17 +35,8 @@ export function SignInPage() {
       lead="Welcome back to your guild’s swaps and sew days."
       footer={
         <>
-          <p>
-            New here?{' '}
-            <Link className="font-semibold text-indigo underline" to={paths.register}>
-              Create an account
-            </Link>
-          </p>
-          <p>
-            <Link className="text-indigo underline" to={paths.forgotPassword}>
-              Forgot your password?
-            </Link>
-          </p>
+          <RegisterInstead />
+          <ForgotPasswordLink />
         </>
       }
     >
