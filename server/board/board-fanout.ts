@@ -53,7 +53,9 @@ export class BoardFanout {
     private io: LiveServer,
     private deps: Pick<AppDeps, 'sequelize' | 'pool' | 'logger'>,
     private intervalMs = BOARD_CHANGE_INTERVAL_MS,
-  ) {}
+  ) {
+    io.on('board:fanout', ({ guildId, verdictsVisibleTo, change }) => this.sendLocal(guildId, verdictsVisibleTo, change));
+  }
 
   push(event: SwapEvent) {
     const swapId = event.payload.swapId;
@@ -119,20 +121,30 @@ export class BoardFanout {
   }
 
   /**
+   * One message to the other nodes for the change, not one per kind of viewer: each node splits it
+   * for its own sockets (through the PostgreSQL adapter every message is a NOTIFY and its encoding).
+   */
+  private send(guildId: number, verdictsVisibleTo: string, change: BoardChange) {
+    this.io.serverSideEmit('board:fanout', { guildId, verdictsVisibleTo, change });
+    this.sendLocal(guildId, verdictsVisibleTo, change);
+  }
+
+  /**
    * Everyone on the board gets the change when the guild shows verdicts to all. Otherwise its officers
    * get it whole; each maker whose row changed gets a copy with only their own verdicts; every other
    * member a copy without verdicts. A change of every row reaches members with no patch, and their
    * board fetches its own roster (one message instead of one per member).
    */
-  private send(guildId: number, verdictsVisibleTo: string, change: BoardChange) {
+  private sendLocal(guildId: number, verdictsVisibleTo: string, change: BoardChange) {
     const { swapId, patch } = change;
-    const board = this.io.to(boardRoom(guildId, swapId));
+    const local = this.io.local;
+    const board = local.to(boardRoom(guildId, swapId));
     if (verdictsVisibleTo === 'guild') {
       board.emit('board:changed', change);
       return;
     }
     const officers = boardOfficersRoom(guildId, swapId);
-    this.io.to(officers).emit('board:changed', change);
+    local.to(officers).emit('board:changed', change);
     const activities = (viewerId: number | null) => activitiesForMember(change.activities, viewerId);
     if (!patch || patch.complete) {
       board.except(officers).emit('board:changed', { ...change, activities: activities(null), patch: null });
@@ -144,7 +156,7 @@ export class BoardFanout {
       .except([officers, ...viewerRooms])
       .emit('board:changed', { ...change, activities: activities(null), patch: rosterForMember(patch, null) });
     for (const [i, userId] of makers.entries()) {
-      this.io
+      local
         .to(viewerRooms[i]!)
         .except(officers)
         .emit('board:changed', { ...change, activities: activities(userId), patch: rosterForMember(patch, userId) });

@@ -1,5 +1,11 @@
 import type { Server, Socket } from 'socket.io';
-import type { ClientToServerEvents, ServerToClientEvents, SocketData } from '@shared/live-events';
+import type { BoardChange, ClientToServerEvents, ServerToClientEvents, SocketData } from '@shared/live-events';
 
-export type LiveServer = Server<ClientToServerEvents, ServerToClientEvents, Record<string, never>, SocketData>;
-export type LiveSocket = Socket<ClientToServerEvents, ServerToClientEvents, Record<string, never>, SocketData>;
+/** Messages between app nodes (through the PostgreSQL adapter), never seen by a browser. */
+export interface InterServerEvents {
+  /** A board change, sent once to every other node, which splits it for its own sockets. */
+  'board:fanout': (message: { guildId: number; verdictsVisibleTo: string; change: BoardChange }) => void;
+}
+
+export type LiveServer = Server<ClientToServerEvents, ServerToClientEvents, InterServerEvents, SocketData>;
+export type LiveSocket = Socket<ClientToServerEvents, ServerToClientEvents, InterServerEvents, SocketData>;

@@ -22,11 +22,15 @@ beforeAll(async () => {
 });
 afterAll(() => app.close());
 
-/** Records what the board's officers are sent (with the guild's default, members get copies without verdicts). */
+/**
+ * Records what the board's officers are sent on this node (with the guild's default, members get
+ * copies without verdicts), and what is published once per change to the other nodes.
+ */
 function recordingIo() {
   const sent: { at: number; room: string; change: BoardChange }[] = [];
+  const published: BoardChange[] = [];
   const ignored = { emit: () => undefined };
-  const io = {
+  const local = {
     to: (room: string) => ({
       emit: (_event: string, change: BoardChange) => {
         if (room.includes(':board-officers:')) sent.push({ at: performance.now(), room, change });
@@ -34,7 +38,12 @@ function recordingIo() {
       except: () => ({ ...ignored, except: () => ignored }),
     }),
   };
-  return { io: io as unknown as LiveServer, sent };
+  const io = {
+    local,
+    on: () => undefined,
+    serverSideEmit: (_event: string, message: { change: BoardChange }) => void published.push(message.change),
+  };
+  return { io: io as unknown as LiveServer, sent, published };
 }
 
 describe('board fan-out under a burst', () => {
@@ -44,7 +53,7 @@ describe('board fan-out under a burst', () => {
     const blocks = (await Promise.all(makers.map((m) => myBlocks(m.agent, swap.id)))).flat();
     for (const b of blocks) await roles.coordinator.agent.post(`/api/blocks/${b.id}/received`).send({}).expect(200);
 
-    const { io, sent } = recordingIo();
+    const { io, sent, published } = recordingIo();
     const fanout = new BoardFanout(io, app.deps);
     app.deps.events.onAny((name, payload) => {
       if ((payload as { swapId?: unknown }).swapId === swap.id) fanout.push({ name, payload } as SwapEvent);
@@ -65,6 +74,9 @@ describe('board fan-out under a burst', () => {
     expect(sent.length).toBeLessThanOrEqual(1 + Math.ceil(elapsed / BOARD_CHANGE_INTERVAL_MS));
     for (let i = 1; i < sent.length; i++)
       expect(sent[i]!.at - sent[i - 1]!.at).toBeGreaterThanOrEqual(BOARD_CHANGE_INTERVAL_MS - 2);
+
+    // One message per change to the other nodes, whatever the kinds of viewer.
+    expect(published.map((c) => c.version)).toEqual(sent.map((s) => s.change.version));
 
     // Numbered without a gap, each measurement told exactly once, each change carrying its makers' rows.
     expect(sent.map((s) => s.change.version)).toEqual(sent.map((_, i) => sent[0]!.change.version + i));
