@@ -4,7 +4,7 @@ import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { canReadSwap, takeColumn } from '../swaps/swaps.policy';
 import { listActivity } from './board-activity';
-import { getRoster, type SignupRow } from './roster.service';
+import { getRoster, type MemberTuple } from './roster.service';
 import { ROSTER_WITH_SWAP } from './board.queries';
 import { activitiesForMember, guildVerdictsVisibleTo, seesAllVerdicts } from '../blocks/verdict-visibility';
 import type { AppDeps } from '../deps';
@@ -26,8 +26,8 @@ export function boardRouter(deps: AppDeps) {
       },
       async ({ access: { swap, canManage } }, req, res) => {
         const viewer = { userId: currentUser(req).id, canManage };
-        const signups = takeColumn<SignupRow[]>(swap, 'roster');
-        res.json(await getRoster(deps, swap, { withAddresses: canManage, viewer, signups }));
+        const members = takeColumn<MemberTuple[]>(swap, 'roster');
+        res.json(await getRoster(deps, swap, { withAddresses: canManage, viewer, members }));
       },
     ),
   );

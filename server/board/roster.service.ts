@@ -15,23 +15,31 @@ import { guildVerdictsVisibleTo, rosterForMember, seesAllVerdicts, type VerdictV
 // A rank lookup rather than two searches of the list of states.
 const reached = (state: BlockState, step: BlockState) => blockStateRank[state] >= blockStateRank[step];
 
-/** A block as the roster query returns it: the answer's plain fields, the rest still to shape. */
-interface BlockJson extends Pick<RosterBlockDto, 'id' | 'sequence' | 'state' | 'verdict' | 'trimmed' | 'acceptedByDecision'> {
-  handInHow: 'in-person' | 'post' | null;
-  handInNote: string | null;
-  photoIds: number[];
-  estimate: LatestEstimateRow | null;
-}
+type HandInHow = 'in-person' | 'post';
 
-export interface SignupRow {
-  user_id: number;
-  display_name: string;
-  email: string;
-  blocks: number;
-  mailing_address: string | null;
-  /** the member's blocks by sequence, each with its photos and latest photo estimate */
-  own: BlockJson[];
-}
+/** A block as the roster query writes it (board.queries.ts ROSTER): positions, not keys. */
+type BlockTuple = [
+  id: number,
+  sequence: number,
+  state: BlockState,
+  verdict: RosterBlockDto['verdict'],
+  trimmed: boolean,
+  acceptedByDecision: boolean,
+  handInHow: HandInHow | null,
+  handInNote: string | null,
+  photoIds: number[] | null,
+  estimate: LatestEstimateRow | null,
+];
+
+/** A member with an active sign-up, as the roster query writes it; `blocks` is null before any is pledged. */
+export type MemberTuple = [
+  userId: number,
+  displayName: string,
+  email: string,
+  pledge: number,
+  mailingAddress: string | null,
+  blocks: BlockTuple[] | null,
+];
 
 type Tally = RosterCounts & { accepted: number };
 
@@ -53,7 +61,7 @@ const RECEIVED = blockStateRank.received;
 const MEASURED = blockStateRank.measured;
 
 /** Adds one block to a member's counts, looking its state's rank up once. */
-function count(into: Tally, b: Pick<BlockJson, 'state' | 'verdict' | 'trimmed' | 'acceptedByDecision'>) {
+function count(into: Tally, b: Pick<RosterBlockDto, 'state' | 'verdict' | 'trimmed' | 'acceptedByDecision'>) {
   const rank = blockStateRank[b.state];
   into.pledged += 1;
   if (rank < SEWN) return;
@@ -96,42 +104,65 @@ export interface RosterData extends RosterDto {
 export async function buildRoster(
   deps: Pick<AppDeps, 'sequelize' | 'pool'>,
   swap: Swap,
-  opts: { withAddresses: boolean; transaction?: Transaction; signups?: SignupRow[] },
+  opts: { withAddresses: boolean; transaction?: Transaction; members?: MemberTuple[] },
 ): Promise<RosterData> {
   const { transaction } = opts;
-  // Rows read with the swap (the GET route) are used as they are. Outside a transaction, a named
+  // Members read with the swap (the GET route) are used as they are. Outside a transaction, a named
   // statement on the plain pool: PostgreSQL keeps its plan, and planning it cost about as much as running it.
-  const signups =
-    opts.signups ??
+  const members =
+    opts.members ??
     (transaction
-      ? await deps.sequelize.query<SignupRow>(ROSTER, { bind: { swapId: swap.id }, type: QueryTypes.SELECT, transaction })
-      : (await deps.pool.query<SignupRow>({ name: 'roster', text: ROSTER_POSITIONAL, values: [swap.id] })).rows);
+      ? (
+          await deps.sequelize.query<{ roster: MemberTuple[] }>(ROSTER, {
+            bind: { swapId: swap.id },
+            type: QueryTypes.SELECT,
+            transaction,
+          })
+        )[0]!.roster
+      : (await deps.pool.query<{ roster: MemberTuple[] }>({ name: 'roster', text: ROSTER_POSITIONAL, values: [swap.id] }))
+          .rows[0]!.roster);
 
   const totals = emptyTally();
-  const rows = signups.map((s) => {
+  const rows = members.map(([userId, displayName, email, , mailingAddress, own]) => {
     const counts = emptyTally();
-    for (const b of s.own) count(counts, b);
+    const blocks = (own ?? []).map(
+      ([
+        id,
+        sequence,
+        state,
+        verdict,
+        trimmed,
+        acceptedByDecision,
+        handInHow,
+        handInNote,
+        photoIds,
+        estimate,
+      ]): RosterBlockDto => {
+        const block: RosterBlockDto = {
+          id,
+          sequence,
+          state,
+          verdict: reached(state, 'measured') ? verdict : null,
+          trimmed,
+          acceptedByDecision,
+          handIn: handInHow ? { how: handInHow, note: handInNote } : null,
+          photos: (photoIds ?? []).map((photoId) => photoRef(photoId)),
+          // Beside the ruler verdict, never in it: an estimate from a photo decides nothing.
+          photoEstimate: estimate ? latestEstimateDto(estimate) : null,
+        };
+        count(counts, { state, verdict, trimmed, acceptedByDecision });
+        return block;
+      },
+    );
     addTally(totals, counts);
-    const rosterBlocks: RosterBlockDto[] = s.own.map((b) => ({
-      id: b.id,
-      sequence: b.sequence,
-      state: b.state,
-      verdict: reached(b.state, 'measured') ? b.verdict : null,
-      trimmed: b.trimmed,
-      acceptedByDecision: b.acceptedByDecision,
-      handIn: b.handInHow ? { how: b.handInHow, note: b.handInNote } : null,
-      photos: b.photoIds.map((id) => photoRef(id)),
-      // Beside the ruler verdict, never in it: an estimate from a photo decides nothing.
-      photoEstimate: b.estimate ? latestEstimateDto(b.estimate) : null,
-    }));
     return {
-      userId: s.user_id,
-      displayName: s.display_name,
-      email: s.email,
+      userId,
+      displayName,
+      email,
       ...counts,
       owed: Math.max(0, counts.pledged - counts.handedIn),
-      blocks: rosterBlocks,
-      ...(opts.withAddresses ? { mailingAddress: s.mailing_address } : {}),
+      blocks,
+      ...(opts.withAddresses ? { mailingAddress } : {}),
     };
   });
   return {
@@ -142,7 +173,7 @@ export async function buildRoster(
       title: swap.title,
       mode: swap.mode,
     },
-    totals: { ...totals, members: signups.length },
+    totals: { ...totals, members: members.length },
     rows,
   };
 }
@@ -155,7 +186,7 @@ export async function buildRoster(
 export async function getRoster(
   deps: Pick<AppDeps, 'sequelize' | 'pool'>,
   swap: Swap,
-  opts: { withAddresses: boolean; transaction?: Transaction; viewer?: VerdictViewer; signups?: SignupRow[] },
+  opts: { withAddresses: boolean; transaction?: Transaction; viewer?: VerdictViewer; members?: MemberTuple[] },
 ): Promise<RosterDto> {
   const data = await buildRoster(deps, swap, opts);
   const roster = { ...data, rows: data.rows.map(({ email: _email, ...row }): RosterRowDto => row) };
