@@ -1,4 +1,4 @@
-import type { ReactNode } from 'react';
+import { useState, type ReactNode } from 'react';
 import type { UseMutationResult } from '@tanstack/react-query';
 import { Alert } from '@/components/ui/alert';
 import { Card } from '@/components/ui/card';
@@ -26,8 +26,14 @@ interface SettingChoiceCardProps<T extends string> extends SettingChoiceText<T> 
 
 /** One guild setting chosen among a few options; the choice saves at once and says so. */
 export function SettingChoiceCard<T extends string>({ title, legend, name, choices, saved, update }: SettingChoiceCardProps<T>) {
-  // While saving, the choice just made shows as chosen.
-  const current = update.isPending && update.variables ? update.variables : saved;
+  // The choice just made shows as chosen from the click on, not only once the mutation has started
+  // (a controlled radio would spring back meanwhile); a failed save shows the saved choice again.
+  const [chosen, setChosen] = useState<T | null>(null);
+  const current = chosen ?? saved;
+  const choose = (value: T) => {
+    setChosen(value);
+    update.mutate(value, { onError: () => setChosen(null) });
+  };
   return (
     <Card title={title}>
       <fieldset>
@@ -44,7 +50,7 @@ export function SettingChoiceCard<T extends string>({ title, legend, name, choic
                 className="h-5 w-5 shrink-0"
                 checked={current === c.value}
                 disabled={update.isPending}
-                onChange={() => update.mutate(c.value)}
+                onChange={() => choose(c.value)}
               />
               <span>
                 <span className="block font-semibold">{c.label}</span>
