@@ -1,9 +1,10 @@
+import { HandInFields } from './hand-in-fields';
+import { UndoNotice } from '@/components/ui/undo-notice';
 import { useState } from 'react';
 import type { BlockDto, SwapDto } from '@shared/swap-types';
 import { isBlockStateBefore } from '@shared/vocabulary';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
-import { SelectField, TextField } from '@/components/ui/fields';
 import { ApiError } from '@/lib/api-client';
 import { useUndoWindow } from '@/lib/use-undo-window';
 import { undoBlock } from '@/entities/block/api/undo-block';
@@ -51,14 +52,12 @@ export function HandInSeveral({ swap, blocks, onUndone }: { swap: SwapDto; block
         Hand in several blocks at once
       </h4>
       {undoWindow.current ? (
-        <div role="status" className="mt-2 flex flex-wrap items-center gap-3">
-          <span>
-            {undoWindow.current.length} block{undoWindow.current.length === 1 ? '' : 's'} handed in.
-          </span>
-          <Button variant="secondary" pending={undoing} pendingLabel="Undoing…" onClick={() => void undoAll(undoWindow.current!)}>
-            Undo
-          </Button>
-        </div>
+        <UndoNotice
+          className="mt-2"
+          message={`${undoWindow.current.length} block${undoWindow.current.length === 1 ? '' : 's'} handed in`}
+          pending={undoing}
+          onUndo={() => void undoAll(undoWindow.current!)}
+        />
       ) : (
         <form
           className="mt-2 space-y-3"
@@ -92,22 +91,7 @@ export function HandInSeveral({ swap, blocks, onUndone }: { swap: SwapDto; block
               ))}
             </ul>
           </fieldset>
-          <SelectField
-            label="How"
-            value={how}
-            onChange={(e) => setHow(e.target.value as 'in-person' | 'post')}
-            options={[
-              { value: 'in-person', label: 'In person, at a meeting' },
-              { value: 'post', label: 'By post' },
-            ]}
-          />
-          <TextField
-            label={how === 'post' ? 'Tracking number or note' : 'Note'}
-            hint="Optional"
-            value={note}
-            onChange={(e) => setNote(e.target.value)}
-            maxLength={500}
-          />
+          <HandInFields how={how} note={note} onHowChange={setHow} onNoteChange={setNote} />
           <Button type="submit" pending={handIn.isPending} pendingLabel="Handing in…">
             Hand in {chosen.size} block{chosen.size === 1 ? '' : 's'}
           </Button>

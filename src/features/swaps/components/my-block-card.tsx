@@ -1,3 +1,5 @@
+import { HandInFields } from './hand-in-fields';
+import { UndoNotice } from '@/components/ui/undo-notice';
 import { useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
 import { Link } from 'react-router';
@@ -6,7 +8,6 @@ import { isBlockStateBefore } from '@shared/vocabulary';
 import { PhotoGallery, PhotoUploader, blockPhotosUrl } from '@/components/photos';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
-import { SelectField, TextField } from '@/components/ui/fields';
 import { ApiError } from '@/lib/api-client';
 import { paths } from '@/lib/paths';
 import { useHandIn } from '../api/hand-in';
@@ -89,20 +90,14 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
         )}
         {problem && <Alert tone="error">{problem}</Alert>}
         {undoWindow.current && (
-          <div role="status" className="flex flex-wrap items-center gap-3 rounded-lg bg-linen p-3">
-            <span>{undoWindow.current}.</span>
-            <Button
-              variant="secondary"
-              pending={undo.isPending}
-              pendingLabel="Undoing…"
-              onClick={() => {
-                setProblem('');
-                undo.mutate(block.id, { onSuccess: () => undoWindow.clear(), onError: report });
-              }}
-            >
-              Undo
-            </Button>
-          </div>
+          <UndoNotice
+            message={undoWindow.current}
+            pending={undo.isPending}
+            onUndo={() => {
+              setProblem('');
+              undo.mutate(block.id, { onSuccess: () => undoWindow.clear(), onError: report });
+            }}
+          />
         )}
 
         {block.photos.length > 0 && (
@@ -176,22 +171,7 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
               );
             }}
           >
-            <SelectField
-              label="How"
-              value={how}
-              onChange={(e) => setHow(e.target.value as 'in-person' | 'post')}
-              options={[
-                { value: 'in-person', label: 'In person, at a meeting' },
-                { value: 'post', label: 'By post' },
-              ]}
-            />
-            <TextField
-              label={how === 'post' ? 'Tracking number or note' : 'Note'}
-              hint="Optional"
-              value={note}
-              onChange={(e) => setNote(e.target.value)}
-              maxLength={500}
-            />
+            <HandInFields how={how} note={note} onHowChange={setHow} onNoteChange={setNote} />
             <Button type="submit" pending={handIn.isPending}>
               Save hand-in
             </Button>

@@ -1,3 +1,4 @@
+import { UndoNotice } from '@/components/ui/undo-notice';
 import { useState } from 'react';
 import type { RosterBlockDto, RosterRowDto, SwapDto } from '@shared/swap-types';
 import { isBlockStateBefore } from '@shared/vocabulary';
@@ -89,24 +90,16 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
         </div>
       )}
       {undoWindow.current && (
-        <div role="status" className="mt-2 flex flex-wrap items-center gap-3 rounded-lg bg-linen p-3">
-          <span>{undoWindow.current}.</span>
-          <Button
-            variant="secondary"
-            pending={undo.isPending}
-            pendingLabel="Undoing…"
-            onClick={() => {
-              setProblem('');
-              undo.mutate(block.id, { onSuccess: () => undoWindow.clear(), onError: report });
-            }}
-          >
-            Undo
-            <span className="sr-only">
-              {' '}
-              on block {block.sequence} of {maker}
-            </span>
-          </Button>
-        </div>
+        <UndoNotice
+          className="mt-2"
+          message={undoWindow.current}
+          pending={undo.isPending}
+          undoLabel={`on block ${block.sequence} of ${maker}`}
+          onUndo={() => {
+            setProblem('');
+            undo.mutate(block.id, { onSuccess: () => undoWindow.clear(), onError: report });
+          }}
+        />
       )}
       {block.photos.length > 0 && (
         <div className="mt-3">
