@@ -8,6 +8,7 @@ import type { LiveServer } from '../live/live-types';
 import { recordActivityLines, type SwapEvent } from './board-activity';
 import { BOARD_VERSION, bumpVersion } from './board.queries';
 import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
+import { swapColumns } from '../swaps/swaps.queries';
 import { activitiesForMember, rosterForMember } from '../blocks/verdict-visibility';
 
 const FOREIGN_KEY_VIOLATION = '23503';
@@ -162,15 +163,6 @@ export class BoardFanout {
         .emit('board:changed', { ...change, activities: activities(userId), patch: rosterForMember(patch, userId) });
     }
   }
-}
-
-let swapSelectList: string | undefined;
-/** Every column of the swap aliased "Swap", named as its attributes, so a row builds the instance. */
-function swapColumns() {
-  swapSelectList ??= Object.entries(Swap.getAttributes())
-    .map(([name, a]) => `"Swap"."${a.field ?? name}" AS "${name}"`)
-    .join(', ');
-  return swapSelectList;
 }
 
 /** The swap's current change number (0 before its first change). */

@@ -9,19 +9,26 @@ import { Swap } from '../db/models';
 export const viewerRole = (swapAlias: 'Swap' | 's') =>
   `(SELECT m.role FROM memberships m WHERE m.guild_id = "${swapAlias}"."guild_id" AND m.user_id = $viewerId AND m.status = 'active')`;
 
-let swapColumns: string | undefined;
+let swapColumnList: string | undefined;
+
+/**
+ * Every column of the swap aliased "Swap", named as its attributes, so a row builds the instance as
+ * findByPk would. Built once, on first use, from the model.
+ */
+export function swapColumns(): string {
+  swapColumnList ??= Object.entries(Swap.getAttributes())
+    .map(([name, a]) => `"Swap"."${a.field ?? name}" AS "${name}"`)
+    .join(', ');
+  return swapColumnList;
+}
 
 /**
  * Swap $1 with every column aliased to its attribute name (the row findByPk would read) and the role
  * of $2 in its guild as "viewerRole", numbered for a named statement on the plain pool; `extra`
- * columns (on "Swap", with the same parameters) are read in the same row. The column list is built
- * once, on first use, from the model.
+ * columns (on "Swap", with the same parameters) are read in the same row.
  */
 export function swapWithViewerRole(extra?: string): string {
-  swapColumns ??= Object.entries(Swap.getAttributes())
-    .map(([name, a]) => `"Swap"."${a.field ?? name}" AS "${name}"`)
-    .join(', ');
-  return `SELECT ${swapColumns}, ${viewerRole('Swap')} AS "viewerRole"${extra ? `, ${extra}` : ''}
+  return `SELECT ${swapColumns()}, ${viewerRole('Swap')} AS "viewerRole"${extra ? `, ${extra}` : ''}
             FROM swaps "Swap" WHERE "Swap"."id" = $swapId`
     .replaceAll('$swapId', '$1')
     .replaceAll('$viewerId', '$2');
