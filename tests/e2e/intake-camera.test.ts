@@ -113,9 +113,9 @@ it('reads a label held up to the camera and opens that block’s measuring card'
   await page.keyboard.type('9 1/2');
   await page.keyboard.press('Enter');
   await page.getByTestId('verdict').getByText('True to size').waitFor();
+  // "All synced" can already show before the save is queued, so wait for the stored row itself.
+  await expect.poll(async () => (await agent.get(`/api/blocks/${label.blockId}/measurements`).expect(200)).body.length).toBe(1);
   await page.getByText('All synced').waitFor();
-  const stored = await agent.get(`/api/blocks/${label.blockId}/measurements`).expect(200);
-  expect(stored.body).toHaveLength(1);
   await page.getByRole('button', { name: 'Stop camera' }).click();
   await page.getByRole('button', { name: 'Start camera' }).waitFor();
 });
