@@ -1,4 +1,5 @@
-import { QueryTypes, type Transaction } from 'sequelize';
+import type pg from 'pg';
+import { QueryTypes } from 'sequelize';
 import type { ActivityDto } from '@shared/live-events';
 import type { DomainEventMap, DomainEventName } from '../events';
 import type { Activity } from '../db/models';
@@ -50,13 +51,9 @@ function describe({ name, payload }: SwapEvent): { subjectId: number | null; blo
 /**
  * Keeps one activity line per event worth one and answers them as the board shows them, newest
  * first, in a single statement: the lines go in with their block's number read on the way, and come
- * back with the names of who acted and whom it was about.
+ * back with the names of who acted and whom it was about. On `client`, inside the caller's transaction.
  */
-export async function recordActivityLines(
-  deps: Pick<AppDeps, 'sequelize'>,
-  events: SwapEvent[],
-  transaction: Transaction,
-): Promise<ActivityDto[]> {
+export async function recordActivityLines(client: pg.ClientBase, events: SwapEvent[]): Promise<ActivityDto[]> {
   const lines = events.flatMap((e) => {
     const d = describe(e);
     if (!d) return [];
@@ -74,10 +71,10 @@ export async function recordActivityLines(
   });
   if (lines.length === 0) return [];
   const numbered = lines.map((line, n) => ({ n, ...line }));
-  const rows = await deps.sequelize.query<ActivityRow>(RECORD_ACTIVITY, {
-    bind: { lines: JSON.stringify(numbered), at: new Date() },
-    type: QueryTypes.SELECT,
-    transaction,
+  const { rows } = await client.query<ActivityRow>({
+    name: 'record-activity',
+    text: RECORD_ACTIVITY,
+    values: [JSON.stringify(numbered), new Date()],
   });
   return rows.map(toDto);
 }

@@ -1,12 +1,13 @@
+import type pg from 'pg';
 import { QueryTypes } from 'sequelize';
 import type { BoardChange, BoardPatch } from '@shared/live-events';
 import type { RosterDto } from '@shared/swap-types';
 import { Swap } from '../db/models';
-import { getRoster } from './roster.service';
+import { getRoster, type MemberTuple } from './roster.service';
 import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
 import { recordActivityLines, type SwapEvent } from './board-activity';
-import { BOARD_VERSION, bumpVersion } from './board.queries';
+import { BOARD_VERSION, bumpVersion, ROSTER_POSITIONAL } from './board.queries';
 import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
 import { swapColumns } from '../swaps/swaps.queries';
 import { activitiesForMember, rosterForMember } from '../blocks/verdict-visibility';
@@ -50,9 +51,13 @@ export class BoardFanout {
   /** when each swap's last change went out (performance.now()) */
   private sentAt = new Map<number, number>();
 
+  /**
+   * @param db the fan-out's own small pool (see `inTransaction`), with the plain pool's settings.
+   */
   constructor(
     private io: LiveServer,
     private deps: Pick<AppDeps, 'sequelize' | 'pool' | 'logger'>,
+    private db: pg.Pool,
     private intervalMs = BOARD_CHANGE_INTERVAL_MS,
   ) {
     io.on('board:fanout', ({ guildId, verdictsVisibleTo, change }) => this.sendLocal(guildId, verdictsVisibleTo, change));
@@ -84,31 +89,32 @@ export class BoardFanout {
   }
 
   private async publish(swapId: number, batch: SwapEvent[]) {
-    const { sequelize } = this.deps;
-    // Five round trips: BEGIN, the next number with the swap, the activity lines, the roster, COMMIT.
-    const result = await sequelize.transaction(async (transaction) => {
-      const [row] = await sequelize
-        .query<Record<string, unknown> & { version: string; verdictsVisibleTo: string }>(bumpVersion(swapColumns()), {
-          bind: { swapId },
-          type: QueryTypes.SELECT,
-          transaction,
+    const result = await this.inTransaction(async (client) => {
+      const bumped = await client
+        .query<Record<string, unknown> & { version: string; verdictsVisibleTo: string }>({
+          name: 'board-bump',
+          text: bumpVersion(swapColumns()),
+          values: [swapId],
         })
-        .catch((error: { parent?: { code?: string } }) => {
-          if (error.parent?.code === FOREIGN_KEY_VIOLATION) return [];
+        .catch((error: { code?: string }) => {
+          if (error.code === FOREIGN_KEY_VIOLATION) return { rows: [] };
           throw error;
         });
+      const [row] = bumped.rows;
       if (!row) return null; // the swap was deleted since: nobody's board shows it any more
       const { version, verdictsVisibleTo, ...values } = row;
       const swap = Swap.build(values as never, { isNewRecord: false, raw: true });
-      const activities = await recordActivityLines(this.deps, batch, transaction);
-      // Read while the counter row is locked, so the next number cannot carry an older roster; on the
-      // transaction's own connection, so a busy pool cannot leave the lock held while it waits.
+      const activities = await recordActivityLines(client, batch);
+      // Read while the counter row is locked, so the next number cannot carry an older roster.
+      const members = (
+        await client.query<{ roster: MemberTuple[] }>({ name: 'roster', text: ROSTER_POSITIONAL, values: [swapId] })
+      ).rows[0]!.roster;
       return {
         swap,
         version: Number(version),
         verdictsVisibleTo,
         activities,
-        roster: await getRoster(this.deps, swap, { withAddresses: false, transaction }),
+        roster: await getRoster(this.deps, swap, { withAddresses: false, members }),
       };
     });
     if (!result) return;
@@ -119,6 +125,28 @@ export class BoardFanout {
       patch: patchFor(result.roster, batch),
     };
     this.send(result.swap.guildId, result.verdictsVisibleTo, change);
+  }
+
+  /**
+   * Five round trips on the fan-out's own connection (BEGIN, the next number with the swap, the
+   * activity lines, the roster, COMMIT), all named statements: a burst of requests holding every
+   * connection of the request pool cannot keep a change waiting, nor the counter's lock held.
+   */
+  private async inTransaction<T>(work: (client: pg.PoolClient) => Promise<T>): Promise<T> {
+    const client = await this.db.connect();
+    let broken: Error | undefined;
+    try {
+      await client.query('BEGIN');
+      const result = await work(client);
+      await client.query('COMMIT');
+      return result;
+    } catch (error) {
+      // A connection that cannot even roll back is closed instead of going back to the pool.
+      await client.query('ROLLBACK').catch((rollbackError: Error) => (broken = rollbackError));
+      throw error;
+    } finally {
+      client.release(broken);
+    }
   }
 
   /**

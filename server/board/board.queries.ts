@@ -52,16 +52,17 @@ export const ROSTER_WITH_SWAP = {
 };
 
 /**
- * Activity lines in ($lines, a JSON array with each line's place `n`) stamped $at, with their block's
+ * Activity lines in ($1, a JSON array with each line's place `n`) stamped $2, with their block's
  * number read on the way; they come back newest first with the names of who acted and whom it was about.
+ * Numbered, for a named statement on the board fan-out's own pool.
  */
 export const RECORD_ACTIVITY = `WITH input AS (
-       SELECT * FROM jsonb_to_recordset($lines::jsonb)
+       SELECT * FROM jsonb_to_recordset($1::jsonb)
                 AS l(n int, guild_id int, swap_id int, kind text, actor_id int, subject_id int, block_id int, detail jsonb)),
      inserted AS (
        INSERT INTO swap_activities (guild_id, swap_id, kind, actor_id, subject_id, block_id, detail, created_at)
        SELECT l.guild_id, l.swap_id, l.kind, l.actor_id, l.subject_id, l.block_id,
-              CASE WHEN b.id IS NULL THEN l.detail ELSE l.detail || jsonb_build_object('sequence', b.sequence) END, $at
+              CASE WHEN b.id IS NULL THEN l.detail ELSE l.detail || jsonb_build_object('sequence', b.sequence) END, $2
          FROM input l LEFT JOIN blocks b ON b.id = l.block_id
         ORDER BY l.n
        RETURNING *)
@@ -135,14 +136,15 @@ export const ACTIVITY_PAGE = `${fromHistory},
       ORDER BY l.id DESC`;
 
 /**
- * Takes the next change number of swap $swapId and reads the swap and its guild's verdict setting with
- * it. `swapColumns` is the swap's select list, built from the model's attributes (names, never values).
+ * Takes the next change number of swap $1 and reads the swap and its guild's verdict setting with it.
+ * `swapColumns` is the swap's select list, built from the model's attributes (names, never values).
+ * Numbered, for a named statement on the board fan-out's own pool.
  */
 export const bumpVersion = (swapColumns: string) => `WITH bumped AS (
-             INSERT INTO swap_versions (swap_id, version) VALUES ($swapId, 1)
+             INSERT INTO swap_versions (swap_id, version) VALUES ($1, 1)
              ON CONFLICT (swap_id) DO UPDATE SET version = swap_versions.version + 1 RETURNING version)
            SELECT bumped.version, g.verdicts_visible_to AS "verdictsVisibleTo", ${swapColumns}
-             FROM bumped JOIN swaps "Swap" ON "Swap"."id" = $swapId JOIN guilds g ON g.id = "Swap"."guild_id"`;
+             FROM bumped JOIN swaps "Swap" ON "Swap"."id" = $1 JOIN guilds g ON g.id = "Swap"."guild_id"`;
 
 /** The current change number of swap $swapId; no row before its first change. */
 export const BOARD_VERSION = 'SELECT version FROM swap_versions WHERE swap_id = $swapId';

@@ -7,17 +7,21 @@ import { BoardFanout, boardVersion } from './board-fanout';
 import type { SwapEvent } from './board-activity';
 import { handle } from '../live/socket-handler';
 import { assertSessionLive } from '../live/live-auth';
+import { createPool } from '../db/pool';
 import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
 
 /** Live swap boards: committed swap events fan out to the swap's room; viewers join with their membership checked. */
 export function boardLive(): LivePart {
   return {
     start({ io, deps }) {
-      const board = new BoardFanout(io, deps);
+      // Two connections of its own, with the plain pool's settings (see BoardFanout.inTransaction).
+      const db = createPool(deps.pool.options, deps.logger, 2);
+      const board = new BoardFanout(io, deps, db);
       deps.events.onAny((name, payload) => {
         if (typeof (payload as { swapId?: unknown }).swapId !== 'number') return;
         board.push({ name, payload } as SwapEvent);
       });
+      return () => db.end();
     },
 
     onConnection({ deps, presence }, socket) {

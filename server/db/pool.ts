@@ -6,8 +6,8 @@ import type { Logger } from '../logger';
  * listener: a client held for LISTEN is not idle, so without one a database restart would throw an
  * unhandled 'error' event and take the process down instead of letting it reconnect.
  */
-export function createPool(connectionString: string, logger: Logger, max = 10): pg.Pool {
-  const pool = new pg.Pool({ connectionString, max });
+export function createPool(connection: string | pg.PoolConfig, logger: Logger, max = 10): pg.Pool {
+  const pool = new pg.Pool({ ...(typeof connection === 'string' ? { connectionString: connection } : connection), max });
   pool.on('error', (err) => logger.warn({ err }, 'idle database connection failed'));
   pool.on('connect', (client) => {
     client.on('error', (err) => logger.warn({ err }, 'database connection failed'));

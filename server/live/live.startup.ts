@@ -16,7 +16,8 @@ export interface LiveContext {
 /** A live part that adds its socket handlers and domain-event subscriptions. */
 export interface LivePart {
   onConnection?(ctx: LiveContext, socket: LiveSocket): void;
-  start?(ctx: LiveContext): void;
+  /** May return what to close when the app stops (after the sockets are gone). */
+  start?(ctx: LiveContext): void | (() => Promise<void>);
 }
 
 /**
@@ -51,7 +52,7 @@ export function liveStartup(parts: LivePart[]): FeatureStartup {
       for (const sid of sessionIds) io.in(sessionRoom(sid)).disconnectSockets(true);
     });
 
-    for (const part of parts) part.start?.(ctx);
+    const stops = parts.flatMap((part) => part.start?.(ctx) ?? []);
     io.on('connection', (socket) => {
       void socket.join(userRoom(socket.data.user.userId));
       const sid = socketSessionId(socket);
@@ -77,6 +78,7 @@ export function liveStartup(parts: LivePart[]): FeatureStartup {
         presence.close();
         io.local.disconnectSockets(true);
         await new Promise<void>((resolve) => io.close(() => resolve()));
+        for (const stop of stops) await stop();
       },
     };
   };

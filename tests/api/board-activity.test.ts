@@ -103,27 +103,22 @@ describe('recent activity from the stored history', () => {
     expect(all[0]).toMatchObject({ blockId: block!.id, detail: { verdict: measured.verdict, source: 'ruler', sequence: 1 } });
 
     // The live board keeps a line for the measurement, written with it: that line alone tells it.
-    const line = await app.deps.sequelize.transaction((transaction) =>
-      recordActivityLines(
-        app.deps,
-        [
-          {
-            name: 'block.measured',
-            payload: {
-              swapId: swap.id,
-              guildId: roles.guildId,
-              actorId: roles.coordinator.id,
-              blockId: block!.id,
-              makerId: roles.member.id,
-              measurementId: 0,
-              verdict: 'true',
-              source: 'ruler',
-            },
-          },
-        ],
-        transaction,
-      ),
-    );
+    const client = await app.deps.pool.connect();
+    const line = await recordActivityLines(client, [
+      {
+        name: 'block.measured',
+        payload: {
+          swapId: swap.id,
+          guildId: roles.guildId,
+          actorId: roles.coordinator.id,
+          blockId: block!.id,
+          makerId: roles.member.id,
+          measurementId: 0,
+          verdict: 'true',
+          source: 'ruler',
+        },
+      },
+    ]).finally(() => client.release());
     const now = await activity(roles.member.agent, swap.id, 'limit=100');
     expect(now.map((a) => a.id)).toEqual([line[0]!.id]);
     expect(now[0]).toMatchObject({ kind: 'block.measured', actor: { userId: roles.coordinator.id } });

@@ -54,7 +54,7 @@ describe('board fan-out under a burst', () => {
     for (const b of blocks) await roles.coordinator.agent.post(`/api/blocks/${b.id}/received`).send({}).expect(200);
 
     const { io, sent, published } = recordingIo();
-    const fanout = new BoardFanout(io, app.deps);
+    const fanout = new BoardFanout(io, app.deps, app.deps.pool);
     app.deps.events.onAny((name, payload) => {
       if ((payload as { swapId?: unknown }).swapId === swap.id) fanout.push({ name, payload } as SwapEvent);
     });
