@@ -1,7 +1,8 @@
 /** Turns block and measurement rows into the API's answers, loading related rows in batches. */
-import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import type { Sequelize, Transaction } from 'sequelize';
 import type { BlockDto, MeasurementDto, PhotoRefDto } from '@shared/swap-types';
 import type { Block, Measurement, Swap } from '../db/models';
+import { preparedQuery } from '../db/prepared';
 import { photoRef } from './photo-refs';
 import { LATEST_ESTIMATES, NEWEST_ESTIMATE_FIRST, latestEstimateDtos, type LatestEstimateRow } from './latest-estimate';
 import { blockWithoutVerdict, guildVerdictsVisibleTo, seesAllVerdicts } from './verdict-visibility';
@@ -94,11 +95,7 @@ async function relatedRows(db: Sequelize, blocks: Block[], transaction?: Transac
   const userIds = [
     ...new Set(blocks.flatMap((b) => [b.makerId, b.recipientId, b.acceptedById].filter((x): x is number => x != null))),
   ];
-  const [row] = await db.query<RelatedJson>(relatedSql(), {
-    bind: { ids, userIds },
-    type: QueryTypes.SELECT,
-    transaction,
-  });
+  const [row] = await preparedQuery<RelatedJson>(db, relatedSql(), { ids, userIds }, transaction);
   return row!;
 }
 

@@ -1,6 +1,7 @@
 /** The blocks feature's hand-written SQL; every value arrives as a bind parameter. */
 import { QueryTypes, type Model, type ModelStatic, type Sequelize, type Transaction } from 'sequelize';
 import { Block, Swap } from '../db/models';
+import { preparedQuery } from '../db/prepared';
 
 let selectList: string | undefined;
 
@@ -30,11 +31,7 @@ export async function findBlockWithSwap(
   const sql = `SELECT ${columns()}${options.extraSwapColumns ? `, ${options.extraSwapColumns}` : ''}
                  FROM blocks b JOIN swaps s ON s.id = b.swap_id
                 WHERE b.id = $blockId${options.lockForChange ? ' FOR NO KEY UPDATE OF b' : ''}`;
-  const [row] = await db.query<Record<string, unknown>>(sql, {
-    bind: { ...options.bind, blockId },
-    type: QueryTypes.SELECT,
-    transaction: options.transaction,
-  });
+  const [row] = await preparedQuery<Record<string, unknown>>(db, sql, { ...options.bind, blockId }, options.transaction);
   if (!row) return null;
   const blockValues: Record<string, unknown> = {};
   const swapValues: Record<string, unknown> = {};

@@ -1,6 +1,7 @@
 /** The record of steps taken on a block, with the columns just before each, so a step can be undone. */
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { Block } from '../db/models';
+import { preparedQuery } from '../db/prepared';
 
 export type StepAction = 'sewn' | 'handed_in' | 'received' | 'measured' | 'trimmed' | 'accepted';
 
@@ -62,11 +63,13 @@ export async function applyStep(
   const names = Object.keys(changes) as (keyof typeof changes)[];
   const assignments = names.map((name, i) => `"${attributes[name]!.field ?? name}" = $c${i}`);
   const values = Object.fromEntries(names.map((name, i) => [`c${i}`, changes[name] ?? null]));
-  await db.query(
+  await preparedQuery(
+    db,
     `WITH changed AS (UPDATE blocks SET ${assignments.join(', ')}, updated_at = now() WHERE id = $blockId RETURNING id)
      INSERT INTO block_steps (block_id, action, by_id, before, measurement_id)
      SELECT id, $action, $byId, $before::jsonb, $measurementId FROM changed`,
-    { bind: { ...values, ...stepBind({ ...step, blockId: block.id, before }) }, type: QueryTypes.INSERT, transaction },
+    { ...values, ...stepBind({ ...step, blockId: block.id, before }) },
+    transaction,
   );
   block.set(changes as never, { raw: true });
 }

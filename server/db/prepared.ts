@@ -1,0 +1,52 @@
+/**
+ * Hand-written statements run as named (prepared) statements on a transaction's own connection.
+ * PostgreSQL then plans each once per connection instead of on every request: on the measurement
+ * path, planning the block's locked read, its step and its answer's related rows cost more database
+ * time than running them (pg_stat_statements under the API bench, docs/benchmarks.md).
+ */
+import { createHash } from 'node:crypto';
+import type pg from 'pg';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+
+interface Statement {
+  name: string;
+  /** the SQL with `$name` placeholders numbered `$1…` in order of first use */
+  text: string;
+  params: string[];
+}
+
+// One entry per distinct SQL text; the hot paths build a handful of them.
+const statements = new Map<string, Statement>();
+
+function statementFor(sql: string): Statement {
+  let statement = statements.get(sql);
+  if (!statement) {
+    const params: string[] = [];
+    const text = sql.replace(/\$([a-z_]\w*)/gi, (_match, param: string) => {
+      const at = params.indexOf(param);
+      return `$${(at < 0 ? params.push(param) : at + 1).toString()}`;
+    });
+    // Named after the text, so one name never stands for two statements on a connection.
+    statement = { name: `bp_${createHash('sha1').update(sql).digest('hex').slice(0, 24)}`, text, params };
+    statements.set(sql, statement);
+  }
+  return statement;
+}
+
+/**
+ * Runs `sql` (with `$name` parameters from `bind`) and returns its rows. Inside a transaction it is a
+ * named statement on the transaction's connection; outside one, an ordinary Sequelize query.
+ */
+export async function preparedQuery<T extends object>(
+  db: Sequelize,
+  sql: string,
+  bind: Record<string, unknown>,
+  transaction?: Transaction,
+): Promise<T[]> {
+  if (!transaction) return db.query<T>(sql, { bind, type: QueryTypes.SELECT });
+  const { name, text, params } = statementFor(sql);
+  // Sequelize keeps the transaction's pg client on it; it parses column types as Sequelize's queries do.
+  const { connection } = transaction as unknown as { connection: pg.ClientBase };
+  const result = await connection.query<T>({ name, text, values: params.map((param) => bind[param]) });
+  return result.rows;
+}
