@@ -5,9 +5,11 @@
  * session, no checks). Each load run is a separate autocannon process (bench/load.ts). Runs alternate
  * app / Express / node:http and repeat; medians are reported with their spread (min–max).
  * Run alone with `npx tsx bench/api.ts`; BENCH_SECONDS, BENCH_RUNS, BENCH_ONLY (a pattern of scenario
- * names) and BENCH_PROFILE_DIR (a folder for the app's `node --cpu-prof` profile; summarise it with
- * `npx tsx bench/profile.ts <file>`) adjust it.
+ * names), BENCH_PROFILE_DIR (a folder for the app's `node --cpu-prof` profile; summarise it with
+ * `npx tsx bench/profile.ts <file>`) and BENCH_PG_STATS=1 (print the statements that took the most
+ * database time, planning and running, from pg_stat_statements) adjust it.
  */
+import pg from 'pg';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
 import { freePort } from '../scripts/lib/ports';
 import type { LoadOptions, LoadResult } from './load';
@@ -43,11 +45,11 @@ const SIZES = [
 ];
 
 export async function runApiBench(
-  opts: { duration?: number; runs?: number; profileDir?: string; only?: RegExp } = {},
+  opts: { duration?: number; runs?: number; profileDir?: string; only?: RegExp; statementStats?: boolean } = {},
 ): Promise<ApiBenchResult> {
   const duration = opts.duration ?? 5;
   const runs = opts.runs ?? 3;
-  const cluster = await startThrowawayCluster('blockpost-bench-');
+  const cluster = await startThrowawayCluster('blockpost-bench-', { statementStats: opts.statementStats });
   const servers: Partial<Record<ServerKey, NodeProcess>> = {};
   try {
     const databaseUrl = await cluster.database('bench');
@@ -176,6 +178,7 @@ export async function runApiBench(
 
     const pct = (a: number, b: number) => Math.round((a / b) * 100);
     const at = (name: string) => medians.get(name)!;
+    if (opts.statementStats) console.table(await statementStats(databaseUrl));
     if (opts.only) return { rows, goals, memory: memoryRows(servers) };
     for (const c of [10, 50]) {
       const m = at(`GET roster ${sizeName(small)}, ${c} connections`);
@@ -243,8 +246,28 @@ async function bytesPerResponse(base: string, req: Pick<LoadOptions, 'method' | 
   return (await res.arrayBuffer()).byteLength;
 }
 
+/** The statements that took the most database time in the whole run (every server's), planning included. */
+async function statementStats(databaseUrl: string): Promise<Row[]> {
+  const client = new pg.Client({ connectionString: databaseUrl });
+  await client.connect();
+  try {
+    await client.query('CREATE EXTENSION IF NOT EXISTS pg_stat_statements');
+    const { rows } = await client.query<Row>(
+      `SELECT calls, round(total_exec_time::numeric, 1) AS run_ms, round(total_plan_time::numeric, 1) AS plan_ms,
+              round(((total_exec_time + total_plan_time) / greatest(calls, 1))::numeric, 3) AS ms_per_call,
+              left(regexp_replace(query, '\\s+', ' ', 'g'), 110) AS statement
+         FROM pg_stat_statements WHERE calls > 50
+        ORDER BY total_exec_time + total_plan_time DESC LIMIT 15`,
+    );
+    return rows;
+  } finally {
+    await client.end();
+  }
+}
+
 if (import.meta.url === `file://${process.argv[1]}`) {
   const result = await runApiBench({
+    statementStats: process.env.BENCH_PG_STATS === '1',
     duration: Number(process.env.BENCH_SECONDS ?? 5),
     runs: Number(process.env.BENCH_RUNS ?? 3),
     profileDir: process.env.BENCH_PROFILE_DIR,

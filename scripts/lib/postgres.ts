@@ -50,6 +50,8 @@ export interface ClusterOptions {
   port: number;
   /** Durability off: only for throwaway test clusters. */
   fast?: boolean;
+  /** Load pg_stat_statements (with planning time), to see where a benchmark's database time goes. */
+  statementStats?: boolean;
 }
 
 /** initdb refuses root, so as root every cluster command runs as the `postgres` user. */
@@ -98,6 +100,7 @@ export function startCluster(pgBin: string, opts: ClusterOptions): boolean {
     `-k ${opts.socketDir}`,
     ...(opts.fast ? ['-c fsync=off', '-c synchronous_commit=off', '-c full_page_writes=off'] : []),
     '-c max_connections=200',
+    ...(opts.statementStats ? ['-c shared_preload_libraries=pg_stat_statements', '-c pg_stat_statements.track_planning=on'] : []),
   ].join(' ');
   try {
     asClusterOwner(join(pgBin, 'pg_ctl'), ['-D', opts.dataDir, '-l', opts.logFile, '-w', '-t', '60', '-o', settings, 'start']);

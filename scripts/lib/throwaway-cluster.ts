@@ -12,14 +12,24 @@ export interface ThrowawayCluster {
   stop(): void;
 }
 
-export async function startThrowawayCluster(prefix = 'blockpost-pg-'): Promise<ThrowawayCluster> {
+export async function startThrowawayCluster(
+  prefix = 'blockpost-pg-',
+  opts: { statementStats?: boolean } = {},
+): Promise<ThrowawayCluster> {
   const pgBin = ensurePostgresBinaries();
   const root = mkdtempSync(join(tmpdir(), prefix));
   chmodSync(root, 0o755); // the cluster runs as the postgres user, which must reach its folders
   const port = await freePort();
   const dataDir = join(root, 'data');
   initCluster(pgBin, { dataDir, socketDir: join(root, 'run'), logFile: join(root, 'postgres.log'), port });
-  startCluster(pgBin, { dataDir, socketDir: join(root, 'run'), logFile: join(root, 'postgres.log'), port, fast: true });
+  startCluster(pgBin, {
+    dataDir,
+    socketDir: join(root, 'run'),
+    logFile: join(root, 'postgres.log'),
+    port,
+    fast: true,
+    statementStats: opts.statementStats,
+  });
   return {
     port,
     async database(name, template) {
