@@ -2,6 +2,7 @@
  * How many SQL round trips the hot requests make. Every statement any pg client sends (Sequelize's
  * pool, the session store's pool, the job queue) is counted while one request runs.
  */
+import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles } from '../helpers/factories';
@@ -38,6 +39,27 @@ describe('SQL round trips per request', () => {
     // The session with its user, BEGIN, the policy's locked read, the measurement, the block's step,
     // the answer's related rows, the clientId's stored answer, COMMIT.
     expect(statements.length, shown(statements)).toBeLessThanOrEqual(8);
+  });
+
+  it('sends a measurement’s hot statements named, on connections that plan a named statement once', async () => {
+    const { swap, makers } = await sewingSwap(app, roles, { pledges: [2] });
+    const [block] = await myBlocks(makers[0]!.agent, swap.id);
+    await roles.coordinator.agent.post(`/api/blocks/${block!.id}/received`).send({}).expect(200);
+    const { result, named } = await statementsOf(() =>
+      roles.coordinator.agent.post(`/api/blocks/${block!.id}/measurements`).send({ width: '8 1/2', height: '8 1/2' }),
+    );
+    expect(result.status, JSON.stringify(result.body)).toBe(201);
+    // The session with its user on the plain pool; the locked read, the step and the answer's related
+    // rows prepared on the transaction's connection (server/db/prepared.ts).
+    expect(named).toContain('session-with-user');
+    expect(named.filter((name) => name.startsWith('bp_'))).toHaveLength(3);
+
+    const { plan_cache_mode: poolMode } = (await app.deps.pool.query<{ plan_cache_mode: string }>('SHOW plan_cache_mode'))
+      .rows[0]!;
+    const [sequelizeRow] = await app.deps.sequelize.query<{ plan_cache_mode: string }>('SHOW plan_cache_mode', {
+      type: QueryTypes.SELECT,
+    });
+    expect([poolMode, sequelizeRow!.plan_cache_mode]).toEqual(['force_generic_plan', 'force_generic_plan']);
   });
 
   it('a roster read takes 2 round trips: the session with its user, then the swap with its role and roster', async () => {

@@ -5,13 +5,14 @@
 import pg from 'pg';
 
 const originalQuery = pg.Client.prototype.query;
-let recording: string[] | null = null;
+let recording: { statements: string[]; named: string[] } | null = null;
 
 /** Wraps pg's query once per test file; statements are recorded only inside `statementsOf`. */
 export function countStatements() {
   pg.Client.prototype.query = function (this: pg.Client, ...args: unknown[]) {
-    const first = args[0];
-    recording?.push(typeof first === 'string' ? first : ((first as { text?: string } | undefined)?.text ?? String(first)));
+    const first = args[0] as string | { text?: string; name?: string } | undefined;
+    recording?.statements.push(typeof first === 'string' ? first : (first?.text ?? String(first)));
+    if (typeof first === 'object' && first.name) recording?.named.push(first.name);
     return (originalQuery as (...a: unknown[]) => unknown).apply(this, args);
   } as typeof pg.Client.prototype.query;
   return () => {
@@ -19,12 +20,12 @@ export function countStatements() {
   };
 }
 
-/** The statements sent while `run` ran, one string each. */
-export async function statementsOf<T>(run: () => Promise<T>): Promise<{ result: T; statements: string[] }> {
-  const statements: string[] = [];
-  recording = statements;
+/** The statements sent while `run` ran, one string each, and the names of those sent as named statements. */
+export async function statementsOf<T>(run: () => Promise<T>): Promise<{ result: T; statements: string[]; named: string[] }> {
+  const sent = { statements: [] as string[], named: [] as string[] };
+  recording = sent;
   try {
-    return { result: await run(), statements };
+    return { result: await run(), ...sent };
   } finally {
     recording = null;
   }
