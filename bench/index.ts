@@ -72,7 +72,7 @@ const runLiveBench = await optional<() => Promise<Row[]>>('./live.ts', 'runLiveB
 if (runLiveBench)
   await section(
     'Live board and chat (socket.io over loopback)',
-    'From the database commit to receipt on every socket; target p95 < 50 ms.',
+    'From the database commit to receipt on every socket, one change at a time (each after the board’s 50 ms coalescing interval); target p95 < 50 ms.',
     runLiveBench,
   );
 await section(
