@@ -2,7 +2,7 @@ import { useState, type ReactNode } from 'react';
 import { useMutation } from '@tanstack/react-query';
 import type { ActivityDto } from '@shared/live-events';
 import { swapStateShort, type SwapState } from '@shared/schemas/swaps';
-import type { VerdictName } from '@shared/swap-types';
+import { VERDICTS, type Verdict } from '@shared/vocabulary';
 import { relativeTime } from '@/lib/dates';
 import { VerdictBadge } from '@/entities/block/components/verdict-badge';
 import { Button } from '@/components/ui/button';
@@ -11,6 +11,7 @@ import { ACTIVITY_SHOWN, getActivity } from '../api/get-activity';
 
 const who = (p: ActivityDto['actor']) => p?.displayName ?? 'Someone';
 const whose = (a: ActivityDto) => (a.subject && a.actor?.userId === a.subject.userId ? 'their' : `${who(a.subject)}’s`);
+const isVerdict = (v: unknown): v is Verdict => (VERDICTS as readonly unknown[]).includes(v);
 const stateLabel = (s: unknown) => (swapStateShort[s as SwapState] ?? String(s)).toLowerCase();
 
 /** One line of plain words for a swap event. */
@@ -33,10 +34,12 @@ export function describeActivity(a: ActivityDto): ReactNode {
     case 'distribution.confirmed':
       return `${who(a.actor)} confirmed who gets which blocks (${d.transfers} parcel${d.transfers === 1 ? '' : 's'})`;
     case 'block.measured':
+      // While the guild keeps verdicts to its officers, a member's copy of another maker's line has none.
+      if (!isVerdict(d.verdict)) return `${who(a.actor)} measured ${whose(a)} ${block}`;
       return (
         <>
           {who(a.actor)} measured {whose(a)} {block}:{' '}
-          <VerdictBadge verdict={d.verdict as VerdictName} source={d.source === 'photo' ? 'photo' : undefined} />
+          <VerdictBadge verdict={d.verdict} source={d.source === 'photo' ? 'photo' : undefined} />
         </>
       );
     case 'block.changed':
