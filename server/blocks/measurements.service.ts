@@ -12,6 +12,7 @@ import type { AppDeps } from '../deps';
 import { blockDto, measurementDto } from './block-dto';
 import { idempotent } from './idempotency';
 import { assertSwapIn, blockChanged, type LockedBlock } from './blocks.service';
+import { insertMeasurement } from './blocks.queries';
 import type { MeasuringAs } from './blocks.policy';
 import { applyStep } from './step-log';
 import type { Reply } from '../http/route';
@@ -65,23 +66,21 @@ export function recordMeasurement(
       ...(body.diagonals ? { diagonals: [four(body.diagonals[0]), four(body.diagonals[1])] as [number, number] } : {}),
     };
     const { verdict, deviations } = verdictFor(swap, measured);
-    const row = await Measurement.create(
-      {
-        blockId,
-        measuredById: actor.userId,
-        source,
-        width: measured.width,
-        height: measured.height,
-        diagonal1: measured.diagonals?.[0] ?? null,
-        diagonal2: measured.diagonals?.[1] ?? null,
-        verdict,
-        deviationWidth: deviations.width,
-        deviationHeight: deviations.height,
-        deviationDiagonal: deviations.diagonal ?? null,
-        note: body.note || null,
-      },
-      { transaction },
-    );
+    const row = await insertMeasurement(deps.sequelize, transaction, {
+      blockId,
+      measuredById: actor.userId,
+      source,
+      width: measured.width,
+      height: measured.height,
+      diagonal1: measured.diagonals?.[0] ?? null,
+      diagonal2: measured.diagonals?.[1] ?? null,
+      verdict,
+      deviationWidth: deviations.width,
+      deviationHeight: deviations.height,
+      deviationDiagonal: deviations.diagonal ?? null,
+      note: body.note || null,
+      at: new Date(),
+    });
     const from = block.state;
     if (source === 'ruler') {
       // A new ruler measurement replaces the verdict; an earlier trim or decision no longer applies to it.

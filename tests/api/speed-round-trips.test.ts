@@ -49,10 +49,10 @@ describe('SQL round trips per request', () => {
       roles.coordinator.agent.post(`/api/blocks/${block!.id}/measurements`).send({ width: '8 1/2', height: '8 1/2' }),
     );
     expect(result.status, JSON.stringify(result.body)).toBe(201);
-    // The session with its user on the plain pool; the locked read, the step and the answer's related
-    // rows prepared on the transaction's connection (server/db/prepared.ts).
+    // The session with its user on the plain pool; the locked read, the measurement, the step and the
+    // answer's related rows prepared on the transaction's connection (server/db/prepared.ts).
     expect(named).toContain('session-with-user');
-    expect(named.filter((name) => name.startsWith('bp_'))).toHaveLength(3);
+    expect(named.filter((name) => name.startsWith('bp_'))).toHaveLength(4);
 
     const { plan_cache_mode: poolMode } = (await app.deps.pool.query<{ plan_cache_mode: string }>('SHOW plan_cache_mode'))
       .rows[0]!;
