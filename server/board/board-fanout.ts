@@ -3,11 +3,11 @@ import { QueryTypes } from 'sequelize';
 import type { BoardChange, BoardPatch } from '@shared/live-events';
 import type { RosterDto } from '@shared/swap-types';
 import { Swap } from '../db/models';
-import { getRoster, type MemberTuple } from './roster.service';
+import { getRoster } from './roster.service';
 import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
 import { recordActivityLines, type SwapEvent } from './board-activity';
-import { BOARD_VERSION, bumpVersion, ROSTER_POSITIONAL } from './board.queries';
+import { BOARD_VERSION, bumpVersion } from './board.queries';
 import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
 import { swapColumns } from '../swaps/swaps.queries';
 import { activitiesForMember, rosterForMember } from '../blocks/verdict-visibility';
@@ -105,16 +105,13 @@ export class BoardFanout {
       const { version, verdictsVisibleTo, ...values } = row;
       const swap = Swap.build(values as never, { isNewRecord: false, raw: true });
       const activities = await recordActivityLines(client, batch);
-      // Read while the counter row is locked, so the next number cannot carry an older roster.
-      const members = (
-        await client.query<{ roster: MemberTuple[] }>({ name: 'roster', text: ROSTER_POSITIONAL, values: [swapId] })
-      ).rows[0]!.roster;
       return {
         swap,
         version: Number(version),
         verdictsVisibleTo,
         activities,
-        roster: await getRoster(this.deps, swap, { withAddresses: false, members }),
+        // Read while the counter row is locked, so the next number cannot carry an older roster.
+        roster: await getRoster(this.deps, swap, { withAddresses: false, db: client }),
       };
     });
     if (!result) return;

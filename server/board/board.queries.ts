@@ -35,11 +35,11 @@ const ROSTER_ARRAY = `WITH swap_blocks AS (
     FROM signups s JOIN users u ON u.id = s.user_id LEFT JOIN by_maker m ON m.maker_id = s.user_id
    WHERE s.swap_id = $swapId AND s.status = 'active'`;
 
-/** The roster on its own, as one row with one column, `roster`. */
-export const ROSTER = `SELECT (${ROSTER_ARRAY}) AS roster`;
-
-/** The same with `$1` for the swap, for a named statement on the plain pool (which numbers its parameters). */
-export const ROSTER_POSITIONAL = ROSTER.replaceAll('$swapId', '$1');
+/**
+ * The roster on its own, as one row with one column, `roster`; `$1` for the swap, for a named statement
+ * on a pg client (which numbers its parameters).
+ */
+export const ROSTER_POSITIONAL = `SELECT (${ROSTER_ARRAY}) AS roster`.replaceAll('$swapId', '$1');
 
 /**
  * The roster read in the swap policy's own query (`SwapReadExtra` in swaps.policy.ts), so a roster

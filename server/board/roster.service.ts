@@ -2,14 +2,14 @@
  * The roster: every member's progress and each of their blocks (with photos and the latest photo
  * estimate), read in a single query whatever the size of the swap.
  */
-import { QueryTypes, type Transaction } from 'sequelize';
+import type pg from 'pg';
 import { blockStateRank, type BlockState } from '@shared/vocabulary';
 import type { RosterBlockDto, RosterCounts, RosterDto, RosterRowDto } from '@shared/swap-types';
 import type { Swap } from '../db/models';
 import type { AppDeps } from '../deps';
 import { photoRef } from '../blocks/photo-refs';
 import { latestEstimateDto, type LatestEstimateRow } from '../blocks/latest-estimate';
-import { ROSTER, ROSTER_POSITIONAL } from './board.queries';
+import { ROSTER_POSITIONAL } from './board.queries';
 import { guildVerdictsVisibleTo, rosterForMember, seesAllVerdicts, type VerdictViewer } from '../blocks/verdict-visibility';
 
 // A rank lookup rather than two searches of the list of states.
@@ -17,7 +17,7 @@ const reached = (state: BlockState, step: BlockState) => blockStateRank[state] >
 
 type HandInHow = 'in-person' | 'post';
 
-/** A block as the roster query writes it (board.queries.ts ROSTER): positions, not keys. */
+/** A block as the roster query writes it (board.queries.ts ROSTER_ARRAY): positions, not keys. */
 type BlockTuple = [
   id: number,
   sequence: number,
@@ -102,25 +102,21 @@ export interface RosterData extends RosterDto {
 
 /** Rows for every member with an active sign-up, sorted by name; addresses only when `withAddresses`. */
 export async function buildRoster(
-  deps: Pick<AppDeps, 'sequelize' | 'pool'>,
+  deps: Pick<AppDeps, 'pool'>,
   swap: Swap,
-  opts: { withAddresses: boolean; transaction?: Transaction; members?: MemberTuple[] },
+  opts: { withAddresses: boolean; db?: pg.Pool | pg.ClientBase; members?: MemberTuple[] },
 ): Promise<RosterData> {
-  const { transaction } = opts;
-  // Members read with the swap (the GET route) are used as they are. Outside a transaction, a named
-  // statement on the plain pool: PostgreSQL keeps its plan, and planning it cost about as much as running it.
+  // Members read with the swap (the GET route) are used as they are. Otherwise a named statement on
+  // `db` (the plain pool, or the board fan-out's transaction): PostgreSQL keeps its plan.
   const members =
     opts.members ??
-    (transaction
-      ? (
-          await deps.sequelize.query<{ roster: MemberTuple[] }>(ROSTER, {
-            bind: { swapId: swap.id },
-            type: QueryTypes.SELECT,
-            transaction,
-          })
-        )[0]!.roster
-      : (await deps.pool.query<{ roster: MemberTuple[] }>({ name: 'roster', text: ROSTER_POSITIONAL, values: [swap.id] }))
-          .rows[0]!.roster);
+    (
+      await (opts.db ?? deps.pool).query<{ roster: MemberTuple[] }>({
+        name: 'roster',
+        text: ROSTER_POSITIONAL,
+        values: [swap.id],
+      })
+    ).rows[0]!.roster;
 
   const totals = emptyTally();
   const rows = members.map(([userId, displayName, email, , mailingAddress, own]) => {
@@ -184,9 +180,9 @@ export async function buildRoster(
  * come without their verdicts.
  */
 export async function getRoster(
-  deps: Pick<AppDeps, 'sequelize' | 'pool'>,
+  deps: Pick<AppDeps, 'pool'>,
   swap: Swap,
-  opts: { withAddresses: boolean; transaction?: Transaction; viewer?: VerdictViewer; members?: MemberTuple[] },
+  opts: { withAddresses: boolean; db?: pg.Pool | pg.ClientBase; viewer?: VerdictViewer; members?: MemberTuple[] },
 ): Promise<RosterDto> {
   const data = await buildRoster(deps, swap, opts);
   const roster = { ...data, rows: data.rows.map(({ email: _email, ...row }): RosterRowDto => row) };
