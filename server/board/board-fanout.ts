@@ -3,6 +3,7 @@ import { QueryTypes } from 'sequelize';
 import type { BoardChange, BoardPatch } from '@shared/live-events';
 import type { RosterDto } from '@shared/swap-types';
 import { Swap } from '../db/models';
+import { withPgTransaction } from '../db/pg-transaction';
 import { getRoster } from './roster.service';
 import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
@@ -52,7 +53,7 @@ export class BoardFanout {
   private sentAt = new Map<number, number>();
 
   /**
-   * @param db the fan-out's own small pool (see `inTransaction`), with the plain pool's settings.
+   * @param db the fan-out's own small pool (see `publish`), with the plain pool's settings.
    */
   constructor(
     private io: LiveServer,
@@ -89,7 +90,10 @@ export class BoardFanout {
   }
 
   private async publish(swapId: number, batch: SwapEvent[]) {
-    const result = await this.inTransaction(async (client) => {
+    // Five round trips on the fan-out's own connection (BEGIN, the next number with the swap, the
+    // activity lines, the roster, COMMIT), all named statements: a burst of requests holding every
+    // connection of the request pool cannot keep a change waiting, nor the counter's lock held.
+    const result = await withPgTransaction(this.db, async (client) => {
       const bumped = await client
         .query<Record<string, unknown> & { version: string; verdictsVisibleTo: string }>({
           name: 'board-bump',
@@ -122,28 +126,6 @@ export class BoardFanout {
       patch: patchFor(result.roster, batch),
     };
     this.send(result.swap.guildId, result.verdictsVisibleTo, change);
-  }
-
-  /**
-   * Five round trips on the fan-out's own connection (BEGIN, the next number with the swap, the
-   * activity lines, the roster, COMMIT), all named statements: a burst of requests holding every
-   * connection of the request pool cannot keep a change waiting, nor the counter's lock held.
-   */
-  private async inTransaction<T>(work: (client: pg.PoolClient) => Promise<T>): Promise<T> {
-    const client = await this.db.connect();
-    let broken: Error | undefined;
-    try {
-      await client.query('BEGIN');
-      const result = await work(client);
-      await client.query('COMMIT');
-      return result;
-    } catch (error) {
-      // A connection that cannot even roll back is closed instead of going back to the pool.
-      await client.query('ROLLBACK').catch((rollbackError: Error) => (broken = rollbackError));
-      throw error;
-    } finally {
-      client.release(broken);
-    }
   }
 
   /**

@@ -14,7 +14,7 @@ import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
 export function boardLive(): LivePart {
   return {
     start({ io, deps }) {
-      // Two connections of its own, with the plain pool's settings (see BoardFanout.inTransaction).
+      // Two connections of its own, with the plain pool's settings (see BoardFanout.publish).
       const db = createPool(deps.pool.options, deps.logger, 2);
       const board = new BoardFanout(io, deps, db);
       deps.events.onAny((name, payload) => {

@@ -7,6 +7,7 @@ import type PgBoss from 'pg-boss';
 import type pg from 'pg';
 import type { AnyMailCategory } from '@shared/schemas/notifications';
 import { inTransaction, queues } from '../jobs/queue';
+import { withPgTransaction } from '../db/pg-transaction';
 import type { RenderedMail, TemplateName } from './render';
 import { INSERT_MESSAGE, STALLED_MESSAGES } from './mail.queries';
 
@@ -43,10 +44,8 @@ export async function recordAndQueue(
 ): Promise<RecordResult> {
   const result: RecordResult = { queued: 0, skipped: 0, existing: 0 };
   for (const r of records) {
-    const client = await pool.connect();
-    try {
-      await client.query('BEGIN');
-      const status = r.skipReason ? 'skipped' : 'queued';
+    const status = r.skipReason ? 'skipped' : 'queued';
+    const id = await withPgTransaction(pool, async (client) => {
       const inserted = await client.query<{ id: number }>(INSERT_MESSAGE, [
         r.key,
         r.category,
@@ -62,20 +61,15 @@ export async function recordAndQueue(
         r.skipReason ?? null,
         writtenFor ?? null,
       ]);
-      const id = inserted.rows[0]?.id;
-      if (id !== undefined && status === 'queued') {
-        await boss.send(queues.send, { messageId: id }, { singletonKey: r.key, db: inTransaction(client) });
+      const messageId = inserted.rows[0]?.id;
+      if (messageId !== undefined && status === 'queued') {
+        await boss.send(queues.send, { messageId }, { singletonKey: r.key, db: inTransaction(client) });
       }
-      await client.query('COMMIT');
-      if (id === undefined) result.existing += 1;
-      else if (status === 'skipped') result.skipped += 1;
-      else result.queued += 1;
-    } catch (error) {
-      await client.query('ROLLBACK').catch(() => undefined);
-      throw error;
-    } finally {
-      client.release();
-    }
+      return messageId;
+    });
+    if (id === undefined) result.existing += 1;
+    else if (status === 'skipped') result.skipped += 1;
+    else result.queued += 1;
   }
   return result;
 }

@@ -8,6 +8,7 @@
 import type Stripe from 'stripe';
 import type { PaymentStatus } from '@shared/schemas/payments';
 import type { AppDeps } from '../deps';
+import { withPgTransaction } from '../db/pg-transaction';
 import { AppError, ValidationError } from '../http/errors';
 import { paymentsClient } from './payments-client';
 import * as q from './payments.queries';
@@ -112,15 +113,11 @@ export async function handlePaymentEvent(deps: Deps, rawBody: Buffer, signature:
   }
 
   const read = readEvent(event);
-  const client = await deps.pool.connect();
-  const settled: { rows: PaymentRow[]; to: PaymentStatus }[] = [];
-  let changed = 0;
-  try {
-    await client.query('BEGIN');
-    if (!(await q.recordEvent(client, event.id, event.type))) {
-      await client.query('ROLLBACK');
-      return { received: true, duplicate: true, changed: 0 };
-    }
+  // A delivery seen before writes nothing (its event row is already there) and changes nothing.
+  const outcome = await withPgTransaction(deps.pool, async (client) => {
+    if (!(await q.recordEvent(client, event.id, event.type))) return null;
+    const settled: { rows: PaymentRow[]; to: PaymentStatus }[] = [];
+    let changed = 0;
     if (read) {
       const rows = await q.lockPayments(client, read.where);
       const moved: PaymentRow[] = [];
@@ -144,13 +141,10 @@ export async function handlePaymentEvent(deps: Deps, rawBody: Buffer, signature:
       changed = moved.length;
       if (moved.length) settled.push({ rows: moved, to: read.change.to });
     }
-    await client.query('COMMIT');
-  } catch (error) {
-    await client.query('ROLLBACK').catch(() => undefined);
-    throw error;
-  } finally {
-    client.release();
-  }
+    return { settled, changed };
+  });
+  if (!outcome) return { received: true, duplicate: true, changed: 0 };
+  const { settled, changed } = outcome;
 
   for (const { rows, to } of settled) {
     if (to === 'pending') continue;
