@@ -1,10 +1,10 @@
 import type pg from 'pg';
 import { QueryTypes } from 'sequelize';
 import type { BoardChange, BoardPatch } from '@shared/live-events';
-import type { RosterDto } from '@shared/swap-types';
+import type { RosterRowDto } from '@shared/swap-types';
 import { Swap } from '../db/models';
 import { withPgTransaction } from '../db/pg-transaction';
-import { getRoster } from './roster.service';
+import { buildRoster, buildRosterPart, type RosterData } from './roster.service';
 import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
 import { recordActivityLines, type SwapEvent } from './board-activity';
@@ -24,14 +24,20 @@ function affectedUser(event: SwapEvent): number | null {
   return typeof id === 'number' ? id : null;
 }
 
-/** The rows the batch touched, recomputed; every row when the swap as a whole changed. */
-function patchFor(roster: RosterDto, batch: SwapEvent[]): BoardPatch {
-  if (batch.some((e) => WHOLE_BOARD.has(e.name))) {
-    return { swap: roster.swap, totals: roster.totals, rows: roster.rows, removedUserIds: [], complete: true };
-  }
-  const affected = new Set(batch.map(affectedUser).filter((id): id is number => id !== null));
-  const rows = roster.rows.filter((r) => affected.has(r.userId));
-  const removedUserIds = [...affected].filter((id) => !rows.some((r) => r.userId === id));
+/** The members whose rows the batch touched; null when the swap as a whole changed. */
+function affectedUsers(batch: SwapEvent[]): number[] | null {
+  if (batch.some((e) => WHOLE_BOARD.has(e.name))) return null;
+  return [...new Set(batch.map(affectedUser).filter((id): id is number => id !== null))];
+}
+
+/**
+ * The change's patch from the rows read for it: every row when the swap as a whole changed, else the
+ * touched rows that are still on the board and the touched members that left it.
+ */
+function patchFor(roster: RosterData, affected: number[] | null): BoardPatch {
+  const rows = roster.rows.map(({ email: _email, ...row }): RosterRowDto => row);
+  if (!affected) return { swap: roster.swap, totals: roster.totals, rows, removedUserIds: [], complete: true };
+  const removedUserIds = affected.filter((id) => !rows.some((r) => r.userId === id));
   return { swap: roster.swap, totals: roster.totals, rows, removedUserIds, complete: false };
 }
 
@@ -91,8 +97,9 @@ export class BoardFanout {
 
   private async publish(swapId: number, batch: SwapEvent[]) {
     // Five round trips on the fan-out's own connection (BEGIN, the next number with the swap, the
-    // activity lines, the roster, COMMIT), all named statements: a burst of requests holding every
+    // activity lines, the rows, COMMIT), all named statements: a burst of requests holding every
     // connection of the request pool cannot keep a change waiting, nor the counter's lock held.
+    const affected = affectedUsers(batch);
     const result = await withPgTransaction(this.db, async (client) => {
       const bumped = await client
         .query<Record<string, unknown> & { version: string; verdictsVisibleTo: string }>({
@@ -114,8 +121,11 @@ export class BoardFanout {
         version: Number(version),
         verdictsVisibleTo,
         activities,
-        // Read while the counter row is locked, so the next number cannot carry an older roster.
-        roster: await getRoster(this.deps, swap, { withAddresses: false, db: client }),
+        // Read while the counter row is locked, so the next number cannot carry an older roster. Only
+        // the touched rows and the totals, unless the swap as a whole changed.
+        roster: affected
+          ? await buildRosterPart(swap, affected, client)
+          : await buildRoster(this.deps, swap, { withAddresses: false, db: client }),
       };
     });
     if (!result) return;
@@ -123,7 +133,7 @@ export class BoardFanout {
       swapId,
       version: result.version,
       activities: result.activities,
-      patch: patchFor(result.roster, batch),
+      patch: patchFor(result.roster, affected),
     };
     this.send(result.swap.guildId, result.verdictsVisibleTo, change);
   }
@@ -131,9 +141,16 @@ export class BoardFanout {
   /**
    * One message to the other nodes for the change, not one per kind of viewer: each node splits it
    * for its own sockets (through the PostgreSQL adapter every message is a NOTIFY and its encoding).
+   * None while the adapter has heard of no other node: a node that starts announces itself before
+   * its first socket can join, and a viewer that missed a change sees the gap and refetches.
    */
   private send(guildId: number, verdictsVisibleTo: string, change: BoardChange) {
-    this.io.serverSideEmit('board:fanout', { guildId, verdictsVisibleTo, change });
+    void this.io
+      .of('/')
+      .adapter.serverCount()
+      .then((nodes) => {
+        if (nodes > 1) this.io.serverSideEmit('board:fanout', { guildId, verdictsVisibleTo, change });
+      });
     this.sendLocal(guildId, verdictsVisibleTo, change);
   }
 
@@ -141,18 +158,23 @@ export class BoardFanout {
    * Everyone on the board gets the change when the guild shows verdicts to all. Otherwise its officers
    * get it whole; each maker whose row changed gets a copy with only their own verdicts; every other
    * member a copy without verdicts. A change of every row reaches members with no patch, and their
-   * board fetches its own roster (one message instead of one per member).
+   * board fetches its own roster (one message instead of one per member). socket.io encodes a message
+   * before it looks who is in the room, so no copy is made for a room nobody on this node is in.
    */
   private sendLocal(guildId: number, verdictsVisibleTo: string, change: BoardChange) {
     const { swapId, patch } = change;
+    const rooms = this.io.of('/').adapter.rooms;
+    const occupied = (room: string) => (rooms.get(room)?.size ?? 0) > 0;
+    const boardName = boardRoom(guildId, swapId);
+    if (!occupied(boardName)) return;
     const local = this.io.local;
-    const board = local.to(boardRoom(guildId, swapId));
+    const board = local.to(boardName);
     if (verdictsVisibleTo === 'guild') {
       board.emit('board:changed', change);
       return;
     }
     const officers = boardOfficersRoom(guildId, swapId);
-    local.to(officers).emit('board:changed', change);
+    if (occupied(officers)) local.to(officers).emit('board:changed', change);
     const activities = (viewerId: number | null) => activitiesForMember(change.activities, viewerId);
     if (!patch || patch.complete) {
       board.except(officers).emit('board:changed', { ...change, activities: activities(null), patch: null });
@@ -164,6 +186,7 @@ export class BoardFanout {
       .except([officers, ...viewerRooms])
       .emit('board:changed', { ...change, activities: activities(null), patch: rosterForMember(patch, null) });
     for (const [i, userId] of makers.entries()) {
+      if (!occupied(viewerRooms[i]!)) continue;
       local
         .to(viewerRooms[i]!)
         .except(officers)

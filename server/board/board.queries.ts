@@ -11,9 +11,9 @@ import { viewerRole } from '../swaps/swaps.queries';
  * than looked up block by block. by_maker is MATERIALIZED so it is computed once: before a new swap's
  * rows have statistics the planner would otherwise re-aggregate it for every member.
  */
-const ROSTER_ARRAY = `WITH swap_blocks AS (
+const rosterArray = (members = '') => `WITH swap_blocks AS (
          SELECT id, maker_id, sequence, state, verdict, trimmed, accepted_at, hand_in_how, hand_in_note
-           FROM blocks WHERE swap_id = $swapId),
+           FROM blocks WHERE swap_id = $swapId${members && ` AND maker_id = ${members}`}),
        block_photos AS (
          SELECT p.block_id, array_agg(p.id ORDER BY p.created_at, p.id) AS ids
            FROM photos p JOIN swap_blocks b ON b.id = p.block_id GROUP BY p.block_id),
@@ -33,13 +33,29 @@ const ROSTER_ARRAY = `WITH swap_blocks AS (
   SELECT coalesce(json_agg(json_build_array(s.user_id, u.display_name, u.email, s.blocks, u.mailing_address, m.own)
                            ORDER BY lower(u.display_name), u.id), '[]')
     FROM signups s JOIN users u ON u.id = s.user_id LEFT JOIN by_maker m ON m.maker_id = s.user_id
-   WHERE s.swap_id = $swapId AND s.status = 'active'`;
+   WHERE s.swap_id = $swapId AND s.status = 'active'${members && ` AND s.user_id = ${members}`}`;
+const ROSTER_ARRAY = rosterArray();
 
 /**
  * The roster on its own, as one row with one column, `roster`; `$1` for the swap, for a named statement
  * on a pg client (which numbers its parameters).
  */
 export const ROSTER_POSITIONAL = `SELECT (${ROSTER_ARRAY}) AS roster`.replaceAll('$swapId', '$1');
+
+/**
+ * Part of swap $1's roster, for a board change: the rows of the members in $2 (an int array) as
+ * `roster` (the same tuples as ROSTER_POSITIONAL), the number of active sign-ups as `members`, and as
+ * `tallies` the swap's blocks grouped by what the totals count, `[state, verdict, trimmed,
+ * acceptedByDecision, blocks]`. A change reads the rows it touched and a few tally lines instead of
+ * every member's blocks, photos and estimates, so its cost does not grow with the swap.
+ */
+export const ROSTER_PART_POSITIONAL = `SELECT (${rosterArray('ANY($2::int[])')}) AS roster,
+       (SELECT count(*)::int FROM signups WHERE swap_id = $1 AND status = 'active') AS members,
+       (SELECT coalesce(json_agg(json_build_array(t.state, t.verdict, t.trimmed, t.accepted, t.blocks)), '[]')
+          FROM (SELECT b.state, b.verdict, b.trimmed, b.accepted_at IS NOT NULL AS accepted, count(*)::int AS blocks
+                  FROM blocks b JOIN signups s ON s.swap_id = b.swap_id AND s.user_id = b.maker_id AND s.status = 'active'
+                 WHERE b.swap_id = $1
+                 GROUP BY 1, 2, 3, 4) t) AS tallies`.replaceAll('$swapId', '$1');
 
 /**
  * The roster read in the swap policy's own query (`SwapReadExtra` in swaps.policy.ts), so a roster

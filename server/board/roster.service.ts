@@ -9,7 +9,7 @@ import type { Swap } from '../db/models';
 import type { AppDeps } from '../deps';
 import { photoRef } from '../blocks/photo-refs';
 import { latestEstimateDto, type LatestEstimateRow } from '../blocks/latest-estimate';
-import { ROSTER_POSITIONAL } from './board.queries';
+import { ROSTER_PART_POSITIONAL, ROSTER_POSITIONAL } from './board.queries';
 import { guildVerdictsVisibleTo, rosterForMember, seesAllVerdicts, type VerdictViewer } from '../blocks/verdict-visibility';
 
 // A rank lookup rather than two searches of the list of states.
@@ -81,19 +81,19 @@ function count(into: Tally, b: Pick<RosterBlockDto, 'state' | 'verdict' | 'trimm
   if (verdict === 'true' || (verdict === 'trim' && b.trimmed) || b.acceptedByDecision) into.accepted += 1;
 }
 
-/** Adds a member's counts to the swap's totals, so each block is counted once. */
-function addTally(into: Tally, from: Tally) {
-  into.pledged += from.pledged;
-  into.sewn += from.sewn;
-  into.handedIn += from.handedIn;
-  into.received += from.received;
-  into.measured += from.measured;
-  into.returned += from.returned;
-  into.accepted += from.accepted;
-  into.verdicts.true += from.verdicts.true;
-  into.verdicts.trim += from.verdicts.trim;
-  into.verdicts.short += from.verdicts.short;
-  into.verdicts.skewed += from.verdicts.skewed;
+/** Adds a member's counts (or `times` blocks alike) to the swap's totals, so each block is counted once. */
+function addTally(into: Tally, from: Tally, times = 1) {
+  into.pledged += from.pledged * times;
+  into.sewn += from.sewn * times;
+  into.handedIn += from.handedIn * times;
+  into.received += from.received * times;
+  into.measured += from.measured * times;
+  into.returned += from.returned * times;
+  into.accepted += from.accepted * times;
+  into.verdicts.true += from.verdicts.true * times;
+  into.verdicts.trim += from.verdicts.trim * times;
+  into.verdicts.short += from.verdicts.short * times;
+  into.verdicts.skewed += from.verdicts.skewed * times;
 }
 
 export interface RosterData extends RosterDto {
@@ -117,9 +117,58 @@ export async function buildRoster(
         values: [swap.id],
       })
     ).rows[0]!.roster;
-
   const totals = emptyTally();
-  const rows = members.map(([userId, displayName, email, , mailingAddress, own]) => {
+  const rows = rosterRows(members, opts.withAddresses, totals);
+  return { swap: swapSummary(swap), totals: { ...totals, members: members.length }, rows };
+}
+
+/** A group of a swap's blocks as ROSTER_PART_POSITIONAL counts them, and how many blocks it holds. */
+type TallyTuple = [
+  state: BlockState,
+  verdict: RosterBlockDto['verdict'],
+  trimmed: boolean,
+  acceptedByDecision: boolean,
+  blocks: number,
+];
+
+/**
+ * The rows of `userIds` that still have an active sign-up (sorted by name, without addresses) and
+ * the swap's totals, as `buildRoster` would give them, in one round trip on `db`: for a board change,
+ * which sends only the rows it touched.
+ */
+export async function buildRosterPart(swap: Swap, userIds: number[], db: pg.ClientBase): Promise<RosterData> {
+  const { rows } = await db.query<{ roster: MemberTuple[]; members: number; tallies: TallyTuple[] }>({
+    name: 'roster-part',
+    text: ROSTER_PART_POSITIONAL,
+    values: [swap.id, userIds],
+  });
+  const { roster, members, tallies } = rows[0]!;
+  const totals = emptyTally();
+  for (const [state, verdict, trimmed, acceptedByDecision, blocks] of tallies) {
+    const group = emptyTally();
+    count(group, { state, verdict, trimmed, acceptedByDecision });
+    addTally(totals, group, blocks);
+  }
+  return {
+    swap: swapSummary(swap),
+    totals: { ...totals, members },
+    rows: rosterRows(roster, false, emptyTally()),
+  };
+}
+
+function swapSummary(swap: Swap): RosterDto['swap'] {
+  return {
+    id: swap.id,
+    state: swap.state,
+    unfinished: { width: swap.unfinishedWidth, height: swap.unfinishedHeight },
+    title: swap.title,
+    mode: swap.mode,
+  };
+}
+
+/** Each member's row from the query's tuples; every block is also counted into `totals`. */
+function rosterRows(members: MemberTuple[], withAddresses: boolean, totals: Tally): RosterData['rows'] {
+  return members.map(([userId, displayName, email, , mailingAddress, own]) => {
     const counts = emptyTally();
     const blocks = (own ?? []).map(
       ([
@@ -158,20 +207,9 @@ export async function buildRoster(
       ...counts,
       owed: Math.max(0, counts.pledged - counts.handedIn),
       blocks,
-      ...(opts.withAddresses ? { mailingAddress } : {}),
+      ...(withAddresses ? { mailingAddress } : {}),
     };
   });
-  return {
-    swap: {
-      id: swap.id,
-      state: swap.state,
-      unfinished: { width: swap.unfinishedWidth, height: swap.unfinishedHeight },
-      title: swap.title,
-      mode: swap.mode,
-    },
-    totals: { ...totals, members: members.length },
-    rows,
-  };
 }
 
 /**

@@ -12,6 +12,8 @@ import type { SwapEvent } from '../../server/board/board-activity';
 import type { LiveServer } from '../../server/live/live-types';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles } from '../helpers/factories';
+import { boardRoom, boardViewerRoom } from '../../server/live/rooms';
+import { boardVersion } from '../../server/board/board-fanout';
 import { move, myBlocks, sewingSwap, type Roles } from '../api/swaps-support';
 
 let app: TestApp;
@@ -24,7 +26,8 @@ afterAll(() => app.close());
 
 /**
  * Records what the board's officers are sent on this node (with the guild's default, members get
- * copies without verdicts), and what is published once per change to the other nodes.
+ * copies without verdicts), and what is published once per change to the other nodes. Every room
+ * has someone in it, and one other node listens.
  */
 function recordingIo() {
   const sent: { at: number; room: string; change: BoardChange }[] = [];
@@ -38,8 +41,10 @@ function recordingIo() {
       except: () => ({ ...ignored, except: () => ignored }),
     }),
   };
+  const adapter = { rooms: { get: () => new Set(['a socket']) }, serverCount: () => Promise.resolve(2) };
   const io = {
     local,
+    of: () => ({ adapter }),
     on: () => undefined,
     serverSideEmit: (_event: string, message: { change: BoardChange }) => void published.push(message.change),
   };
@@ -97,5 +102,58 @@ describe('board fan-out under a burst', () => {
     // The roster answers coordinators with addresses; the board never carries them.
     for (const { mailingAddress: _address, ...row } of roster.rows) expect(board.get(row.userId)).toEqual(row);
     expect(sent.at(-1)!.change.patch!.totals).toEqual(roster.totals);
+  });
+
+  it('makes no copy for a room nobody on this node is in, and publishes nothing while no other node listens', async () => {
+    const { swap, makers } = await sewingSwap(app, roles, { pledges: [2, 2] });
+    await move(roles.coordinator.agent, swap.id, 'collecting');
+    const [mine, theirs] = await Promise.all(makers.map((m) => myBlocks(m.agent, swap.id)));
+    for (const b of [...mine!, ...theirs!])
+      await roles.coordinator.agent.post(`/api/blocks/${b.id}/received`).send({}).expect(200);
+
+    // A stand-in that records the rooms sent to; only the rooms in `occupied` have a socket in them.
+    const occupied = new Set<string>();
+    const emitted: string[] = [];
+    const published: unknown[] = [];
+    const target = (room: string): object => ({ emit: () => void emitted.push(room), except: () => target(room) });
+    const adapter = {
+      rooms: { get: (room: string) => (occupied.has(room) ? new Set(['a socket']) : undefined) },
+      serverCount: () => Promise.resolve(1),
+    };
+    const io = {
+      local: { to: target },
+      of: () => ({ adapter }),
+      on: () => undefined,
+      serverSideEmit: (...a: unknown[]) => published.push(a),
+    };
+    const fanout = new BoardFanout(io as unknown as LiveServer, app.deps, app.deps.pool);
+    app.deps.events.onAny((name, payload) => {
+      if ((payload as { swapId?: unknown }).swapId === swap.id) fanout.push({ name, payload } as SwapEvent);
+    });
+    const measure = async (blockId: number) => {
+      const before = await boardVersion(app.deps.sequelize, swap.id);
+      await roles.coordinator.agent
+        .post(`/api/blocks/${blockId}/measurements`)
+        .send({ width: '9 1/2', height: '9 1/2' })
+        .expect(201);
+      await expect.poll(() => boardVersion(app.deps.sequelize, swap.id), { timeout: 5_000 }).toBeGreaterThan(before);
+      await new Promise((r) => setTimeout(r, 20)); // the change is sent just after its commit
+    };
+
+    // Nobody watching: the change is numbered, but no copy is made and nothing is published.
+    await measure(mine![0]!.id);
+    expect(emitted).toEqual([]);
+    expect(published).toEqual([]);
+
+    // A member watches (the guild keeps verdicts to officers): the board's copy without verdicts is
+    // made, and the maker's own copy only once the maker watches too.
+    const board = boardRoom(roles.guildId, swap.id);
+    occupied.add(board);
+    await measure(theirs![0]!.id);
+    expect(emitted).toEqual([board]);
+    occupied.add(boardViewerRoom(roles.guildId, swap.id, makers[1]!.id));
+    await measure(theirs![1]!.id);
+    expect(emitted).toEqual([board, board, boardViewerRoom(roles.guildId, swap.id, makers[1]!.id)]);
+    expect(published).toEqual([]);
   });
 });
