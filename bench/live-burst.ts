@@ -1,7 +1,9 @@
 /**
  * Meeting night on the live board: `stations` intake stations each measure their own blocks as fast
- * as the app answers, while `sockets` viewers watch the swap's board. The app is its own process
- * (as production starts it); stations and viewers share this one.
+ * as the app answers, sending a clientId with each measurement as the app's own client does, while
+ * `sockets` viewers watch the swap's board. The app is its own process (as production starts it), the
+ * stations run in this one and the viewers in another (bench/live-viewers.ts), so neither set of
+ * clients holds up the other's event loop and timing.
  *
  * Commit → receipt is timed from the measurement's own recorded time (set by the server just before
  * its transaction commits, so the figure errs on the long side) to the viewer's handler, on the
@@ -9,45 +11,38 @@
  * measurement; a gap is a version number a viewer skipped.
  * Run alone with `npx tsx bench/live-burst.ts`.
  */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { randomUUID } from 'node:crypto';
 import { performance } from 'node:perf_hooks';
-import { io as connectClient, type Socket } from 'socket.io-client';
-import type { Ack, BoardChange, BoardJoined, ClientToServerEvents, ServerToClientEvents } from '../shared/live-events';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
 import { startAppProcess } from './lib/app';
-import { cpuSeconds } from './lib/processes';
+import { clusterCpuSeconds, cpuSeconds, repoRoot } from './lib/processes';
 import { quantile, round } from './lib/stats';
 import { newAccount, seedSwap, signIn, type Session } from './lib/seed';
+import type { ViewersAnswer, ViewersCommand } from './live-viewers';
 
-type Client = Socket<ServerToClientEvents, ClientToServerEvents>;
 type Row = Record<string, string | number>;
 
 const now = () => performance.timeOrigin + performance.now();
 
-function connect(url: string, cookie: string): Promise<Client> {
-  const socket: Client = connectClient(url, {
-    transports: ['websocket'],
-    extraHeaders: { cookie },
-    reconnection: false,
-    forceNew: true,
+/** The viewers' own process (bench/live-viewers.ts), driven one command and answer at a time. */
+function startViewers() {
+  const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'bench/live-viewers.ts'], {
+    cwd: repoRoot,
+    stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
   });
-  return new Promise((resolve, reject) => {
-    socket.once('connect', () => resolve(socket));
-    socket.once('connect_error', reject);
-  });
-}
-
-function join(socket: Client, swapId: number): Promise<BoardJoined> {
-  return new Promise((resolve, reject) => {
-    (socket.emit as (e: string, p: unknown, cb: (a: Ack<BoardJoined>) => void) => void)('board:join', { swapId }, (answer) =>
-      'error' in answer ? reject(new Error(answer.error.message)) : resolve(answer.data),
-    );
-  });
-}
-
-interface Viewer {
-  joinedAt: number;
-  /** version and receipt time of every change */
-  changes: { version: number; at: number; change: BoardChange }[];
+  const ask = <T extends ViewersAnswer['type']>(command: ViewersCommand, answer: T) =>
+    new Promise<Extract<ViewersAnswer, { type: T }>>((resolve, reject) => {
+      const onExit = (code: number | null) => reject(new Error(`the viewers' process exited with code ${code}`));
+      child.once('exit', onExit);
+      child.once('message', (message: ViewersAnswer) => {
+        child.off('exit', onExit);
+        if (message.type === answer) resolve(message as Extract<ViewersAnswer, { type: T }>);
+        else reject(new Error(`the viewers' process answered ${message.type} to ${command.type}`));
+      });
+      child.send(command);
+    });
+  return { child, ask };
 }
 
 export async function runLiveBurstBench(
@@ -57,7 +52,7 @@ export async function runLiveBurstBench(
   const socketCount = opts.sockets ?? 200;
   const perStation = opts.perStation ?? 40;
   const cluster = await startThrowawayCluster('blockpost-burst-bench-');
-  const sockets: Client[] = [];
+  const viewersProcess = startViewers();
   let app: Awaited<ReturnType<typeof startAppProcess>> | null = null;
   try {
     const databaseUrl = await cluster.database('burst');
@@ -69,15 +64,10 @@ export async function runLiveBurstBench(
     // Viewers: twenty members, ten tabs each; stations: the coordinator signed in ten times.
     const members: Session[] = [];
     for (let i = 1; i <= Math.min(20, socketCount); i++) members.push(await signIn(app.url, `bench-burst-${i}@example.test`));
-    const viewers: Viewer[] = [];
-    for (let i = 0; i < socketCount; i++) {
-      const socket = await connect(app.url, members[i % members.length]!.cookie);
-      const viewer: Viewer = { joinedAt: 0, changes: [] };
-      socket.on('board:changed', (change) => void viewer.changes.push({ version: change.version, at: now(), change }));
-      viewer.joinedAt = (await join(socket, swap.swapId)).version;
-      sockets.push(socket);
-      viewers.push(viewer);
-    }
+    await viewersProcess.ask(
+      { type: 'open', url: app.url, swapId: swap.swapId, cookies: members.map((m) => m.cookie), count: socketCount },
+      'opened',
+    );
     await new Promise((r) => setTimeout(r, 500)); // let the presence announcements settle
     const desks: Session[] = [];
     for (let i = 0; i < stations; i++) desks.push(await signIn(app.url, 'burst-coordinator@example.test'));
@@ -91,9 +81,11 @@ export async function runLiveBurstBench(
           const share = shares[i]!;
           for (let k = 0; k < count; k++) {
             const blockId = share[k % share.length]!;
+            // With a clientId, as the app's own client sends every measurement.
             const answer = await desk.api<{ at: string }>('POST', `/blocks/${blockId}/measurements`, {
               width: '9 1/2',
               height: k % 3 ? '9 1/2' : '9 3/8',
+              clientId: randomUUID(),
             });
             measured.set(blockId, [...(measured.get(blockId) ?? []), Date.parse(answer.at)]);
           }
@@ -101,10 +93,12 @@ export async function runLiveBurstBench(
       );
       return measured;
     };
-    const told = (v: Viewer) => v.changes.flatMap((c) => c.change.activities).filter((a) => a.kind === 'block.measured').length;
     const allTold = async (total: number) => {
       const deadline = Date.now() + 10_000;
-      while (viewers.some((v) => told(v) < total) && Date.now() < deadline) await new Promise((r) => setTimeout(r, 100));
+      while (Date.now() < deadline) {
+        if ((await viewersProcess.ask({ type: 'progress' }, 'progress')).leastTold >= total) return;
+        await new Promise((r) => setTimeout(r, 100));
+      }
     };
 
     // An untimed burst first, as the API bench warms each server up: a process that has just started
@@ -112,18 +106,21 @@ export async function runLiveBurstBench(
     // burst then counts from the version each viewer has reached.
     const warmUp = await burst(Math.ceil(perStation / 2));
     await allTold([...warmUp.values()].reduce((n, t) => n + t.length, 0));
-    for (const viewer of viewers) {
-      viewer.joinedAt = viewer.changes.at(-1)?.version ?? viewer.joinedAt;
-      viewer.changes = [];
-    }
+    await viewersProcess.ask({ type: 'mark' }, 'marked');
 
     const cpuBefore = cpuSeconds(app.pid);
+    const dbBefore = clusterCpuSeconds(cluster.port);
+    const benchBefore = process.cpuUsage();
     const started = now();
     const measured = await burst(perStation);
     const burstMs = now() - started;
     const total = [...measured.values()].reduce((n, t) => n + t.length, 0);
     await allTold(total);
     const cpu = cpuSeconds(app.pid) - cpuBefore;
+    const { viewers, cpuMs: viewersCpuMs } = await viewersProcess.ask({ type: 'report' }, 'report');
+    const dbCpu = clusterCpuSeconds(cluster.port) - dbBefore;
+    const benchUsage = process.cpuUsage(benchBefore);
+    const benchCpu = (benchUsage.user + benchUsage.system) / 1e6;
 
     const latencies: number[] = [];
     const firstViewer: number[] = [];
@@ -140,10 +137,9 @@ export async function runLiveBurstBench(
       const seen = new Map<number, number[]>();
       const written = new Map<number, number[]>();
       for (const c of viewer.changes) {
-        const lines = c.change.activities.filter((a) => a.kind === 'block.measured').sort((a, b) => a.id - b.id);
-        for (const line of lines) {
-          seen.set(line.blockId!, [...(seen.get(line.blockId!) ?? []), c.at]);
-          written.set(line.blockId!, [...(written.get(line.blockId!) ?? []), Date.parse(line.at)]);
+        for (const line of [...c.measured].sort((a, b) => a.id - b.id)) {
+          seen.set(line.blockId, [...(seen.get(line.blockId) ?? []), c.at]);
+          written.set(line.blockId, [...(written.get(line.blockId) ?? []), line.writtenAt]);
         }
       }
       for (const [blockId, times] of measured) {
@@ -184,11 +180,15 @@ export async function runLiveBurstBench(
         'lost changes': lost,
         'version gaps': gaps,
         'app CPU ms/measurement': round((cpu * 1000) / total, 2),
+        // The machine's other users of CPU meanwhile: PostgreSQL, the stations, the viewers.
+        'database CPU ms/measurement': round((dbCpu * 1000) / total, 2),
+        'stations CPU ms/measurement': round((benchCpu * 1000) / total, 2),
+        'viewers CPU ms/measurement': round(viewersCpuMs / total, 2),
         goal: 'p95 < 100 ms, none lost, no gap',
       },
     ];
   } finally {
-    for (const s of sockets) s.disconnect();
+    if (viewersProcess.child.exitCode === null) viewersProcess.child.kill();
     await app?.stop().catch(() => undefined);
     cluster.stop();
   }
