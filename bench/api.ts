@@ -27,7 +27,7 @@ interface Scenario {
   name: string;
   connections: number;
   rate?: number;
-  request: (server: ServerKey) => Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers'>;
+  request: (server: ServerKey) => Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers' | 'freshClientId'>;
 }
 
 type Run = LoadResult & { serverCpuMs: number; dbCpuMs: number };
@@ -88,6 +88,8 @@ export async function runApiBench(
             paths: small.measuredBlockIds.map((id) => `/api/blocks/${id}/measurements`),
             headers: appHeaders,
             body: JSON.stringify({ width: '9 1/2', height: '9 1/2' }),
+            // Each with a clientId of its own, as the app's client sends every measurement.
+            freshClientId: true,
           }
         : {
             method: 'POST' as const,

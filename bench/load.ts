@@ -2,6 +2,7 @@
  * The load generator, run in its own process by the API benchmark: one autocannon run against one
  * server, its options given as a JSON argument, its summary printed as one JSON line.
  */
+import { randomUUID } from 'node:crypto';
 import autocannon from 'autocannon';
 
 export interface LoadOptions {
@@ -16,6 +17,8 @@ export interface LoadOptions {
   /** paths taken in turn, one per request */
   paths: string[];
   body?: string;
+  /** give each request's JSON body a fresh `clientId`, as the app's own client does for a change */
+  freshClientId?: boolean;
 }
 
 export interface LoadResult {
@@ -40,7 +43,13 @@ export async function runLoad(opts: LoadOptions): Promise<LoadResult> {
       {
         method: opts.method ?? 'GET',
         body: opts.body,
-        setupRequest: (req) => ({ ...req, path: opts.paths[next++ % opts.paths.length] }),
+        setupRequest: (req) => ({
+          ...req,
+          path: opts.paths[next++ % opts.paths.length],
+          ...(opts.freshClientId && opts.body
+            ? { body: JSON.stringify({ ...(JSON.parse(opts.body) as object), clientId: randomUUID() }) }
+            : {}),
+        }),
       },
     ],
   });
