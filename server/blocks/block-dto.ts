@@ -54,13 +54,13 @@ export function measurementDto(m: MeasurementFields): MeasurementDto {
 }
 
 /** A latest measurement as json_build_object writes it: NUMERIC as JSON numbers, times as ISO strings. */
-type MeasurementJson = Omit<MeasurementFields, 'createdAt' | 'measuredBy'> & {
+export type MeasurementJson = Omit<MeasurementFields, 'createdAt' | 'measuredBy'> & {
   measuredById: number | null;
   measuredByName: string | null;
   createdAt: string;
 };
 
-interface RelatedJson {
+export interface RelatedJson {
   users: { id: number; displayName: string }[];
   measurements: MeasurementJson[];
   photos: { id: number; blockId: number }[];
@@ -69,33 +69,60 @@ interface RelatedJson {
 
 /**
  * Everything a block answer shows besides the block row, for many blocks, in one round trip: the
- * makers' and recipients' names, the latest measurement of each source (with who took it), the
+ * makers' and recipients' names, the latest ruler and maker measurement (with who took it), the
  * photos and the latest photo estimate. Each part is one aggregate, so the count of rows read does
- * not grow with the number of blocks asked for.
+ * not grow with the number of blocks asked for; each latest measurement is the first entry of the
+ * (block, source, time) index, so neither does it grow with a block's history of measurements.
  */
-function relatedSql() {
+export function relatedSql() {
   return `SELECT
     (SELECT coalesce(json_agg(json_build_object('id', u.id, 'displayName', u.display_name)), '[]')
        FROM users u WHERE u.id = ANY($userIds::int[])) AS users,
     (SELECT coalesce(json_agg(latest), '[]') FROM (
-       SELECT DISTINCT ON (m.block_id, m.source)
-              m.id, m.block_id AS "blockId", m.source, mu.id AS "measuredById", mu.display_name AS "measuredByName",
+       SELECT m.id, m.block_id AS "blockId", m.source, mu.id AS "measuredById", mu.display_name AS "measuredByName",
               m.width, m.height, m.diagonal1, m.diagonal2, m.verdict, m.deviation_width AS "deviationWidth",
               m.deviation_height AS "deviationHeight", m.deviation_diagonal AS "deviationDiagonal", m.note, m.created_at AS "createdAt"
-         FROM measurements m LEFT JOIN users mu ON mu.id = m.measured_by_id
-        WHERE m.block_id = ANY($ids::int[]) AND m.withdrawn_at IS NULL
-        ORDER BY m.block_id, m.source, m.created_at DESC, m.id DESC) latest) AS measurements,
+         FROM unnest($ids::int[]) AS asked(block_id)
+        CROSS JOIN (VALUES ('ruler'), ('maker')) AS kind(source)
+        CROSS JOIN LATERAL (
+              SELECT * FROM measurements m
+               WHERE m.block_id = asked.block_id AND m.source = kind.source AND m.withdrawn_at IS NULL
+               ORDER BY m.created_at DESC, m.id DESC LIMIT 1) m
+         LEFT JOIN users mu ON mu.id = m.measured_by_id) latest) AS measurements,
     (SELECT coalesce(json_agg(json_build_object('id', p.id, 'blockId', p.block_id) ORDER BY p.created_at, p.id), '[]')
        FROM photos p WHERE p.block_id = ANY($ids::int[])) AS photos,
     (SELECT coalesce(json_agg(estimate), '[]') FROM (${LATEST_ESTIMATES} WHERE e.block_id = ANY($ids::int[]) ${NEWEST_ESTIMATE_FIRST}) estimate) AS estimates`;
 }
 
+/**
+ * The related rows with `added` among the latest measurements, where `relatedSql` would have put it
+ * had it been read after `added` was written: the latest of its block and source by time, then id.
+ */
+export function withMeasurement(related: RelatedJson, added: MeasurementJson): RelatedJson {
+  const addedAt = Date.parse(added.createdAt);
+  const same = related.measurements.find((m) => m.blockId === added.blockId && m.source === added.source);
+  if (same) {
+    const sameAt = Date.parse(same.createdAt);
+    if (sameAt > addedAt || (sameAt === addedAt && same.id > added.id)) return related;
+  }
+  return { ...related, measurements: [...related.measurements.filter((m) => m !== same), added] };
+}
+
+/** The binds of `relatedSql` for these blocks: their ids, and the people their answers name. */
+export function relatedBind(blocks: Pick<Block, 'id' | 'makerId' | 'recipientId' | 'acceptedById'>[]): {
+  ids: number[];
+  userIds: number[];
+} {
+  return {
+    ids: blocks.map((b) => b.id),
+    userIds: [
+      ...new Set(blocks.flatMap((b) => [b.makerId, b.recipientId, b.acceptedById].filter((x): x is number => x != null))),
+    ],
+  };
+}
+
 async function relatedRows(db: Sequelize, blocks: Block[], transaction?: Transaction): Promise<RelatedJson> {
-  const ids = blocks.map((b) => b.id);
-  const userIds = [
-    ...new Set(blocks.flatMap((b) => [b.makerId, b.recipientId, b.acceptedById].filter((x): x is number => x != null))),
-  ];
-  const [row] = await preparedQuery<RelatedJson>(db, relatedSql(), { ids, userIds }, transaction);
+  const [row] = await preparedQuery<RelatedJson>(db, relatedSql(), relatedBind(blocks), transaction);
   return row!;
 }
 
@@ -121,7 +148,16 @@ export async function blockDtos(
   { transaction, viewer }: { transaction?: Transaction; viewer?: BlockViewer } = {},
 ): Promise<BlockDto[]> {
   if (blocks.length === 0) return [];
-  const related = await relatedRows(db, blocks, transaction);
+  return blockDtosFrom(blocks, swap, await relatedRows(db, blocks, transaction), viewer);
+}
+
+/** Block answers from their related rows, read already (`relatedSql`); see `blockDtos`. */
+export async function blockDtosFrom(
+  blocks: Block[],
+  swap: Swap,
+  related: RelatedJson,
+  viewer?: BlockViewer,
+): Promise<BlockDto[]> {
   const names = new Map(related.users.map((u) => [u.id, u.displayName]));
   const measurements = new Map<number, MeasurementDto[]>();
   for (const { measuredById, measuredByName, createdAt, ...m } of related.measurements) {

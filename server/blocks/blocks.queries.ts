@@ -2,6 +2,8 @@
 import { QueryTypes, type Model, type ModelStatic, type Sequelize, type Transaction } from 'sequelize';
 import { Block, Measurement, Swap } from '../db/models';
 import { preparedQuery } from '../db/prepared';
+import { relatedBind, relatedSql, type RelatedJson } from './block-dto';
+import { stepCtes } from './step-log';
 
 let selectList: string | undefined;
 
@@ -45,11 +47,43 @@ export async function findBlockWithSwap(
   return { block, swap };
 }
 
-let measurementList: string | undefined;
+const measurementLists = new Map<string, string>();
 
 /** The columns a measurement's row is written with, in the order of `insertMeasurement`'s values. */
 const MEASUREMENT_FIELDS = `block_id, measured_by_id, source, width, height, diagonal1, diagonal2, verdict,
   deviation_width, deviation_height, deviation_diagonal, note, created_at, updated_at`;
+
+type MeasurementValues = {
+  blockId: number;
+  measuredById: number;
+  source: string;
+  width: number;
+  height: number;
+  diagonal1: number | null;
+  diagonal2: number | null;
+  verdict: string;
+  deviationWidth: number;
+  deviationHeight: number;
+  deviationDiagonal: number | null;
+  note: string | null;
+  at: Date;
+};
+
+const INSERT_MEASUREMENT = `INSERT INTO measurements (${MEASUREMENT_FIELDS})
+     VALUES ($blockId, $measuredById, $source, $width, $height, $diagonal1, $diagonal2, $verdict,
+             $deviationWidth, $deviationHeight, $deviationDiagonal, $note, $at, $at)`;
+
+/** Every column of a measurement, aliased to its attribute name; `table.` before each when given. */
+function measurementColumns(table = '') {
+  let list = measurementLists.get(table);
+  if (!list) {
+    list = Object.entries(Measurement.getAttributes())
+      .map(([name, a]) => `${table}"${a.field ?? name}" AS "${name}"`)
+      .join(', ');
+    measurementLists.set(table, list);
+  }
+  return list;
+}
 
 /**
  * Inserts a measurement and builds its instance from the row as stored, as `Measurement.create` would
@@ -59,35 +93,56 @@ const MEASUREMENT_FIELDS = `block_id, measured_by_id, source, width, height, dia
 export async function insertMeasurement(
   db: Sequelize,
   transaction: Transaction,
-  values: {
-    blockId: number;
-    measuredById: number;
-    source: string;
-    width: number;
-    height: number;
-    diagonal1: number | null;
-    diagonal2: number | null;
-    verdict: string;
-    deviationWidth: number;
-    deviationHeight: number;
-    deviationDiagonal: number | null;
-    note: string | null;
-    at: Date;
-  },
+  values: MeasurementValues,
 ): Promise<Measurement> {
-  measurementList ??= Object.entries(Measurement.getAttributes())
-    .map(([name, a]) => `"${a.field ?? name}" AS "${name}"`)
-    .join(', ');
   const [row] = await preparedQuery<Record<string, unknown>>(
     db,
-    `INSERT INTO measurements (${MEASUREMENT_FIELDS})
-     VALUES ($blockId, $measuredById, $source, $width, $height, $diagonal1, $diagonal2, $verdict,
-             $deviationWidth, $deviationHeight, $deviationDiagonal, $note, $at, $at)
-     RETURNING ${measurementList}`,
+    `${INSERT_MEASUREMENT} RETURNING ${measurementColumns()}`,
     values,
     transaction,
   );
   return Measurement.build(row as never, { isNewRecord: false, raw: true });
+}
+
+/**
+ * A measurement in one round trip: inserts it, takes the block's step when `step` is given (a ruler
+ * measurement moves the block), and reads what the block's answer shows besides the block row
+ * (`relatedSql`, for the block as it is after the step). The related rows are read in the statement's
+ * own snapshot, so their latest measurements do not yet hold the new one: `withMeasurement` puts it in.
+ */
+export async function insertMeasurementWithStep(
+  db: Sequelize,
+  transaction: Transaction,
+  values: MeasurementValues,
+  block: Block,
+  step?: { changes: Parameters<typeof stepCtes>[1]; byId: number },
+): Promise<{ measurement: Measurement; related: RelatedJson }> {
+  const stepped = step ? stepCtes(block, step.changes, { action: 'measured', byId: step.byId }, '(SELECT id FROM m)') : null;
+  // The answer names the people of the block as it will be after the step.
+  const after = {
+    id: block.id,
+    makerId: block.makerId,
+    recipientId: block.recipientId,
+    acceptedById: step && 'acceptedById' in step.changes ? (step.changes.acceptedById as number | null) : block.acceptedById,
+  };
+  const [row] = await preparedQuery<Record<string, unknown> & RelatedJson>(
+    db,
+    `WITH m AS (${INSERT_MEASUREMENT} RETURNING *)${
+      stepped
+        ? `,
+     ${stepped.sql}`
+        : ''
+    }
+     SELECT ${measurementColumns('m.')}, r.users, r.measurements, r.photos, r.estimates
+       FROM m CROSS JOIN (${relatedSql()}) r`,
+    { ...values, ...stepped?.bind, ...relatedBind([after]) },
+    transaction,
+  );
+  const { users, measurements, photos, estimates, ...columns } = row!;
+  return {
+    measurement: Measurement.build(columns as never, { isNewRecord: false, raw: true }),
+    related: { users, measurements, photos, estimates },
+  };
 }
 
 /**

@@ -9,12 +9,11 @@ import type { BlockDto, MeasurementDto } from '@shared/swap-types';
 import { type Block, Measurement, type Swap, User } from '../db/models';
 import { ConflictError } from '../http/errors';
 import type { AppDeps } from '../deps';
-import { blockDto, measurementDto } from './block-dto';
+import { blockDtosFrom, measurementDto, withMeasurement } from './block-dto';
 import { idempotent } from './idempotency';
 import { assertSwapIn, blockChanged, type LockedBlock } from './blocks.service';
-import { insertMeasurement } from './blocks.queries';
+import { insertMeasurementWithStep } from './blocks.queries';
 import type { MeasuringAs } from './blocks.policy';
-import { applyStep } from './step-log';
 import type { Reply } from '../http/route';
 
 type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
@@ -66,47 +65,58 @@ export function recordMeasurement(
       ...(body.diagonals ? { diagonals: [four(body.diagonals[0]), four(body.diagonals[1])] as [number, number] } : {}),
     };
     const { verdict, deviations } = verdictFor(swap, measured);
-    const row = await insertMeasurement(deps.sequelize, transaction, {
-      blockId,
-      measuredById: actor.userId,
-      source,
-      width: measured.width,
-      height: measured.height,
-      diagonal1: measured.diagonals?.[0] ?? null,
-      diagonal2: measured.diagonals?.[1] ?? null,
-      verdict,
-      deviationWidth: deviations.width,
-      deviationHeight: deviations.height,
-      deviationDiagonal: deviations.diagonal ?? null,
-      note: body.note || null,
-      at: new Date(),
-    });
+    const at = new Date();
     const from = block.state;
-    if (source === 'ruler') {
-      // A new ruler measurement replaces the verdict; an earlier trim or decision no longer applies to it.
-      await applyStep(
-        deps.sequelize,
-        transaction,
-        block,
-        {
-          state: 'measured',
-          verdict,
-          measuredAt: row.createdAt,
-          trimmed: false,
-          trimmedAt: null,
-          acceptedAt: null,
-          acceptedById: null,
-          acceptedReason: null,
-        },
-        { action: 'measured', byId: actor.userId, measurementId: row.id },
-      );
-    }
+    // A new ruler measurement replaces the verdict; an earlier trim or decision no longer applies to it.
+    const changes =
+      source === 'ruler'
+        ? {
+            state: 'measured',
+            verdict,
+            measuredAt: at,
+            trimmed: false,
+            trimmedAt: null,
+            acceptedAt: null,
+            acceptedById: null,
+            acceptedReason: null,
+          }
+        : null;
+    const { measurement: row, related } = await insertMeasurementWithStep(
+      deps.sequelize,
+      transaction,
+      {
+        blockId,
+        measuredById: actor.userId,
+        source,
+        width: measured.width,
+        height: measured.height,
+        diagonal1: measured.diagonals?.[0] ?? null,
+        diagonal2: measured.diagonals?.[1] ?? null,
+        verdict,
+        deviationWidth: deviations.width,
+        deviationHeight: deviations.height,
+        deviationDiagonal: deviations.diagonal ?? null,
+        note: body.note || null,
+        at,
+      },
+      block,
+      changes ? { changes, byId: actor.userId } : undefined,
+    );
+    if (changes) block.set(changes as never, { raw: true });
     // The INSERT returned every column as stored, and the one who measured is the signed-in actor.
     const measuredBy = { id: actor.userId, displayName: actor.displayName };
-    const answer = {
-      ...measurementDto({ ...row.get(), measuredBy }),
-      block: await blockDto(deps.sequelize, block, swap, { transaction }),
-    };
+    const stored = row.get();
+    const [blockAnswer] = await blockDtosFrom(
+      [block],
+      swap,
+      withMeasurement(related, {
+        ...stored,
+        measuredById: actor.userId,
+        measuredByName: actor.displayName,
+        createdAt: row.createdAt.toISOString(),
+      }),
+    );
+    const answer = { ...measurementDto({ ...stored, measuredBy }), block: blockAnswer! };
     return {
       status: 201,
       body: answer,

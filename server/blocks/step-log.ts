@@ -48,6 +48,31 @@ export async function recordStep(db: Sequelize, transaction: Transaction, step: 
 }
 
 /**
+ * The UPDATE of a step's block columns and the INSERT of the step (with the columns as they were), as
+ * two CTEs named `changed` and `step`, and their binds. The step's measurement id is the SQL
+ * `measurementId` (a bind, or a column of another CTE).
+ */
+export function stepCtes(
+  block: Block,
+  changes: Partial<Record<(typeof RESTORED)[number], unknown>>,
+  step: Omit<Step, 'blockId' | 'before' | 'measurementId'>,
+  measurementId = '$measurementId',
+): { sql: string; bind: Record<string, unknown> } {
+  const before = snapshotOf(block);
+  const attributes = Block.getAttributes();
+  const names = Object.keys(changes) as (keyof typeof changes)[];
+  const assignments = names.map((name, i) => `"${attributes[name]!.field ?? name}" = $c${i}`);
+  const values = Object.fromEntries(names.map((name, i) => [`c${i}`, changes[name] ?? null]));
+  const { measurementId: _unused, ...bind } = stepBind({ ...step, blockId: block.id, before });
+  return {
+    sql: `changed AS (UPDATE blocks SET ${assignments.join(', ')}, updated_at = now() WHERE id = $blockId RETURNING id),
+     step AS (INSERT INTO block_steps (block_id, action, by_id, before, measurement_id)
+              SELECT id, $action, $byId, $before::jsonb, ${measurementId} FROM changed)`,
+    bind: { ...values, ...bind },
+  };
+}
+
+/**
  * Takes a step: changes the block's columns and records the step with the columns as they were, in
  * one statement. The instance is changed to match, so the answer is built without reading it again.
  */
@@ -58,18 +83,7 @@ export async function applyStep(
   changes: Partial<Record<(typeof RESTORED)[number], unknown>>,
   step: Omit<Step, 'blockId' | 'before'>,
 ): Promise<void> {
-  const before = snapshotOf(block);
-  const attributes = Block.getAttributes();
-  const names = Object.keys(changes) as (keyof typeof changes)[];
-  const assignments = names.map((name, i) => `"${attributes[name]!.field ?? name}" = $c${i}`);
-  const values = Object.fromEntries(names.map((name, i) => [`c${i}`, changes[name] ?? null]));
-  await preparedQuery(
-    db,
-    `WITH changed AS (UPDATE blocks SET ${assignments.join(', ')}, updated_at = now() WHERE id = $blockId RETURNING id)
-     INSERT INTO block_steps (block_id, action, by_id, before, measurement_id)
-     SELECT id, $action, $byId, $before::jsonb, $measurementId FROM changed`,
-    { ...values, ...stepBind({ ...step, blockId: block.id, before }) },
-    transaction,
-  );
+  const { sql, bind } = stepCtes(block, changes, step);
+  await preparedQuery(db, `WITH ${sql} SELECT 1`, { ...bind, measurementId: step.measurementId ?? null }, transaction);
   block.set(changes as never, { raw: true });
 }
