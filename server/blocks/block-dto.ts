@@ -72,17 +72,18 @@ export interface RelatedJson {
  * makers' and recipients' names, the latest ruler and maker measurement (with who took it), the
  * photos and the latest photo estimate. Each part is one aggregate, so the count of rows read does
  * not grow with the number of blocks asked for; each latest measurement is the first entry of the
- * (block, source, time) index, so neither does it grow with a block's history of measurements.
+ * (block, source, time, id) index, so neither does it grow with a block's history of measurements.
+ * `ids` and `userIds` are SQL int arrays: the binds by default, or columns of a row read beside.
  */
-export function relatedSql() {
+export function relatedSql(ids = '$ids::int[]', userIds = '$userIds::int[]') {
   return `SELECT
     (SELECT coalesce(json_agg(json_build_object('id', u.id, 'displayName', u.display_name)), '[]')
-       FROM users u WHERE u.id = ANY($userIds::int[])) AS users,
+       FROM users u WHERE u.id = ANY(${userIds})) AS users,
     (SELECT coalesce(json_agg(latest), '[]') FROM (
        SELECT m.id, m.block_id AS "blockId", m.source, mu.id AS "measuredById", mu.display_name AS "measuredByName",
               m.width, m.height, m.diagonal1, m.diagonal2, m.verdict, m.deviation_width AS "deviationWidth",
               m.deviation_height AS "deviationHeight", m.deviation_diagonal AS "deviationDiagonal", m.note, m.created_at AS "createdAt"
-         FROM unnest($ids::int[]) AS asked(block_id)
+         FROM unnest(${ids}) AS asked(block_id)
         CROSS JOIN (VALUES ('ruler'), ('maker')) AS kind(source)
         CROSS JOIN LATERAL (
               SELECT * FROM measurements m
@@ -90,8 +91,8 @@ export function relatedSql() {
                ORDER BY m.created_at DESC, m.id DESC LIMIT 1) m
          LEFT JOIN users mu ON mu.id = m.measured_by_id) latest) AS measurements,
     (SELECT coalesce(json_agg(json_build_object('id', p.id, 'blockId', p.block_id) ORDER BY p.created_at, p.id), '[]')
-       FROM photos p WHERE p.block_id = ANY($ids::int[])) AS photos,
-    (SELECT coalesce(json_agg(estimate), '[]') FROM (${LATEST_ESTIMATES} WHERE e.block_id = ANY($ids::int[]) ${NEWEST_ESTIMATE_FIRST}) estimate) AS estimates`;
+       FROM photos p WHERE p.block_id = ANY(${ids})) AS photos,
+    (SELECT coalesce(json_agg(estimate), '[]') FROM (${LATEST_ESTIMATES} WHERE e.block_id = ANY(${ids}) ${NEWEST_ESTIMATE_FIRST}) estimate) AS estimates`;
 }
 
 /**

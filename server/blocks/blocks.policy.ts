@@ -45,6 +45,11 @@ async function loadBlock(
 /** The block's maker or an officer of its guild may read it. */
 export async function canReadBlock(read: BlockRead, userId: number, blockId: number): Promise<BlockAccess> {
   const { block, swap, role } = await loadBlock(read, userId, blockId);
+  return readBlockAccess(block, swap, role, userId);
+}
+
+/** canReadBlock's decision on a block, its swap and the caller's role read elsewhere. */
+export function readBlockAccess(block: Block, swap: Swap, role: Role | null, userId: number): BlockAccess {
   return { ...readAccess(swap, role, 'That block does not exist.'), block, isMaker: block.makerId === userId };
 }
 

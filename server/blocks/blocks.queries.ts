@@ -1,8 +1,11 @@
 /** The blocks feature's hand-written SQL; every value arrives as a bind parameter. */
 import { QueryTypes, type Model, type ModelStatic, type Sequelize, type Transaction } from 'sequelize';
-import { Block, Measurement, Swap } from '../db/models';
-import { preparedQuery } from '../db/prepared';
-import { relatedBind, relatedSql, type RelatedJson } from './block-dto';
+import { Block, Swap } from '../db/models';
+import type pg from 'pg';
+import type { Role } from '@shared/schemas/guilds';
+import { preparedPoolQuery, preparedQuery } from '../db/prepared';
+import { viewerRole } from '../swaps/swaps.queries';
+import { relatedSql, type RelatedJson } from './block-dto';
 import { stepCtes } from './step-log';
 
 let selectList: string | undefined;
@@ -47,9 +50,7 @@ export async function findBlockWithSwap(
   return { block, swap };
 }
 
-const measurementLists = new Map<string, string>();
-
-/** The columns a measurement's row is written with, in the order of `insertMeasurement`'s values. */
+/** The columns a measurement's row is written with, in the order of `writeMeasurement`'s values. */
 const MEASUREMENT_FIELDS = `block_id, measured_by_id, source, width, height, diagonal1, diagonal2, verdict,
   deviation_width, deviation_height, deviation_diagonal, note, created_at, updated_at`;
 
@@ -69,80 +70,90 @@ type MeasurementValues = {
   at: Date;
 };
 
-const INSERT_MEASUREMENT = `INSERT INTO measurements (${MEASUREMENT_FIELDS})
-     VALUES ($blockId, $measuredById, $source, $width, $height, $diagonal1, $diagonal2, $verdict,
-             $deviationWidth, $deviationHeight, $deviationDiagonal, $note, $at, $at)`;
+/** A block, its swap, the reader's role and what a measurement of it needs, as one read gives them. */
+export interface MeasuringRow {
+  block: Block;
+  swap: Swap;
+  role: Role | null;
+  /** the block row's version (xmin), which the write checks it still has */
+  seen: string;
+  /** the new measurement's id, taken from its sequence */
+  nextId: number;
+  /** what the block's answer shows besides its row (relatedSql), before the measurement */
+  related: RelatedJson;
+}
 
-/** Every column of a measurement, aliased to its attribute name; `table.` before each when given. */
-function measurementColumns(table = '') {
-  let list = measurementLists.get(table);
-  if (!list) {
-    list = Object.entries(Measurement.getAttributes())
-      .map(([name, a]) => `${table}"${a.field ?? name}" AS "${name}"`)
-      .join(', ');
-    measurementLists.set(table, list);
+/**
+ * Everything recording a measurement reads, in one named statement on the plain pool: the block with
+ * its swap, the role of `viewerId` in the swap's guild, the block row's version, an id for the new
+ * measurement and the block answer's related rows (naming its maker, recipient and deciding officer).
+ */
+export async function readBlockForMeasurement(pool: pg.Pool, blockId: number, viewerId: number): Promise<MeasuringRow | null> {
+  const sql = `SELECT ${columns()}, ${viewerRole('s')} AS "m.role", b.xmin::text AS "m.seen",
+                      nextval('measurements_id_seq')::int AS "m.nextId",
+                      r.users AS "m.users", r.measurements AS "m.measurements", r.photos AS "m.photos", r.estimates AS "m.estimates"
+                 FROM blocks b JOIN swaps s ON s.id = b.swap_id
+                CROSS JOIN LATERAL (${relatedSql('ARRAY[b.id]', 'ARRAY[b.maker_id, b.recipient_id, b.accepted_by_id]')}) r
+                WHERE b.id = $blockId`;
+  const [row] = await preparedPoolQuery<Record<string, unknown>>(pool, sql, { blockId, viewerId });
+  if (!row) return null;
+  const blockValues: Record<string, unknown> = {};
+  const swapValues: Record<string, unknown> = {};
+  const read: Record<string, unknown> = {};
+  for (const [key, value] of Object.entries(row)) {
+    if (key.startsWith('swap.')) swapValues[key.slice('swap.'.length)] = value;
+    else if (key.startsWith('m.')) read[key.slice('m.'.length)] = value;
+    else blockValues[key] = value;
   }
-  return list;
+  const swap = Swap.build(swapValues as never, { isNewRecord: false, raw: true });
+  const block = Block.build(blockValues as never, { isNewRecord: false, raw: true });
+  block.swap = swap;
+  const { role, seen, nextId, ...related } = read as unknown as { role: Role | null; seen: string; nextId: number } & RelatedJson;
+  return { block, swap, role, seen, nextId, related };
 }
 
 /**
- * Inserts a measurement and builds its instance from the row as stored, as `Measurement.create` would
- * (the same values, `at` for both times), as a named statement in the change's transaction: on the
- * measurement path Sequelize's building of the INSERT and of its result cost more than the statement.
+ * Records a measurement read with `readBlockForMeasurement`, in one statement on the plain pool: the
+ * block's step when `step` is given (a ruler measurement moves the block), the measurement under the
+ * id read, and with a clientId the request's answer. Nothing is written unless the block row is still
+ * the version read (false: read it again and retry); a clientId already taken fails the statement
+ * whole with a unique violation, so a repeat changes nothing.
  */
-export async function insertMeasurement(
-  db: Sequelize,
-  transaction: Transaction,
+export async function writeMeasurement(
+  pool: pg.Pool,
+  read: Pick<MeasuringRow, 'block' | 'seen' | 'nextId'>,
   values: MeasurementValues,
-): Promise<Measurement> {
-  const [row] = await preparedQuery<Record<string, unknown>>(
-    db,
-    `${INSERT_MEASUREMENT} RETURNING ${measurementColumns()}`,
-    values,
-    transaction,
+  step: { changes: Parameters<typeof stepCtes>[1]; byId: number } | null,
+  request: { clientId: string; action: string; response: unknown } | null,
+): Promise<boolean> {
+  const { block, seen, nextId } = read;
+  const guard = ' AND xmin::text = $seen';
+  const changed = step
+    ? stepCtes(block, step.changes, { action: 'measured', byId: step.byId }, '$measurementId', guard)
+    : { sql: `changed AS (SELECT id FROM blocks WHERE id = $blockId${guard})`, bind: {} };
+  const claim = request
+    ? `,
+     claim AS (INSERT INTO block_requests (client_id, user_id, block_id, action, status_code, response, created_at)
+               SELECT $clientId, $measuredById, $blockId, $claimAction, 201, $response::jsonb, now() FROM m)`
+    : '';
+  const [row] = await preparedPoolQuery<{ written: number }>(
+    pool,
+    `WITH ${changed.sql},
+     m AS (INSERT INTO measurements (id, ${MEASUREMENT_FIELDS})
+           SELECT $measurementId, $blockId, $measuredById, $source, $width, $height, $diagonal1, $diagonal2, $verdict,
+                  $deviationWidth, $deviationHeight, $deviationDiagonal, $note, $at, $at
+             FROM changed
+           RETURNING id)${claim}
+     SELECT count(*)::int AS written FROM m`,
+    {
+      ...values,
+      ...changed.bind,
+      seen,
+      measurementId: nextId,
+      ...(request ? { clientId: request.clientId, claimAction: request.action, response: JSON.stringify(request.response) } : {}),
+    },
   );
-  return Measurement.build(row as never, { isNewRecord: false, raw: true });
-}
-
-/**
- * A measurement in one round trip: inserts it, takes the block's step when `step` is given (a ruler
- * measurement moves the block), and reads what the block's answer shows besides the block row
- * (`relatedSql`, for the block as it is after the step). The related rows are read in the statement's
- * own snapshot, so their latest measurements do not yet hold the new one: `withMeasurement` puts it in.
- */
-export async function insertMeasurementWithStep(
-  db: Sequelize,
-  transaction: Transaction,
-  values: MeasurementValues,
-  block: Block,
-  step?: { changes: Parameters<typeof stepCtes>[1]; byId: number },
-): Promise<{ measurement: Measurement; related: RelatedJson }> {
-  const stepped = step ? stepCtes(block, step.changes, { action: 'measured', byId: step.byId }, '(SELECT id FROM m)') : null;
-  // The answer names the people of the block as it will be after the step.
-  const after = {
-    id: block.id,
-    makerId: block.makerId,
-    recipientId: block.recipientId,
-    acceptedById: step && 'acceptedById' in step.changes ? (step.changes.acceptedById as number | null) : block.acceptedById,
-  };
-  const [row] = await preparedQuery<Record<string, unknown> & RelatedJson>(
-    db,
-    `WITH m AS (${INSERT_MEASUREMENT} RETURNING *)${
-      stepped
-        ? `,
-     ${stepped.sql}`
-        : ''
-    }
-     SELECT ${measurementColumns('m.')}, r.users, r.measurements, r.photos, r.estimates
-       FROM m CROSS JOIN (${relatedSql()}) r`,
-    { ...values, ...stepped?.bind, ...relatedBind([after]) },
-    transaction,
-  );
-  const { users, measurements, photos, estimates, ...columns } = row!;
-  return {
-    measurement: Measurement.build(columns as never, { isNewRecord: false, raw: true }),
-    related: { users, measurements, photos, estimates },
-  };
+  return row!.written === 1;
 }
 
 /**

@@ -11,13 +11,13 @@ import {
   receiveSchema,
 } from '@shared/schemas/blocks';
 import { blocksQuerySchema, swapParamsSchema } from '@shared/schemas/swaps';
-import { route, transactionRoute } from '../http/route';
+import { route, sendReply, transactionRoute } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { canReadSwap } from '../swaps/swaps.policy';
-import { canActAsMaker, canManageBlock, canReadBlock, measuringAs, type BlockAccess } from './blocks.policy';
+import { canActAsMaker, canManageBlock, canReadBlock, type BlockAccess } from './blocks.policy';
 import type { AppDeps } from '../deps';
 import * as blocks from './blocks.service';
-import { listMeasurements, recordMeasurement } from './measurements.service';
+import { listMeasurements, readForMeasurement, recordMeasurement } from './measurements.service';
 import { answerAsBefore } from './idempotency';
 import { acceptByDecision, undoLastStep } from './block-steps';
 import { handInMany } from './hand-in-many';
@@ -108,11 +108,15 @@ export function blocksRouter(deps: AppDeps) {
   router.post(
     '/blocks/:blockId/measurements',
     requireUser,
-    transactionRoute(db, change(measurementBodySchema, canReadBlock), ({ access, transaction, body }, req) => {
-      const { id: userId, displayName } = currentUser(req);
-      const actor = { userId, displayName, source: measuringAs(access, body.source) };
-      return recordMeasurement(deps, locked(access, transaction), actor, body);
-    }),
+    // No transaction of its own: one read, then one statement that writes only if the block is as read.
+    route(
+      {
+        params: blockParamsSchema,
+        body: measurementBodySchema,
+        authorize: (req, { params }) => readForMeasurement(deps, currentUser(req).id, params.blockId),
+      },
+      async ({ access, body }, req, res) => sendReply(res, await recordMeasurement(deps, currentUser(req), body, access)),
+    ),
   );
 
   router.post(

@@ -56,7 +56,14 @@ export async function idempotent<T>(
  */
 export async function answerAsBefore(error: unknown): Promise<Reply> {
   if (!(error instanceof ClaimedRequestUndone)) throw error;
-  const { claim, failure } = error;
+  return priorAnswer(error.claim, error.failure);
+}
+
+/**
+ * The stored answer of the request first sent with `claim`'s clientId, for a repeat that changed
+ * nothing; otherwise the repeat's own `failure` (or, without one, a request still being answered).
+ */
+export async function priorAnswer(claim: Claim & { clientId: string }, failure?: unknown): Promise<Reply> {
   const prior = await BlockRequest.findByPk(claim.clientId);
   if (!prior) {
     if (failure) throw failure;

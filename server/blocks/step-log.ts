@@ -50,13 +50,14 @@ export async function recordStep(db: Sequelize, transaction: Transaction, step: 
 /**
  * The UPDATE of a step's block columns and the INSERT of the step (with the columns as they were), as
  * two CTEs named `changed` and `step`, and their binds. The step's measurement id is the SQL
- * `measurementId` (a bind, or a column of another CTE).
+ * `measurementId` (a bind, or a column of another CTE); `guard` is more of the UPDATE's condition.
  */
 export function stepCtes(
   block: Block,
   changes: Partial<Record<(typeof RESTORED)[number], unknown>>,
   step: Omit<Step, 'blockId' | 'before' | 'measurementId'>,
   measurementId = '$measurementId',
+  guard = '',
 ): { sql: string; bind: Record<string, unknown> } {
   const before = snapshotOf(block);
   const attributes = Block.getAttributes();
@@ -65,7 +66,7 @@ export function stepCtes(
   const values = Object.fromEntries(names.map((name, i) => [`c${i}`, changes[name] ?? null]));
   const { measurementId: _unused, ...bind } = stepBind({ ...step, blockId: block.id, before });
   return {
-    sql: `changed AS (UPDATE blocks SET ${assignments.join(', ')}, updated_at = now() WHERE id = $blockId RETURNING id),
+    sql: `changed AS (UPDATE blocks SET ${assignments.join(', ')}, updated_at = now() WHERE id = $blockId${guard} RETURNING id),
      step AS (INSERT INTO block_steps (block_id, action, by_id, before, measurement_id)
               SELECT id, $action, $byId, $before::jsonb, ${measurementId} FROM changed)`,
     bind: { ...values, ...bind },

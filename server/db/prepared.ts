@@ -50,3 +50,17 @@ export async function preparedQuery<T extends object>(
   const result = await connection.query<T>({ name, text, values: params.map((param) => bind[param]) });
   return result.rows;
 }
+
+/**
+ * Runs `sql` (with `$name` parameters from `bind`) as a named statement on the plain pool, for a hot
+ * statement that needs no transaction of its own (one statement is atomic by itself).
+ */
+export async function preparedPoolQuery<T extends object>(
+  pool: pg.Pool,
+  sql: string,
+  bind: Record<string, unknown>,
+): Promise<T[]> {
+  const { name, text, params } = statementFor(sql);
+  const result = await pool.query<T>({ name, text, values: params.map((param) => bind[param]) });
+  return result.rows;
+}

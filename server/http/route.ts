@@ -113,7 +113,8 @@ export interface TransactionRouteSpec<P, Q, B, A> extends Omit<RouteSpec<P, Q, B
   recover?: (error: unknown) => Promise<Reply>;
 }
 
-function send(res: Response, reply: Reply) {
+/** Sends a handler's `Reply`: its `after` work runs first, as it does once a transaction has committed. */
+export function sendReply(res: Response, reply: Reply) {
   reply.after?.();
   if (reply.headers) res.set(reply.headers);
   res.status(reply.status ?? 200).json(reply.body);
@@ -149,6 +150,6 @@ export function transactionRoute<
       if (!spec.recover) throw error;
       reply = await spec.recover(error);
     }
-    send(res, reply);
+    sendReply(res, reply);
   };
 }

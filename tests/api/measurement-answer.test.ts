@@ -8,6 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles } from '../helpers/factories';
 import { myBlocks, sewingSwap, type Roles } from './swaps-support';
+import { readBlockForMeasurement, writeMeasurement } from '../../server/blocks/blocks.queries';
 
 let app: TestApp;
 let roles: Roles;
@@ -55,5 +56,69 @@ describe('the block in a measurement’s answer', () => {
     await officer.post(`/api/blocks/${block!.id}/undo`).send({}).expect(200);
     const afterUndo = (await read(officer)) as { latest: { ruler: { width: number } } };
     expect(afterUndo.latest.ruler.width).toBe(8.25);
+  });
+
+  it('records every one of several ruler measurements of one block sent at once, each with its step', async () => {
+    const { swap, makers } = await sewingSwap(app, roles, { pledges: [1, 1] });
+    const [block] = await myBlocks(makers[0]!.agent, swap.id);
+    const officer = roles.coordinator.agent;
+    await officer.post(`/api/blocks/${block!.id}/received`).send({}).expect(200);
+    // Each write checks the block is still as its request read it; the ones that find it changed read again.
+    const sizes = ['8 1/4', '8 3/8', '8 1/2', '8 5/8'];
+    const answers = await Promise.all(
+      sizes.map((width) => officer.post(`/api/blocks/${block!.id}/measurements`).send({ width, height: '8 1/2' })),
+    );
+    for (const res of answers) expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const history = (await officer.get(`/api/blocks/${block!.id}/measurements`).expect(200)).body as { id: number }[];
+    expect(history.map((m) => m.id).sort()).toEqual(answers.map((a) => (a.body as { id: number }).id).sort());
+    // The block's verdict is the newest one's, and each measurement left a step that Undo takes back in turn.
+    const now = (await officer.get(`/api/blocks/${block!.id}`).expect(200)).body as { latest: { ruler: { id: number } } };
+    expect(now.latest.ruler.id).toBe(history[0]!.id);
+    for (let i = 0; i < sizes.length; i++) await officer.post(`/api/blocks/${block!.id}/undo`).send({}).expect(200);
+    const back = (await officer.get(`/api/blocks/${block!.id}`).expect(200)).body as {
+      state: string;
+      latest: { ruler: unknown };
+    };
+    expect(back.state).toBe('received');
+    expect(back.latest.ruler).toBeNull();
+  });
+
+  it('writes nothing when the block changed after it was read', async () => {
+    const { swap, makers } = await sewingSwap(app, roles, { pledges: [1, 1] });
+    const [block] = await myBlocks(makers[0]!.agent, swap.id);
+    await roles.coordinator.agent.post(`/api/blocks/${block!.id}/received`).send({}).expect(200);
+    const read = (await readBlockForMeasurement(app.deps.pool, block!.id, roles.coordinator.id))!;
+    expect(read.role).toBe('coordinator');
+    // Someone else changes the block between the read and the write.
+    await app.deps.pool.query(`UPDATE blocks SET hand_in_note = 'moved to the second table' WHERE id = $1`, [block!.id]);
+    const values = {
+      blockId: block!.id,
+      measuredById: roles.coordinator.id,
+      source: 'ruler',
+      width: 8.5,
+      height: 8.5,
+      diagonal1: null,
+      diagonal2: null,
+      verdict: 'true',
+      deviationWidth: 0,
+      deviationHeight: 0,
+      deviationDiagonal: null,
+      note: null,
+      at: new Date(),
+    };
+    const step = { changes: { state: 'measured', verdict: 'true', measuredAt: values.at }, byId: roles.coordinator.id };
+    const request = { clientId: '6f1c2b7e-3a4d-4e5f-8a9b-0c1d2e3f4a5b', action: 'measurement:ruler', response: {} };
+    expect(await writeMeasurement(app.deps.pool, read, values, step, request)).toBe(false);
+    const counts = await app.deps.pool.query<{ measurements: number; steps: number; requests: number; state: string }>(
+      `SELECT (SELECT count(*)::int FROM measurements WHERE block_id = $1) AS measurements,
+              (SELECT count(*)::int FROM block_steps WHERE block_id = $1 AND action = 'measured') AS steps,
+              (SELECT count(*)::int FROM block_requests WHERE client_id = $2) AS requests,
+              (SELECT state FROM blocks WHERE id = $1) AS state`,
+      [block!.id, request.clientId],
+    );
+    expect(counts.rows[0]).toEqual({ measurements: 0, steps: 0, requests: 0, state: 'received' });
+    // Read again, the same write goes through.
+    const again = (await readBlockForMeasurement(app.deps.pool, block!.id, roles.coordinator.id))!;
+    expect(await writeMeasurement(app.deps.pool, again, values, step, request)).toBe(true);
   });
 });
