@@ -70,6 +70,9 @@ type MeasurementValues = {
   at: Date;
 };
 
+let measuringRead: string | undefined;
+const measuringWrites = new Map<string, string>();
+
 /** A block, its swap, the reader's role and what a measurement of it needs, as one read gives them. */
 export interface MeasuringRow {
   block: Block;
@@ -89,13 +92,14 @@ export interface MeasuringRow {
  * measurement and the block answer's related rows (naming its maker, recipient and deciding officer).
  */
 export async function readBlockForMeasurement(pool: pg.Pool, blockId: number, viewerId: number): Promise<MeasuringRow | null> {
-  const sql = `SELECT ${columns()}, ${viewerRole('s')} AS "m.role", b.xmin::text AS "m.seen",
+  // Built once: the statement is looked up by its text on every call.
+  measuringRead ??= `SELECT ${columns()}, ${viewerRole('s')} AS "m.role", b.xmin::text AS "m.seen",
                       nextval('measurements_id_seq')::int AS "m.nextId",
                       r.users AS "m.users", r.measurements AS "m.measurements", r.photos AS "m.photos", r.estimates AS "m.estimates"
                  FROM blocks b JOIN swaps s ON s.id = b.swap_id
                 CROSS JOIN LATERAL (${relatedSql('ARRAY[b.id]', 'ARRAY[b.maker_id, b.recipient_id, b.accepted_by_id]')}) r
                 WHERE b.id = $blockId`;
-  const [row] = await preparedPoolQuery<Record<string, unknown>>(pool, sql, { blockId, viewerId });
+  const [row] = await preparedPoolQuery<Record<string, unknown>>(pool, measuringRead, { blockId, viewerId });
   if (!row) return null;
   const blockValues: Record<string, unknown> = {};
   const swapValues: Record<string, unknown> = {};
@@ -136,23 +140,26 @@ export async function writeMeasurement(
      claim AS (INSERT INTO block_requests (client_id, user_id, block_id, action, status_code, response, created_at)
                SELECT $clientId, $measuredById, $blockId, $claimAction, 201, $response::jsonb, now() FROM m)`
     : '';
-  const [row] = await preparedPoolQuery<{ written: number }>(
-    pool,
-    `WITH ${changed.sql},
+  // One text per kind of write, kept: the statement is looked up by its text on every call.
+  const kind = `${changed.sql}|${claim}`;
+  let sql = measuringWrites.get(kind);
+  if (!sql) {
+    sql = `WITH ${changed.sql},
      m AS (INSERT INTO measurements (id, ${MEASUREMENT_FIELDS})
            SELECT $measurementId, $blockId, $measuredById, $source, $width, $height, $diagonal1, $diagonal2, $verdict,
                   $deviationWidth, $deviationHeight, $deviationDiagonal, $note, $at, $at
              FROM changed
            RETURNING id)${claim}
-     SELECT count(*)::int AS written FROM m`,
-    {
-      ...values,
-      ...changed.bind,
-      seen,
-      measurementId: nextId,
-      ...(request ? { clientId: request.clientId, claimAction: request.action, response: JSON.stringify(request.response) } : {}),
-    },
-  );
+     SELECT count(*)::int AS written FROM m`;
+    measuringWrites.set(kind, sql);
+  }
+  const [row] = await preparedPoolQuery<{ written: number }>(pool, sql, {
+    ...values,
+    ...changed.bind,
+    seen,
+    measurementId: nextId,
+    ...(request ? { clientId: request.clientId, claimAction: request.action, response: JSON.stringify(request.response) } : {}),
+  });
   return row!.written === 1;
 }
 

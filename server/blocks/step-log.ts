@@ -47,6 +47,8 @@ export async function recordStep(db: Sequelize, transaction: Transaction, step: 
   );
 }
 
+const stepTexts = new Map<string, string>();
+
 /**
  * The UPDATE of a step's block columns and the INSERT of the step (with the columns as they were), as
  * two CTEs named `changed` and `step`, and their binds. The step's measurement id is the SQL
@@ -60,17 +62,21 @@ export function stepCtes(
   guard = '',
 ): { sql: string; bind: Record<string, unknown> } {
   const before = snapshotOf(block);
-  const attributes = Block.getAttributes();
   const names = Object.keys(changes) as (keyof typeof changes)[];
-  const assignments = names.map((name, i) => `"${attributes[name]!.field ?? name}" = $c${i}`);
   const values = Object.fromEntries(names.map((name, i) => [`c${i}`, changes[name] ?? null]));
   const { measurementId: _unused, ...bind } = stepBind({ ...step, blockId: block.id, before });
-  return {
-    sql: `changed AS (UPDATE blocks SET ${assignments.join(', ')}, updated_at = now() WHERE id = $blockId${guard} RETURNING id),
+  // The same text for the same columns: a named statement is looked up by its text.
+  const kind = `${names.join(',')}|${measurementId}|${guard}`;
+  let sql = stepTexts.get(kind);
+  if (!sql) {
+    const attributes = Block.getAttributes();
+    const assignments = names.map((name, i) => `"${attributes[name]!.field ?? name}" = $c${i}`);
+    sql = `changed AS (UPDATE blocks SET ${assignments.join(', ')}, updated_at = now() WHERE id = $blockId${guard} RETURNING id),
      step AS (INSERT INTO block_steps (block_id, action, by_id, before, measurement_id)
-              SELECT id, $action, $byId, $before::jsonb, ${measurementId} FROM changed)`,
-    bind: { ...values, ...bind },
-  };
+              SELECT id, $action, $byId, $before::jsonb, ${measurementId} FROM changed)`;
+    stepTexts.set(kind, sql);
+  }
+  return { sql, bind: { ...values, ...bind } };
 }
 
 /**
