@@ -77,7 +77,7 @@ if (runLiveBench)
   );
 await section(
   'Live board under a burst (app in its own process)',
-  '10 intake stations measure as fast as the app answers while 200 sockets watch the board. Commit → receipt is timed from the measurement’s recorded time (just before its commit) to each socket’s handler. Goals: at most one change per swap per 50 ms per node, p95 < 100 ms, no lost change, no version gap.',
+  '10 intake stations (this process) measure as fast as the app answers, each measurement with a clientId as the app’s client sends it, while 200 sockets (a process of their own) watch the board. Commit → receipt is timed from the measurement’s recorded time (just before the statement that writes it) to each socket’s handler. Goals: at most one change per swap per 50 ms per node, p95 < 100 ms, no lost change, no version gap.',
   () => runLiveBurstBench(),
 );
 const runPhotoBurstBench = await optional<() => Promise<Row[]>>('./photo-burst.ts', 'runPhotoBurstBench');
