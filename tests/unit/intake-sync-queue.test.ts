@@ -150,6 +150,22 @@ describe('sending the offline queue', () => {
     expect(server.receive).toHaveBeenCalledTimes(1);
   });
 
+  it('sends again, after the usual wait, a measurement refused only because the block was busy for a moment', async () => {
+    queue('measure', 11);
+    server.measure
+      .mockRejectedValueOnce(
+        new ApiError(409, 'block_busy', 'This block changed while it was being measured; send the measurement again.'),
+      )
+      .mockResolvedValue({ verdict: 'true', block: { id: 11, state: 'measured' } });
+    stop = startSync(1);
+    await settle();
+    expect(store.items).toHaveLength(1);
+    expect(store.items[0]!.failed).toBeUndefined();
+    await vi.advanceTimersByTimeAsync(1000);
+    expect(server.measure).toHaveBeenCalledTimes(2);
+    expect(store.items).toEqual([]);
+  });
+
   it('counts "already received" as done: the block was taken in on another device', async () => {
     queue('receive', 11);
     server.receive.mockRejectedValue(new ApiError(409, 'already_received', 'That block was already received.'));

@@ -51,6 +51,12 @@ export function onSent(listener: (event: SentEvent) => void): () => void {
 
 export const notifyQueueChanged = () => events.dispatchEvent(new Event('change'));
 
+/**
+ * Conflicts that clear by themselves: the block changed while this measurement was being written, or
+ * the same request is being answered right now. The item is sent again after the usual wait.
+ */
+const BUSY_FOR_A_MOMENT = new Set(['block_busy', 'client_id_busy']);
+
 type Outcome = { ok: true; event: SentEvent } | { ok: false; retry: boolean; signedOut?: boolean; code: string; message: string };
 
 // A lapsed session is reported to the queue instead of leaving the page.
@@ -74,7 +80,12 @@ async function send(item: QueueItem): Promise<Outcome> {
     if (item.kind === 'receive' && error.code === 'already_received')
       return { ok: true, event: { item, kind: 'receive', answer: null } };
     if (error.status === 401) return { ok: false, retry: true, signedOut: true, code: error.code, message: error.message };
-    const transient = error.status === 0 || error.status === 408 || error.status === 429 || error.status >= 500;
+    const transient =
+      error.status === 0 ||
+      error.status === 408 ||
+      error.status === 429 ||
+      error.status >= 500 ||
+      BUSY_FOR_A_MOMENT.has(error.code);
     return { ok: false, retry: transient, code: error.code, message: error.message };
   }
 }
