@@ -6,10 +6,8 @@
  * many measurement lines the slowest viewer has seen, `report` sends back what each viewer received.
  */
 import { performance } from 'node:perf_hooks';
-import { io as connectClient, type Socket } from 'socket.io-client';
-import type { Ack, BoardChange, BoardJoined, ClientToServerEvents, ServerToClientEvents } from '../shared/live-events';
-
-type Client = Socket<ServerToClientEvents, ClientToServerEvents>;
+import type { BoardChange, BoardJoined } from '../shared/live-events';
+import { ask, connect, type LiveClient as Client } from './lib/sockets';
 
 /** One board change as a viewer received it, reduced to what the benchmark counts. */
 export interface ReceivedChange {
@@ -39,27 +37,6 @@ export type ViewersAnswer =
 
 const now = () => performance.timeOrigin + performance.now();
 
-function connect(url: string, cookie: string): Promise<Client> {
-  const socket: Client = connectClient(url, {
-    transports: ['websocket'],
-    extraHeaders: { cookie },
-    reconnection: false,
-    forceNew: true,
-  });
-  return new Promise((resolve, reject) => {
-    socket.once('connect', () => resolve(socket));
-    socket.once('connect_error', reject);
-  });
-}
-
-function join(socket: Client, swapId: number): Promise<BoardJoined> {
-  return new Promise((resolve, reject) => {
-    (socket.emit as (e: string, p: unknown, cb: (a: Ack<BoardJoined>) => void) => void)('board:join', { swapId }, (answer) =>
-      'error' in answer ? reject(new Error(answer.error.message)) : resolve(answer.data),
-    );
-  });
-}
-
 const reduce = (change: BoardChange, at: number): ReceivedChange => ({
   version: change.version,
   at,
@@ -81,7 +58,7 @@ process.on('message', (command: ViewersCommand) => {
         const socket = await connect(command.url, command.cookies[i % command.cookies.length]!);
         const viewer: ViewerReport = { joinedAt: 0, changes: [] };
         socket.on('board:changed', (change) => void viewer.changes.push(reduce(change, now())));
-        viewer.joinedAt = (await join(socket, command.swapId)).version;
+        viewer.joinedAt = (await ask<BoardJoined>(socket, 'board:join', { swapId: command.swapId })).version;
         sockets.push(socket);
         viewers.push(viewer);
       }

@@ -13,8 +13,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
-import { io as connectClient, type Socket } from 'socket.io-client';
-import type { Ack, BoardChange, ClientToServerEvents, ServerToClientEvents } from '../shared/live-events';
+import type { BoardChange } from '../shared/live-events';
 import type { ChatMessageDto } from '../shared/schemas/chat';
 import { loadConfig } from '../server/config';
 import { startServer, type RunningServer } from '../server/index';
@@ -22,8 +21,7 @@ import { Membership } from '../server/db/models';
 import { BOARD_CHANGE_INTERVAL_MS } from '../server/board/board-fanout';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
 import { newAccount } from './lib/seed';
-
-type Client = Socket<ServerToClientEvents, ClientToServerEvents>;
+import { ask, connect, type LiveClient as Client } from './lib/sockets';
 
 export interface LiveRow {
   name: string;
@@ -58,27 +56,6 @@ async function person(baseUrl: string, databaseUrl: string, i: number) {
     `Bench Maker ${String(i).padStart(2, '0')}`,
   );
   return { id: session.userId, cookie: session.cookie, api: session.api };
-}
-
-function connect(url: string, cookie: string): Promise<Client> {
-  const socket: Client = connectClient(url, {
-    transports: ['websocket'],
-    extraHeaders: { cookie },
-    reconnection: false,
-    forceNew: true,
-  });
-  return new Promise((resolve, reject) => {
-    socket.once('connect', () => resolve(socket));
-    socket.once('connect_error', reject);
-  });
-}
-
-function ask<T>(socket: Client, event: keyof ClientToServerEvents, payload: unknown): Promise<T> {
-  return new Promise((resolve, reject) => {
-    (socket.emit as (e: string, p: unknown, cb: (a: Ack<T>) => void) => void)(event, payload, (answer) =>
-      'error' in answer ? reject(new Error(answer.error.message)) : resolve(answer.data),
-    );
-  });
 }
 
 /** Sends `changes` block changes through node `writer` and times their arrival at every socket. */
