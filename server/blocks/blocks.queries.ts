@@ -38,16 +38,27 @@ export async function findBlockWithSwap(
                 WHERE b.id = $blockId${options.lockForChange ? ' FOR NO KEY UPDATE OF b' : ''}`;
   const [row] = await preparedQuery<Record<string, unknown>>(db, sql, { ...options.bind, blockId }, options.transaction);
   if (!row) return null;
+  const { block, swap } = instancesFrom(row);
+  return { block, swap };
+}
+
+/**
+ * The block and swap instances from the halves of a flat row (`swap.` before the swap's columns);
+ * columns named `m.…` are handed back apart, without the prefix.
+ */
+function instancesFrom(row: Record<string, unknown>): { block: Block; swap: Swap; more: Record<string, unknown> } {
   const blockValues: Record<string, unknown> = {};
   const swapValues: Record<string, unknown> = {};
+  const more: Record<string, unknown> = {};
   for (const [key, value] of Object.entries(row)) {
     if (key.startsWith('swap.')) swapValues[key.slice('swap.'.length)] = value;
+    else if (key.startsWith('m.')) more[key.slice('m.'.length)] = value;
     else blockValues[key] = value;
   }
   const swap = Swap.build(swapValues as never, { isNewRecord: false, raw: true });
   const block = Block.build(blockValues as never, { isNewRecord: false, raw: true });
   block.swap = swap;
-  return { block, swap };
+  return { block, swap, more };
 }
 
 /** The columns a measurement's row is written with, in the order of `writeMeasurement`'s values. */
@@ -101,18 +112,8 @@ export async function readBlockForMeasurement(pool: pg.Pool, blockId: number, vi
                 WHERE b.id = $blockId`;
   const [row] = await preparedPoolQuery<Record<string, unknown>>(pool, measuringRead, { blockId, viewerId });
   if (!row) return null;
-  const blockValues: Record<string, unknown> = {};
-  const swapValues: Record<string, unknown> = {};
-  const read: Record<string, unknown> = {};
-  for (const [key, value] of Object.entries(row)) {
-    if (key.startsWith('swap.')) swapValues[key.slice('swap.'.length)] = value;
-    else if (key.startsWith('m.')) read[key.slice('m.'.length)] = value;
-    else blockValues[key] = value;
-  }
-  const swap = Swap.build(swapValues as never, { isNewRecord: false, raw: true });
-  const block = Block.build(blockValues as never, { isNewRecord: false, raw: true });
-  block.swap = swap;
-  const { role, seen, nextId, ...related } = read as unknown as { role: Role | null; seen: string; nextId: number } & RelatedJson;
+  const { block, swap, more } = instancesFrom(row);
+  const { role, seen, nextId, ...related } = more as unknown as { role: Role | null; seen: string; nextId: number } & RelatedJson;
   return { block, swap, role, seen, nextId, related };
 }
 
@@ -133,7 +134,7 @@ export async function writeMeasurement(
   const { block, seen, nextId } = read;
   const guard = ' AND xmin::text = $seen';
   const changed = step
-    ? stepCtes(block, step.changes, { action: 'measured', byId: step.byId }, '$measurementId', guard)
+    ? stepCtes(block, step.changes, { action: 'measured', byId: step.byId }, guard)
     : { sql: `changed AS (SELECT id FROM blocks WHERE id = $blockId${guard})`, bind: {} };
   const claim = request
     ? `,

@@ -145,22 +145,9 @@ async function measureOnce(
           acceptedReason: null,
         }
       : null;
-  const measurement = {
-    id: read.nextId,
-    blockId: block.id,
-    source,
-    width: values.width,
-    height: values.height,
-    diagonal1: values.diagonal1,
-    diagonal2: values.diagonal2,
-    verdict,
-    deviationWidth: values.deviationWidth,
-    deviationHeight: values.deviationHeight,
-    deviationDiagonal: values.deviationDiagonal,
-    note: values.note,
-    createdAt: at,
-    withdrawnAt: null,
-  };
+  // The row as the write stores it, under the id read.
+  const { measuredById: _by, at: _at, ...stored } = values;
+  const measurement = { ...stored, id: read.nextId, createdAt: at, withdrawnAt: null };
   // The step records the block as read; the answer shows it as it will be.
   const step = changes ? { changes, byId: user.id } : null;
   const stepped = Block.build({ ...block.dataValues, ...changes } as never, { isNewRecord: false, raw: true });

@@ -51,14 +51,13 @@ const stepTexts = new Map<string, string>();
 
 /**
  * The UPDATE of a step's block columns and the INSERT of the step (with the columns as they were), as
- * two CTEs named `changed` and `step`, and their binds. The step's measurement id is the SQL
- * `measurementId` (a bind, or a column of another CTE); `guard` is more of the UPDATE's condition.
+ * two CTEs named `changed` and `step`, and their binds (all but `$measurementId`, the step's
+ * measurement, which the caller binds); `guard` is more of the UPDATE's condition.
  */
 export function stepCtes(
   block: Block,
   changes: Partial<Record<(typeof RESTORED)[number], unknown>>,
   step: Omit<Step, 'blockId' | 'before' | 'measurementId'>,
-  measurementId = '$measurementId',
   guard = '',
 ): { sql: string; bind: Record<string, unknown> } {
   const before = snapshotOf(block);
@@ -66,14 +65,14 @@ export function stepCtes(
   const values = Object.fromEntries(names.map((name, i) => [`c${i}`, changes[name] ?? null]));
   const { measurementId: _unused, ...bind } = stepBind({ ...step, blockId: block.id, before });
   // The same text for the same columns: a named statement is looked up by its text.
-  const kind = `${names.join(',')}|${measurementId}|${guard}`;
+  const kind = `${names.join(',')}|${guard}`;
   let sql = stepTexts.get(kind);
   if (!sql) {
     const attributes = Block.getAttributes();
     const assignments = names.map((name, i) => `"${attributes[name]!.field ?? name}" = $c${i}`);
     sql = `changed AS (UPDATE blocks SET ${assignments.join(', ')}, updated_at = now() WHERE id = $blockId${guard} RETURNING id),
      step AS (INSERT INTO block_steps (block_id, action, by_id, before, measurement_id)
-              SELECT id, $action, $byId, $before::jsonb, ${measurementId} FROM changed)`;
+              SELECT id, $action, $byId, $before::jsonb, $measurementId FROM changed)`;
     stepTexts.set(kind, sql);
   }
   return { sql, bind: { ...values, ...bind } };
