@@ -141,16 +141,11 @@ export class BoardFanout {
   /**
    * One message to the other nodes for the change, not one per kind of viewer: each node splits it
    * for its own sockets (through the PostgreSQL adapter every message is a NOTIFY and its encoding).
-   * None while the adapter has heard of no other node: a node that starts announces itself before
-   * its first socket can join, and a viewer that missed a change sees the gap and refetches.
+   * Always published, even while the adapter has heard of no other node: its list of nodes comes
+   * from heartbeats, which a busy process can miss, and a change not sent is a board left stale.
    */
   private send(guildId: number, verdictsVisibleTo: string, change: BoardChange) {
-    void this.io
-      .of('/')
-      .adapter.serverCount()
-      .then((nodes) => {
-        if (nodes > 1) this.io.serverSideEmit('board:fanout', { guildId, verdictsVisibleTo, change });
-      });
+    this.io.serverSideEmit('board:fanout', { guildId, verdictsVisibleTo, change });
     this.sendLocal(guildId, verdictsVisibleTo, change);
   }
 

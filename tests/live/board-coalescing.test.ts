@@ -41,7 +41,7 @@ function recordingIo() {
       except: () => ({ ...ignored, except: () => ignored }),
     }),
   };
-  const adapter = { rooms: { get: () => new Set(['a socket']) }, serverCount: () => Promise.resolve(2) };
+  const adapter = { rooms: { get: () => new Set(['a socket']) } };
   const io = {
     local,
     of: () => ({ adapter }),
@@ -104,7 +104,7 @@ describe('board fan-out under a burst', () => {
     expect(sent.at(-1)!.change.patch!.totals).toEqual(roster.totals);
   });
 
-  it('makes no copy for a room nobody on this node is in, and publishes nothing while no other node listens', async () => {
+  it('makes no copy for a room nobody on this node is in, but always publishes the change for other nodes', async () => {
     const { swap, makers } = await sewingSwap(app, roles, { pledges: [2, 2] });
     await move(roles.coordinator.agent, swap.id, 'collecting');
     const [mine, theirs] = await Promise.all(makers.map((m) => myBlocks(m.agent, swap.id)));
@@ -118,7 +118,6 @@ describe('board fan-out under a burst', () => {
     const target = (room: string): object => ({ emit: () => void emitted.push(room), except: () => target(room) });
     const adapter = {
       rooms: { get: (room: string) => (occupied.has(room) ? new Set(['a socket']) : undefined) },
-      serverCount: () => Promise.resolve(1),
     };
     const io = {
       local: { to: target },
@@ -140,10 +139,11 @@ describe('board fan-out under a burst', () => {
       await new Promise((r) => setTimeout(r, 20)); // the change is sent just after its commit
     };
 
-    // Nobody watching: the change is numbered, but no copy is made and nothing is published.
+    // Nobody watching here: the change is numbered and published once for the other nodes (whose
+    // list comes from heartbeats a busy process can miss), but no copy is made on this node.
     await measure(mine![0]!.id);
     expect(emitted).toEqual([]);
-    expect(published).toEqual([]);
+    expect(published).toHaveLength(1);
 
     // A member watches (the guild keeps verdicts to officers): the board's copy without verdicts is
     // made, and the maker's own copy only once the maker watches too.
@@ -154,6 +154,7 @@ describe('board fan-out under a burst', () => {
     occupied.add(boardViewerRoom(roles.guildId, swap.id, makers[1]!.id));
     await measure(theirs![1]!.id);
     expect(emitted).toEqual([board, board, boardViewerRoom(roles.guildId, swap.id, makers[1]!.id)]);
-    expect(published).toEqual([]);
+    // One message per change for the other nodes, whoever watches here.
+    expect(published).toHaveLength(3);
   });
 });
