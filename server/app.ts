@@ -5,6 +5,7 @@ import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
 import { configurePassport } from './auth/passport';
 import { createSessionMiddleware } from './auth/session';
+import { SessionCache } from './auth/session-cache';
 import { authRouter } from './auth/auth.routes';
 import { guildsRouter, invitationsRouter } from './guilds/guilds.routes';
 import { healthRouter } from './health.routes';
@@ -22,6 +23,8 @@ export interface BuiltApp {
   /** Shared with socket.io so sockets authenticate with the HTTP session. */
   sessionMiddleware: RequestHandler;
   passportMiddleware: RequestHandler[];
+  /** This node's short memory of the sessions it read; the live part tells other nodes what to forget. */
+  sessionCache: SessionCache;
 }
 
 /** Builds the Express app without listening, so tests can drive it with supertest. */
@@ -64,7 +67,11 @@ export function createApp(deps: AppDeps): BuiltApp {
     }),
   );
 
-  const sessionMiddleware = createSessionMiddleware(config, deps.pool);
+  const sessionCache = new SessionCache();
+  // Forgotten before the answer goes out: the sign-out's or reset's own node never serves it again.
+  deps.events.on('session.ended', ({ sessionIds }) => sessionCache.forget(sessionIds));
+  deps.events.on('account.changed', ({ userId }) => sessionCache.forgetUser(userId));
+  const sessionMiddleware = createSessionMiddleware(config, deps.pool, sessionCache);
   const passport = configurePassport(deps);
   const passportMiddleware = [passport.initialize(), passport.session()];
 
@@ -95,7 +102,7 @@ export function createApp(deps: AppDeps): BuiltApp {
   }
 
   app.use(errorMiddleware(logger));
-  return { app, sessionMiddleware, passportMiddleware };
+  return { app, sessionMiddleware, passportMiddleware, sessionCache };
 }
 
 function cacheHashedAssets(res: express.Response, path: string) {

@@ -41,6 +41,8 @@ export interface DomainEventMap {
   };
   /** Sign-in sessions that ended (signed out, or every session of an account after a password reset or change). */
   'session.ended': { userId: number; sessionIds: string[] };
+  /** The account's name, units or address changed: sessions that carry its old fields are read again. */
+  'account.changed': { userId: number };
   /** Someone asked for an account; the mail job looks the address up (never the request, so it answers alike). */
   'account.signup-requested': { pendingSignupId: number };
   /** Someone asked for a password reset link; the mail job looks the address up. */

@@ -5,7 +5,7 @@
  * when nobody is signed in with it or the account is gone.
  */
 export const SESSION_WITH_USER = `
-  SELECT s.sess, u.id, u.email, u.display_name AS "displayName", u.units
+  SELECT s.sess::text AS sess, s.expire, u.id, u.email, u.display_name AS "displayName", u.units
     FROM "session" s
     LEFT JOIN users u ON u.id = CASE WHEN json_typeof(s.sess #> '{passport,user}') = 'number'
                                      THEN (s.sess #>> '{passport,user}')::int END

@@ -165,6 +165,7 @@ export function authRouter(deps: AppDeps) {
     requireUser,
     route({ body: profileUpdateSchema }, async ({ body }, req, res) => {
       await updateProfile(currentUser(req).id, body);
+      deps.events.emit('account.changed', { userId: currentUser(req).id });
       res.json(await getMe(currentUser(req).id));
     }),
   );

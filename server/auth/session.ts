@@ -4,6 +4,7 @@ import type { Request } from 'express';
 import type pg from 'pg';
 import type { Config } from '../config';
 import { SESSION_WITH_USER } from './auth.queries';
+import type { CachedSession, SessionCache } from './session-cache';
 
 export const SESSION_COOKIE = 'blockpost.sid';
 
@@ -24,32 +25,55 @@ export function preloadedUser(req: Request, id: number): Express.User | null | u
   return found && found.id === id ? found.user : undefined;
 }
 
+type StoredSession = session.SessionData & { passport?: { user?: unknown }; [USER]?: PreloadedUser };
+
+/** A fresh copy of the session for one request (handlers change `req.session` in place). */
+function sessionFrom(found: CachedSession): StoredSession {
+  const sess = JSON.parse(found.sess) as StoredSession;
+  const id = sess.passport?.user;
+  if (typeof id === 'number') sess[USER] = { id, user: found.user };
+  return sess;
+}
+
 /**
  * Sessions live in PostgreSQL so any app node can serve any request. The store reads the session's
  * user in the same query as the session: every signed-in request needs both, and one round trip
  * instead of two is most of what the session costs. The statement is named, so PostgreSQL keeps its plan.
+ * What it read is kept for a second (`SessionCache`): a person's requests in the same second (a page's
+ * several calls, an intake station measuring) read the row once; a session changed or ended here is
+ * forgotten at once, and on other nodes as soon as the live adapter tells them.
  */
-export function createSessionMiddleware(config: Config, pool: pg.Pool) {
+export function createSessionMiddleware(config: Config, pool: pg.Pool, cache: SessionCache) {
   const PgStore = connectPgSimple(session);
   class PgStoreWithUser extends PgStore {
     override get(sid: string, fn: (err: unknown, sess?: session.SessionData | null) => void) {
+      const cached = cache.get(sid);
+      if (cached) return fn(null, sessionFrom(cached));
+      const readStartedAt = cache.beginRead();
       pool.query({ name: 'session-with-user', text: SESSION_WITH_USER, values: [sid] }).then(({ rows: [row] }) => {
         if (!row) return fn(null, null);
-        const sess = (typeof row.sess === 'string' ? JSON.parse(row.sess) : row.sess) as session.SessionData & {
-          passport?: { user?: unknown };
-          [USER]?: PreloadedUser;
+        const found: CachedSession = {
+          sess: row.sess as string,
+          userId: (row.id as number | null) ?? null,
+          user: row.id == null ? null : { id: row.id, email: row.email, displayName: row.displayName, units: row.units },
+          expiresAt: new Date(row.expire as string).getTime(),
         };
-        const id = sess.passport?.user;
-        if (typeof id === 'number') {
-          const user: Express.User | null =
-            row.id == null ? null : { id: row.id, email: row.email, displayName: row.displayName, units: row.units };
-          sess[USER] = { id, user };
-        }
-        fn(null, sess);
+        cache.keep(sid, found, readStartedAt);
+        fn(null, sessionFrom(found));
       }, fn);
     }
 
-    override createSession(req: Request, sess: session.SessionData & { [USER]?: PreloadedUser }) {
+    override set(sid: string, sess: session.SessionData, fn?: (err?: unknown) => void) {
+      cache.forget([sid]);
+      super.set(sid, sess, fn);
+    }
+
+    override destroy(sid: string, fn?: (err?: unknown) => void) {
+      cache.forget([sid]);
+      super.destroy(sid, fn);
+    }
+
+    override createSession(req: Request, sess: StoredSession) {
       const user = sess[USER];
       if (user) preloaded.set(req, user);
       delete sess[USER];

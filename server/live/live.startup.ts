@@ -50,6 +50,15 @@ export function liveStartup(parts: LivePart[]): FeatureStartup {
     // at once, through the adapter, so nothing more reaches whoever held it.
     deps.events.on('session.ended', async ({ sessionIds }) => {
       for (const sid of sessionIds) io.in(sessionRoom(sid)).disconnectSockets(true);
+      // This node forgot the sessions already (createApp); the others forget them on this message.
+      io.serverSideEmit('session:forget', { sessionIds });
+    });
+    deps.events.on('account.changed', ({ userId }) => {
+      io.serverSideEmit('session:forget', { userId });
+    });
+    io.on('session:forget', ({ sessionIds, userId }) => {
+      if (sessionIds) built.sessionCache.forget(sessionIds);
+      if (userId !== undefined) built.sessionCache.forgetUser(userId);
     });
 
     const stops = parts.flatMap((part) => part.start?.(ctx) ?? []);

@@ -26,10 +26,11 @@ afterAll(async () => {
 const shown = (statements: string[]) => statements.map((s) => s.replace(/\s+/g, ' ').slice(0, 100)).join('\n');
 
 describe('SQL round trips per request', () => {
-  it('a ruler measurement with a clientId takes 3 round trips, with no transaction around them', async () => {
+  it('a ruler measurement with a clientId takes 3 round trips, with no transaction around them; 2 once its session is remembered', async () => {
     const { swap, makers } = await sewingSwap(app, roles, { pledges: [2, 2] });
     const [block] = await myBlocks(makers[0]!.agent, swap.id);
     await roles.coordinator.agent.post(`/api/blocks/${block!.id}/received`).send({}).expect(200);
+    app.sessionCache.clear(); // the first request in a second reads its session
     const { result, statements } = await statementsOf(() =>
       roles.coordinator.agent
         .post(`/api/blocks/${block!.id}/measurements`)
@@ -43,12 +44,22 @@ describe('SQL round trips per request', () => {
       statements.some((s) => /^(?:BEGIN|START TRANSACTION|COMMIT)/i.test(s.trim())),
       shown(statements),
     ).toBe(false);
+
+    // The station's next measurement within the second: its session is not read again.
+    const [, next] = await myBlocks(makers[0]!.agent, swap.id);
+    await roles.coordinator.agent.post(`/api/blocks/${next!.id}/received`).send({}).expect(200);
+    const again = await statementsOf(() =>
+      roles.coordinator.agent.post(`/api/blocks/${next!.id}/measurements`).send({ width: '8 1/2', height: '8 1/2' }),
+    );
+    expect(again.result.status, JSON.stringify(again.result.body)).toBe(201);
+    expect(again.statements.length, shown(again.statements)).toBe(2);
   });
 
   it('sends a measurement’s hot statements named, on connections that plan a named statement once', async () => {
     const { swap, makers } = await sewingSwap(app, roles, { pledges: [2] });
     const [block] = await myBlocks(makers[0]!.agent, swap.id);
     await roles.coordinator.agent.post(`/api/blocks/${block!.id}/received`).send({}).expect(200);
+    app.sessionCache.clear();
     const { result, named } = await statementsOf(() =>
       roles.coordinator.agent.post(`/api/blocks/${block!.id}/measurements`).send({ width: '8 1/2', height: '8 1/2' }),
     );
@@ -66,10 +77,14 @@ describe('SQL round trips per request', () => {
     expect([poolMode, sequelizeRow!.plan_cache_mode]).toEqual(['force_generic_plan', 'force_generic_plan']);
   });
 
-  it('a roster read takes 2 round trips: the session with its user, then the swap with its role and roster', async () => {
+  it('a roster read takes 2 round trips: the session with its user, then the swap with its role and roster; 1 within the second', async () => {
     const { swap } = await sewingSwap(app, roles, { pledges: [2, 2] });
+    app.sessionCache.clear();
     const { result, statements } = await statementsOf(() => roles.coordinator.agent.get(`/api/swaps/${swap.id}/roster`));
     expect(result.status).toBe(200);
     expect(statements.length, shown(statements)).toBe(2);
+    // Read again within the second: one round trip, the session is remembered.
+    const again = await statementsOf(() => roles.coordinator.agent.get(`/api/swaps/${swap.id}/roster`));
+    expect(again.statements.length, shown(again.statements)).toBe(1);
   });
 });

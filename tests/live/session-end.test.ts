@@ -81,6 +81,15 @@ function received(socket: ClientSocket) {
   return bodies;
 }
 
+/** Whether `person`'s session is refused (401) within `ms`, asking again and again. */
+async function refusedWithin(person: Person, ms: number): Promise<boolean> {
+  const start = Date.now();
+  do {
+    if ((await person.api('GET', '/me')).status === 401) return true;
+  } while (Date.now() - start < ms);
+  return false;
+}
+
 describe('sockets of an ended session', () => {
   it('close on both nodes within a second of signing out, and hear nothing more', async () => {
     const member = await signIn(nodeA, g.member);
@@ -99,11 +108,24 @@ describe('sockets of an ended session', () => {
     expect(other.connected).toBe(true); // signing out one device leaves the others
   });
 
+  it('refuses the ended session’s requests at once on the node that ended it, and within a second on the other', async () => {
+    const member = await signIn(nodeA, g.member);
+    const onB = onNode(member, nodeB.url);
+    // Both nodes have just read the session, so both remember it.
+    expect((await member.api('GET', '/me')).status).toBe(200);
+    expect((await onB.api('GET', '/me')).status).toBe(200);
+
+    expect((await member.api('POST', '/auth/logout')).status).toBe(204);
+    expect((await member.api('GET', '/me')).status).toBe(401);
+    expect(await refusedWithin(onB, 1000)).toBe(true);
+  });
+
   it('close for every session of the account after a password reset', async () => {
     const coordinator = g.coordinator;
     const first = await inRoom(nodeA, coordinator);
     const second = await inRoom(nodeB, await signIn(nodeB, coordinator));
     const closing = [closedWithin(first, 1000), closedWithin(second, 1000)];
+    expect((await coordinator.api('GET', '/me')).status).toBe(200); // node A remembers this session
     const { PasswordReset } = await import('../../server/db/models');
     const { newToken } = await import('../../server/auth/tokens');
     const { token, tokenHash } = newToken();
@@ -116,6 +138,8 @@ describe('sockets of an ended session', () => {
     });
     expect(res.status).toBe(200);
     await Promise.all(closing);
+    // Node A stops answering for the session it remembered once the adapter's message arrives.
+    expect(await refusedWithin(coordinator, 1000)).toBe(true);
   });
 
   it('close on other devices after a password change, and stay open on the device that changed it', async () => {
