@@ -48,12 +48,8 @@ function describe({ name, payload }: SwapEvent): { subjectId: number | null; blo
   }
 }
 
-/**
- * Keeps one activity line per event worth one and answers them as the board shows them, newest
- * first, in a single statement: the lines go in with their block's number read on the way, and come
- * back with the names of who acted and whom it was about. On `client`, inside the caller's transaction.
- */
-export async function recordActivityLines(client: pg.ClientBase, events: SwapEvent[]): Promise<ActivityDto[]> {
+/** The activity lines worth keeping for `events`, numbered in order, as RECORD_ACTIVITY's $1; null for none. */
+export function activityLinesJson(events: SwapEvent[]): string | null {
   const lines = events.flatMap((e) => {
     const d = describe(e);
     if (!d) return [];
@@ -69,14 +65,28 @@ export async function recordActivityLines(client: pg.ClientBase, events: SwapEve
       },
     ];
   });
-  if (lines.length === 0) return [];
-  const numbered = lines.map((line, n) => ({ n, ...line }));
+  return lines.length ? JSON.stringify(lines.map((line, n) => ({ n, ...line }))) : null;
+}
+
+/**
+ * Keeps one activity line per event worth one and answers them as the board shows them, newest
+ * first, in a single statement: the lines go in with their block's number read on the way, and come
+ * back with the names of who acted and whom it was about. On `client`, inside the caller's transaction.
+ */
+export async function recordActivityLines(client: pg.ClientBase, events: SwapEvent[]): Promise<ActivityDto[]> {
+  const lines = activityLinesJson(events);
+  if (!lines) return [];
   const { rows } = await client.query<ActivityRow>({
     name: 'record-activity',
     text: RECORD_ACTIVITY,
-    values: [JSON.stringify(numbered), new Date()],
+    values: [lines, new Date()],
   });
-  return rows.map(toDto);
+  return activityDtos(rows);
+}
+
+/** The lines RECORD_ACTIVITY answered, as the board shows them. */
+export function activityDtos(rows: unknown[]): ActivityDto[] {
+  return (rows as ActivityRow[]).map(toDto);
 }
 
 interface ActivityRow {

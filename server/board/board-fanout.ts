@@ -4,11 +4,12 @@ import type { BoardChange, BoardPatch } from '@shared/live-events';
 import type { RosterRowDto } from '@shared/swap-types';
 import { Swap } from '../db/models';
 import { withPgTransaction } from '../db/pg-transaction';
-import { buildRoster, buildRosterPart, type RosterData } from './roster.service';
+import { buildRoster, rosterPartFrom, type RosterData, type RosterPartRow } from './roster.service';
 import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
-import { recordActivityLines, type SwapEvent } from './board-activity';
-import { BOARD_VERSION, bumpVersion } from './board.queries';
+import { activityDtos, activityLinesJson, recordActivityLines, type SwapEvent } from './board-activity';
+import { BOARD_VERSION, bumpVersion, RECORD_ACTIVITY, ROSTER_PART_POSITIONAL } from './board.queries';
+import { oneTripTransaction, type TripStatement } from '../db/one-trip';
 import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
 import { swapColumns } from '../swaps/swaps.queries';
 import { activitiesForMember, rosterForMember } from '../blocks/verdict-visibility';
@@ -96,38 +97,8 @@ export class BoardFanout {
   }
 
   private async publish(swapId: number, batch: SwapEvent[]) {
-    // Five round trips on the fan-out's own connection (BEGIN, the next number with the swap, the
-    // activity lines, the rows, COMMIT), all named statements: a burst of requests holding every
-    // connection of the request pool cannot keep a change waiting, nor the counter's lock held.
     const affected = affectedUsers(batch);
-    const result = await withPgTransaction(this.db, async (client) => {
-      const bumped = await client
-        .query<Record<string, unknown> & { version: string; verdictsVisibleTo: string }>({
-          name: 'board-bump',
-          text: bumpVersion(swapColumns()),
-          values: [swapId],
-        })
-        .catch((error: { code?: string }) => {
-          if (error.code === FOREIGN_KEY_VIOLATION) return { rows: [] };
-          throw error;
-        });
-      const [row] = bumped.rows;
-      if (!row) return null; // the swap was deleted since: nobody's board shows it any more
-      const { version, verdictsVisibleTo, ...values } = row;
-      const swap = Swap.build(values as never, { isNewRecord: false, raw: true });
-      const activities = await recordActivityLines(client, batch);
-      return {
-        swap,
-        version: Number(version),
-        verdictsVisibleTo,
-        activities,
-        // Read while the counter row is locked, so the next number cannot carry an older roster. Only
-        // the touched rows and the totals, unless the swap as a whole changed.
-        roster: affected
-          ? await buildRosterPart(swap, affected, client)
-          : await buildRoster(this.deps, swap, { withAddresses: false, db: client }),
-      };
-    });
+    const result = affected ? await this.rowsChange(swapId, batch, affected) : await this.wholeChange(swapId, batch);
     if (!result) return;
     const change: BoardChange = {
       swapId,
@@ -136,6 +107,66 @@ export class BoardFanout {
       patch: patchFor(result.roster, affected),
     };
     this.send(result.swap.guildId, result.verdictsVisibleTo, change);
+  }
+
+  /**
+   * A change of some members' rows (the hot one: a meeting night's measurements) in one round trip on
+   * the fan-out's own connection: the next number with the swap, the activity lines and the touched
+   * rows with the totals, in one transaction (`oneTripTransaction`). The number's row lock is taken
+   * first and held while the rows are read, so a higher number always carries a later state.
+   */
+  private async rowsChange(swapId: number, batch: SwapEvent[], affected: number[]) {
+    const lines = activityLinesJson(batch);
+    const statements: TripStatement[] = [
+      { name: 'fanout_bump', text: bumpVersion(swapColumns()), values: [swapId] },
+      ...(lines ? [{ name: 'fanout_activity', text: RECORD_ACTIVITY, values: [lines, new Date()] }] : []),
+      { name: 'fanout_rows', text: ROSTER_PART_POSITIONAL, values: [swapId, affected] },
+    ];
+    const answered = await oneTripTransaction(this.db, statements).catch((error: { code?: string }) => {
+      if (error.code === FOREIGN_KEY_VIOLATION) return null; // the swap was deleted since
+      throw error;
+    });
+    const bumped = answered?.[0]?.[0];
+    if (!answered || !bumped) return null;
+    const swap = this.swapFrom(bumped);
+    return {
+      ...swap,
+      activities: lines ? activityDtos(answered[1]!) : [],
+      roster: rosterPartFrom(swap.swap, answered[answered.length - 1]![0] as unknown as RosterPartRow),
+    };
+  }
+
+  /** A change of the swap as a whole: every row, read in the transaction after the number is taken. */
+  private async wholeChange(swapId: number, batch: SwapEvent[]) {
+    return withPgTransaction(this.db, async (client) => {
+      const bumped = await client
+        .query<Record<string, unknown>>({ name: 'board-bump', text: bumpVersion(swapColumns()), values: [swapId] })
+        .catch((error: { code?: string }) => {
+          if (error.code === FOREIGN_KEY_VIOLATION) return { rows: [] };
+          throw error;
+        });
+      const [row] = bumped.rows;
+      if (!row) return null; // the swap was deleted since: nobody's board shows it any more
+      const swap = this.swapFrom(row);
+      return {
+        ...swap,
+        activities: await recordActivityLines(client, batch),
+        roster: await buildRoster(this.deps, swap.swap, { withAddresses: false, db: client }),
+      };
+    });
+  }
+
+  /** The swap, its guild's verdict setting and the new number, from the bump's row. */
+  private swapFrom(row: Record<string, unknown>) {
+    const { version, verdictsVisibleTo, ...values } = row as Record<string, unknown> & {
+      version: string;
+      verdictsVisibleTo: string;
+    };
+    return {
+      swap: Swap.build(values as never, { isNewRecord: false, raw: true }),
+      version: Number(version),
+      verdictsVisibleTo,
+    };
   }
 
   /**

@@ -137,12 +137,23 @@ type TallyTuple = [
  * which sends only the rows it touched.
  */
 export async function buildRosterPart(swap: Swap, userIds: number[], db: pg.ClientBase): Promise<RosterData> {
-  const { rows } = await db.query<{ roster: MemberTuple[]; members: number; tallies: TallyTuple[] }>({
+  const { rows } = await db.query<RosterPartRow>({
     name: 'roster-part',
     text: ROSTER_PART_POSITIONAL,
     values: [swap.id, userIds],
   });
-  const { roster, members, tallies } = rows[0]!;
+  return rosterPartFrom(swap, rows[0]!);
+}
+
+/** ROSTER_PART_POSITIONAL's one row. */
+export interface RosterPartRow {
+  roster: MemberTuple[];
+  members: number;
+  tallies: TallyTuple[];
+}
+
+/** The rows and totals of `buildRosterPart` from the row its statement answered. */
+export function rosterPartFrom(swap: Swap, { roster, members, tallies }: RosterPartRow): RosterData {
   const totals = emptyTally();
   for (const [state, verdict, trimmed, acceptedByDecision, blocks] of tallies) {
     const group = emptyTally();
