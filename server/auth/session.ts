@@ -56,7 +56,7 @@ export function createSessionMiddleware(config: Config, pool: pg.Pool, cache: Se
           sess: row.sess as string,
           userId: (row.id as number | null) ?? null,
           user: row.id == null ? null : { id: row.id, email: row.email, displayName: row.displayName, units: row.units },
-          expiresAt: new Date(row.expire as string).getTime(),
+          expiresAt: new Date(row.expire as Date).getTime(),
         };
         cache.keep(sid, found, readStartedAt);
         fn(null, sessionFrom(found));
