@@ -28,6 +28,7 @@ export interface PaymentRow {
 export interface PaymentListRow extends PaymentRow {
   guild_name: string;
   swap_title: string | null;
+  swap_state: string | null;
   display_name: string;
 }
 
@@ -209,7 +210,7 @@ export async function updatePayment(
   await db.query(`UPDATE payments SET ${sets}, updated_at = now() WHERE id = $1`, [id, ...columns.map((c) => patch[c] ?? null)]);
 }
 
-const LIST_COLUMNS = 'p.*, g.name AS guild_name, s.title AS swap_title, u.display_name';
+const LIST_COLUMNS = 'p.*, g.name AS guild_name, s.title AS swap_title, s.state AS swap_state, u.display_name';
 const LIST_FROM = `
     FROM payments p
     JOIN guilds g ON g.id = p.guild_id

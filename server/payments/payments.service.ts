@@ -299,6 +299,8 @@ function myDto(r: PaymentListRow): MyPaymentDto {
     createdAt: r.created_at.toISOString(),
     paidAt: iso(r.paid_at),
     refundedAt: iso(r.refunded_at),
+    // A cancelled swap's fees are refunded just after the move, so the refund is due before it is asked.
+    refundOnItsWay: r.status === 'paid' && !r.refund_error && (r.refund_requested_at !== null || r.swap_state === 'cancelled'),
   };
 }
 

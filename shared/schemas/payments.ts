@@ -162,6 +162,8 @@ export interface MyPaymentDto {
   createdAt: string;
   paidAt: string | null;
   refundedAt: string | null;
+  /** paid, and a refund is asked for or due (its swap was cancelled) but not through yet */
+  refundOnItsWay: boolean;
 }
 
 /** A row of the treasurer's view. */

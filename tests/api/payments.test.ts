@@ -53,6 +53,7 @@ const myPayments = async (agent: Agent) =>
     amount: number;
     currency: string;
     swapId?: number;
+    refundOnItsWay: boolean;
   }[];
 
 beforeAll(async () => {
@@ -210,6 +211,9 @@ describe('swap fees', () => {
 
     // Cancelling the swap refunds what was paid; the refund's state comes back by webhook.
     await move(roles.coordinator.agent, swap.id, 'cancelled');
+    // Until the webhook says so, the member's list shows the refund on its way (so their page keeps asking).
+    const [fee] = (await myPayments(roles.member.agent)).filter((p) => p.swapId === swap.id);
+    expect(fee!.refundOnItsWay).toBe(fee!.status === 'paid');
     const refunded = await until(
       () => myPayments(roles.member.agent),
       (p) => p.some((x) => x.swapId === swap.id && x.status === 'refunded'),
@@ -221,6 +225,7 @@ describe('swap fees', () => {
         .map((p) => p.status)
         .sort(),
     ).toEqual(['refunded']);
+    expect(refunded.find((p) => p.swapId === swap.id)!.refundOnItsWay).toBe(false);
     await waitForMail(roles.member.email, (m) => m.subject.startsWith('Refund:'));
   });
 

@@ -7,11 +7,14 @@ export const getMyPayments = (session?: string) => api.get<MyPaymentDto[]>('/me/
 export const myPaymentsQueryOptions = (session?: string) =>
   queryOptions({ queryKey: paymentKeys.mine(session), queryFn: () => getMyPayments(session) });
 
-/** The caller's payments; with `pollWhilePending`, asks again every 2 s while any is still waiting on the service. */
+/** Whether the payment still waits on the service: a payment not yet through, or a refund on its way. */
+const waiting = (p: MyPaymentDto) => p.status === 'pending' || p.refundOnItsWay;
+
+/** The caller's payments; with `pollWhilePending`, asks again every 2 s while any still waits on the service. */
 export function useMyPayments(session?: string, pollWhilePending = false, enabled = true) {
   return useQuery({
     ...myPaymentsQueryOptions(session),
     enabled,
-    refetchInterval: (query) => (pollWhilePending && (query.state.data ?? []).some((p) => p.status === 'pending') ? 2000 : false),
+    refetchInterval: (query) => (pollWhilePending && (query.state.data ?? []).some(waiting) ? 2000 : false),
   });
 }

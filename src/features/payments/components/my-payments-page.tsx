@@ -46,6 +46,7 @@ export function MyPaymentsPage() {
                     )}{' '}
                     · {p.paidAt ? `paid ${when(p.paidAt)}` : `started ${when(p.createdAt)}`}
                     {p.refundedAt ? ` · refunded ${when(p.refundedAt)}` : ''}
+                    {p.refundOnItsWay ? ' · refund on its way' : ''}
                   </p>
                 </div>
                 <FeeStandingBadge standing={p.status} />
