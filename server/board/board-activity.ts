@@ -1,10 +1,9 @@
-import type pg from 'pg';
 import { QueryTypes } from 'sequelize';
 import type { ActivityDto } from '@shared/live-events';
 import type { DomainEventMap, DomainEventName } from '../events';
 import type { Activity } from '../db/models';
 import type { AppDeps } from '../deps';
-import { ACTIVITY_PAGE, RECORD_ACTIVITY } from './board.queries';
+import { ACTIVITY_PAGE } from './board.queries';
 
 export type SwapEvent = {
   name: DomainEventName;
@@ -48,7 +47,11 @@ function describe({ name, payload }: SwapEvent): { subjectId: number | null; blo
   }
 }
 
-/** The activity lines worth keeping for `events`, numbered in order, as RECORD_ACTIVITY's $1; null for none. */
+/**
+ * The activity lines worth keeping for `events`, numbered in order, as RECORD_ACTIVITY's $1 (null for
+ * none): the statement puts them in with their block's number read on the way, and answers them with
+ * the names of who acted and whom it was about.
+ */
 export function activityLinesJson(events: SwapEvent[]): string | null {
   const lines = events.flatMap((e) => {
     const d = describe(e);
@@ -66,22 +69,6 @@ export function activityLinesJson(events: SwapEvent[]): string | null {
     ];
   });
   return lines.length ? JSON.stringify(lines.map((line, n) => ({ n, ...line }))) : null;
-}
-
-/**
- * Keeps one activity line per event worth one and answers them as the board shows them, newest
- * first, in a single statement: the lines go in with their block's number read on the way, and come
- * back with the names of who acted and whom it was about. On `client`, inside the caller's transaction.
- */
-export async function recordActivityLines(client: pg.ClientBase, events: SwapEvent[]): Promise<ActivityDto[]> {
-  const lines = activityLinesJson(events);
-  if (!lines) return [];
-  const { rows } = await client.query<ActivityRow>({
-    name: 'record-activity',
-    text: RECORD_ACTIVITY,
-    values: [lines, new Date()],
-  });
-  return activityDtos(rows);
 }
 
 /** The lines RECORD_ACTIVITY answered, as the board shows them. */

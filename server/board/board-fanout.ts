@@ -3,12 +3,11 @@ import { QueryTypes } from 'sequelize';
 import type { BoardChange, BoardPatch } from '@shared/live-events';
 import type { RosterRowDto } from '@shared/swap-types';
 import { Swap } from '../db/models';
-import { withPgTransaction } from '../db/pg-transaction';
-import { buildRoster, rosterPartFrom, type RosterData, type RosterPartRow } from './roster.service';
+import { buildRoster, rosterPartFrom, type MemberTuple, type RosterData, type RosterPartRow } from './roster.service';
 import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
-import { activityDtos, activityLinesJson, recordActivityLines, type SwapEvent } from './board-activity';
-import { BOARD_VERSION, bumpVersion, RECORD_ACTIVITY, ROSTER_PART_POSITIONAL } from './board.queries';
+import { activityDtos, activityLinesJson, type SwapEvent } from './board-activity';
+import { BOARD_VERSION, bumpVersion, RECORD_ACTIVITY, ROSTER_PART_POSITIONAL, ROSTER_POSITIONAL } from './board.queries';
 import { oneTripTransaction, type TripStatement } from '../db/one-trip';
 import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
 import { swapColumns } from '../swaps/swaps.queries';
@@ -98,7 +97,7 @@ export class BoardFanout {
 
   private async publish(swapId: number, batch: SwapEvent[]) {
     const affected = affectedUsers(batch);
-    const result = affected ? await this.rowsChange(swapId, batch, affected) : await this.wholeChange(swapId, batch);
+    const result = await this.readChange(swapId, batch, affected);
     if (!result) return;
     const change: BoardChange = {
       swapId,
@@ -110,62 +109,40 @@ export class BoardFanout {
   }
 
   /**
-   * A change of some members' rows (the hot one: a meeting night's measurements) in one round trip on
-   * the fan-out's own connection: the next number with the swap, the activity lines and the touched
-   * rows with the totals, in one transaction (`oneTripTransaction`). The number's row lock is taken
+   * Numbers and reads a change in one round trip on the fan-out's own connection: the next number
+   * with the swap, the activity lines, and the touched rows with the totals (every row when the swap
+   * as a whole changed), in one transaction (`oneTripTransaction`). The number's row lock is taken
    * first and held while the rows are read, so a higher number always carries a later state.
    */
-  private async rowsChange(swapId: number, batch: SwapEvent[], affected: number[]) {
+  private async readChange(swapId: number, batch: SwapEvent[], affected: number[] | null) {
     const lines = activityLinesJson(batch);
     const statements: TripStatement[] = [
       { name: 'fanout_bump', text: bumpVersion(swapColumns()), values: [swapId] },
       ...(lines ? [{ name: 'fanout_activity', text: RECORD_ACTIVITY, values: [lines, new Date()] }] : []),
-      { name: 'fanout_rows', text: ROSTER_PART_POSITIONAL, values: [swapId, affected] },
+      affected
+        ? { name: 'fanout_rows', text: ROSTER_PART_POSITIONAL, values: [swapId, affected] }
+        : { name: 'fanout_roster', text: ROSTER_POSITIONAL, values: [swapId] },
     ];
     const answered = await oneTripTransaction(this.db, statements).catch((error: { code?: string }) => {
       if (error.code === FOREIGN_KEY_VIOLATION) return null; // the swap was deleted since
       throw error;
     });
     const bumped = answered?.[0]?.[0];
-    if (!answered || !bumped) return null;
-    const swap = this.swapFrom(bumped);
-    return {
-      ...swap,
-      activities: lines ? activityDtos(answered[1]!) : [],
-      roster: rosterPartFrom(swap.swap, answered[answered.length - 1]![0] as unknown as RosterPartRow),
-    };
-  }
-
-  /** A change of the swap as a whole: every row, read in the transaction after the number is taken. */
-  private async wholeChange(swapId: number, batch: SwapEvent[]) {
-    return withPgTransaction(this.db, async (client) => {
-      const bumped = await client
-        .query<Record<string, unknown>>({ name: 'board-bump', text: bumpVersion(swapColumns()), values: [swapId] })
-        .catch((error: { code?: string }) => {
-          if (error.code === FOREIGN_KEY_VIOLATION) return { rows: [] };
-          throw error;
-        });
-      const [row] = bumped.rows;
-      if (!row) return null; // the swap was deleted since: nobody's board shows it any more
-      const swap = this.swapFrom(row);
-      return {
-        ...swap,
-        activities: await recordActivityLines(client, batch),
-        roster: await buildRoster(this.deps, swap.swap, { withAddresses: false, db: client }),
-      };
-    });
-  }
-
-  /** The swap, its guild's verdict setting and the new number, from the bump's row. */
-  private swapFrom(row: Record<string, unknown>) {
-    const { version, verdictsVisibleTo, ...values } = row as Record<string, unknown> & {
+    if (!answered || !bumped) return null; // nobody's board shows a deleted swap any more
+    const { version, verdictsVisibleTo, ...values } = bumped as Record<string, unknown> & {
       version: string;
       verdictsVisibleTo: string;
     };
+    const swap = Swap.build(values as never, { isNewRecord: false, raw: true });
+    const rows = answered[answered.length - 1]![0]!;
     return {
-      swap: Swap.build(values as never, { isNewRecord: false, raw: true }),
+      swap,
       version: Number(version),
       verdictsVisibleTo,
+      activities: lines ? activityDtos(answered[1]!) : [],
+      roster: affected
+        ? rosterPartFrom(swap, rows as unknown as RosterPartRow)
+        : await buildRoster(this.deps, swap, { withAddresses: false, members: (rows as { roster: MemberTuple[] }).roster }),
     };
   }
 

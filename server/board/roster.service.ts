@@ -9,7 +9,7 @@ import type { Swap } from '../db/models';
 import type { AppDeps } from '../deps';
 import { photoRef } from '../blocks/photo-refs';
 import { latestEstimateDto, type LatestEstimateRow } from '../blocks/latest-estimate';
-import { ROSTER_PART_POSITIONAL, ROSTER_POSITIONAL } from './board.queries';
+import { ROSTER_POSITIONAL } from './board.queries';
 import { guildVerdictsVisibleTo, rosterForMember, seesAllVerdicts, type VerdictViewer } from '../blocks/verdict-visibility';
 
 // A rank lookup rather than two searches of the list of states.
@@ -131,20 +131,6 @@ type TallyTuple = [
   blocks: number,
 ];
 
-/**
- * The rows of `userIds` that still have an active sign-up (sorted by name, without addresses) and
- * the swap's totals, as `buildRoster` would give them, in one round trip on `db`: for a board change,
- * which sends only the rows it touched.
- */
-export async function buildRosterPart(swap: Swap, userIds: number[], db: pg.ClientBase): Promise<RosterData> {
-  const { rows } = await db.query<RosterPartRow>({
-    name: 'roster-part',
-    text: ROSTER_PART_POSITIONAL,
-    values: [swap.id, userIds],
-  });
-  return rosterPartFrom(swap, rows[0]!);
-}
-
 /** ROSTER_PART_POSITIONAL's one row. */
 export interface RosterPartRow {
   roster: MemberTuple[];
@@ -152,7 +138,11 @@ export interface RosterPartRow {
   tallies: TallyTuple[];
 }
 
-/** The rows and totals of `buildRosterPart` from the row its statement answered. */
+/**
+ * The rows of the members ROSTER_PART_POSITIONAL was asked for that still have an active sign-up
+ * (sorted by name, without addresses) and the swap's totals, as `buildRoster` would give them, from
+ * the row the statement answered: for a board change, which sends only the rows it touched.
+ */
 export function rosterPartFrom(swap: Swap, { roster, members, tallies }: RosterPartRow): RosterData {
   const totals = emptyTally();
   for (const [state, verdict, trimmed, acceptedByDecision, blocks] of tallies) {

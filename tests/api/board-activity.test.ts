@@ -9,7 +9,9 @@ import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles } from '../helpers/factories';
 import { Block } from '../../server/db/models';
 import { DEMO_SIGN_INS, seedDemoIfEmpty } from '../../server/seed/demo';
-import { recordActivityLines } from '../../server/board/board-activity';
+import { activityDtos, activityLinesJson } from '../../server/board/board-activity';
+import { RECORD_ACTIVITY } from '../../server/board/board.queries';
+import { oneTripTransaction } from '../../server/db/one-trip';
 import { receiveAndMeasure, sewingSwap, move, myBlocks } from './swaps-support';
 
 let app: TestApp;
@@ -103,8 +105,7 @@ describe('recent activity from the stored history', () => {
     expect(all[0]).toMatchObject({ blockId: block!.id, detail: { verdict: measured.verdict, source: 'ruler', sequence: 1 } });
 
     // The live board keeps a line for the measurement, written with it: that line alone tells it.
-    const client = await app.deps.pool.connect();
-    const line = await recordActivityLines(client, [
+    const lines = activityLinesJson([
       {
         name: 'block.measured',
         payload: {
@@ -118,7 +119,12 @@ describe('recent activity from the stored history', () => {
           source: 'ruler',
         },
       },
-    ]).finally(() => client.release());
+    ]);
+    // As the board fan-out writes it (server/board/board-fanout.ts).
+    const [written] = await oneTripTransaction(app.deps.pool, [
+      { name: 'test_activity', text: RECORD_ACTIVITY, values: [lines, new Date()] },
+    ]);
+    const line = activityDtos(written!);
     const now = await activity(roles.member.agent, swap.id, 'limit=100');
     expect(now.map((a) => a.id)).toEqual([line[0]!.id]);
     expect(now[0]).toMatchObject({ kind: 'block.measured', actor: { userId: roles.coordinator.id } });

@@ -1,5 +1,5 @@
 /**
- * A board change reads only the rows it touched and the swap's totals (buildRosterPart); what it
+ * A board change reads only the rows it touched and the swap's totals (ROSTER_PART_POSITIONAL, rosterPartFrom); what it
  * reads must be what the whole roster says about those members, for swaps in every state of the
  * demo guild, with a withdrawn sign-up and a member who never signed up among the ones asked for.
  */
@@ -7,7 +7,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 import { Swap } from '../../server/db/models';
 import { seedDemoIfEmpty } from '../../server/seed/demo';
-import { buildRoster, buildRosterPart } from '../../server/board/roster.service';
+import { buildRoster, rosterPartFrom, type RosterPartRow } from '../../server/board/roster.service';
+import { ROSTER_PART_POSITIONAL } from '../../server/board/board.queries';
 
 let app: TestApp;
 
@@ -36,24 +37,20 @@ describe('the rows and totals a board change reads', () => {
       const whole = await buildRoster(app.deps, swap, { withAddresses: false });
       // Every other member of the roster, the withdrawn one, and every account (most never signed up).
       const asked = [...whole.rows.filter((_, i) => i % 2 === 0).map((r) => r.userId), withdrawn[0]!.user_id];
-      const client = await app.deps.pool.connect();
-      try {
-        const part = await buildRosterPart(swap, asked, client);
-        expect(part.totals).toEqual(whole.totals);
-        expect(part.swap).toEqual(whole.swap);
-        expect(part.rows).toEqual(whole.rows.filter((r) => asked.includes(r.userId)));
-        const everyone = await buildRosterPart(
-          swap,
-          users.map((u) => u.id),
-          client,
-        );
-        expect(everyone.rows).toEqual(whole.rows);
-        expect(everyone.totals).toEqual(whole.totals);
-        compared += whole.rows.length;
-        measured += whole.totals.measured;
-      } finally {
-        client.release();
-      }
+      // The rows and totals a board change reads for these members (server/board/board-fanout.ts).
+      const partFor = async (userIds: number[]) => {
+        const { rows } = await app.deps.pool.query({ text: ROSTER_PART_POSITIONAL, values: [swap.id, userIds] });
+        return rosterPartFrom(swap, rows[0] as RosterPartRow);
+      };
+      const part = await partFor(asked);
+      expect(part.totals).toEqual(whole.totals);
+      expect(part.swap).toEqual(whole.swap);
+      expect(part.rows).toEqual(whole.rows.filter((r) => asked.includes(r.userId)));
+      const everyone = await partFor(users.map((u) => u.id));
+      expect(everyone.rows).toEqual(whole.rows);
+      expect(everyone.totals).toEqual(whole.totals);
+      compared += whole.rows.length;
+      measured += whole.totals.measured;
     }
     expect(compared).toBeGreaterThan(5);
     expect(measured, 'some demo blocks are measured, so verdicts are counted').toBeGreaterThan(0);
