@@ -2,7 +2,6 @@
  * The roster: every member's progress and each of their blocks (with photos and the latest photo
  * estimate), read in a single query whatever the size of the swap.
  */
-import type pg from 'pg';
 import { blockStateRank, type BlockState } from '@shared/vocabulary';
 import type { RosterBlockDto, RosterCounts, RosterDto, RosterRowDto } from '@shared/swap-types';
 import type { Swap } from '../db/models';
@@ -104,14 +103,14 @@ export interface RosterData extends RosterDto {
 export async function buildRoster(
   deps: Pick<AppDeps, 'pool'>,
   swap: Swap,
-  opts: { withAddresses: boolean; db?: pg.Pool | pg.ClientBase; members?: MemberTuple[] },
+  opts: { withAddresses: boolean; members?: MemberTuple[] },
 ): Promise<RosterData> {
-  // Members read with the swap (the GET route) are used as they are. Otherwise a named statement on
-  // `db` (the plain pool, or the board fan-out's transaction): PostgreSQL keeps its plan.
+  // Members already read (with the swap by the GET route, with the change by the board fan-out) are
+  // used as they are. Otherwise a named statement on the plain pool: PostgreSQL keeps its plan.
   const members =
     opts.members ??
     (
-      await (opts.db ?? deps.pool).query<{ roster: MemberTuple[] }>({
+      await deps.pool.query<{ roster: MemberTuple[] }>({
         name: 'roster',
         text: ROSTER_POSITIONAL,
         values: [swap.id],
@@ -221,7 +220,7 @@ function rosterRows(members: MemberTuple[], withAddresses: boolean, totals: Tall
 export async function getRoster(
   deps: Pick<AppDeps, 'pool'>,
   swap: Swap,
-  opts: { withAddresses: boolean; db?: pg.Pool | pg.ClientBase; viewer?: VerdictViewer; members?: MemberTuple[] },
+  opts: { withAddresses: boolean; viewer?: VerdictViewer; members?: MemberTuple[] },
 ): Promise<RosterDto> {
   const data = await buildRoster(deps, swap, opts);
   const roster = { ...data, rows: data.rows.map(({ email: _email, ...row }): RosterRowDto => row) };
