@@ -39,8 +39,14 @@ export function useRosterLive(swapId: number, handlers: RosterLiveHandlers = {})
   useEffect(() => {
     const socket = getSocket();
     following.set(swapId, (following.get(swapId) ?? 0) + 1);
-    const refetch = () =>
-      Promise.all([queryClient.invalidateQueries({ queryKey: rosterKeys.detail(swapId) }), latest.current.onResync?.()]);
+    const refetch = async () => {
+      const queryKey = rosterKeys.detail(swapId);
+      // A first load still under way may have read before the change (or the join): a refetch
+      // alone would wait for it, since a query without data shares its running fetch. Cancel it
+      // so the rows kept are read after this point.
+      await queryClient.cancelQueries({ queryKey });
+      await Promise.all([queryClient.invalidateQueries({ queryKey }), latest.current.onResync?.()]);
+    };
     const join = () => {
       emitWithAck<BoardJoined>('board:join', { swapId })
         .then((joined) => {

@@ -1,0 +1,86 @@
+// @vitest-environment happy-dom
+/**
+ * Joining a swap's live board while its roster's first load is still under way: that load may have
+ * read before a change made just ahead of the join, and no live message will bring the change (the
+ * page was not in the room yet). The roster kept must be one read after the join.
+ */
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { cleanup, render, waitFor } from '@testing-library/react';
+import { QueryClient, QueryClientProvider, useQuery } from '@tanstack/react-query';
+import type { ReactNode } from 'react';
+
+const live = vi.hoisted(() => {
+  const handlers = new Map<string, (...args: unknown[]) => void>();
+  let answerJoin: (joined: unknown) => void = () => {};
+  return {
+    handlers,
+    answer: (joined: unknown) => answerJoin(joined),
+    socket: {
+      connected: true,
+      on: (event: string, fn: (...args: unknown[]) => void) => handlers.set(event, fn),
+      off: (event: string) => handlers.delete(event),
+      emit: () => {},
+    },
+    emitWithAck: () =>
+      new Promise((resolve) => {
+        answerJoin = resolve;
+      }),
+  };
+});
+vi.mock('../../src/lib/socket', () => ({ getSocket: () => live.socket, emitWithAck: live.emitWithAck }));
+const { useRosterLive } = await import('../../src/entities/roster/api/use-roster-live');
+const { rosterKeys } = await import('../../src/entities/roster/api/roster-keys');
+
+afterEach(cleanup);
+
+/** A roster endpoint whose answers are released one at a time, each saying which read it was. */
+function slowRoster() {
+  const pending: Array<() => void> = [];
+  let reads = 0;
+  const fetchRoster = () => {
+    const read = ++reads;
+    return new Promise<{ read: number }>((resolve) => pending.push(() => resolve({ read })));
+  };
+  return { fetchRoster, pending, reads: () => reads };
+}
+
+function RosterView({ fetchRoster }: { fetchRoster: () => Promise<{ read: number }> }) {
+  const roster = useQuery({ queryKey: rosterKeys.detail(7), queryFn: fetchRoster, staleTime: 60_000 });
+  useRosterLive(7);
+  return <p>{roster.data ? `read ${roster.data.read}` : 'loading'}</p>;
+}
+
+describe('the first join of a swap’s live board', () => {
+  it('keeps a roster read after the join, even when the first load was still under way', async () => {
+    const api = slowRoster();
+    const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
+    const wrapper = ({ children }: { children: ReactNode }) => (
+      <QueryClientProvider client={client}>{children}</QueryClientProvider>
+    );
+    const { container } = render(<RosterView fetchRoster={api.fetchRoster} />, { wrapper });
+    await waitFor(() => expect(api.reads()).toBe(1));
+
+    live.answer({ swapId: 7, version: 12, viewers: 1 }); // the join answers before the first load does
+    await waitFor(() => expect(api.reads()).toBe(2));
+    for (const release of api.pending) release();
+    await waitFor(() => expect(container.textContent).toBe('read 2'));
+    expect(live.handlers.has('board:changed')).toBe(true);
+  });
+
+  it('reads once more when the join answers after the first load', async () => {
+    const api = slowRoster();
+    const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
+    const wrapper = ({ children }: { children: ReactNode }) => (
+      <QueryClientProvider client={client}>{children}</QueryClientProvider>
+    );
+    const { container } = render(<RosterView fetchRoster={api.fetchRoster} />, { wrapper });
+    await waitFor(() => expect(api.reads()).toBe(1));
+    api.pending[0]!();
+    await waitFor(() => expect(container.textContent).toBe('read 1'));
+
+    live.answer({ swapId: 7, version: 3, viewers: 1 });
+    await waitFor(() => expect(api.reads()).toBe(2));
+    api.pending[1]!();
+    await waitFor(() => expect(container.textContent).toBe('read 2'));
+  });
+});
