@@ -185,6 +185,14 @@ describe('Intake on a phone', () => {
     expect(await width.getAttribute('inputmode')).toBe('text'); // fractions need a space and a slash
     expect(await page.getByLabel('Height').getAttribute('enterkeyhint')).toBe('done');
     await width.fill('9 1/2');
+    // The height has the cursor as the Next key is handled, not a moment later: a fast typist's (or a
+    // keyboard wedge's) next keys would land in the width.
+    const movedAtOnce = await width.evaluate((el) => {
+      el.dispatchEvent(new KeyboardEvent('keydown', { key: 'Enter', bubbles: true, cancelable: true }));
+      return (document.activeElement as HTMLInputElement | null)?.labels?.[0]?.textContent;
+    });
+    expect(movedAtOnce).toBe('Height');
+    await width.focus();
     await width.press('Enter');
     await expect.poll(() => page.getByLabel('Height').evaluate((el) => el === document.activeElement)).toBe(true);
     expect(await page.getByText('Type the height').count()).toBe(0); // Next did not try to record half a measurement

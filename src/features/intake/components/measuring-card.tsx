@@ -1,3 +1,4 @@
+import { useRef } from 'react';
 import { useForm, type Resolver } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { formatLength } from '@shared/quilt';
@@ -37,6 +38,8 @@ export function MeasuringCard({ block, target, tolerance, units, onMeasured, onC
     defaultValues: { width: '', height: '', diagonal1: '', diagonal2: '' },
   });
   const { errors } = form.formState;
+  const heightField = form.register('height');
+  const heightInput = useRef<HTMLInputElement | null>(null);
   // Fractions need a space and a slash, which the number pad lacks; millimetres need only digits and a point.
   const inputMode = units === 'mm' ? 'decimal' : 'text';
   const size = `${formatLength(target.width, { unit: units })} × ${formatLength(target.height, { unit: units })}`;
@@ -75,7 +78,9 @@ export function MeasuringCard({ block, target, tolerance, units, onMeasured, onC
               // The phone keyboard's Next key: on to the height rather than recording half a measurement.
               if (e.key === 'Enter' && !e.nativeEvent.isComposing) {
                 e.preventDefault();
-                form.setFocus('height');
+                // At once, not as the form library's setFocus does (on a timer): a fast typist or a
+                // keyboard wedge sends the height's first keys within milliseconds of Next.
+                heightInput.current?.focus();
               }
             }}
             {...form.register('width')}
@@ -89,7 +94,11 @@ export function MeasuringCard({ block, target, tolerance, units, onMeasured, onC
             unit={units}
             className="text-2xl"
             error={errors.height?.message}
-            {...form.register('height')}
+            {...heightField}
+            ref={(el) => {
+              heightField.ref(el);
+              heightInput.current = el;
+            }}
           />
         </div>
         <fieldset className="mt-3">
