@@ -64,3 +64,36 @@ it('answers, chats live, shows markup as text, and lets the admin remove a messa
   await member.getByText('This message was removed by a moderator.').waitFor();
   await admin.getByText('This message was removed by a moderator.').waitFor();
 });
+
+it('shows the messages sent while the reader was on another page, without a reload', async () => {
+  const g = await liveGuild(server.url);
+  const year = new Date().getUTCFullYear() + 1;
+  const sewDay = (
+    await g.coordinator.api<SewDayDetailDto>('POST', `/guilds/${g.guildId}/sew-days`, {
+      title: 'Autumn appliqué afternoon',
+      startsAt: `${year}-10-02T13:00`,
+      endsAt: `${year}-10-02T17:00`,
+      place: 'Church hall',
+    })
+  ).body;
+  const roomId = sewDay.chatRoomId!;
+  expect((await g.admin.api('POST', `/chat/rooms/${roomId}/messages`, { body: 'Tables are up.' })).status).toBe(201);
+
+  const member = await signedInPage(memberBrowser, g.member);
+  await member.goto(`${server.url}/guilds/${g.guildId}/sew-days/${sewDay.id}`);
+  await member.getByText('Tables are up.').waitFor();
+  await member.evaluate(() => ((window as unknown as { stayedOpen: boolean }).stayedOpen = true));
+
+  // Off to the swaps page (in the app, no reload) while the room goes on.
+  await member.getByRole('link', { name: 'Swaps', exact: true }).first().click();
+  await member.waitForURL((u) => !u.pathname.includes('/sew-days/'));
+  expect((await g.admin.api('POST', `/chat/rooms/${roomId}/messages`, { body: 'Irons are on: mind the cords.' })).status).toBe(
+    201,
+  );
+
+  await member.goBack();
+  await member.getByText('Tables are up.').waitFor();
+  await member.getByText('Irons are on: mind the cords.').waitFor({ timeout: 5000 });
+  expect(await member.evaluate(() => (window as unknown as { stayedOpen?: boolean }).stayedOpen)).toBe(true);
+  await member.close();
+});

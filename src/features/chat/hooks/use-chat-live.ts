@@ -1,6 +1,7 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ChatJoined, Viewer } from '@shared/live-events';
+import type { ChatMessageDto } from '@shared/schemas/chat';
 import { emitWithAck, getSocket } from '@/lib/socket';
 import { ApiError } from '@/lib/api-client';
 import { chatKeys } from '../api/chat-keys';
@@ -28,21 +29,35 @@ export function useChatLive(roomId: number, viewerId: number | undefined) {
 
   useEffect(() => {
     const socket = getSocket();
-    let joinedOnce = false;
+    let arrivedDuringRead: ChatMessageDto[] | null = null;
     const join = () => {
       emitWithAck<ChatJoined>('chat:join', { roomId })
-        .then((joined) => {
+        .then(async (joined) => {
           setJoinError('');
           queryClient.setQueryData(chatKeys.presence(roomId), joined.viewers);
-          // After a reconnect, messages sent meanwhile are fetched again.
-          if (joinedOnce) void queryClient.invalidateQueries({ queryKey: chatKeys.messages(roomId) });
-          joinedOnce = true;
+          // Live messages only come once the room is joined: whatever history is cached (from an
+          // earlier visit, before a reconnect, or a first load still under way) was read before,
+          // and may lack messages sent meanwhile. Read it again now; a load under way is cancelled,
+          // since a query without data would otherwise share that earlier read.
+          // Messages that arrive while it is read are put in again afterwards: the read's answer
+          // replaces the cache, and may have been taken before they were sent.
+          const queryKey = chatKeys.messages(roomId);
+          const arrived: ChatMessageDto[] = [];
+          arrivedDuringRead = arrived;
+          try {
+            await queryClient.cancelQueries({ queryKey });
+            await queryClient.invalidateQueries({ queryKey });
+          } finally {
+            if (arrivedDuringRead === arrived) arrivedDuringRead = null;
+            for (const message of arrived) upsertMessage(queryClient, message);
+          }
         })
         .catch((e: unknown) => setJoinError(e instanceof ApiError ? e.message : 'The live connection could not open this room.'));
     };
     const onMessage = (message: Parameters<typeof upsertMessage>[1]) => {
       if (message.roomId !== roomId) return;
       upsertMessage(queryClient, message);
+      arrivedDuringRead?.push(message);
       setTyping((t) => {
         if (!t[message.author.id]) return t;
         const { [message.author.id]: _gone, ...rest } = t;
