@@ -8,6 +8,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, render, waitFor } from '@testing-library/react';
 import { QueryClient, QueryClientProvider, useQuery } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
+import type { RosterDto } from '../../shared/swap-types';
 
 const live = vi.hoisted(() => {
   const handlers = new Map<string, (...args: unknown[]) => void>();
@@ -82,5 +83,39 @@ describe('the first join of a swap’s live board', () => {
     await waitFor(() => expect(api.reads()).toBe(2));
     api.pending[1]!();
     await waitFor(() => expect(container.textContent).toBe('read 2'));
+  });
+});
+
+describe('a change that arrives while the roster is read again', () => {
+  it('is put in after the read, which may have been taken before it was made', async () => {
+    const swap = {
+      id: 7,
+      state: 'collecting',
+      unfinished: { width: 9.5, height: 9.5 },
+      title: 'Lantern Nine-Patch',
+      mode: 'return',
+    };
+    const totals = (measured: number) => ({ measured }) as unknown as RosterDto['totals'];
+    const roster = (measured: number) => ({ swap, totals: totals(measured), rows: [] }) as unknown as RosterDto;
+    const pending: Array<(r: RosterDto) => void> = [];
+    const fetchRoster = () => new Promise<RosterDto>((resolve) => pending.push(resolve));
+    function Totals() {
+      const q = useQuery({ queryKey: rosterKeys.detail(7), queryFn: fetchRoster, staleTime: 60_000 });
+      useRosterLive(7);
+      return <p>{q.data ? `measured ${q.data.totals.measured}` : 'loading'}</p>;
+    }
+    const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
+    const wrapper = ({ children }: { children: ReactNode }) => (
+      <QueryClientProvider client={client}>{children}</QueryClientProvider>
+    );
+    const { container } = render(<Totals />, { wrapper });
+    await waitFor(() => expect(pending).toHaveLength(1));
+    live.answer({ swapId: 7, version: 20, viewers: 1 });
+    await waitFor(() => expect(pending).toHaveLength(2)); // read again after the join
+    const patch = { swap, totals: totals(1), rows: [], removedUserIds: [], complete: false };
+    live.handlers.get('board:changed')!({ swapId: 7, version: 21, activities: [], patch });
+    pending[1]!(roster(0)); // read just before change 21 was made
+    await waitFor(() => expect(container.textContent).toBe('measured 1'));
+    expect(pending).toHaveLength(2); // the change in line needed no third read
   });
 });

@@ -1,6 +1,6 @@
 import { useEffect, useRef, useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
-import type { BoardChange, BoardJoined } from '@shared/live-events';
+import type { BoardChange, BoardJoined, BoardPatch } from '@shared/live-events';
 import type { RosterDto } from '@shared/swap-types';
 import { ApiError } from '@/lib/api-client';
 import { emitWithAck, getSocket } from '@/lib/socket';
@@ -39,13 +39,26 @@ export function useRosterLive(swapId: number, handlers: RosterLiveHandlers = {})
   useEffect(() => {
     const socket = getSocket();
     following.set(swapId, (following.get(swapId) ?? 0) + 1);
+    // While the roster is read again, the changes that come in line are kept here and put in after
+    // the read: its answer replaces the cache, and may have been read before they were made.
+    let patchedDuringRead: BoardPatch[] | null = null;
     const refetch = async () => {
       const queryKey = rosterKeys.detail(swapId);
-      // A first load still under way may have read before the change (or the join): a refetch
-      // alone would wait for it, since a query without data shares its running fetch. Cancel it
-      // so the rows kept are read after this point.
-      await queryClient.cancelQueries({ queryKey });
-      await Promise.all([queryClient.invalidateQueries({ queryKey }), latest.current.onResync?.()]);
+      const patches: BoardPatch[] = [];
+      patchedDuringRead = patches;
+      try {
+        // A first load still under way may have read before the change (or the join): a refetch
+        // alone would wait for it, since a query without data shares its running fetch. Cancel it
+        // so the rows kept are read after this point.
+        await queryClient.cancelQueries({ queryKey });
+        await Promise.all([queryClient.invalidateQueries({ queryKey }), latest.current.onResync?.()]);
+      } finally {
+        if (patchedDuringRead === patches) patchedDuringRead = null;
+        for (const patch of patches) {
+          const read = queryClient.getQueryData<RosterDto>(queryKey);
+          if (read) queryClient.setQueryData<RosterDto>(queryKey, applyBoardPatch(read, patch));
+        }
+      }
     };
     const join = () => {
       emitWithAck<BoardJoined>('board:join', { swapId })
@@ -62,16 +75,19 @@ export function useRosterLive(swapId: number, handlers: RosterLiveHandlers = {})
     };
     const onChange = (change: BoardChange) => {
       if (change.swapId !== swapId) return;
-      const cached = queryClient.getQueryData<RosterDto>(rosterKeys.detail(swapId));
-      const step = boardChangeStep(version.current, change, cached !== undefined);
+      const queryKey = rosterKeys.detail(swapId);
+      const cached = queryClient.getQueryData<RosterDto>(queryKey);
+      const inLine = version.current !== null && change.version === version.current + 1 && change.patch !== null;
+      const step = patchedDuringRead && inLine ? 'patch' : boardChangeStep(version.current, change, cached !== undefined);
       if (step === 'ignore') return;
       version.current = change.version;
       void markStaleAfterChange(queryClient, swapId, step === 'patch' ? change.patch : null);
-      if (step === 'refetch' || !cached || !change.patch) {
+      if (step === 'refetch' || !change.patch) {
         void refetch();
         return;
       }
-      queryClient.setQueryData<RosterDto>(rosterKeys.detail(swapId), applyBoardPatch(cached, change.patch));
+      patchedDuringRead?.push(change.patch);
+      if (cached) queryClient.setQueryData<RosterDto>(queryKey, applyBoardPatch(cached, change.patch));
       latest.current.onPatched?.(change);
     };
     socket.on('connect', join);
