@@ -9,6 +9,7 @@ import { cleanup, render, waitFor } from '@testing-library/react';
 import { QueryClient, QueryClientProvider, useQuery } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import type { RosterDto } from '../../shared/swap-types';
+import type { ActivityDto } from '../../shared/live-events';
 
 const live = vi.hoisted(() => {
   const handlers = new Map<string, (...args: unknown[]) => void>();
@@ -31,6 +32,8 @@ const live = vi.hoisted(() => {
 vi.mock('../../src/lib/socket', () => ({ getSocket: () => live.socket, emitWithAck: live.emitWithAck }));
 const { useRosterLive } = await import('../../src/entities/roster/api/use-roster-live');
 const { rosterKeys } = await import('../../src/entities/roster/api/roster-keys');
+const { useBoardLive } = await import('../../src/features/live-board/hooks/use-board-live');
+const { liveBoardKeys } = await import('../../src/features/live-board/api/live-board-keys');
 
 afterEach(cleanup);
 
@@ -117,5 +120,57 @@ describe('a change that arrives while the roster is read again', () => {
     pending[1]!(roster(0)); // read just before change 21 was made
     await waitFor(() => expect(container.textContent).toBe('measured 1'));
     expect(pending).toHaveLength(2); // the change in line needed no third read
+  });
+});
+
+describe('the live board’s activity list', () => {
+  it('is read after the join, and keeps a line that arrives while it is read', async () => {
+    const swap = {
+      id: 7,
+      state: 'collecting',
+      unfinished: { width: 9.5, height: 9.5 },
+      title: 'Lantern Nine-Patch',
+      mode: 'return',
+    };
+    const totals = { measured: 1 } as unknown as RosterDto['totals'];
+    const line = (id: number): ActivityDto => ({
+      id,
+      swapId: 7,
+      kind: 'block.measured',
+      actor: null,
+      subject: null,
+      blockId: id,
+      detail: {},
+      at: '2026-11-14T19:00:00.000Z',
+    });
+    const activityReads: Array<(lines: ActivityDto[]) => void> = [];
+    const rosterReads: Array<(r: RosterDto) => void> = [];
+    function Board() {
+      useQuery({
+        queryKey: rosterKeys.detail(7),
+        queryFn: () => new Promise<RosterDto>((resolve) => rosterReads.push(resolve)),
+        staleTime: 60_000,
+      });
+      const activity = useQuery({
+        queryKey: liveBoardKeys.activity(7),
+        queryFn: () => new Promise<ActivityDto[]>((resolve) => activityReads.push(resolve)),
+        staleTime: 60_000,
+      });
+      useBoardLive(7);
+      return <p>{activity.data ? activity.data.map((a) => a.id).join(',') || 'none' : 'loading'}</p>;
+    }
+    const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
+    const wrapper = ({ children }: { children: ReactNode }) => (
+      <QueryClientProvider client={client}>{children}</QueryClientProvider>
+    );
+    const { container } = render(<Board />, { wrapper });
+    await waitFor(() => expect(activityReads).toHaveLength(1));
+    live.answer({ swapId: 7, version: 40, viewers: [] });
+    await waitFor(() => expect(activityReads).toHaveLength(2)); // the first load, cancelled, is read again
+    const patch = { swap, totals, rows: [], removedUserIds: [], complete: false };
+    live.handlers.get('board:changed')!({ swapId: 7, version: 41, activities: [line(12)], patch });
+    activityReads[1]!([line(11)]); // read just before line 12 was written
+    for (const resolve of rosterReads) resolve({ swap, totals, rows: [] } as unknown as RosterDto);
+    await waitFor(() => expect(container.textContent).toBe('12,11'));
   });
 });

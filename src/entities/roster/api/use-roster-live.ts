@@ -40,12 +40,13 @@ export function useRosterLive(swapId: number, handlers: RosterLiveHandlers = {})
     const socket = getSocket();
     following.set(swapId, (following.get(swapId) ?? 0) + 1);
     // While the roster is read again, the changes that come in line are kept here and put in after
-    // the read: its answer replaces the cache, and may have been read before they were made.
-    let patchedDuringRead: BoardPatch[] | null = null;
+    // the read (roster and `onPatched` alike): its answer replaces the cache, and may have been read
+    // before they were made.
+    let changesDuringRead: Array<BoardChange & { patch: BoardPatch }> | null = null;
     const refetch = async () => {
       const queryKey = rosterKeys.detail(swapId);
-      const patches: BoardPatch[] = [];
-      patchedDuringRead = patches;
+      const changes: Array<BoardChange & { patch: BoardPatch }> = [];
+      changesDuringRead = changes;
       try {
         // A first load still under way may have read before the change (or the join): a refetch
         // alone would wait for it, since a query without data shares its running fetch. Cancel it
@@ -53,10 +54,11 @@ export function useRosterLive(swapId: number, handlers: RosterLiveHandlers = {})
         await queryClient.cancelQueries({ queryKey });
         await Promise.all([queryClient.invalidateQueries({ queryKey }), latest.current.onResync?.()]);
       } finally {
-        if (patchedDuringRead === patches) patchedDuringRead = null;
-        for (const patch of patches) {
+        if (changesDuringRead === changes) changesDuringRead = null;
+        for (const change of changes) {
           const read = queryClient.getQueryData<RosterDto>(queryKey);
-          if (read) queryClient.setQueryData<RosterDto>(queryKey, applyBoardPatch(read, patch));
+          if (read) queryClient.setQueryData<RosterDto>(queryKey, applyBoardPatch(read, change.patch));
+          latest.current.onPatched?.(change);
         }
       }
     };
@@ -78,7 +80,7 @@ export function useRosterLive(swapId: number, handlers: RosterLiveHandlers = {})
       const queryKey = rosterKeys.detail(swapId);
       const cached = queryClient.getQueryData<RosterDto>(queryKey);
       const inLine = version.current !== null && change.version === version.current + 1 && change.patch !== null;
-      const step = patchedDuringRead && inLine ? 'patch' : boardChangeStep(version.current, change, cached !== undefined);
+      const step = changesDuringRead && inLine ? 'patch' : boardChangeStep(version.current, change, cached !== undefined);
       if (step === 'ignore') return;
       version.current = change.version;
       void markStaleAfterChange(queryClient, swapId, step === 'patch' ? change.patch : null);
@@ -86,7 +88,7 @@ export function useRosterLive(swapId: number, handlers: RosterLiveHandlers = {})
         void refetch();
         return;
       }
-      patchedDuringRead?.push(change.patch);
+      changesDuringRead?.push({ ...change, patch: change.patch });
       if (cached) queryClient.setQueryData<RosterDto>(queryKey, applyBoardPatch(cached, change.patch));
       latest.current.onPatched?.(change);
     };

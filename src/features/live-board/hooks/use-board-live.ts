@@ -27,7 +27,11 @@ export function useBoardLive(swapId: number) {
       queryClient.setQueryData<ActivityDto[]>(liveBoardKeys.activity(swapId), (list) =>
         list ? prependActivities(list, change.activities, ACTIVITY_SHOWN) : list,
       ),
-    onResync: () => queryClient.invalidateQueries({ queryKey: liveBoardKeys.activity(swapId) }),
+    // As the roster: a first load under way is cancelled, so the list kept is read after this point.
+    onResync: async () => {
+      await queryClient.cancelQueries({ queryKey: liveBoardKeys.activity(swapId) });
+      await queryClient.invalidateQueries({ queryKey: liveBoardKeys.activity(swapId) });
+    },
   });
 
   useEffect(() => {
