@@ -155,9 +155,18 @@ it('places, moves, turns, shows values, spreads the colours, saves, and keeps it
 
   // Setting: sashing makes the top larger and the cut list grows.
   const sashing = page.getByLabel('Sashing width (finished)');
-  await sashing.selectText();
-  await sashing.pressSequentially('2', { delay: 50 });
-  await expect.poll(() => sashing.inputValue()).toBe('2');
+  // The drag library keeps clearing the page's text selection for 50 ms after a drop (longer on a busy
+  // machine), which can swallow keys typed at once; a person is never that quick, so type again if so.
+  await expect
+    .poll(
+      async () => {
+        await sashing.selectText();
+        await sashing.pressSequentially('2', { delay: 50 });
+        return sashing.inputValue();
+      },
+      { timeout: 5000 },
+    )
+    .toBe('2');
   await expect
     .poll(
       () =>
