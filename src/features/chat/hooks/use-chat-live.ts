@@ -35,12 +35,10 @@ export function useChatLive(roomId: number, viewerId: number | undefined) {
         .then(async (joined) => {
           setJoinError('');
           queryClient.setQueryData(chatKeys.presence(roomId), joined.viewers);
-          // Live messages only come once the room is joined: whatever history is cached (from an
-          // earlier visit, before a reconnect, or a first load still under way) was read before,
-          // and may lack messages sent meanwhile. Read it again now; a load under way is cancelled,
-          // since a query without data would otherwise share that earlier read.
-          // Messages that arrive while it is read are put in again afterwards: the read's answer
-          // replaces the cache, and may have been taken before they were sent.
+          // Live messages only come once the room is joined, so whatever history is cached (from an
+          // earlier visit, before a reconnect, or a first load still under way) may lack some: read
+          // it again, cancelling a load under way (a query without data would share it). Messages
+          // arriving meanwhile are put in again after the read, whose answer replaces the cache.
           const queryKey = chatKeys.messages(roomId);
           const arrived: ChatMessageDto[] = [];
           arrivedDuringRead = arrived;
