@@ -3,6 +3,7 @@ import { useQueryClient } from '@tanstack/react-query';
 import type { BoardChange, BoardJoined, BoardPatch } from '@shared/live-events';
 import type { RosterDto } from '@shared/swap-types';
 import { ApiError } from '@/lib/api-client';
+import { readAgainFromNow } from '@/lib/query-client';
 import { emitWithAck, getSocket } from '@/lib/socket';
 import { applyBoardPatch, boardChangeStep } from './apply-board-patch';
 import { markStaleAfterChange } from './mark-stale-after-change';
@@ -48,11 +49,7 @@ export function useRosterLive(swapId: number, handlers: RosterLiveHandlers = {})
       const changes: Array<BoardChange & { patch: BoardPatch }> = [];
       changesDuringRead = changes;
       try {
-        // A first load still under way may have read before the change (or the join): a refetch
-        // alone would wait for it, since a query without data shares its running fetch. Cancel it
-        // so the rows kept are read after this point.
-        await queryClient.cancelQueries({ queryKey });
-        await Promise.all([queryClient.invalidateQueries({ queryKey }), latest.current.onResync?.()]);
+        await Promise.all([readAgainFromNow(queryClient, queryKey), latest.current.onResync?.()]);
       } finally {
         if (changesDuringRead === changes) changesDuringRead = null;
         for (const change of changes) {

@@ -2,6 +2,7 @@ import { useCallback, useEffect, useRef, useState } from 'react';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ChatJoined, Viewer } from '@shared/live-events';
 import type { ChatMessageDto } from '@shared/schemas/chat';
+import { readAgainFromNow } from '@/lib/query-client';
 import { emitWithAck, getSocket } from '@/lib/socket';
 import { ApiError } from '@/lib/api-client';
 import { chatKeys } from '../api/chat-keys';
@@ -36,15 +37,13 @@ export function useChatLive(roomId: number, viewerId: number | undefined) {
           setJoinError('');
           queryClient.setQueryData(chatKeys.presence(roomId), joined.viewers);
           // Live messages only come once the room is joined, so whatever history is cached (from an
-          // earlier visit, before a reconnect, or a first load still under way) may lack some: read
-          // it again, cancelling a load under way (a query without data would share it). Messages
-          // arriving meanwhile are put in again after the read, whose answer replaces the cache.
-          const queryKey = chatKeys.messages(roomId);
+          // earlier visit, before a reconnect, or a first load still under way) may lack some: read it
+          // again. Messages arriving meanwhile are put in again after the read, whose answer replaces
+          // the cache.
           const arrived: ChatMessageDto[] = [];
           arrivedDuringRead = arrived;
           try {
-            await queryClient.cancelQueries({ queryKey });
-            await queryClient.invalidateQueries({ queryKey });
+            await readAgainFromNow(queryClient, chatKeys.messages(roomId));
           } finally {
             if (arrivedDuringRead === arrived) arrivedDuringRead = null;
             for (const message of arrived) upsertMessage(queryClient, message);

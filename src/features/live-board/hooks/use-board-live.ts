@@ -1,6 +1,7 @@
 import { useEffect } from 'react';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ActivityDto, PresenceChange, Viewer } from '@shared/live-events';
+import { readAgainFromNow } from '@/lib/query-client';
 import { getSocket } from '@/lib/socket';
 import { useRosterLive } from '@/entities/roster/api/use-roster-live';
 import { liveBoardKeys } from '../api/live-board-keys';
@@ -27,11 +28,7 @@ export function useBoardLive(swapId: number) {
       queryClient.setQueryData<ActivityDto[]>(liveBoardKeys.activity(swapId), (list) =>
         list ? prependActivities(list, change.activities, ACTIVITY_SHOWN) : list,
       ),
-    // As the roster: a first load under way is cancelled, so the list kept is read after this point.
-    onResync: async () => {
-      await queryClient.cancelQueries({ queryKey: liveBoardKeys.activity(swapId) });
-      await queryClient.invalidateQueries({ queryKey: liveBoardKeys.activity(swapId) });
-    },
+    onResync: () => readAgainFromNow(queryClient, liveBoardKeys.activity(swapId)),
   });
 
   useEffect(() => {
