@@ -5,30 +5,12 @@
  * is read again, and a message that arrives while it is read is not lost to the read's answer.
  */
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { cleanup, render, waitFor } from '@testing-library/react';
-import { QueryClient, QueryClientProvider, useInfiniteQuery } from '@tanstack/react-query';
-import type { ReactNode } from 'react';
+import { cleanup, waitFor } from '@testing-library/react';
+import { type QueryClient, useInfiniteQuery } from '@tanstack/react-query';
 import type { ChatMessageDto, ChatPageDto } from '../../shared/schemas/chat';
 
-const live = vi.hoisted(() => {
-  const handlers = new Map<string, (...args: unknown[]) => void>();
-  let answerJoin: (joined: unknown) => void = () => {};
-  return {
-    handlers,
-    answer: (joined: unknown) => answerJoin(joined),
-    socket: {
-      connected: true,
-      on: (event: string, fn: (...args: unknown[]) => void) => handlers.set(event, fn),
-      off: (event: string) => handlers.delete(event),
-      emit: () => {},
-    },
-    emitWithAck: () =>
-      new Promise((resolve) => {
-        answerJoin = resolve;
-      }),
-  };
-});
-vi.mock('../../src/lib/socket', () => ({ getSocket: () => live.socket, emitWithAck: live.emitWithAck }));
+vi.mock('../../src/lib/socket', () => import('../helpers/fake-live-socket'));
+const { live, newQueryClient, renderWithClient } = await import('../helpers/fake-live-socket');
 const { useChatLive } = await import('../../src/features/chat/hooks/use-chat-live');
 const { chatKeys } = await import('../../src/features/chat/api/chat-keys');
 
@@ -68,18 +50,13 @@ function Room({ fetchPage }: { fetchPage: () => Promise<ChatPageDto> }) {
 }
 
 function renderRoom(client: QueryClient, fetchPage: () => Promise<ChatPageDto>) {
-  const wrapper = ({ children }: { children: ReactNode }) => (
-    <QueryClientProvider client={client}>{children}</QueryClientProvider>
-  );
-  return render(<Room fetchPage={fetchPage} />, { wrapper });
+  return renderWithClient(<Room fetchPage={fetchPage} />, client);
 }
-
-const newClient = () => new QueryClient({ defaultOptions: { queries: { retry: false } } });
 
 describe('joining a chat room', () => {
   it('reads the history after the join when the first load was still under way', async () => {
     const api = slowHistory();
-    const { container } = renderRoom(newClient(), api.fetchPage);
+    const { container } = renderRoom(newQueryClient(), api.fetchPage);
     await waitFor(() => expect(api.pending).toHaveLength(1));
     live.answer({ viewers: [] }); // joined before the first load answered
     await waitFor(() => expect(api.pending).toHaveLength(2));
@@ -89,7 +66,7 @@ describe('joining a chat room', () => {
   });
 
   it('reads again a history cached on an earlier visit', async () => {
-    const client = newClient();
+    const client = newQueryClient();
     const api = slowHistory();
     const first = renderRoom(client, api.fetchPage);
     live.answer({ viewers: [] });
@@ -108,7 +85,7 @@ describe('joining a chat room', () => {
 
   it('keeps a message that arrives live while the history is read again', async () => {
     const api = slowHistory();
-    const { container } = renderRoom(newClient(), api.fetchPage);
+    const { container } = renderRoom(newQueryClient(), api.fetchPage);
     live.answer({ viewers: [] });
     await waitFor(() => expect(api.pending).toHaveLength(2));
     live.handlers.get('message:created')!(message(3, 'Starting the strip sets'));

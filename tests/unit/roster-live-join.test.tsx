@@ -5,31 +5,13 @@
  * page was not in the room yet). The roster kept must be one read after the join.
  */
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { cleanup, render, waitFor } from '@testing-library/react';
-import { QueryClient, QueryClientProvider, useQuery } from '@tanstack/react-query';
-import type { ReactNode } from 'react';
+import { cleanup, waitFor } from '@testing-library/react';
+import { useQuery } from '@tanstack/react-query';
 import type { RosterDto } from '../../shared/swap-types';
 import type { ActivityDto } from '../../shared/live-events';
 
-const live = vi.hoisted(() => {
-  const handlers = new Map<string, (...args: unknown[]) => void>();
-  let answerJoin: (joined: unknown) => void = () => {};
-  return {
-    handlers,
-    answer: (joined: unknown) => answerJoin(joined),
-    socket: {
-      connected: true,
-      on: (event: string, fn: (...args: unknown[]) => void) => handlers.set(event, fn),
-      off: (event: string) => handlers.delete(event),
-      emit: () => {},
-    },
-    emitWithAck: () =>
-      new Promise((resolve) => {
-        answerJoin = resolve;
-      }),
-  };
-});
-vi.mock('../../src/lib/socket', () => ({ getSocket: () => live.socket, emitWithAck: live.emitWithAck }));
+vi.mock('../../src/lib/socket', () => import('../helpers/fake-live-socket'));
+const { live, renderWithClient } = await import('../helpers/fake-live-socket');
 const { useRosterLive } = await import('../../src/entities/roster/api/use-roster-live');
 const { rosterKeys } = await import('../../src/entities/roster/api/roster-keys');
 const { useBoardLive } = await import('../../src/features/live-board/hooks/use-board-live');
@@ -57,11 +39,7 @@ function RosterView({ fetchRoster }: { fetchRoster: () => Promise<{ read: number
 describe('the first join of a swap’s live board', () => {
   it('keeps a roster read after the join, even when the first load was still under way', async () => {
     const api = slowRoster();
-    const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-    const wrapper = ({ children }: { children: ReactNode }) => (
-      <QueryClientProvider client={client}>{children}</QueryClientProvider>
-    );
-    const { container } = render(<RosterView fetchRoster={api.fetchRoster} />, { wrapper });
+    const { container } = renderWithClient(<RosterView fetchRoster={api.fetchRoster} />);
     await waitFor(() => expect(api.reads()).toBe(1));
 
     live.answer({ swapId: 7, version: 12, viewers: 1 }); // the join answers before the first load does
@@ -73,11 +51,7 @@ describe('the first join of a swap’s live board', () => {
 
   it('reads once more when the join answers after the first load', async () => {
     const api = slowRoster();
-    const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-    const wrapper = ({ children }: { children: ReactNode }) => (
-      <QueryClientProvider client={client}>{children}</QueryClientProvider>
-    );
-    const { container } = render(<RosterView fetchRoster={api.fetchRoster} />, { wrapper });
+    const { container } = renderWithClient(<RosterView fetchRoster={api.fetchRoster} />);
     await waitFor(() => expect(api.reads()).toBe(1));
     api.pending[0]!();
     await waitFor(() => expect(container.textContent).toBe('read 1'));
@@ -107,11 +81,7 @@ describe('a change that arrives while the roster is read again', () => {
       useRosterLive(7);
       return <p>{q.data ? `measured ${q.data.totals.measured}` : 'loading'}</p>;
     }
-    const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-    const wrapper = ({ children }: { children: ReactNode }) => (
-      <QueryClientProvider client={client}>{children}</QueryClientProvider>
-    );
-    const { container } = render(<Totals />, { wrapper });
+    const { container } = renderWithClient(<Totals />);
     await waitFor(() => expect(pending).toHaveLength(1));
     live.answer({ swapId: 7, version: 20, viewers: 1 });
     await waitFor(() => expect(pending).toHaveLength(2)); // read again after the join
@@ -159,11 +129,7 @@ describe('the live board’s activity list', () => {
       useBoardLive(7);
       return <p>{activity.data ? activity.data.map((a) => a.id).join(',') || 'none' : 'loading'}</p>;
     }
-    const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-    const wrapper = ({ children }: { children: ReactNode }) => (
-      <QueryClientProvider client={client}>{children}</QueryClientProvider>
-    );
-    const { container } = render(<Board />, { wrapper });
+    const { container } = renderWithClient(<Board />);
     await waitFor(() => expect(activityReads).toHaveLength(1));
     live.answer({ swapId: 7, version: 40, viewers: [] });
     await waitFor(() => expect(activityReads).toHaveLength(2)); // the first load, cancelled, is read again
