@@ -6,18 +6,22 @@ import { freePort } from '../../scripts/lib/ports';
 import { startNodeServer, type NodeProcess } from './processes';
 
 /**
- * Starts the app against `databaseUrl` with its own empty photo store. The job worker is off (it
+ * Starts the app (from `root`, this tree by default) against `databaseUrl` with its own empty photo store. The job worker is off (it
  * would try to send mail to nowhere) and logging is at warn, so no request writes a log line.
  */
-export async function startAppProcess(databaseUrl: string, opts: { profileDir?: string } = {}): Promise<NodeProcess> {
+export async function startAppProcess(
+  databaseUrl: string,
+  opts: { profileDir?: string; root?: string; name?: string } = {},
+): Promise<NodeProcess> {
   // Its own photo store: the app refuses one that belongs to another database.
   const uploads = mkdtempSync(join(tmpdir(), 'blockpost-bench-uploads-'));
   const app = await startNodeServer({
-    name: 'app',
+    name: opts.name ?? 'app',
     script: 'server/index.ts',
     port: await freePort(),
     readyPath: '/api/health',
     nodeArgs: opts.profileDir ? ['--cpu-prof', `--cpu-prof-dir=${opts.profileDir}`] : [],
+    root: opts.root,
     env: {
       NODE_ENV: 'production',
       DATABASE_URL: databaseUrl,

@@ -26,9 +26,11 @@ export async function startNodeServer(opts: {
   port: number;
   readyPath: string;
   nodeArgs?: string[];
+  /** the tree the script is taken from; this repository's unless given */
+  root?: string;
 }): Promise<NodeProcess> {
   const child = spawn(process.execPath, [...(opts.nodeArgs ?? []), '--import', 'tsx', opts.script], {
-    cwd: repoRoot,
+    cwd: opts.root ?? repoRoot,
     env: { ...process.env, ...opts.env, PORT: String(opts.port) },
     stdio: ['ignore', 'inherit', 'inherit'],
   });

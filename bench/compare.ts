@@ -1,0 +1,144 @@
+/**
+ * This tree's app against another revision's, under the same load, runs interleaved: what one change
+ * buys on a machine whose speed moves by a fifth from one minute to the next. Both apps are their own
+ * processes on one throwaway database (the revision's tree is a git worktree beside this one, sharing
+ * node_modules); every round runs A then B, or B then A, for BENCH_SECONDS (4), BENCH_ROUNDS (8) times,
+ * and the table gives each side's medians and the median of the rounds' B/A ratios, which a machine
+ * slowing down for a minute moves far less than it moves either side.
+ *
+ *   npx tsx bench/compare.ts <git revision> [measure|roster|roster-600]
+ *
+ * The revision must share this tree's migrations (both apps migrate the same database on start).
+ */
+import { execFileSync } from 'node:child_process';
+import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
+import type { LoadOptions, LoadResult } from './load';
+import { startAppProcess } from './lib/app';
+import { clusterCpuSeconds, cpuSeconds, repoRoot, runNodeScript, type NodeProcess } from './lib/processes';
+import { newAccount, seedSwap, type SeededSwap } from './lib/seed';
+import { median, round } from './lib/stats';
+
+const SCENARIOS = {
+  measure: { size: { members: 60, blocksEach: 4, tag: '60x4' }, connections: 10 },
+  roster: { size: { members: 60, blocksEach: 4, tag: '60x4' }, connections: 10 },
+  'roster-600': { size: { members: 600, blocksEach: 6, tag: '600x6' }, connections: 10 },
+} as const;
+type ScenarioName = keyof typeof SCENARIOS;
+const HISTORY = { members: 600, blocksEach: 6, tag: '600x6' };
+
+interface Sample {
+  rps: number;
+  p99: number;
+  serverCpuMs: number;
+  dbCpuMs: number;
+}
+
+async function main() {
+  const [revision, scenarioArg = 'measure'] = process.argv.slice(2);
+  if (!revision || !(scenarioArg in SCENARIOS)) {
+    console.error(`usage: npx tsx bench/compare.ts <git revision> [${Object.keys(SCENARIOS).join('|')}]`);
+    process.exit(2);
+  }
+  const scenarioName = scenarioArg as ScenarioName;
+  const scenario = SCENARIOS[scenarioName];
+  const seconds = Number(process.env.BENCH_SECONDS ?? 4);
+  const rounds = Number(process.env.BENCH_ROUNDS ?? 8);
+
+  const sha = execFileSync('git', ['rev-parse', '--short', revision], { cwd: repoRoot, encoding: 'utf8' }).trim();
+  const worktree = mkdtempSync(join(tmpdir(), `blockpost-compare-${sha}-`));
+  execFileSync('git', ['worktree', 'add', '--detach', '--force', worktree, sha], { cwd: repoRoot, stdio: 'ignore' });
+  symlinkSync(join(repoRoot, 'node_modules'), join(worktree, 'node_modules'));
+  const cluster = await startThrowawayCluster('blockpost-compare-');
+  const apps: NodeProcess[] = [];
+  try {
+    const databaseUrl = await cluster.database('bench');
+    // A first: it migrates; B then finds the database ready.
+    const a = await startAppProcess(databaseUrl, { root: worktree, name: `A (${sha})` });
+    apps.push(a);
+    const b = await startAppProcess(databaseUrl, { name: 'B (this tree)' });
+    apps.push(b);
+
+    const coordinator = await newAccount(a.url, databaseUrl, 'compare-coordinator@example.test', 'Compare Coordinator');
+    const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Comparison Bee' });
+    const swap: SeededSwap = await seedSwap(databaseUrl, coordinator, guild.id, scenario.size);
+    // A guild's history beside it, as bench/api.ts seeds: on near-empty tables PostgreSQL caches
+    // generic plans that scan whole tables, which slow down as the load adds rows (a stand-in for
+    // the minute autovacuum takes to notice).
+    if (scenario.size.tag !== HISTORY.tag) await seedSwap(databaseUrl, coordinator, guild.id, HISTORY);
+    const headers = { cookie: coordinator.cookie, 'x-requested-with': 'blockpost' };
+    const request: Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers' | 'freshClientId'> =
+      scenarioName === 'measure'
+        ? {
+            method: 'POST',
+            paths: swap.measuredBlockIds.map((id) => `/api/blocks/${id}/measurements`),
+            headers,
+            body: JSON.stringify({ width: '9 1/2', height: '9 1/2' }),
+            freshClientId: true,
+          }
+        : { paths: [`/api/swaps/${swap.swapId}/roster`], headers };
+
+    const run = async (app: NodeProcess, duration: number): Promise<Sample> => {
+      const before = { server: cpuSeconds(app.pid), db: clusterCpuSeconds(cluster.port) };
+      const result = await runNodeScript<LoadResult>('bench/load.ts', {
+        url: app.url,
+        connections: scenario.connections,
+        duration,
+        ...request,
+      } satisfies LoadOptions);
+      if (result.errors + result.non2xx > 0) throw new Error(`${app.name}: ${result.errors + result.non2xx} failed requests`);
+      const perRequest = (sec: number) => (sec * 1000) / Math.max(1, result.requests);
+      return {
+        rps: result.rps,
+        p99: result.p99,
+        serverCpuMs: perRequest(cpuSeconds(app.pid) - before.server),
+        dbCpuMs: perRequest(clusterCpuSeconds(cluster.port) - before.db),
+      };
+    };
+
+    // Warm both JITs before the first figure.
+    await run(a, 3);
+    await run(b, 3);
+    const samples: { a: Sample[]; b: Sample[] } = { a: [], b: [] };
+    for (let round = 0; round < rounds; round++) {
+      // Alternate which goes first, so neither always follows the other's heap and caches.
+      const order = round % 2 === 0 ? (['a', 'b'] as const) : (['b', 'a'] as const);
+      for (const side of order) samples[side].push(await run(side === 'a' ? a : b, seconds));
+      const last = { a: samples.a.at(-1)!, b: samples.b.at(-1)! };
+      console.log(
+        `  round ${round + 1}: A ${round_(last.a.rps)} rps ${last.a.serverCpuMs.toFixed(2)} ms CPU, B ${round_(last.b.rps)} rps ${last.b.serverCpuMs.toFixed(2)} ms CPU`,
+      );
+    }
+    const ratio = (key: keyof Sample) => median(samples.a.map((s, i) => samples.b[i]![key] / s[key]));
+    const side = (name: string, s: Sample[]) => ({
+      server: name,
+      rps: round(median(s.map((x) => x.rps))),
+      p99_ms: median(s.map((x) => x.p99)),
+      'server CPU ms/req': round(median(s.map((x) => x.serverCpuMs)), 3),
+      'db CPU ms/req': round(median(s.map((x) => x.dbCpuMs)), 3),
+    });
+    console.log(`\n${scenarioName}, ${scenario.connections} connections, ${rounds} rounds of ${seconds} s each side:`);
+    console.table([
+      side(a.name, samples.a),
+      side(b.name, samples.b),
+      {
+        server: 'B / A (median of rounds)',
+        rps: `${round(ratio('rps') * 100)} %`,
+        p99_ms: `${round(ratio('p99') * 100)} %`,
+        'server CPU ms/req': `${round(ratio('serverCpuMs') * 100)} %`,
+        'db CPU ms/req': `${round(ratio('dbCpuMs') * 100)} %`,
+      },
+    ]);
+  } finally {
+    for (const app of apps) await app.stop();
+    cluster.stop();
+    execFileSync('git', ['worktree', 'remove', '--force', worktree], { cwd: repoRoot, stdio: 'ignore' });
+    if (existsSync(worktree)) rmSync(worktree, { recursive: true, force: true });
+  }
+}
+
+const round_ = (n: number) => Math.round(n);
+
+await main();
