@@ -64,6 +64,16 @@ export function createApp(deps: AppDeps): BuiltApp {
       logger,
       autoLogging: { ignore: (req) => !(req.url ?? '').startsWith('/api') },
       customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
+      // Each request's logger is bound to its request when the request arrives, serialised there and
+      // then whatever the level: the headers (and their redaction) were a few per cent of a request's CPU.
+      serializers: {
+        req: (req: { id: unknown; method: string; url: string; remoteAddress?: string }) => ({
+          id: req.id,
+          method: req.method,
+          url: req.url,
+          remoteAddress: req.remoteAddress,
+        }),
+      },
     }),
   );
 
@@ -73,7 +83,8 @@ export function createApp(deps: AppDeps): BuiltApp {
   deps.events.on('account.changed', ({ userId }) => sessionCache.forgetUser(userId));
   const sessionMiddleware = createSessionMiddleware(config, deps.pool, sessionCache);
   const passport = configurePassport(deps);
-  const passportMiddleware = [passport.initialize(), passport.session()];
+  // compat: false, as no strategy here predates passport 0.5 (compat adds a property to every request).
+  const passportMiddleware = [passport.initialize({ compat: false }), passport.session()];
 
   const api = express.Router();
   // Health first: it must answer even when the session store (PostgreSQL) cannot.
