@@ -153,8 +153,9 @@ export class BoardFanout {
    * from heartbeats, which a busy process can miss, and a change not sent is a board left stale.
    */
   private send(guildId: number, verdictsVisibleTo: string, change: BoardChange) {
-    this.io.serverSideEmit('board:fanout', { guildId, verdictsVisibleTo, change });
+    // This node's sockets first: they need not wait for the message's encoding for the other nodes.
     this.sendLocal(guildId, verdictsVisibleTo, change);
+    this.io.serverSideEmit('board:fanout', { guildId, verdictsVisibleTo, change });
   }
 
   /**
