@@ -120,7 +120,7 @@ export async function readBlockForMeasurement(pool: pg.Pool, blockId: number, vi
 /**
  * Records a measurement read with `readBlockForMeasurement`, in one statement on the plain pool: the
  * block's step when `step` is given (a ruler measurement moves the block), the measurement under the
- * id read, and with a clientId the request's answer. Nothing is written unless the block row is still
+ * id read, and with a clientId the request's answer (as sent, serialised). Nothing is written unless the block row is still
  * the version read (false: read it again and retry); a clientId already taken fails the statement
  * whole with a unique violation, so a repeat changes nothing.
  */
@@ -129,7 +129,7 @@ export async function writeMeasurement(
   read: Pick<MeasuringRow, 'block' | 'seen' | 'nextId'>,
   values: MeasurementValues,
   step: { changes: Parameters<typeof stepCtes>[1]; byId: number } | null,
-  request: { clientId: string; action: string; response: unknown } | null,
+  request: { clientId: string; action: string; responseJson: string } | null,
 ): Promise<boolean> {
   const { block, seen, nextId } = read;
   const guard = ' AND xmin::text = $seen';
@@ -159,7 +159,7 @@ export async function writeMeasurement(
     ...changed.bind,
     seen,
     measurementId: nextId,
-    ...(request ? { clientId: request.clientId, claimAction: request.action, response: JSON.stringify(request.response) } : {}),
+    ...(request ? { clientId: request.clientId, claimAction: request.action, response: request.responseJson } : {}),
   });
   return row!.written === 1;
 }

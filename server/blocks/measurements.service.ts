@@ -165,11 +165,14 @@ async function measureOnce(
     ...measurementDto({ ...measurement, measuredBy: { id: user.id, displayName: user.displayName } }),
     block: blockAnswer!,
   };
-  const request = body.clientId ? { clientId: body.clientId, action: `measurement:${source}`, response: answer } : null;
+  // Serialised once: stored with a clientId and sent as it is.
+  const answerJson = JSON.stringify(answer);
+  const request = body.clientId ? { clientId: body.clientId, action: `measurement:${source}`, responseJson: answerJson } : null;
   if (!(await writeMeasurement(deps.pool, { block, seen: read.seen, nextId: read.nextId }, values, step, request))) return null;
   return {
     status: 201,
     body: answer,
+    json: answerJson,
     after: () => {
       deps.events.emit('block.measured', {
         swapId: swap.id,

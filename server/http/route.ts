@@ -99,6 +99,8 @@ export interface Reply<T = unknown> {
   status?: number;
   body: T;
   headers?: Record<string, string>;
+  /** `body` serialised already (JSON.stringify), sent as it is instead of serialised again. */
+  json?: string;
   /** Work for after the commit (domain events). */
   after?: () => void;
 }
@@ -117,7 +119,9 @@ export interface TransactionRouteSpec<P, Q, B, A> extends Omit<RouteSpec<P, Q, B
 export function sendReply(res: Response, reply: Reply) {
   reply.after?.();
   if (reply.headers) res.set(reply.headers);
-  res.status(reply.status ?? 200).json(reply.body);
+  res.status(reply.status ?? 200);
+  if (reply.json === undefined) res.json(reply.body);
+  else res.type('json').send(reply.json);
 }
 
 /**

@@ -58,6 +58,22 @@ describe('the block in a measurement’s answer', () => {
     expect(afterUndo.latest.ruler.width).toBe(8.25);
   });
 
+  it('with a clientId, sends as JSON the answer it stores, and a repeat gets the same answer', async () => {
+    const { swap, makers } = await sewingSwap(app, roles, { pledges: [1, 1] });
+    const maker = makers[0]!;
+    const [block] = await myBlocks(maker.agent, swap.id);
+    const body = { width: '8 1/2', height: '8 1/2', source: 'maker', clientId: '0b6f5d1e-2c3a-4b7e-9f10-a1b2c3d4e5f6' };
+    const first = await maker.agent.post(`/api/blocks/${block!.id}/measurements`).send(body).expect(201);
+    expect(first.headers['content-type']).toBe('application/json; charset=utf-8');
+    // The answer is serialised once, for the stored copy and the reply (server/http/route.ts sendReply).
+    const stored = await app.deps.pool.query<{ response: unknown }>('SELECT response FROM block_requests WHERE client_id = $1', [
+      body.clientId,
+    ]);
+    expect(JSON.parse(first.text)).toEqual(stored.rows[0]!.response);
+    const repeat = await maker.agent.post(`/api/blocks/${block!.id}/measurements`).send(body).expect(201);
+    expect(repeat.body).toEqual(first.body);
+  });
+
   it('records every one of several ruler measurements of one block sent at once, each with its step', async () => {
     const { swap, makers } = await sewingSwap(app, roles, { pledges: [1, 1] });
     const [block] = await myBlocks(makers[0]!.agent, swap.id);
@@ -107,7 +123,7 @@ describe('the block in a measurement’s answer', () => {
       at: new Date(),
     };
     const step = { changes: { state: 'measured', verdict: 'true', measuredAt: values.at }, byId: roles.coordinator.id };
-    const request = { clientId: '6f1c2b7e-3a4d-4e5f-8a9b-0c1d2e3f4a5b', action: 'measurement:ruler', response: {} };
+    const request = { clientId: '6f1c2b7e-3a4d-4e5f-8a9b-0c1d2e3f4a5b', action: 'measurement:ruler', responseJson: '{}' };
     expect(await writeMeasurement(app.deps.pool, read, values, step, request)).toBe(false);
     const counts = await app.deps.pool.query<{ measurements: number; steps: number; requests: number; state: string }>(
       `SELECT (SELECT count(*)::int FROM measurements WHERE block_id = $1) AS measurements,
