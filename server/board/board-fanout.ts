@@ -57,6 +57,8 @@ export class BoardFanout {
   private queues = new Map<number, SwapEvent[]>();
   /** when each swap's last change went out (performance.now()) */
   private sentAt = new Map<number, number>();
+  /** the swaps' drains under way, which `close` waits for */
+  private draining = new Set<Promise<void>>();
 
   /**
    * @param db the fan-out's own small pool (see `publish`), with the plain pool's settings.
@@ -78,7 +80,17 @@ export class BoardFanout {
       return;
     }
     this.queues.set(swapId, [event]);
-    void this.drain(swapId);
+    const drain = this.drain(swapId);
+    this.draining.add(drain);
+    void drain.finally(() => this.draining.delete(drain));
+  }
+
+  /**
+   * Waits until every change already queued has gone out (at most one interval and a change per swap):
+   * the other nodes' viewers hear of a change committed on this node only from this node.
+   */
+  async close() {
+    while (this.draining.size > 0) await Promise.all(this.draining);
   }
 
   private async drain(swapId: number) {

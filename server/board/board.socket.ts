@@ -21,7 +21,10 @@ export function boardLive(): LivePart {
         if (typeof (payload as { swapId?: unknown }).swapId !== 'number') return;
         board.push({ name, payload } as SwapEvent);
       });
-      return () => db.end();
+      return async () => {
+        await board.close();
+        await db.end();
+      };
     },
 
     onConnection({ deps, presence }, socket) {

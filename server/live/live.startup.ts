@@ -16,7 +16,7 @@ export interface LiveContext {
 /** A live part that adds its socket handlers and domain-event subscriptions. */
 export interface LivePart {
   onConnection?(ctx: LiveContext, socket: LiveSocket): void;
-  /** May return what to close when the app stops (after the sockets are gone). */
+  /** May return what to close when the app stops: after the sockets are gone, before the adapter is. */
   start?(ctx: LiveContext): void | (() => Promise<void>);
 }
 
@@ -86,8 +86,9 @@ export function liveStartup(parts: LivePart[]): FeatureStartup {
       async close() {
         presence.close();
         io.local.disconnectSockets(true);
-        await new Promise<void>((resolve) => io.close(() => resolve()));
+        // The parts first: the board still sends the changes it holds to the other nodes.
         for (const stop of stops) await stop();
+        await new Promise<void>((resolve) => io.close(() => resolve()));
       },
     };
   };
