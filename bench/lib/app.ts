@@ -6,8 +6,9 @@ import { freePort } from '../../scripts/lib/ports';
 import { startNodeServer, type NodeProcess } from './processes';
 
 /**
- * Starts the app (from `root`, this tree by default) against `databaseUrl` with its own empty photo store. The job worker is off (it
- * would try to send mail to nowhere) and logging is at warn, so no request writes a log line.
+ * Starts the app (from the tree at `root`, this one by default) against `databaseUrl` with its own
+ * empty photo store. The job worker is off (it would try to send mail to nowhere) and logging is at
+ * warn, so no request writes a log line.
  */
 export async function startAppProcess(
   databaseUrl: string,

@@ -120,9 +120,9 @@ export async function readBlockForMeasurement(pool: pg.Pool, blockId: number, vi
 /**
  * Records a measurement read with `readBlockForMeasurement`, in one statement on the plain pool: the
  * block's step when `step` is given (a ruler measurement moves the block), the measurement under the
- * id read, and with a clientId the request's answer (as sent, serialised). Nothing is written unless the block row is still
- * the version read (false: read it again and retry); a clientId already taken fails the statement
- * whole with a unique violation, so a repeat changes nothing.
+ * id read, and with a clientId the request's answer (serialised, as sent). Nothing is written unless
+ * the block row is still the version read (false: read it again and retry); a clientId already taken
+ * fails the statement whole with a unique violation, so a repeat changes nothing.
  */
 export async function writeMeasurement(
   pool: pg.Pool,
