@@ -64,9 +64,9 @@ async function main() {
     const coordinator = await newAccount(a.url, databaseUrl, 'compare-coordinator@example.test', 'Compare Coordinator');
     const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Comparison Bee' });
     const swap: SeededSwap = await seedSwap(databaseUrl, coordinator, guild.id, scenario.size);
-    // A guild's history beside it, as bench/api.ts seeds: on near-empty tables PostgreSQL caches
-    // generic plans that scan whole tables, which slow down as the load adds rows (a stand-in for
-    // the minute autovacuum takes to notice).
+    // A guild's history beside it, as bench/api.ts seeds: a named statement planned on near-empty
+    // tables scans them, slower with every row the load adds, until autovacuum's analyze a minute
+    // later; without the history the rounds would measure that minute.
     if (scenario.size.tag !== HISTORY.tag) await seedSwap(databaseUrl, coordinator, guild.id, HISTORY);
     const headers = { cookie: coordinator.cookie, 'x-requested-with': 'blockpost' };
     const request: Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers' | 'freshClientId'> =
