@@ -12,8 +12,9 @@
 import pg from 'pg';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
 import { freePort } from '../scripts/lib/ports';
-import type { LoadOptions, LoadResult } from './load';
-import { clusterCpuSeconds, cpuSeconds, runNodeScript, startNodeServer, type NodeProcess } from './lib/processes';
+import type { LoadOptions } from './load';
+import { startNodeServer, type NodeProcess } from './lib/processes';
+import { loadWithCpu, type LoadWithCpu } from './lib/load-with-cpu';
 import { median, round, withSpread } from './lib/stats';
 import { startAppProcess } from './lib/app';
 import { newAccount, seedSwap, type SeededSwap } from './lib/seed';
@@ -29,8 +30,6 @@ interface Scenario {
   rate?: number;
   request: (server: ServerKey) => Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers' | 'freshClientId'>;
 }
-
-type Run = LoadResult & { serverCpuMs: number; dbCpuMs: number };
 
 export interface ApiBenchResult {
   rows: Row[];
@@ -115,24 +114,14 @@ export async function runApiBench(
 
     if (opts.only) scenarios.splice(0, scenarios.length, ...scenarios.filter((s) => opts.only!.test(s.name)));
 
-    // CPU used by the server process and by PostgreSQL during the run, per answered request: unlike
-    // throughput, it hardly moves when other work on the machine takes turns on the cores.
-    const load = async (s: ServerKey, scenario: Scenario, seconds: number): Promise<Run> => {
-      const before = { server: cpuSeconds(servers[s]!.pid), db: clusterCpuSeconds(cluster.port) };
-      const result = await runNodeScript<LoadResult>('bench/load.ts', {
+    const load = (s: ServerKey, scenario: Scenario, seconds: number): Promise<LoadWithCpu> =>
+      loadWithCpu(servers[s]!.pid, cluster.port, {
         url: url(s),
         connections: scenario.connections,
         duration: seconds,
         rate: scenario.rate,
         ...scenario.request(s),
-      } satisfies LoadOptions);
-      const perRequest = (sec: number) => (sec * 1000) / Math.max(1, result.requests);
-      return {
-        ...result,
-        serverCpuMs: perRequest(cpuSeconds(servers[s]!.pid) - before.server),
-        dbCpuMs: perRequest(clusterCpuSeconds(cluster.port) - before.db),
-      };
-    };
+      });
 
     // A short untimed run of each server first, so every JIT has settled before the first figure.
     for (const s of SERVERS) await load(s, scenarios[0]!, 2);
@@ -141,7 +130,7 @@ export async function runApiBench(
     const goals: Row[] = [];
     const medians = new Map<string, Record<ServerKey, { rps: number; p99: number }>>();
     for (const scenario of scenarios) {
-      const results: Record<ServerKey, Run[]> = { app: [], express: [], http: [] };
+      const results: Record<ServerKey, LoadWithCpu[]> = { app: [], express: [], http: [] };
       for (let run = 0; run < runs; run++) for (const s of SERVERS) results[s].push(await load(s, scenario, duration));
       const bytes = Object.fromEntries(
         await Promise.all(SERVERS.map(async (s) => [s, await bytesPerResponse(url(s), scenario.request(s))])),

@@ -15,9 +15,10 @@ import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
-import type { LoadOptions, LoadResult } from './load';
+import type { LoadOptions } from './load';
 import { startAppProcess } from './lib/app';
-import { clusterCpuSeconds, cpuSeconds, repoRoot, runNodeScript, type NodeProcess } from './lib/processes';
+import { repoRoot, type NodeProcess } from './lib/processes';
+import { loadWithCpu } from './lib/load-with-cpu';
 import { newAccount, seedSwap, type SeededSwap } from './lib/seed';
 import { median, round } from './lib/stats';
 
@@ -81,21 +82,15 @@ async function main() {
         : { paths: [`/api/swaps/${swap.swapId}/roster`], headers };
 
     const run = async (app: NodeProcess, duration: number): Promise<Sample> => {
-      const before = { server: cpuSeconds(app.pid), db: clusterCpuSeconds(cluster.port) };
-      const result = await runNodeScript<LoadResult>('bench/load.ts', {
+      const result = await loadWithCpu(app.pid, cluster.port, {
         url: app.url,
         connections: scenario.connections,
         duration,
         ...request,
-      } satisfies LoadOptions);
+      });
       if (result.errors + result.non2xx > 0) throw new Error(`${app.name}: ${result.errors + result.non2xx} failed requests`);
-      const perRequest = (sec: number) => (sec * 1000) / Math.max(1, result.requests);
-      return {
-        rps: result.rps,
-        p99: result.p99,
-        serverCpuMs: perRequest(cpuSeconds(app.pid) - before.server),
-        dbCpuMs: perRequest(clusterCpuSeconds(cluster.port) - before.db),
-      };
+      const { rps, p99, serverCpuMs, dbCpuMs } = result;
+      return { rps, p99, serverCpuMs, dbCpuMs };
     };
 
     // Warm both JITs before the first figure.
