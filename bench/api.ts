@@ -9,7 +9,6 @@
  * `npx tsx bench/profile.ts <file>`) and BENCH_PG_STATS=1 (print the statements that took the most
  * database time, planning and running, from pg_stat_statements) adjust it.
  */
-import pg from 'pg';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
 import { freePort } from '../scripts/lib/ports';
 import type { LoadOptions } from './load';
@@ -18,6 +17,7 @@ import { loadWithCpu, type LoadWithCpu } from './lib/load-with-cpu';
 import { median, round, withSpread } from './lib/stats';
 import { startAppProcess } from './lib/app';
 import { newAccount, seedSwap, type SeededSwap } from './lib/seed';
+import { statementStats } from './lib/statement-stats';
 
 type Row = Record<string, string | number>;
 type ServerKey = 'app' | 'express' | 'http';
@@ -235,25 +235,6 @@ async function bytesPerResponse(base: string, req: Pick<LoadOptions, 'method' | 
     body: req.body,
   });
   return (await res.arrayBuffer()).byteLength;
-}
-
-/** The statements that took the most database time in the whole run (every server's), planning included. */
-async function statementStats(databaseUrl: string): Promise<Row[]> {
-  const client = new pg.Client({ connectionString: databaseUrl });
-  await client.connect();
-  try {
-    await client.query('CREATE EXTENSION IF NOT EXISTS pg_stat_statements');
-    const { rows } = await client.query<Row>(
-      `SELECT calls, round(total_exec_time::numeric, 1) AS run_ms, round(total_plan_time::numeric, 1) AS plan_ms,
-              round(((total_exec_time + total_plan_time) / greatest(calls, 1))::numeric, 3) AS ms_per_call,
-              left(regexp_replace(query, '\\s+', ' ', 'g'), 110) AS statement
-         FROM pg_stat_statements WHERE calls > 50
-        ORDER BY total_exec_time + total_plan_time DESC LIMIT 15`,
-    );
-    return rows;
-  } finally {
-    await client.end();
-  }
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
