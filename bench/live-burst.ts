@@ -330,14 +330,17 @@ function summarise(
     const lost = sum((r) => r.lost);
     const gaps = sum((r) => r.gaps);
     const busiest = Math.max(...rs.map((r) => r.busiest));
+    // Infinity when no run had two changes to compare.
+    const closest = Math.min(...rs.map((r) => r.closest));
     return {
       scenario: `${size.stations} stations × ${size.perStation} measurements, ${size.sockets} viewers, 60 × 4 swap`,
       server: target.server,
       runs: rs.length,
+      measurements: spread((r) => r.measurements),
       'measurements/s': spread((r) => r.perSecond),
       'board changes (per viewer)': spread((r) => r.changes),
       'most changes in 1 s': busiest,
-      'closest receipts_ms (viewer side)': round(Math.min(...rs.map((r) => r.closest))),
+      'closest receipts_ms (viewer side)': Number.isFinite(closest) ? round(closest) : 'n/a',
       p50_ms: spread((r) => r.p50),
       p95_ms: spread((r) => r.p95),
       p99_ms: spread((r) => r.p99),
