@@ -1,7 +1,10 @@
 /**
  * Where the time went in a `node --cpu-prof` profile: self time by package (or by folder of this
- * repository), self time by function, and inclusive time of this repository's own functions (the
- * function and everything it called), largest first.
+ * repository), self time by function, inclusive time of this repository's own functions (the
+ * function and everything it called), largest first, and the socket writes (`writev`) by the package
+ * that made them. A sampled `writev` is wall time on the thread, not only its CPU: on loopback the
+ * kernel runs the receiving side in the sender's call, and a process woken by the write (PostgreSQL's
+ * backend) can take the core from the sender while it is still in the call.
  * `npx tsx bench/profile.ts file.cpuprofile [rows]`.
  */
 import { readFileSync } from 'node:fs';
@@ -40,6 +43,7 @@ export function summarise(profile: Profile, rows = 25) {
   for (const n of profile.nodes) for (const c of n.children ?? []) parent.set(c, n.id);
   const self = { place: new Map<string, number>(), fn: new Map<string, number>(), own: new Map<string, number>() };
   const add = (m: Map<string, number>, k: string, us: number) => m.set(k, (m.get(k) ?? 0) + us);
+  const writes = new Map<string, number>();
   let idle = 0;
   let busy = 0;
   profile.samples.forEach((id, i) => {
@@ -53,6 +57,7 @@ export function summarise(profile: Profile, rows = 25) {
     busy += us;
     add(self.place, placeOf(url, functionName), us);
     add(self.fn, `${functionName || '(anonymous)'} ${shortUrl(url)}:${lineNumber + 1}`, us);
+    if (functionName === 'writev') add(writes, writerOf(id, byId, parent), us);
     const seen = new Set<string>();
     for (let at: number | undefined = id; at !== undefined; at = parent.get(at)) {
       const f = byId.get(at)!.callFrame;
@@ -73,7 +78,19 @@ export function summarise(profile: Profile, rows = 25) {
     byPlace: top(self.place),
     byFunction: top(self.fn),
     ownInclusive: top(self.own),
+    writes: top(writes),
   };
+}
+
+/** The nearest caller of a write that is a package (the socket libraries aside) or Node's HTTP server. */
+function writerOf(id: number, byId: Map<number, ProfileNode>, parent: Map<number, number>): string {
+  for (let at: number | undefined = id; at !== undefined; at = parent.get(at)) {
+    const { url } = byId.get(at)!.callFrame;
+    const pkg = /node_modules\/((?:@[^/]+\/)?[^/]+)/.exec(url)?.[1];
+    if (pkg && pkg !== 'ws') return pkg;
+    if (/^node:_http_/.test(url)) return 'node:http';
+  }
+  return '(elsewhere)';
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
@@ -87,4 +104,6 @@ if (import.meta.url === `file://${process.argv[1]}`) {
   console.table(s.byFunction);
   console.log("This repository's functions, inclusive of what they called:");
   console.table(s.ownInclusive);
+  console.log('Socket writes (writev) by the package that made them:');
+  console.table(s.writes);
 }
