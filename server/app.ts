@@ -2,7 +2,6 @@ import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import express, { type Express, type RequestHandler } from 'express';
 import helmet from 'helmet';
-import { pinoHttp } from 'pino-http';
 import { configurePassport } from './auth/passport';
 import { createSessionMiddleware } from './auth/session';
 import { SessionCache } from './auth/session-cache';
@@ -11,6 +10,7 @@ import { guildsRouter, invitationsRouter } from './guilds/guilds.routes';
 import { healthRouter } from './health.routes';
 import { requireCsrfHeader } from './http/csrf';
 import { refuseNul } from './http/refuse-nul';
+import { requestLog } from './http/request-log';
 import { apiNotFound, errorMiddleware } from './http/error-middleware';
 import type { AppDeps } from './deps';
 import { paymentsWebhookRouter } from './payments/payments.routes';
@@ -59,23 +59,7 @@ export function createApp(deps: AppDeps): BuiltApp {
       strictTransportSecurity: config.PUBLIC_URL.startsWith('https://'),
     }),
   );
-  app.use(
-    pinoHttp({
-      logger,
-      autoLogging: { ignore: (req) => !(req.url ?? '').startsWith('/api') },
-      customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
-      // Each request's logger is bound to its request when the request arrives, serialised there and
-      // then whatever the level: the headers (and their redaction) were a few per cent of a request's CPU.
-      serializers: {
-        req: (req: { id: unknown; method: string; url: string; remoteAddress?: string }) => ({
-          id: req.id,
-          method: req.method,
-          url: req.url,
-          remoteAddress: req.remoteAddress,
-        }),
-      },
-    }),
-  );
+  app.use(requestLog(logger));
 
   const sessionCache = new SessionCache();
   // Forgotten before the answer goes out: the sign-out's or reset's own node never serves it again.
