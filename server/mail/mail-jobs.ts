@@ -63,6 +63,41 @@ function singletonKey(job: ComposeJob) {
   return 'userId' in job ? `${job.kind}:${job.swapId}:${job.userId}` : `${job.kind}:${job.swapId}`;
 }
 
+/** How long before a waiting job's start this node stops counting on it (clock differences with the database). */
+const WAITING_MARGIN_MS = 5_000;
+
+/**
+ * The delayed compose jobs this node queued and that cannot have started yet. A later event for the
+ * same subject is covered by the waiting job, which composes from the state when it runs, so it is
+ * not sent to the queue again: on meeting night each ruler measurement raised two receipt events,
+ * each a round trip that the queue's one-waiting-job rule then refused (with the worker on, a
+ * measurement ran at two thirds of the rate, docs/benchmarks.md, stop 30). Only a job this node
+ * created counts, as only its start is known; one refused because another was waiting is not.
+ */
+export class WaitingJobs {
+  private until = new Map<string, number>();
+
+  constructor(private now: () => number = () => performance.now()) {}
+
+  /** Whether a job with this key, queued here, is still known to be waiting. */
+  covers(key: string): boolean {
+    const until = this.until.get(key);
+    if (until === undefined) return false;
+    if (until > this.now()) return true;
+    this.until.delete(key);
+    return false;
+  }
+
+  /** Records a job queued here at `queuedAt` (this clock) to start `delaySeconds` later. */
+  remember(key: string, queuedAt: number, delaySeconds: number) {
+    const until = queuedAt + delaySeconds * 1000 - WAITING_MARGIN_MS;
+    if (until <= this.now()) return;
+    this.until.set(key, until);
+    // Forget the jobs that have started, now and then, so the map holds only the waiting ones.
+    if (this.until.size > 1_000) for (const [k, u] of this.until) if (u <= this.now()) this.until.delete(k);
+  }
+}
+
 /** Starts the queue, its workers, its crons and the event subscriptions. */
 export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): Promise<MailJobs> {
   const { config, logger } = deps;
@@ -150,9 +185,28 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
 
   if (opts.events ?? true) {
     const delay = config.MAIL_BATCH_DELAY_SECONDS;
+    const waiting = new WaitingJobs();
+    const sending = new Map<string, Promise<string | null>>();
     // A listener's failure is logged by DomainEvents and never fails the request that emitted.
     const on = async (job: ComposeJob, delaySeconds = 0) => {
-      if (!closed) await enqueue(job, delaySeconds);
+      if (closed) return;
+      if (delaySeconds === 0) {
+        await enqueue(job);
+        return;
+      }
+      const key = singletonKey(job);
+      // Events of one tick (a measurement's change and its measuring) wait for the first one's answer.
+      const inFlight = sending.get(key);
+      if (inFlight) await inFlight.catch(() => null);
+      if (waiting.covers(key)) return;
+      const queuedAt = performance.now();
+      const sent = enqueue(job, delaySeconds);
+      sending.set(key, sent);
+      try {
+        if (await sent) waiting.remember(key, queuedAt, delaySeconds);
+      } finally {
+        if (sending.get(key) === sent) sending.delete(key);
+      }
     };
     deps.events.on('swap.transitioned', (e) => (e.to === 'signup' ? on({ kind: 'announcement', swapId: e.swapId }) : undefined));
     deps.events.on('signup.changed', (e) => on({ kind: 'signup-confirmation', swapId: e.swapId, userId: e.userId }, delay));
