@@ -2,13 +2,15 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { startMaildev } from '../../scripts/lib/maildev';
 import { freePort } from '../../scripts/lib/ports';
 import { startNodeServer, type NodeProcess } from './processes';
 
 /**
  * Starts the app (from the tree at `root`, this one by default) against `databaseUrl` with its own
- * empty photo store. The job worker is off (it would try to send mail to nowhere) and logging is at
- * warn, so no request writes a log line.
+ * empty photo store. The job worker runs, as production runs it on every node (the mail that events
+ * queue is part of a request's cost), and delivers to this app's own maildev; logging is at warn, so
+ * no answered request writes a log line.
  */
 export async function startAppProcess(
   databaseUrl: string,
@@ -16,6 +18,7 @@ export async function startAppProcess(
 ): Promise<NodeProcess> {
   // Its own photo store: the app refuses one that belongs to another database.
   const uploads = mkdtempSync(join(tmpdir(), 'blockpost-bench-uploads-'));
+  const maildev = await startMaildev({ smtpPort: await freePort(), webPort: await freePort() });
   const app = await startNodeServer({
     name: opts.name ?? 'app',
     script: 'server/index.ts',
@@ -30,15 +33,16 @@ export async function startAppProcess(
       HOST: '127.0.0.1',
       LOG_LEVEL: 'warn',
       SERVE_CLIENT: 'false',
-      JOBS: 'false',
-      SMTP_URL: 'smtp://127.0.0.1:9',
+      JOBS: 'true',
+      SMTP_URL: `smtp://127.0.0.1:${maildev.smtpPort}`,
       UPLOAD_DIR: uploads,
       // The bench signs in many stations and viewers from one address.
       LOGIN_RATE_LIMIT: '100000',
       LOGIN_IP_RATE_LIMIT: '100000',
       REGISTER_RATE_LIMIT: '100000',
     },
-  }).catch((error: unknown) => {
+  }).catch(async (error: unknown) => {
+    await maildev.stop();
     rmSync(uploads, { recursive: true, force: true });
     throw error;
   });
@@ -46,6 +50,7 @@ export async function startAppProcess(
     ...app,
     async stop() {
       await app.stop();
+      await maildev.stop();
       rmSync(uploads, { recursive: true, force: true });
     },
   };
