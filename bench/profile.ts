@@ -27,10 +27,13 @@ const shortUrl = (url: string) =>
     .replace(/^.*node_modules\//, '')
     .replace(/^.*\/(server|shared|bench)\//, '$1/');
 
+/** The npm package a script belongs to (`@scope/name` or `name`), if any. */
+const packageOf = (url: string) => /node_modules\/((?:@[^/]+\/)?[^/]+)/.exec(url)?.[1];
+
 function placeOf(url: string, fn: string) {
   if (!url) return fn.startsWith('(') ? fn : '(native)';
-  const pkg = /node_modules\/((?:@[^/]+\/)?[^/]+)/.exec(url);
-  if (pkg) return pkg[1]!;
+  const pkg = packageOf(url);
+  if (pkg) return pkg;
   if (url.startsWith('node:')) return url.split('/')[0]!;
   const own = /\/(server|shared|bench)\/([^/]+)/.exec(url);
   return own ? `${own[1]}/${own[2]}` : url;
@@ -86,7 +89,7 @@ export function summarise(profile: Profile, rows = 25) {
 function writerOf(id: number, byId: Map<number, ProfileNode>, parent: Map<number, number>): string {
   for (let at: number | undefined = id; at !== undefined; at = parent.get(at)) {
     const { url } = byId.get(at)!.callFrame;
-    const pkg = /node_modules\/((?:@[^/]+\/)?[^/]+)/.exec(url)?.[1];
+    const pkg = packageOf(url);
     if (pkg && pkg !== 'ws') return pkg;
     if (/^node:_http_/.test(url)) return 'node:http';
   }

@@ -76,8 +76,29 @@ const WAITING_MARGIN_MS = 5_000;
  */
 export class WaitingJobs {
   private until = new Map<string, number>();
+  /** the sends under way, by key */
+  private sending = new Map<string, Promise<string | null>>();
 
   constructor(private now: () => number = () => performance.now()) {}
+
+  /**
+   * Queues a job with `send` (its id, or null when the queue refused it) unless one queued here with
+   * this key is still waiting. Events of one tick for the key (a measurement's change and its
+   * measuring) wait for the first one's answer.
+   */
+  async queue(key: string, delaySeconds: number, send: () => Promise<string | null>) {
+    const inFlight = this.sending.get(key);
+    if (inFlight) await inFlight.catch(() => null);
+    if (this.covers(key)) return;
+    const queuedAt = this.now();
+    const sent = send();
+    this.sending.set(key, sent);
+    try {
+      if (await sent) this.remember(key, queuedAt, delaySeconds);
+    } finally {
+      if (this.sending.get(key) === sent) this.sending.delete(key);
+    }
+  }
 
   /** Whether a job with this key, queued here, is still known to be waiting. */
   covers(key: string): boolean {
@@ -186,27 +207,11 @@ export async function startMailJobs(deps: AppDeps, opts: MailJobsOptions = {}): 
   if (opts.events ?? true) {
     const delay = config.MAIL_BATCH_DELAY_SECONDS;
     const waiting = new WaitingJobs();
-    const sending = new Map<string, Promise<string | null>>();
     // A listener's failure is logged by DomainEvents and never fails the request that emitted.
     const on = async (job: ComposeJob, delaySeconds = 0) => {
       if (closed) return;
-      if (delaySeconds === 0) {
-        await enqueue(job);
-        return;
-      }
-      const key = singletonKey(job);
-      // Events of one tick (a measurement's change and its measuring) wait for the first one's answer.
-      const inFlight = sending.get(key);
-      if (inFlight) await inFlight.catch(() => null);
-      if (waiting.covers(key)) return;
-      const queuedAt = performance.now();
-      const sent = enqueue(job, delaySeconds);
-      sending.set(key, sent);
-      try {
-        if (await sent) waiting.remember(key, queuedAt, delaySeconds);
-      } finally {
-        if (sending.get(key) === sent) sending.delete(key);
-      }
+      if (delaySeconds === 0) await enqueue(job);
+      else await waiting.queue(singletonKey(job), delaySeconds, () => enqueue(job, delaySeconds));
     };
     deps.events.on('swap.transitioned', (e) => (e.to === 'signup' ? on({ kind: 'announcement', swapId: e.swapId }) : undefined));
     deps.events.on('signup.changed', (e) => on({ kind: 'signup-confirmation', swapId: e.swapId, userId: e.userId }, delay));

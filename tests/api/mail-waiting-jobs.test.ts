@@ -23,6 +23,18 @@ afterAll(async () => {
 const actor = { actorId: 1 };
 const swapRef = (swapId: number) => ({ swapId, guildId: 1 });
 
+/** A ruler measurement of a maker's block, as the measurement route announces it. */
+const measured = (swapId: number, makerId: number, blockId: number, verdict: 'true' | 'short' = 'true') =>
+  app.deps.events.emit('block.measured', {
+    ...swapRef(swapId),
+    ...actor,
+    blockId,
+    makerId,
+    measurementId: blockId,
+    verdict,
+    source: 'ruler',
+  });
+
 /** The compose jobs sent to the queue while `act` runs, as [kind, key fields]. */
 async function composeSends(act: () => void, settled: number) {
   const send = vi.spyOn(jobs.boss, 'send');
@@ -48,39 +60,15 @@ describe('delayed mail jobs queued from events', () => {
           from: 'received',
           to: 'measured',
         });
-        app.deps.events.emit('block.measured', {
-          ...swapRef(501),
-          ...actor,
-          blockId,
-          makerId: 7,
-          measurementId: blockId,
-          verdict: 'true',
-          source: 'ruler',
-        });
+        measured(501, 7, blockId);
       }
     }, 1);
     expect(sent).toEqual([{ kind: 'receipt', swapId: 501, userId: 7 }]);
 
     // Later measurements of the same maker's blocks: still covered by the waiting job.
     const later = await composeSends(() => {
-      app.deps.events.emit('block.measured', {
-        ...swapRef(501),
-        ...actor,
-        blockId: 14,
-        makerId: 7,
-        measurementId: 14,
-        verdict: 'short',
-        source: 'ruler',
-      });
-      app.deps.events.emit('block.measured', {
-        ...swapRef(501),
-        ...actor,
-        blockId: 21,
-        makerId: 8,
-        measurementId: 21,
-        verdict: 'true',
-        source: 'ruler',
-      });
+      measured(501, 7, 14, 'short');
+      measured(501, 8, 21);
     }, 1);
     // Another maker is another subject.
     expect(later).toEqual([{ kind: 'receipt', swapId: 501, userId: 8 }]);
@@ -89,18 +77,8 @@ describe('delayed mail jobs queued from events', () => {
   it('keeps asking while the waiting job is not its own', async () => {
     // A job for this subject queued elsewhere (another node): its start is unknown here.
     expect(await jobs.enqueue({ kind: 'receipt', swapId: 502, userId: 9 }, 60)).toBeTruthy();
-    const measured = (blockId: number) =>
-      app.deps.events.emit('block.measured', {
-        ...swapRef(502),
-        ...actor,
-        blockId,
-        makerId: 9,
-        measurementId: blockId,
-        verdict: 'true',
-        source: 'ruler',
-      });
-    const sent = await composeSends(() => measured(31), 1);
-    const again = await composeSends(() => measured(32), 1);
+    const sent = await composeSends(() => measured(502, 9, 31), 1);
+    const again = await composeSends(() => measured(502, 9, 32), 1);
     expect([...sent, ...again]).toEqual([
       { kind: 'receipt', swapId: 502, userId: 9 },
       { kind: 'receipt', swapId: 502, userId: 9 },
