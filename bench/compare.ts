@@ -1,14 +1,13 @@
 /**
  * This tree's app against another revision's, under the same load, runs interleaved: what one change
  * buys on a machine whose speed moves by a fifth from one minute to the next. Both apps are their own
- * processes on one throwaway database (the revision's tree is a git worktree beside this one, sharing
- * node_modules); every round runs A then B, or B then A, for BENCH_SECONDS (4), BENCH_ROUNDS (8) times,
- * and the table gives each side's medians and the median of the rounds' B/A ratios, which a machine
- * slowing down for a minute moves far less than it moves either side.
+ * processes, each on a database of its own in one throwaway cluster (the revision's tree is a git
+ * worktree beside this one, sharing node_modules); every round runs A then B, or B then A, for
+ * BENCH_SECONDS (4), BENCH_ROUNDS (8) times, and the table gives each side's medians and the median of
+ * the rounds' B/A ratios, which a machine slowing down for a minute moves far less than it moves
+ * either side.
  *
  *   npx tsx bench/compare.ts <git revision> [measure|roster|roster-600]
- *
- * The revision must share this tree's migrations (both apps migrate the same database on start).
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
@@ -55,38 +54,46 @@ async function main() {
   const cluster = await startThrowawayCluster('blockpost-compare-');
   const apps: NodeProcess[] = [];
   try {
-    const databaseUrl = await cluster.database('bench');
-    // A first: it migrates; B then finds the database ready.
-    const a = await startAppProcess(databaseUrl, { root: worktree, name: `A (${sha})` });
-    apps.push(a);
-    const b = await startAppProcess(databaseUrl, { name: 'B (this tree)' });
-    apps.push(b);
-
-    const coordinator = await newAccount(a.url, databaseUrl, 'compare-coordinator@example.test', 'Compare Coordinator');
-    const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Comparison Bee' });
-    const swap: SeededSwap = await seedSwap(databaseUrl, coordinator, guild.id, scenario.size);
-    // A guild's history beside it, as bench/api.ts seeds: a named statement planned on near-empty
-    // tables scans them, slower with every row the load adds, until autovacuum's analyze a minute
-    // later; without the history the rounds would measure that minute.
-    if (scenario.size.tag !== HISTORY.tag) await seedSwap(databaseUrl, coordinator, guild.id, HISTORY);
-    const headers = { cookie: coordinator.cookie, 'x-requested-with': 'blockpost' };
-    const request: Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers' | 'freshClientId'> =
-      scenarioName === 'measure'
-        ? {
-            method: 'POST',
-            paths: swap.measuredBlockIds.map((id) => `/api/blocks/${id}/measurements`),
-            headers,
-            body: JSON.stringify({ width: '9 1/2', height: '9 1/2' }),
-            freshClientId: true,
-          }
-        : { paths: [`/api/swaps/${swap.swapId}/roster`], headers };
+    /**
+     * Each app on a database of its own, seeded alike: on one database the two job workers queue mail
+     * for the same makers, and the app that queued a maker's receipt first left the other's every
+     * attempt refused, a round trip the first never made (B read 64 % of A with the same routes).
+     */
+    const startSide = async (name: string, root?: string) => {
+      const databaseUrl = await cluster.database(`bench_${apps.length}`);
+      const app = await startAppProcess(databaseUrl, { root, name });
+      apps.push(app);
+      const coordinator = await newAccount(app.url, databaseUrl, 'compare-coordinator@example.test', 'Compare Coordinator');
+      const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Comparison Bee' });
+      const swap: SeededSwap = await seedSwap(databaseUrl, coordinator, guild.id, scenario.size);
+      // A guild's history beside it, as bench/api.ts seeds: a named statement planned on near-empty
+      // tables scans them, slower with every row the load adds, until autovacuum's analyze a minute
+      // later; without the history the rounds would measure that minute.
+      if (scenario.size.tag !== HISTORY.tag) await seedSwap(databaseUrl, coordinator, guild.id, HISTORY);
+      const headers = { cookie: coordinator.cookie, 'x-requested-with': 'blockpost' };
+      const request: Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers' | 'freshClientId'> =
+        scenarioName === 'measure'
+          ? {
+              method: 'POST',
+              paths: swap.measuredBlockIds.map((id) => `/api/blocks/${id}/measurements`),
+              headers,
+              body: JSON.stringify({ width: '9 1/2', height: '9 1/2' }),
+              freshClientId: true,
+            }
+          : { paths: [`/api/swaps/${swap.swapId}/roster`], headers };
+      return { app, request };
+    };
+    const sideA = await startSide(`A (${sha})`, worktree);
+    const sideB = await startSide('B (this tree)');
+    const a = sideA.app;
+    const b = sideB.app;
 
     const run = async (app: NodeProcess, duration: number): Promise<Sample> => {
       const result = await loadWithCpu(app.pid, cluster.port, {
         url: app.url,
         connections: scenario.connections,
         duration,
-        ...request,
+        ...(app === a ? sideA : sideB).request,
       });
       if (result.errors + result.non2xx > 0) throw new Error(`${app.name}: ${result.errors + result.non2xx} failed requests`);
       const { rps, p99, serverCpuMs, dbCpuMs } = result;
