@@ -68,8 +68,9 @@ export function createApp(deps: AppDeps): BuiltApp {
   deps.events.on('account.changed', ({ userId }) => sessionCache.forgetUser(userId));
   const sessionMiddleware = createSessionMiddleware(config, deps.pool, sessionCache);
   const passport = configurePassport(deps);
-  // compat: false, as no strategy here predates passport 0.5 (compat adds a property to every request).
-  const passportMiddleware = [passport.initialize({ compat: false }), passport.session()];
+  // The session strategy alone: passport's authenticate() gives the request login(), logout() and
+  // isAuthenticated() itself (0.5.1 on), so initialize() would only add them to every request again.
+  const passportMiddleware = [passport.session()];
 
   const api = express.Router();
   // Health first: it must answer even when the session store (PostgreSQL) cannot.
