@@ -11,7 +11,6 @@ import { healthRouter } from './health.routes';
 import { requireCsrfHeader } from './http/csrf';
 import { refuseNul } from './http/refuse-nul';
 import { requestLog } from './http/request-log';
-import { firstSegmentRouters } from './http/first-segment-routers';
 import { apiNotFound, errorMiddleware } from './http/error-middleware';
 import type { AppDeps } from './deps';
 import { paymentsWebhookRouter } from './payments/payments.routes';
@@ -81,15 +80,10 @@ export function createApp(deps: AppDeps): BuiltApp {
   api.use(refuseNul);
   api.use(sessionMiddleware, ...passportMiddleware);
   api.use(requireCsrfHeader);
-  const guilds = express.Router().use('/guilds', guildsRouter(deps));
-  api.use(
-    firstSegmentRouters([
-      authRouter(deps),
-      invitationsRouter(deps),
-      guilds,
-      ...featureRouters.map((featureRouter) => featureRouter(deps)),
-    ]),
-  );
+  api.use(authRouter(deps));
+  api.use(invitationsRouter(deps));
+  api.use('/guilds', guildsRouter(deps));
+  for (const featureRouter of featureRouters) api.use(featureRouter(deps));
   api.use(apiNotFound);
   app.use('/api', api);
 
