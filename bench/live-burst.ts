@@ -249,9 +249,9 @@ export async function runLiveBurstBench(
     const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Burst Bee' });
     const swap = await seedSwap(databaseUrl, coordinator, guild.id, { members: 60, blocksEach: 4, tag: 'burst' });
     // The guild's history beside it, as bench/api.ts and bench/compare.ts seed: the app plans each named
-    // statement once per connection, and planned on a measurements table of a few pages its latest-
-    // measurement lookup is a scan, which the burst's 3,600 measurements make slower on every read until
-    // autovacuum's analyze has the statement planned again (a read took 1.05 ms instead of 0.48).
+    // statement once per connection and keeps its connections, and planned on tables of a few pages the
+    // measuring read scans blocks and measurements, which the burst's 3,600 updates and measurements make
+    // slower on every read until autovacuum's analyze has it planned again (1.05 ms a read against 0.27).
     await seedSwap(databaseUrl, coordinator, guild.id, { members: 600, blocksEach: 6, tag: 'history' });
 
     // Viewers: twenty members, ten tabs each; stations: the coordinator signed in ten times.
