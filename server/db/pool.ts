@@ -14,7 +14,9 @@ export const NAMED_STATEMENTS_PLANNED_ONCE = '-c plan_cache_mode=force_generic_p
  * How long an idle connection is kept. A connection's plans go with it, and the measuring read alone
  * takes 17–24 ms to plan: with pg's default of 10 s, every lull that long (between an intake desk's
  * rushes) closed the pool and the next requests planned every statement again on new connections.
- * An idle connection costs PostgreSQL a few megabytes, at most the pool's size of them.
+ * An idle connection costs PostgreSQL a few megabytes, at most the pool's size of them. A plan made
+ * while a table was tiny (a scan) stays with the connection until an ANALYZE of the table, autovacuum's
+ * once a tenth of it has changed, has every connection plan the statement again.
  */
 export const IDLE_CONNECTION_MS = 5 * 60_000;
 
