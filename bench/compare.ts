@@ -18,7 +18,7 @@ import type { LoadOptions } from './load';
 import { startAppProcess } from './lib/app';
 import { repoRoot, type NodeProcess } from './lib/processes';
 import { loadWithCpu } from './lib/load-with-cpu';
-import { newAccount, seedSwap, type SeededSwap } from './lib/seed';
+import { HISTORY_SIZE, newAccount, seedHistory, seedSwap, type SeededSwap } from './lib/seed';
 import { median, round } from './lib/stats';
 
 const SCENARIOS = {
@@ -27,7 +27,6 @@ const SCENARIOS = {
   'roster-600': { size: { members: 600, blocksEach: 6, tag: '600x6' }, connections: 10 },
 } as const;
 type ScenarioName = keyof typeof SCENARIOS;
-const HISTORY = { members: 600, blocksEach: 6, tag: '600x6' };
 
 interface Sample {
   rps: number;
@@ -66,10 +65,7 @@ async function main() {
       const coordinator = await newAccount(app.url, databaseUrl, 'compare-coordinator@example.test', 'Compare Coordinator');
       const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Comparison Bee' });
       const swap: SeededSwap = await seedSwap(databaseUrl, coordinator, guild.id, scenario.size);
-      // A guild's history beside it, as bench/api.ts seeds: a named statement planned on near-empty
-      // tables scans them, slower with every row the load adds, until autovacuum's analyze a minute
-      // later; without the history the rounds would measure that minute.
-      if (scenario.size.tag !== HISTORY.tag) await seedSwap(databaseUrl, coordinator, guild.id, HISTORY);
+      if (scenario.size.tag !== HISTORY_SIZE.tag) await seedHistory(databaseUrl, coordinator, guild.id);
       const headers = { cookie: coordinator.cookie, 'x-requested-with': 'blockpost' };
       const request: Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers' | 'freshClientId'> =
         scenarioName === 'measure'
@@ -83,17 +79,15 @@ async function main() {
           : { paths: [`/api/swaps/${swap.swapId}/roster`], headers };
       return { app, request };
     };
-    const sideA = await startSide(`A (${sha})`, worktree);
-    const sideB = await startSide('B (this tree)');
-    const a = sideA.app;
-    const b = sideB.app;
+    const a = await startSide(`A (${sha})`, worktree);
+    const b = await startSide('B (this tree)');
 
-    const run = async (app: NodeProcess, duration: number): Promise<Sample> => {
+    const run = async ({ app, request }: typeof a, duration: number): Promise<Sample> => {
       const result = await loadWithCpu(app.pid, cluster.port, {
         url: app.url,
         connections: scenario.connections,
         duration,
-        ...(app === a ? sideA : sideB).request,
+        ...request,
       });
       if (result.errors + result.non2xx > 0) throw new Error(`${app.name}: ${result.errors + result.non2xx} failed requests`);
       const { rps, p99, serverCpuMs, dbCpuMs } = result;
@@ -123,8 +117,8 @@ async function main() {
     });
     console.log(`\n${scenarioName}, ${scenario.connections} connections, ${rounds} rounds of ${seconds} s each side:`);
     console.table([
-      side(a.name, samples.a),
-      side(b.name, samples.b),
+      side(a.app.name, samples.a),
+      side(b.app.name, samples.b),
       {
         server: 'B / A (median of rounds)',
         rps: `${round(ratio('rps') * 100)} %`,

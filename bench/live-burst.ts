@@ -22,7 +22,7 @@ import { startAppProcess } from './lib/app';
 import { clusterCpuSeconds, cpuSeconds, repoRoot, startNodeServer, type NodeProcess } from './lib/processes';
 import { freePort } from '../scripts/lib/ports';
 import { median, quantile, round, withSpread } from './lib/stats';
-import { newAccount, seedSwap, signIn, type Session } from './lib/seed';
+import { newAccount, seedHistory, seedSwap, signIn, type Session } from './lib/seed';
 import type { ViewersAnswer, ViewersCommand } from './live-viewers';
 import { statementStats } from './lib/statement-stats';
 
@@ -248,11 +248,7 @@ export async function runLiveBurstBench(
     const coordinator = await newAccount(app.url, databaseUrl, 'burst-coordinator@example.test', 'Burst Coordinator');
     const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Burst Bee' });
     const swap = await seedSwap(databaseUrl, coordinator, guild.id, { members: 60, blocksEach: 4, tag: 'burst' });
-    // The guild's history beside it, as bench/api.ts and bench/compare.ts seed: the app plans each named
-    // statement once per connection and keeps its connections, and planned on tables of a few pages the
-    // measuring read scans blocks and measurements, which the burst's 3,600 updates and measurements make
-    // slower on every read until autovacuum's analyze has it planned again (1.05 ms a read against 0.27).
-    await seedSwap(databaseUrl, coordinator, guild.id, { members: 600, blocksEach: 6, tag: 'history' });
+    await seedHistory(databaseUrl, coordinator, guild.id);
 
     // Viewers: twenty members, ten tabs each; stations: the coordinator signed in ten times.
     const members: Session[] = [];
