@@ -2,6 +2,7 @@ import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { BaseError, ConnectionError, DatabaseError, ValidationError as SequelizeValidationError } from 'sequelize';
 import type { Logger } from '../logger';
 import { AppError, NotFoundError } from './errors';
+import { loggedUrl } from './request-log';
 
 export const apiNotFound: RequestHandler = (req) => {
   throw new NotFoundError(`There is no API route ${req.method} ${req.originalUrl.split('?')[0]}.`);
@@ -48,8 +49,8 @@ export function errorMiddleware(logger: Logger): ErrorRequestHandler {
     }
     // A deliberate "busy, come back in N seconds" is expected under load, not a failure of ours.
     if (res.get('Retry-After') && status === 503)
-      logger.warn({ code: body.code, url: req.originalUrl, method: req.method }, 'asked to retry later');
-    else if (status >= 500) logger.error({ err: error, url: req.originalUrl, method: req.method }, 'request failed');
+      logger.warn({ code: body.code, url: loggedUrl(req.originalUrl), method: req.method }, 'asked to retry later');
+    else if (status >= 500) logger.error({ err: error, url: loggedUrl(req.originalUrl), method: req.method }, 'request failed');
     res.status(status).json({ error: body });
   };
 }

@@ -7,7 +7,7 @@ export function requestLogLevel(statusCode: number): 'error' | 'warn' | 'info' {
 }
 
 /**
- * One log line for each API request, when it ends: its id, method, URL and address, the status, and the
+ * One log line for each API request, when it ends: its id, method, URL (secrets redacted) and address, the status, and the
  * milliseconds it took; nothing for the client's pages and files. pino writes the line (the logger's
  * redaction applies as to any other), and nothing is built when the line's level is off.
  *
@@ -29,13 +29,26 @@ export function requestLog(logger: Logger): RequestHandler {
   };
 }
 
+// Links that carry their own secret: an invitation's token (its path) and a signed unsubscribe token
+// (the query). Anyone reading the log could otherwise join the guild or change someone's mail.
+const INVITATION_TOKEN = /^(\/api\/invitations\/)[^/?#]+/;
+const TOKEN_PARAM = /([?&]token=)[^&#]*/g;
+const REDACTED = '[redacted]';
+
+/** The URL as the log keeps it: a request's secrets replaced by `[redacted]`, the rest as it came. */
+export function loggedUrl(url: string): string {
+  // Most requests carry neither; they pay two searches, not a rewrite.
+  if (!url.includes('/invitations/') && !url.includes('token=')) return url;
+  return url.replace(INVITATION_TOKEN, `$1${REDACTED}`).replace(TOKEN_PARAM, `$1${REDACTED}`);
+}
+
 function logRequest(logger: Logger, req: Request, res: Response, id: number, ms: number) {
   const level = requestLogLevel(res.statusCode);
   if (!logger.isLevelEnabled(level)) return;
   const answered = res.writableFinished;
   logger[level](
     {
-      req: { id, method: req.method, url: req.originalUrl, remoteAddress: req.ip },
+      req: { id, method: req.method, url: loggedUrl(req.originalUrl), remoteAddress: req.ip },
       res: { statusCode: res.statusCode },
       responseTime: Math.round(ms),
     },

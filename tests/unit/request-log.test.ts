@@ -5,7 +5,7 @@ import express from 'express';
 import supertest from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { createLogger } from '../../server/logger';
-import { requestLog, requestLogLevel } from '../../server/http/request-log';
+import { loggedUrl, requestLog, requestLogLevel } from '../../server/http/request-log';
 
 type Line = {
   level: number;
@@ -29,6 +29,8 @@ function loggedApp(level: 'info' | 'warn' = 'info') {
   const app = express();
   app.use(requestLog(logger));
   app.post('/api/blocks/:id/measurements', (_req, res) => void res.status(201).json({ ok: true }));
+  app.get('/api/invitations/:token', (_req, res) => void res.json({ guild: 'Harbour Lights' }));
+  app.get('/api/unsubscribe/info', (_req, res) => void res.json({ category: 'reminders' }));
   app.get('/api/missing', (_req, res) => void res.status(404).json({ error: { code: 'not_found', message: 'No.' } }));
   app.get('/api/broken', (_req, res) => void res.status(500).json({ error: { code: 'internal', message: 'Oops.' } }));
   app.get('/api/slow', () => {
@@ -96,6 +98,30 @@ describe('the request log', () => {
     await supertest(app).get('/api/missing').expect(404);
     await expect.poll(() => lines.length).toBe(1);
     expect(lines[0]).toMatchObject({ level: WARN, req: { url: '/api/missing' }, res: { statusCode: 404 } });
+  });
+
+  it('keeps the secret of an invitation link or an unsubscribe link out of the line', async () => {
+    const { app, lines } = loggedApp();
+    const invitation = 'inv_Zq8sK2mW4xY7pR1tV9bN3cL6';
+    const unsubscribe = 'MTIzOnJlbWluZGVyczoxNzAw.sig-Hk3Lw9';
+    await supertest(app).get(`/api/invitations/${invitation}`).expect(200);
+    await supertest(app).get(`/api/unsubscribe/info?token=${unsubscribe}&from=mail`).expect(200);
+    await expect.poll(() => lines.length).toBe(2);
+    expect(lines.map((l) => l.req.url)).toEqual([
+      '/api/invitations/[redacted]',
+      '/api/unsubscribe/info?token=[redacted]&from=mail',
+    ]);
+    expect(JSON.stringify(lines)).not.toContain(invitation);
+    expect(JSON.stringify(lines)).not.toContain(unsubscribe.slice(0, 12));
+  });
+
+  it('leaves every other URL as it came, and redacts each token of a URL', () => {
+    expect(loggedUrl('/api/blocks/12/measurements?from=intake')).toBe('/api/blocks/12/measurements?from=intake');
+    // A guild's own list of invitations is addressed by number, not by token.
+    expect(loggedUrl('/api/guilds/3/invitations/41')).toBe('/api/guilds/3/invitations/41');
+    expect(loggedUrl('/api/invitations/abcdefghijklmnopqrstuv/accept')).toBe('/api/invitations/[redacted]/accept');
+    expect(loggedUrl('/api/unsubscribe?token=a.b&token=c.d')).toBe('/api/unsubscribe?token=[redacted]&token=[redacted]');
+    expect(loggedUrl('/api/swaps?mytoken=kept')).toBe('/api/swaps?mytoken=kept');
   });
 
   it('says so when the client went away before the answer', async () => {
