@@ -34,6 +34,8 @@ interface Scenario {
 export interface ApiBenchResult {
   rows: Row[];
   goals: Row[];
+  /** The roster's CPU (server and database) per block at each size: whether cost grows with the work. */
+  perBlock: Row[];
   memory: Row[];
 }
 
@@ -128,7 +130,7 @@ export async function runApiBench(
 
     const rows: Row[] = [];
     const goals: Row[] = [];
-    const medians = new Map<string, Record<ServerKey, { rps: number; p99: number }>>();
+    const medians = new Map<string, Record<ServerKey, { rps: number; p99: number; cpuMs: number }>>();
     for (const scenario of scenarios) {
       const results: Record<ServerKey, LoadWithCpu[]> = { app: [], express: [], http: [] };
       for (let run = 0; run < runs; run++) for (const s of SERVERS) results[s].push(await load(s, scenario, duration));
@@ -136,11 +138,11 @@ export async function runApiBench(
         await Promise.all(SERVERS.map(async (s) => [s, await bytesPerResponse(url(s), scenario.request(s))])),
       ) as Record<ServerKey, number>;
       const expressRps = median(results.express.map((r) => r.rps));
-      const summary = {} as Record<ServerKey, { rps: number; p99: number }>;
+      const summary = {} as Record<ServerKey, { rps: number; p99: number; cpuMs: number }>;
       for (const s of SERVERS) {
         const rs = results[s];
         const rps = median(rs.map((r) => r.rps));
-        summary[s] = { rps, p99: median(rs.map((r) => r.p99)) };
+        summary[s] = { rps, p99: median(rs.map((r) => r.p99)), cpuMs: median(rs.map((r) => r.serverCpuMs + r.dbCpuMs)) };
         rows.push({
           scenario: scenario.name,
           server: LABEL[s],
@@ -170,7 +172,7 @@ export async function runApiBench(
     const pct = (a: number, b: number) => Math.round((a / b) * 100);
     const at = (name: string) => medians.get(name)!;
     if (opts.statementStats) console.table(await statementStats(databaseUrl));
-    if (opts.only) return { rows, goals, memory: memoryRows(servers) };
+    if (opts.only) return { rows, goals, perBlock: [], memory: memoryRows(servers) };
     for (const c of [10, 50]) {
       const m = at(`GET roster ${sizeName(small)}, ${c} connections`);
       goals.push(
@@ -212,7 +214,22 @@ export async function runApiBench(
       ),
     );
 
-    return { rows, goals, memory: memoryRows(servers) };
+    // The ratio moves with both sides; this says how each side's own cost grows with the blocks it serves.
+    const perBlock = swaps.map((swap) => {
+      const m = at(`GET roster ${sizeName(swap)}, 10 connections`);
+      const blocks = swap.members * swap.blocksEach;
+      const micros = (s: ServerKey) => round((m[s].cpuMs * 1000) / blocks, 1);
+      return {
+        roster: sizeName(swap),
+        blocks,
+        'app µs/block': micros('app'),
+        'bare Express µs/block': micros('express'),
+        'bare node:http µs/block': micros('http'),
+        'app ÷ Express': `${pct(m.app.cpuMs, m.express.cpuMs)} %`,
+      };
+    });
+
+    return { rows, goals, perBlock, memory: memoryRows(servers) };
   } finally {
     for (const s of SERVERS) await servers[s]?.stop().catch(() => undefined);
     cluster.stop();

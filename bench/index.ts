@@ -64,8 +64,13 @@ await section(
   },
 );
 if (api) {
-  const { goals, memory } = api as ApiBenchResult;
+  const { goals, perBlock, memory } = api as ApiBenchResult;
   await section('API goals', 'Ratios to bare Express from the runs above.', () => goals);
+  await section(
+    'Roster cost per block',
+    'Server and database CPU per roster request (medians of the runs above) divided by the blocks it lists, at each size: a cost that grows with the work stays level down a column.',
+    () => perBlock,
+  );
   await section('Memory after the API bench', 'Resident set size of each server process at the end, and its peak.', () => memory);
 }
 const runLiveBench = await optional<() => Promise<Row[]>>('./live.ts', 'runLiveBench');
