@@ -7,7 +7,7 @@ import { buildRoster, rosterPartFrom, type MemberTuple, type RosterData, type Ro
 import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
 import { activityDtos, activityLinesJson, type SwapEvent } from './board-activity';
-import { BOARD_VERSION, bumpVersion, RECORD_ACTIVITY, ROSTER_PART_POSITIONAL, ROSTER_POSITIONAL } from './board.queries';
+import { BOARD_VERSION, bumpVersion, RECORD_ACTIVITY, ROSTER_CHUNKS, ROSTER_PART_POSITIONAL } from './board.queries';
 import { oneTripTransaction, type TripStatement } from '../db/one-trip';
 import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
 import { swapColumns } from '../swaps/swaps.queries';
@@ -133,7 +133,7 @@ export class BoardFanout {
       ...(lines ? [{ name: 'fanout_activity', text: RECORD_ACTIVITY, values: [lines, new Date()] }] : []),
       affected
         ? { name: 'fanout_rows', text: ROSTER_PART_POSITIONAL, values: [swapId, affected] }
-        : { name: 'fanout_roster', text: ROSTER_POSITIONAL, values: [swapId] },
+        : { name: 'fanout_roster_chunks', text: ROSTER_CHUNKS, values: [swapId] },
     ];
     const answered = await oneTripTransaction(this.db, statements).catch((error: { code?: string }) => {
       if (error.code === FOREIGN_KEY_VIOLATION) return null; // the swap was deleted since
@@ -146,15 +146,18 @@ export class BoardFanout {
       verdictsVisibleTo: string;
     };
     const swap = Swap.build(values as never, { isNewRecord: false, raw: true });
-    const rows = answered[answered.length - 1]![0]!;
+    const read = answered[answered.length - 1]!;
     return {
       swap,
       version: Number(version),
       verdictsVisibleTo,
       activities: lines ? activityDtos(answered[1]!) : [],
       roster: affected
-        ? rosterPartFrom(swap, rows as unknown as RosterPartRow)
-        : await buildRoster(this.deps, swap, { withAddresses: false, members: (rows as { roster: MemberTuple[] }).roster }),
+        ? rosterPartFrom(swap, read[0] as unknown as RosterPartRow)
+        : await buildRoster(this.deps, swap, {
+            withAddresses: false,
+            members: (read as { members: string }[]).flatMap((r) => JSON.parse(r.members) as MemberTuple[]),
+          }),
     };
   }
 

@@ -21,12 +21,12 @@ export function boardRouter(deps: AppDeps) {
     route(
       {
         params: swapParamsSchema,
-        // The roster is read in the policy's query of the swap: one round trip for both.
+        // The roster is read beside the policy's query of the swap: one round trip for both.
         authorize: (req, { params }) => canReadSwap(deps, currentUser(req).id, params.swapId, ROSTER_WITH_SWAP),
       },
       async ({ access: { swap, canManage } }, req, res) => {
         const viewer = { userId: currentUser(req).id, canManage };
-        const members = takeColumn<MemberTuple[]>(swap, 'roster');
+        const members = takeColumn<string[]>(swap, 'roster')!.flatMap((chunk) => JSON.parse(chunk) as MemberTuple[]);
         res.json(await getRoster(deps, swap, { withAddresses: canManage, viewer, members }));
       },
     ),

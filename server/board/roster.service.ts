@@ -8,7 +8,7 @@ import type { Swap } from '../db/models';
 import type { AppDeps } from '../deps';
 import { photoRef } from '../blocks/photo-refs';
 import { latestEstimateDto, type LatestEstimateRow } from '../blocks/latest-estimate';
-import { ROSTER_POSITIONAL } from './board.queries';
+import { ROSTER_CHUNKS } from './board.queries';
 import { guildVerdictsVisibleTo, rosterForMember, seesAllVerdicts, type VerdictViewer } from '../blocks/verdict-visibility';
 
 // A rank lookup rather than two searches of the list of states.
@@ -110,12 +110,12 @@ export async function buildRoster(
   const members =
     opts.members ??
     (
-      await deps.pool.query<{ roster: MemberTuple[] }>({
-        name: 'roster',
-        text: ROSTER_POSITIONAL,
+      await deps.pool.query<{ members: string }>({
+        name: 'roster-chunks',
+        text: ROSTER_CHUNKS,
         values: [swap.id],
       })
-    ).rows[0]!.roster;
+    ).rows.flatMap((r) => JSON.parse(r.members) as MemberTuple[]);
   const totals = emptyTally();
   const rows = rosterRows(members, opts.withAddresses, totals);
   return { swap: swapSummary(swap), totals: { ...totals, members: members.length }, rows };

@@ -41,7 +41,21 @@ function literal(client: pg.ClientBase, value: TripValue): string {
  * change): a round trip waits for a turn of a busy event loop, so five of them cost a change far more
  * than the database's work does.
  */
-export async function oneTripTransaction(pool: pg.Pool, statements: TripStatement[]): Promise<Record<string, unknown>[][]> {
+export function oneTripTransaction(pool: pg.Pool, statements: TripStatement[]): Promise<Record<string, unknown>[][]> {
+  return oneTrip(pool, statements, true);
+}
+
+/**
+ * Runs reads that do not depend on each other's answers in a single round trip, as `oneTripTransaction`
+ * does but with no BEGIN and COMMIT: PostgreSQL runs the statements of one message as one implicit
+ * transaction. For a read whose rows should come back as rows, beside another read (the roster with
+ * the swap policy's row).
+ */
+export function oneTripRead(pool: pg.Pool, statements: TripStatement[]): Promise<Record<string, unknown>[][]> {
+  return oneTrip(pool, statements, false);
+}
+
+async function oneTrip(pool: pg.Pool, statements: TripStatement[], transaction: boolean): Promise<Record<string, unknown>[][]> {
   for (const s of statements) if (!IDENTIFIER.test(s.name)) throw new TypeError(`not a statement name: ${s.name}`);
   const client = await pool.connect();
   let broken: Error | undefined;
@@ -51,13 +65,13 @@ export async function oneTripTransaction(pool: pg.Pool, statements: TripStatemen
     const execute = statements.map((s) =>
       s.values.length ? `EXECUTE ${s.name}(${s.values.map((v) => literal(client, v)).join(', ')})` : `EXECUTE ${s.name}`,
     );
+    const sql = transaction ? [...prepare, 'BEGIN', ...execute, 'COMMIT'] : [...prepare, ...execute];
     // Several statements in one simple query come back as one result each.
-    const answered = (await client.query([...prepare, 'BEGIN', ...execute, 'COMMIT'].join(';\n'))) as unknown as
-      pg.QueryResult[] | pg.QueryResult;
+    const answered = (await client.query(sql.join(';\n'))) as unknown as pg.QueryResult[] | pg.QueryResult;
     const results = Array.isArray(answered) ? answered : [answered];
     for (const s of statements) prepared.add(s.name);
     preparedOn.set(client, prepared);
-    const first = prepare.length + 1; // after the PREPAREs and BEGIN
+    const first = prepare.length + (transaction ? 1 : 0); // after the PREPAREs (and BEGIN)
     return results.slice(first, first + statements.length).map((r) => r.rows as Record<string, unknown>[]);
   } catch (error) {
     broken = error instanceof Error ? error : new Error(String(error));

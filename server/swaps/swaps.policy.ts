@@ -9,6 +9,7 @@ import { assertGuildRole, can } from '../guilds/guilds.policy';
 import { ForbiddenError, NotFoundError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { swapWithViewerRole } from './swaps.queries';
+import { oneTripRead } from '../db/one-trip';
 
 export interface SwapAccess {
   swap: Swap;
@@ -25,13 +26,16 @@ export function takeViewerRole(swap: Swap): Role | null {
 }
 
 /**
- * Columns read with the swap in the policy's query, under a statement name of their own: a route
- * that needs more of the swap than its row (the board's roster) reads it in the same round trip.
- * Their values arrive on the swap's dataValues for the route to take (`takeColumn`).
+ * Rows read beside the swap in the policy's round trip, under a statement name of their own: a route
+ * that needs more than the swap's row (the board's roster) reads it in the same message (`oneTripRead`).
+ * `rows` takes the swap as $1 and the viewer as $2; the rows' `column`, in order, arrives as an array
+ * of the same name on the swap's dataValues for the route to take (`takeColumn`).
  */
 export interface SwapReadExtra {
+  /** a plain SQL identifier: the statement is PREPAREd on the connection */
   name: string;
-  columns: string;
+  rows: string;
+  column: string;
 }
 
 /** Takes an extra column read with the swap off its instance. */
@@ -42,30 +46,40 @@ export function takeColumn<T>(swap: Swap, name: string): T | undefined {
   return value;
 }
 
-const SWAP_WITH_ROLE: SwapReadExtra = { name: 'swap-with-role', columns: '' };
-
 /**
  * The swap and the caller's role in one query, its SQL written out once: on every swap request
  * Sequelize spent more CPU building a findByPk with the role's subquery than the database spent
  * answering it. A named statement on the plain pool, so PostgreSQL keeps its plan; the instance is
  * built from the row as findByPk would build it (the pool parses these column types as Sequelize does).
+ * With `extra`, its rows are read in the same round trip.
  */
 async function loadSwap(
   deps: Pick<AppDeps, 'pool'>,
   userId: number,
   swapId: number,
-  extra: SwapReadExtra = SWAP_WITH_ROLE,
+  extra?: SwapReadExtra,
 ): Promise<{ swap: Swap; role: Role | null }> {
-  const {
-    rows: [row],
-  } = await deps.pool.query<Record<string, unknown>>({
-    name: extra.name,
-    text: swapWithViewerRole(extra.columns || undefined),
-    values: [swapId, userId],
-  });
+  const row = extra
+    ? await withExtraRows(deps, userId, swapId, extra)
+    : (
+        await deps.pool.query<Record<string, unknown>>({
+          name: 'swap-with-role',
+          text: swapWithViewerRole(),
+          values: [swapId, userId],
+        })
+      ).rows[0];
   if (!row) throw new NotFoundError('That swap does not exist.');
   const { viewerRole: role, ...values } = row;
   return { swap: Swap.build(values as never, { isNewRecord: false, raw: true }), role: (role ?? null) as Role | null };
+}
+
+async function withExtraRows(deps: Pick<AppDeps, 'pool'>, userId: number, swapId: number, extra: SwapReadExtra) {
+  const [[row], rows] = (await oneTripRead(deps.pool, [
+    { name: 'swap_with_role', text: swapWithViewerRole(), values: [swapId, userId] },
+    { name: extra.name, text: extra.rows, values: [swapId, userId] },
+  ])) as [Record<string, unknown>[], Record<string, unknown>[]];
+  if (row) row[extra.column] = rows.map((r) => r[extra.column]);
+  return row;
 }
 
 /** Active members of the guild; drafts only for coordinators and admins. */

@@ -24,11 +24,10 @@ export function swapColumns(): string {
 
 /**
  * Swap $1 with every column aliased to its attribute name (the row findByPk would read) and the role
- * of $2 in its guild as "viewerRole", numbered for a named statement on the plain pool; `extra`
- * columns (on "Swap", with the same parameters) are read in the same row.
+ * of $2 in its guild as "viewerRole", numbered for a named statement on the plain pool.
  */
-export function swapWithViewerRole(extra?: string): string {
-  return `SELECT ${swapColumns()}, ${viewerRole('Swap')} AS "viewerRole"${extra ? `, ${extra}` : ''}
+export function swapWithViewerRole(): string {
+  return `SELECT ${swapColumns()}, ${viewerRole('Swap')} AS "viewerRole"
             FROM swaps "Swap" WHERE "Swap"."id" = $swapId`
     .replaceAll('$swapId', '$1')
     .replaceAll('$viewerId', '$2');

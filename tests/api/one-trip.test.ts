@@ -5,7 +5,7 @@
  */
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { oneTripTransaction } from '../../server/db/one-trip';
+import { oneTripRead, oneTripTransaction } from '../../server/db/one-trip';
 import { createTestDatabase } from '../helpers/test-app';
 
 let pool: pg.Pool;
@@ -73,5 +73,20 @@ describe('one round trip for a short transaction', () => {
     const [counted, note] = await trip;
     expect(note).toEqual([{ body: 'after' }]);
     expect((counted![0] as { n: number }).n).toBeGreaterThan(100);
+  });
+
+  it('reads in one message without BEGIN or COMMIT, and the message is still all or nothing', async () => {
+    const [counter, note] = await oneTripRead(pool, [
+      { name: 'trip_read_counter', text: 'SELECT n FROM trip_counter WHERE id = $1', values: [1] },
+      readNote,
+    ]);
+    expect(note).toEqual([{ body: expect.any(String) }]);
+    const before = (counter as { n: number }[])[0]!.n;
+    // PostgreSQL runs the statements of one message as one implicit transaction.
+    await expect(
+      oneTripRead(pool, [bump, { name: 'trip_fail', text: 'SELECT 1 / ($1::int - 1)', values: [1] }]),
+    ).rejects.toMatchObject({ code: '22012' });
+    const { rows } = await other.query<{ n: number }>('SELECT n FROM trip_counter WHERE id = 1');
+    expect(rows[0]!.n).toBe(before);
   });
 });
