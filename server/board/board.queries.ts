@@ -12,8 +12,8 @@ import type { SwapReadExtra } from '../swaps/swaps.policy';
  * than looked up block by block. by_maker is MATERIALIZED so it is computed once: before a new swap's
  * rows have statistics the planner would otherwise re-aggregate it for every member.
  *
- * `rosterQuery('chunks')` answers the members in rows of up to ROSTER_CHUNK (a JSON array each, `members`
- * or `alias`, in name order), `rosterQuery('array')` one JSON array of them all. A whole roster is read in
+ * `rosterQuery('chunks')` answers the members in rows of up to ROSTER_CHUNK, in name order (each row's
+ * `members`, or `alias`, the text of a JSON array), `rosterQuery('array')` one JSON array of them all. A whole roster is read in
  * chunks: as one value, a 600 × 6 roster is a 240 KB field that PostgreSQL builds and sends whole and the
  * app copies as it arrives and decodes as one string (on this kind of machine each allocation that large
  * costs page faults on both sides); a row per member costs the app a row's handling 600 times. The chunks
