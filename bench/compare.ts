@@ -10,10 +10,10 @@
  *   npx tsx bench/compare.ts <git revision> [measure|roster|roster-600]
  */
 import { execFileSync } from 'node:child_process';
-import pg from 'pg';
 import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import pg from 'pg';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
 import type { LoadOptions } from './load';
 import { startAppProcess } from './lib/app';

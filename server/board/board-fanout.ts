@@ -3,7 +3,7 @@ import { QueryTypes } from 'sequelize';
 import type { BoardChange, BoardPatch } from '@shared/live-events';
 import type { RosterRowDto } from '@shared/swap-types';
 import { Swap } from '../db/models';
-import { buildRoster, rosterPartFrom, type MemberTuple, type RosterData, type RosterPartRow } from './roster.service';
+import { buildRoster, membersFromChunks, rosterPartFrom, type RosterData, type RosterPartRow } from './roster.service';
 import type { AppDeps } from '../deps';
 import type { LiveServer } from '../live/live-types';
 import { activityDtos, activityLinesJson, type SwapEvent } from './board-activity';
@@ -156,7 +156,7 @@ export class BoardFanout {
         ? rosterPartFrom(swap, read[0] as unknown as RosterPartRow)
         : await buildRoster(this.deps, swap, {
             withAddresses: false,
-            members: (read as { members: string }[]).flatMap((r) => JSON.parse(r.members) as MemberTuple[]),
+            members: membersFromChunks((read as { members: string }[]).map((r) => r.members)),
           }),
     };
   }

@@ -4,7 +4,7 @@ import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { canReadSwap, takeColumn } from '../swaps/swaps.policy';
 import { listActivity } from './board-activity';
-import { getRoster, type MemberTuple } from './roster.service';
+import { getRoster, membersFromChunks } from './roster.service';
 import { ROSTER_WITH_SWAP } from './board.queries';
 import { activitiesForMember, guildVerdictsVisibleTo, seesAllVerdicts } from '../blocks/verdict-visibility';
 import type { AppDeps } from '../deps';
@@ -26,7 +26,7 @@ export function boardRouter(deps: AppDeps) {
       },
       async ({ access: { swap, canManage } }, req, res) => {
         const viewer = { userId: currentUser(req).id, canManage };
-        const members = takeColumn<string[]>(swap, 'roster')!.flatMap((chunk) => JSON.parse(chunk) as MemberTuple[]);
+        const members = membersFromChunks(takeColumn<string[]>(swap, 'roster')!);
         res.json(await getRoster(deps, swap, { withAddresses: canManage, viewer, members }));
       },
     ),

@@ -40,6 +40,11 @@ export type MemberTuple = [
   blocks: BlockTuple[] | null,
 ];
 
+/** The members of a roster read in chunks (ROSTER_CHUNKS, ROSTER_WITH_SWAP): each chunk the text of a JSON array. */
+export function membersFromChunks(chunks: string[]): MemberTuple[] {
+  return chunks.flatMap((chunk) => JSON.parse(chunk) as MemberTuple[]);
+}
+
 type Tally = RosterCounts & { accepted: number };
 
 // One literal with every field: a tally made by spreading another object has a slow shape, and
@@ -109,13 +114,15 @@ export async function buildRoster(
   // used as they are. Otherwise a named statement on the plain pool: PostgreSQL keeps its plan.
   const members =
     opts.members ??
-    (
-      await deps.pool.query<{ members: string }>({
-        name: 'roster-chunks',
-        text: ROSTER_CHUNKS,
-        values: [swap.id],
-      })
-    ).rows.flatMap((r) => JSON.parse(r.members) as MemberTuple[]);
+    membersFromChunks(
+      (
+        await deps.pool.query<{ members: string }>({
+          name: 'roster-chunks',
+          text: ROSTER_CHUNKS,
+          values: [swap.id],
+        })
+      ).rows.map((r) => r.members),
+    );
   const totals = emptyTally();
   const rows = rosterRows(members, opts.withAddresses, totals);
   return { swap: swapSummary(swap), totals: { ...totals, members: members.length }, rows };
