@@ -26,11 +26,15 @@ export function swapColumns(): string {
  * Swap $1 with every column aliased to its attribute name (the row findByPk would read) and the role
  * of $2 in its guild as "viewerRole", numbered for a named statement on the plain pool.
  */
+let swapWithRoleSql: string | undefined;
+
 export function swapWithViewerRole(): string {
-  return `SELECT ${swapColumns()}, ${viewerRole('Swap')} AS "viewerRole"
+  // Built once, as swapColumns is: every swap request sends it.
+  swapWithRoleSql ??= `SELECT ${swapColumns()}, ${viewerRole('Swap')} AS "viewerRole"
             FROM swaps "Swap" WHERE "Swap"."id" = $swapId`
     .replaceAll('$swapId', '$1')
     .replaceAll('$viewerId', '$2');
+  return swapWithRoleSql;
 }
 
 /** Active sign-ups, blocks pledged and the pledge of `$userId`, for each swap in `$ids`. */
