@@ -13,8 +13,8 @@ import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import pg from 'pg';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
+import { withClient } from '../scripts/lib/postgres';
 import type { LoadOptions } from './load';
 import { startAppProcess } from './lib/app';
 import { repoRoot, type NodeProcess } from './lib/processes';
@@ -84,7 +84,7 @@ async function main() {
     const b = await startSide('B (this tree)');
     // Both databases settled before the first round: left to autovacuum, the one seeded last was vacuumed
     // during the rounds, on its side's figures.
-    for (const side of [a, b]) await vacuum(side.databaseUrl);
+    for (const side of [a, b]) await withClient(side.databaseUrl, (client) => client.query('VACUUM (ANALYZE)'));
 
     const run = async ({ app, request }: typeof a, duration: number): Promise<Sample> => {
       const result = await loadWithCpu(app.pid, cluster.port, {
@@ -140,15 +140,5 @@ async function main() {
 }
 
 const round_ = (n: number) => Math.round(n);
-
-async function vacuum(databaseUrl: string) {
-  const client = new pg.Client({ connectionString: databaseUrl });
-  await client.connect();
-  try {
-    await client.query('VACUUM (ANALYZE)');
-  } finally {
-    await client.end();
-  }
-}
 
 await main();

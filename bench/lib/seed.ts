@@ -3,7 +3,7 @@
  * the swaps and their moves) and written straight into PostgreSQL where only volume matters (the
  * members, their pledges and blocks, and the half of the blocks already measured).
  */
-import pg from 'pg';
+import { withClient } from '../../scripts/lib/postgres';
 import { normaliseEmail } from '../../shared/schemas/auth';
 import { hashPassword } from '../../server/auth/passwords';
 
@@ -24,17 +24,13 @@ let benchHash: Promise<string> | undefined;
  */
 export async function createAccount(databaseUrl: string, email: string, displayName: string): Promise<number> {
   benchHash ??= hashPassword(BENCH_PASSWORD);
-  const client = new pg.Client({ connectionString: databaseUrl });
-  await client.connect();
-  try {
+  return withClient(databaseUrl, async (client) => {
     const { rows } = await client.query<{ id: number }>(
       `INSERT INTO users (email, display_name, password_hash, created_at, updated_at) VALUES ($1, $2, $3, now(), now()) RETURNING id`,
       [normaliseEmail(email), displayName, await benchHash],
     );
     return rows[0]!.id;
-  } finally {
-    await client.end();
-  }
+  });
 }
 
 /** A new confirmed account, signed in on the app at `baseUrl`. */
@@ -100,9 +96,7 @@ export async function seedSwap(
     mode: 'return',
   });
   await coordinator.api('POST', `/swaps/${swap.id}/transitions`, { to: 'signup' });
-  const client = new pg.Client({ connectionString: databaseUrl });
-  await client.connect();
-  try {
+  return withClient(databaseUrl, async (client) => {
     // Every member signs in with the coordinator's password hash: the bench never signs them in.
     await client.query(
       `WITH members AS (
@@ -142,9 +136,7 @@ export async function seedSwap(
       measuredBlockIds: half,
       pledgedBlockIds: ids.slice(half.length),
     };
-  } finally {
-    await client.end();
-  }
+  });
 }
 
 /** The guild's history: a swap of 600 members × 6 blocks, half of them measured. */

@@ -120,17 +120,24 @@ export function clusterUrl(port: number, database: string) {
   return `postgres://postgres@127.0.0.1:${port}/${database}`;
 }
 
-/** Creates the database if it is not there yet. */
-export async function ensureDatabase(port: number, database: string, template?: string) {
-  const client = new pg.Client({ connectionString: clusterUrl(port, 'postgres') });
+/** Runs `work` on a connection of its own to `connectionString`, closed afterwards whatever happens. */
+export async function withClient<T>(connectionString: string, work: (client: pg.Client) => Promise<T>): Promise<T> {
+  const client = new pg.Client({ connectionString });
   await client.connect();
   try {
+    return await work(client);
+  } finally {
+    await client.end();
+  }
+}
+
+/** Creates the database if it is not there yet. */
+export async function ensureDatabase(port: number, database: string, template?: string) {
+  await withClient(clusterUrl(port, 'postgres'), async (client) => {
     const { rowCount } = await client.query('SELECT 1 FROM pg_database WHERE datname = $1', [database]);
     if (!rowCount) {
       const from = template ? ` TEMPLATE ${pg.escapeIdentifier(template)}` : '';
       await client.query(`CREATE DATABASE ${pg.escapeIdentifier(database)}${from}`);
     }
-  } finally {
-    await client.end();
-  }
+  });
 }
