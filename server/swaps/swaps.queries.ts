@@ -22,12 +22,12 @@ export function swapColumns(): string {
   return swapColumnList;
 }
 
+let swapWithRoleSql: string | undefined;
+
 /**
  * Swap $1 with every column aliased to its attribute name (the row findByPk would read) and the role
  * of $2 in its guild as "viewerRole", numbered for a named statement on the plain pool.
  */
-let swapWithRoleSql: string | undefined;
-
 export function swapWithViewerRole(): string {
   // Built once, as swapColumns is: every swap request sends it.
   swapWithRoleSql ??= `SELECT ${swapColumns()}, ${viewerRole('Swap')} AS "viewerRole"
