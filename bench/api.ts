@@ -14,6 +14,7 @@ import { freePort } from '../scripts/lib/ports';
 import type { LoadOptions } from './load';
 import { startNodeServer, type NodeProcess } from './lib/processes';
 import { loadWithCpu, type LoadWithCpu } from './lib/load-with-cpu';
+import { linearRegression, linearRegressionLine, rSquared } from 'simple-statistics';
 import { median, round, withSpread } from './lib/stats';
 import { startAppProcess } from './lib/app';
 import { newAccount, seedSwap, type SeededSwap } from './lib/seed';
@@ -23,6 +24,15 @@ type Row = Record<string, string | number>;
 type ServerKey = 'app' | 'express' | 'http';
 const SERVERS: ServerKey[] = ['app', 'express', 'http'];
 const LABEL: Record<ServerKey, string> = { app: 'app', express: 'bare Express + pg', http: 'bare node:http + pg' };
+
+interface Summary {
+  rps: number;
+  p99: number;
+  /** server and database CPU per request (ms), and each apart */
+  cpuMs: number;
+  serverMs: number;
+  dbMs: number;
+}
 
 interface Scenario {
   name: string;
@@ -36,6 +46,8 @@ export interface ApiBenchResult {
   goals: Row[];
   /** The roster's CPU (server and database) per block at each size: whether cost grows with the work. */
   perBlock: Row[];
+  /** The roster's CPU per request fitted over the sizes: a fixed part per request and a part per block. */
+  costFit: Row[];
   memory: Row[];
 }
 
@@ -130,7 +142,7 @@ export async function runApiBench(
 
     const rows: Row[] = [];
     const goals: Row[] = [];
-    const medians = new Map<string, Record<ServerKey, { rps: number; p99: number; cpuMs: number }>>();
+    const medians = new Map<string, Record<ServerKey, Summary>>();
     for (const scenario of scenarios) {
       const results: Record<ServerKey, LoadWithCpu[]> = { app: [], express: [], http: [] };
       for (let run = 0; run < runs; run++) for (const s of SERVERS) results[s].push(await load(s, scenario, duration));
@@ -138,11 +150,17 @@ export async function runApiBench(
         await Promise.all(SERVERS.map(async (s) => [s, await bytesPerResponse(url(s), scenario.request(s))])),
       ) as Record<ServerKey, number>;
       const expressRps = median(results.express.map((r) => r.rps));
-      const summary = {} as Record<ServerKey, { rps: number; p99: number; cpuMs: number }>;
+      const summary = {} as Record<ServerKey, Summary>;
       for (const s of SERVERS) {
         const rs = results[s];
         const rps = median(rs.map((r) => r.rps));
-        summary[s] = { rps, p99: median(rs.map((r) => r.p99)), cpuMs: median(rs.map((r) => r.serverCpuMs + r.dbCpuMs)) };
+        summary[s] = {
+          rps,
+          p99: median(rs.map((r) => r.p99)),
+          cpuMs: median(rs.map((r) => r.serverCpuMs + r.dbCpuMs)),
+          serverMs: median(rs.map((r) => r.serverCpuMs)),
+          dbMs: median(rs.map((r) => r.dbCpuMs)),
+        };
         rows.push({
           scenario: scenario.name,
           server: LABEL[s],
@@ -172,7 +190,7 @@ export async function runApiBench(
     const pct = (a: number, b: number) => Math.round((a / b) * 100);
     const at = (name: string) => medians.get(name)!;
     if (opts.statementStats) console.table(await statementStats(databaseUrl));
-    if (opts.only) return { rows, goals, perBlock: [], memory: memoryRows(servers) };
+    if (opts.only) return { rows, goals, perBlock: [], costFit: [], memory: memoryRows(servers) };
     for (const c of [10, 50]) {
       const m = at(`GET roster ${sizeName(small)}, ${c} connections`);
       goals.push(
@@ -215,21 +233,44 @@ export async function runApiBench(
     );
 
     // The ratio moves with both sides; this says how each side's own cost grows with the blocks it serves.
-    const perBlock = swaps.map((swap) => {
-      const m = at(`GET roster ${sizeName(swap)}, 10 connections`);
-      const blocks = swap.members * swap.blocksEach;
-      const micros = (s: ServerKey) => round((m[s].cpuMs * 1000) / blocks, 1);
+    const sized = swaps.map((swap) => ({
+      swap,
+      blocks: swap.members * swap.blocksEach,
+      m: at(`GET roster ${sizeName(swap)}, 10 connections`),
+    }));
+    const perBlock = sized.map(({ swap, blocks, m }) => {
+      const micros = (ms: number) => round((ms * 1000) / blocks, 1);
       return {
         roster: sizeName(swap),
         blocks,
-        'app µs/block': micros('app'),
-        'bare Express µs/block': micros('express'),
-        'bare node:http µs/block': micros('http'),
+        'app server µs/block': micros(m.app.serverMs),
+        'app db µs/block': micros(m.app.dbMs),
+        'bare Express server µs/block': micros(m.express.serverMs),
+        'bare Express db µs/block': micros(m.express.dbMs),
+        'bare node:http µs/block': micros(m.http.cpuMs),
         'app ÷ Express': `${pct(m.app.cpuMs, m.express.cpuMs)} %`,
       };
     });
+    // A line through the sizes: its intercept is what a request costs whatever the roster's size (session,
+    // checks, routing), its slope what each block adds. A ratio that differs between sizes comes from
+    // the two sides' fixed parts differing in another proportion than their slopes.
+    const costFit = SERVERS.flatMap((s) =>
+      (['server', 'database'] as const).map((part) => {
+        const points = sized.map(({ blocks, m }) => [blocks, part === 'server' ? m[s].serverMs : m[s].dbMs]);
+        const line = linearRegression(points);
+        return {
+          server: LABEL[s],
+          part,
+          'fixed ms/request': round(line.b, 2),
+          'µs/block': round(line.m * 1000, 2),
+          // How well a straight line explains the three sizes (1: exactly); a cost that grows faster
+          // than the blocks reads lower, with a fixed part below zero.
+          'r²': round(rSquared(points, linearRegressionLine(line)), 3),
+        };
+      }),
+    );
 
-    return { rows, goals, perBlock, memory: memoryRows(servers) };
+    return { rows, goals, perBlock, costFit, memory: memoryRows(servers) };
   } finally {
     for (const s of SERVERS) await servers[s]?.stop().catch(() => undefined);
     cluster.stop();
@@ -264,6 +305,8 @@ if (import.meta.url === `file://${process.argv[1]}`) {
   });
   console.table(result.rows);
   console.table(result.goals);
+  console.table(result.perBlock);
+  console.table(result.costFit);
   console.table(result.memory);
   process.exit(0);
 }

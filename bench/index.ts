@@ -64,12 +64,17 @@ await section(
   },
 );
 if (api) {
-  const { goals, perBlock, memory } = api as ApiBenchResult;
+  const { goals, perBlock, costFit, memory } = api as ApiBenchResult;
   await section('API goals', 'Ratios to bare Express from the runs above.', () => goals);
   await section(
     'Roster cost per block',
     'Server and database CPU per roster request (medians of the runs above) divided by the blocks it lists, at each size: a cost that grows with the work stays level down a column.',
     () => perBlock,
+  );
+  await section(
+    'Roster cost: a fixed part and a part per block',
+    'A least-squares line through the three sizes above (CPU per roster request against the blocks it lists), server and database apart: "fixed" is what a request costs whatever the roster’s size (session, checks, routing), "per block" what each block adds. r² says how well a straight line explains the three sizes (a cost growing faster than the blocks reads lower, its fixed part even below zero). Where the app’s fixed part is a larger multiple of bare Express’s than its part per block, the small roster’s ratio reads lowest.',
+    () => costFit,
   );
   await section('Memory after the API bench', 'Resident set size of each server process at the end, and its peak.', () => memory);
 }
