@@ -9,12 +9,12 @@
  * `npx tsx bench/profile.ts <file>`) and BENCH_PG_STATS=1 (print the statements that took the most
  * database time, planning and running, from pg_stat_statements) adjust it.
  */
+import { linearRegression, linearRegressionLine, rSquared } from 'simple-statistics';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
 import { freePort } from '../scripts/lib/ports';
 import type { LoadOptions } from './load';
 import { startNodeServer, type NodeProcess } from './lib/processes';
 import { loadWithCpu, type LoadWithCpu } from './lib/load-with-cpu';
-import { linearRegression, linearRegressionLine, rSquared } from 'simple-statistics';
 import { median, round, withSpread } from './lib/stats';
 import { startAppProcess } from './lib/app';
 import { newAccount, seedSwap, type SeededSwap } from './lib/seed';
