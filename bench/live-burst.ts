@@ -6,7 +6,9 @@
  * clients holds up the other's event loop and timing. Beside the app, the same burst is run against a
  * bare reference (bench/servers/bare-live.ts: one INSERT per measurement, changes coalesced by the same
  * rule, no session or checks), runs alternating, `rounds` of each, medians with their spread: the
- * reference tells what this machine allows under the same load.
+ * reference tells what this machine allows under the same load. A second reference sends the app's
+ * message (whole rows, totals, named lines) with the same bare work, its stations held to the app's own
+ * rate: what the message alone costs the viewers and the machine, apart from the app's other work.
  *
  * Commit → receipt is timed from the measurement's own recorded time (set by the server just before
  * its transaction commits, so the figure errs on the long side) to the viewer's handler, on the
@@ -59,6 +61,8 @@ interface BurstTarget {
   viewerCookies: string[];
   /** station `station` measures `blockId` (its `k`-th measurement); the server's recorded time, ms since the epoch */
   measure(station: number, blockId: number, k: number): Promise<number>;
+  /** the stations together measure no faster than this many a second (otherwise as fast as answered) */
+  pace?: () => number | undefined;
 }
 
 /** One burst's figures, before they are summarised over the runs. */
@@ -102,11 +106,15 @@ async function runBurst(
 
     // Each station measures its own share of the received blocks in turn, one at a time.
     const shares = Array.from({ length: opts.stations }, (_, i) => opts.blockIds.filter((_, j) => j % opts.stations === i));
-    const burst = async (count: number) => {
+    const burst = async (count: number, perSecond?: number) => {
       const measured = new Map<number, number[]>(); // block → recorded times of its measurements, in order
+      const from = now();
       await Promise.all(
         shares.map(async (share, i) => {
           for (let k = 0; k < count; k++) {
+            // Held to the rate: the stations' measurements spread evenly over the burst, in turn.
+            const early = perSecond ? from + ((k * opts.stations + i) / perSecond) * 1000 - now() : 0;
+            if (early > 0) await new Promise((r) => setTimeout(r, early));
             const blockId = share[k % share.length]!;
             const at = await target.measure(i, blockId, k);
             measured.set(blockId, [...(measured.get(blockId) ?? []), at]);
@@ -134,7 +142,7 @@ async function runBurst(
     const dbBefore = clusterCpuSeconds(opts.clusterPort);
     const benchBefore = process.cpuUsage();
     const started = now();
-    const measured = await burst(opts.perStation);
+    const measured = await burst(opts.perStation, target.pace?.());
     const burstMs = now() - started;
     const total = [...measured.values()].reduce((n, t) => n + t.length, 0);
     await allTold(total);
@@ -212,14 +220,17 @@ async function runBurst(
   }
 }
 
-/** The bare reference (bench/servers/bare-live.ts) as its own process on the bench's database. */
-async function startBareLive(databaseUrl: string): Promise<NodeProcess> {
+const BARE = 'bare Express + pg + socket.io';
+const BARE_APP_MESSAGE = "bare, the app's message, at the app's rate";
+
+/** A bare reference (bench/servers/bare-live.ts) as its own process on the bench's database. */
+async function startBareLive(databaseUrl: string, message: 'plain' | 'app'): Promise<NodeProcess> {
   return startNodeServer({
-    name: 'bare Express + pg + socket.io',
+    name: message === 'app' ? BARE_APP_MESSAGE : BARE,
     script: 'bench/servers/bare-live.ts',
     port: await freePort(),
     readyPath: '/health',
-    env: { DATABASE_URL: databaseUrl, NODE_ENV: 'production' },
+    env: { DATABASE_URL: databaseUrl, NODE_ENV: 'production', BARE_MESSAGE: message },
   });
 }
 
@@ -243,8 +254,10 @@ export async function runLiveBurstBench(
     const databaseUrl = await cluster.database('burst');
     const app = await startAppProcess(databaseUrl, { profileDir: opts.profileDir });
     servers.push(app);
-    const bare = await startBareLive(databaseUrl);
+    const bare = await startBareLive(databaseUrl, 'plain');
     servers.push(bare);
+    const bareAppMessage = await startBareLive(databaseUrl, 'app');
+    servers.push(bareAppMessage);
     const coordinator = await newAccount(app.url, databaseUrl, 'burst-coordinator@example.test', 'Burst Coordinator');
     const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Burst Bee' });
     const swap = await seedSwap(databaseUrl, coordinator, guild.id, { members: 60, blocksEach: 4, tag: 'burst' });
@@ -275,19 +288,13 @@ export async function runLiveBurstBench(
             ).at,
           ),
       },
+      bareTarget(BARE, bare, swap.swapId),
       {
-        server: 'bare Express + pg + socket.io',
-        url: bare.url,
-        pid: bare.pid,
-        viewerCookies: [''],
-        measure: async (_station, blockId, k) => {
-          const r = await fetch(`${bare.url}/swaps/${swap.swapId}/blocks/${blockId}/measure`, {
-            method: 'POST',
-            headers: { 'content-type': 'application/json' },
-            body: JSON.stringify({ width: 9.5, height: k % 3 ? 9.5 : 9.375 }),
-          });
-          if (r.status !== 201) throw new Error(`the bare reference answered ${r.status}: ${await r.text()}`);
-          return Date.parse(((await r.json()) as { at: string }).at);
+        ...bareTarget(BARE_APP_MESSAGE, bareAppMessage, swap.swapId),
+        // The app's median rate in the runs so far (the app runs first in the first round).
+        pace: () => {
+          const appRuns = runs.get('app')!;
+          return appRuns.length ? median(appRuns.map((r) => r.perSecond)) : undefined;
         },
       },
     ];
@@ -313,6 +320,25 @@ export async function runLiveBurstBench(
     for (const server of servers) await server.stop().catch(() => undefined);
     cluster.stop();
   }
+}
+
+/** A bare reference's stations: one plain POST a measurement, no session. */
+function bareTarget(server: string, bare: NodeProcess, swapId: number): BurstTarget {
+  return {
+    server,
+    url: bare.url,
+    pid: bare.pid,
+    viewerCookies: [''],
+    measure: async (_station, blockId, k) => {
+      const r = await fetch(`${bare.url}/swaps/${swapId}/blocks/${blockId}/measure`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json' },
+        body: JSON.stringify({ width: 9.5, height: k % 3 ? 9.5 : 9.375 }),
+      });
+      if (r.status !== 201) throw new Error(`the bare reference answered ${r.status}: ${await r.text()}`);
+      return Date.parse(((await r.json()) as { at: string }).at);
+    },
+  };
 }
 
 /** A row per server: medians of the runs with their spread; losses and gaps summed over every run. */

@@ -5,7 +5,9 @@
  * once 50 ms have passed since the last went out), each read with one query of the touched blocks' rows
  * and numbered in memory. It is what the burst's latency would be with none of the app's work: what
  * this machine allows under the same load. Run as its own process: DATABASE_URL and PORT from the
- * environment.
+ * environment. With BARE_MESSAGE=app each change carries what the app's message carries (every touched
+ * maker's whole row with each block, the totals, named activity lines), still read with one query: the
+ * burst with the app's messages but none of its other work.
  */
 import { createServer } from 'node:http';
 import express from 'express';
@@ -15,6 +17,24 @@ import { BARE_MEASURE_SQL } from './bare-queries';
 
 const INTERVAL_MS = 50;
 const CHANGED_BLOCKS_SQL = `SELECT id, maker_id, sequence, state, verdict, trimmed FROM blocks WHERE id = ANY($1::int[])`;
+/** Every block of each touched maker, with the maker's name, the swap and its totals beside each row. */
+const APP_SHAPED_SQL = `WITH totals AS (
+  SELECT count(*)::int AS pledged,
+         count(*) FILTER (WHERE state <> 'pledged')::int AS sewn,
+         count(*) FILTER (WHERE state IN ('handed_in', 'received', 'measured', 'returned'))::int AS handed_in,
+         count(*) FILTER (WHERE state IN ('received', 'measured', 'returned'))::int AS received,
+         count(*) FILTER (WHERE state IN ('measured', 'returned'))::int AS measured,
+         count(*) FILTER (WHERE state = 'returned')::int AS returned,
+         count(*) FILTER (WHERE verdict = 'true')::int AS v_true, count(*) FILTER (WHERE verdict = 'trim')::int AS v_trim,
+         count(*) FILTER (WHERE verdict = 'short')::int AS v_short, count(*) FILTER (WHERE verdict = 'skewed')::int AS v_skewed,
+         count(DISTINCT maker_id)::int AS members
+    FROM blocks WHERE swap_id = $2)
+SELECT b.id, b.maker_id, u.display_name, b.sequence, b.state, s.state AS swap_state, s.title, s.mode,
+       s.unfinished_width::float AS width, s.unfinished_height::float AS height, t.*
+  FROM blocks b JOIN users u ON u.id = b.maker_id JOIN swaps s ON s.id = b.swap_id CROSS JOIN totals t
+ WHERE b.swap_id = $2 AND b.maker_id IN (SELECT maker_id FROM blocks WHERE id = ANY($1::int[]))
+ ORDER BY b.maker_id, b.sequence`;
+const STATE_RANK = ['pledged', 'sewn', 'handed_in', 'received', 'measured', 'returned'];
 
 interface Line {
   measurementId: number;
@@ -57,19 +77,103 @@ async function drain(swapId: number) {
     const batch = queues.get(swapId)!.splice(0);
     if (batch.length === 0) break;
     const at = new Date().toISOString();
-    const { rows } = await pool.query(CHANGED_BLOCKS_SQL, [batch.map((l) => l.blockId)]);
-    const version = (versions.get(swapId) ?? 0) + 1;
-    versions.set(swapId, version);
-    io.to(room(swapId)).emit('board:changed', {
-      swapId,
-      version,
-      activities: batch.map((l) => ({ id: l.measurementId, swapId, kind: 'block.measured', blockId: l.blockId, at })),
-      patch: { rows },
-    });
+    const change =
+      process.env.BARE_MESSAGE === 'app' ? await appShapedChange(swapId, batch, at) : await plainChange(swapId, batch, at);
+    io.to(room(swapId)).emit('board:changed', change);
     sentAt.set(swapId, performance.now());
   }
   queues.delete(swapId);
   sentAt.delete(swapId);
+}
+
+function nextVersion(swapId: number) {
+  const version = (versions.get(swapId) ?? 0) + 1;
+  versions.set(swapId, version);
+  return version;
+}
+
+/** The touched blocks' own rows and a bare line a measurement. */
+async function plainChange(swapId: number, batch: Line[], at: string) {
+  const { rows } = await pool.query(CHANGED_BLOCKS_SQL, [batch.map((l) => l.blockId)]);
+  return {
+    swapId,
+    version: nextVersion(swapId),
+    activities: batch.map((l) => ({ id: l.measurementId, swapId, kind: 'block.measured', blockId: l.blockId, at })),
+    patch: { rows },
+  };
+}
+
+interface ShapedRow {
+  id: number;
+  maker_id: number;
+  display_name: string;
+  sequence: number;
+  state: string;
+  swap_state: string;
+  title: string;
+  mode: string;
+  width: number;
+  height: number;
+  [total: string]: string | number;
+}
+
+/** The app's message shape (shared/live-events.ts, as a member sees it), from one query. */
+async function appShapedChange(swapId: number, batch: Line[], at: string) {
+  const { rows } = await pool.query<ShapedRow>(APP_SHAPED_SQL, [batch.map((l) => l.blockId), swapId]);
+  const first = rows[0]!;
+  const makers = new Map<number, ShapedRow[]>();
+  for (const row of rows) makers.set(row.maker_id, [...(makers.get(row.maker_id) ?? []), row]);
+  const makerOf = new Map(rows.map((r) => [r.id, r]));
+  const person = (r: ShapedRow) => ({ userId: r.maker_id, displayName: r.display_name });
+  const atLeast = (blocks: ShapedRow[], state: string) =>
+    blocks.filter((b) => STATE_RANK.indexOf(b.state) >= STATE_RANK.indexOf(state)).length;
+  return {
+    swapId,
+    version: nextVersion(swapId),
+    activities: batch.map((l) => ({
+      id: l.measurementId,
+      swapId,
+      kind: 'block.measured',
+      actor: { userId: 1, displayName: 'Burst Coordinator' },
+      subject: person(makerOf.get(l.blockId)!),
+      blockId: l.blockId,
+      detail: { source: 'ruler', sequence: makerOf.get(l.blockId)!.sequence },
+      at,
+    })),
+    patch: {
+      swap: {
+        id: swapId,
+        state: first.swap_state,
+        unfinished: { width: first.width, height: first.height },
+        title: first.title,
+        mode: first.mode,
+      },
+      totals: {
+        pledged: first.pledged,
+        sewn: first.sewn,
+        handedIn: first.handed_in,
+        received: first.received,
+        measured: first.measured,
+        returned: first.returned,
+        verdicts: { true: first.v_true, trim: first.v_trim, short: first.v_short, skewed: first.v_skewed },
+        accepted: Number(first.v_true) + Number(first.v_trim),
+        members: first.members,
+      },
+      rows: [...makers.values()].map((blocks) => ({
+        ...person(blocks[0]!),
+        pledged: blocks.length,
+        sewn: atLeast(blocks, 'sewn'),
+        handedIn: atLeast(blocks, 'handed_in'),
+        received: atLeast(blocks, 'received'),
+        measured: atLeast(blocks, 'measured'),
+        returned: atLeast(blocks, 'returned'),
+        owed: blocks.length - atLeast(blocks, 'handed_in'),
+        blocks: blocks.map((b) => ({ id: b.id, sequence: b.sequence, state: b.state, handIn: null, photos: [] })),
+      })),
+      removedUserIds: [],
+      complete: false,
+    },
+  };
 }
 
 app.get('/health', (_req, res) => {
