@@ -291,17 +291,18 @@ export async function runLiveBurstBench(
       bareTarget(BARE, bare, swap.swapId),
       {
         ...bareTarget(BARE_APP_MESSAGE, bareAppMessage, swap.swapId),
-        // The app's median rate in the runs so far (the app runs first in the first round).
-        pace: () => {
-          const appRuns = runs.get('app')!;
-          return appRuns.length ? median(appRuns.map((r) => r.perSecond)) : undefined;
-        },
+        // The rate of the app's run just before it, in the same round (see the order below).
+        pace: () => runs.get('app')!.at(-1)?.perSecond,
       },
     ];
 
     const runs = new Map<string, BurstRun[]>(targets.map((t) => [t.server, []]));
     for (let round = 0; round < rounds; round++) {
-      for (const target of round % 2 ? [...targets].reverse() : targets) {
+      // The app and the bare reference alternate which goes first; the reference with the app's
+      // message always follows the app, so it is held to the rate the app reached moments before.
+      const [appBurst, bareBurst, appMessageBurst] = targets as [BurstTarget, BurstTarget, BurstTarget];
+      const order = round % 2 ? [bareBurst, appBurst, appMessageBurst] : [appBurst, appMessageBurst, bareBurst];
+      for (const target of order) {
         runs.get(target.server)!.push(
           await runBurst(target, {
             swapId: swap.swapId,
