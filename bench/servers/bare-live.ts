@@ -13,6 +13,8 @@ import { createServer } from 'node:http';
 import express from 'express';
 import pg from 'pg';
 import { Server } from 'socket.io';
+import type { BoardChange } from '../../shared/live-events';
+import type { BlockState, SwapMode, SwapState } from '../../shared/schemas/swaps';
 import { BARE_MEASURE_SQL } from './bare-queries';
 
 const INTERVAL_MS = 50;
@@ -108,17 +110,27 @@ interface ShapedRow {
   maker_id: number;
   display_name: string;
   sequence: number;
-  state: string;
-  swap_state: string;
+  state: BlockState;
+  swap_state: SwapState;
   title: string;
-  mode: string;
+  mode: SwapMode;
   width: number;
   height: number;
-  [total: string]: string | number;
+  pledged: number;
+  sewn: number;
+  handed_in: number;
+  received: number;
+  measured: number;
+  returned: number;
+  v_true: number;
+  v_trim: number;
+  v_short: number;
+  v_skewed: number;
+  members: number;
 }
 
 /** The app's message shape (shared/live-events.ts, as a member sees it), from one query. */
-async function appShapedChange(swapId: number, batch: Line[], at: string) {
+async function appShapedChange(swapId: number, batch: Line[], at: string): Promise<BoardChange> {
   const { rows } = await pool.query<ShapedRow>(APP_SHAPED_SQL, [batch.map((l) => l.blockId), swapId]);
   const first = rows[0]!;
   const makers = new Map<number, ShapedRow[]>();
@@ -156,7 +168,7 @@ async function appShapedChange(swapId: number, batch: Line[], at: string) {
         measured: first.measured,
         returned: first.returned,
         verdicts: { true: first.v_true, trim: first.v_trim, short: first.v_short, skewed: first.v_skewed },
-        accepted: Number(first.v_true) + Number(first.v_trim),
+        accepted: first.v_true + first.v_trim,
         members: first.members,
       },
       rows: [...makers.values()].map((blocks) => ({
