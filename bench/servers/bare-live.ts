@@ -15,6 +15,7 @@ import pg from 'pg';
 import { Server } from 'socket.io';
 import type { BoardChange } from '../../shared/live-events';
 import type { BlockState, SwapMode, SwapState } from '../../shared/schemas/swaps';
+import { blockStateRank } from '../../shared/vocabulary';
 import { BARE_MEASURE_SQL } from './bare-queries';
 
 const INTERVAL_MS = 50;
@@ -36,7 +37,6 @@ SELECT b.id, b.maker_id, u.display_name, b.sequence, b.state, s.state AS swap_st
   FROM blocks b JOIN users u ON u.id = b.maker_id JOIN swaps s ON s.id = b.swap_id CROSS JOIN totals t
  WHERE b.swap_id = $2 AND b.maker_id IN (SELECT maker_id FROM blocks WHERE id = ANY($1::int[]))
  ORDER BY b.maker_id, b.sequence`;
-const STATE_RANK = ['pledged', 'sewn', 'handed_in', 'received', 'measured', 'returned'];
 
 interface Line {
   measurementId: number;
@@ -137,8 +137,8 @@ async function appShapedChange(swapId: number, batch: Line[], at: string): Promi
   for (const row of rows) makers.set(row.maker_id, [...(makers.get(row.maker_id) ?? []), row]);
   const makerOf = new Map(rows.map((r) => [r.id, r]));
   const person = (r: ShapedRow) => ({ userId: r.maker_id, displayName: r.display_name });
-  const atLeast = (blocks: ShapedRow[], state: string) =>
-    blocks.filter((b) => STATE_RANK.indexOf(b.state) >= STATE_RANK.indexOf(state)).length;
+  const atLeast = (blocks: ShapedRow[], state: BlockState) =>
+    blocks.filter((b) => blockStateRank[b.state] >= blockStateRank[state]).length;
   return {
     swapId,
     version: nextVersion(swapId),
@@ -146,6 +146,7 @@ async function appShapedChange(swapId: number, batch: Line[], at: string): Promi
       id: l.measurementId,
       swapId,
       kind: 'block.measured',
+      // No session here: one name stands for the officer at every station, as in the app's bench.
       actor: { userId: 1, displayName: 'Burst Coordinator' },
       subject: person(makerOf.get(l.blockId)!),
       blockId: l.blockId,
