@@ -297,10 +297,10 @@ export async function runLiveBurstBench(
     ];
 
     const runs = new Map<string, BurstRun[]>(targets.map((t) => [t.server, []]));
+    // The app and the bare reference alternate which goes first; the reference with the app's
+    // message always follows the app, so it is held to the rate the app reached moments before.
+    const [appBurst, bareBurst, appMessageBurst] = targets as [BurstTarget, BurstTarget, BurstTarget];
     for (let round = 0; round < rounds; round++) {
-      // The app and the bare reference alternate which goes first; the reference with the app's
-      // message always follows the app, so it is held to the rate the app reached moments before.
-      const [appBurst, bareBurst, appMessageBurst] = targets as [BurstTarget, BurstTarget, BurstTarget];
       const order = round % 2 ? [bareBurst, appBurst, appMessageBurst] : [appBurst, appMessageBurst, bareBurst];
       for (const target of order) {
         runs.get(target.server)!.push(

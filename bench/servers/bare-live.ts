@@ -15,19 +15,20 @@ import pg from 'pg';
 import { Server } from 'socket.io';
 import type { BoardChange } from '../../shared/live-events';
 import type { BlockState, SwapMode, SwapState } from '../../shared/schemas/swaps';
-import { blockStateRank } from '../../shared/vocabulary';
+import { blockStateRank, blockStates } from '../../shared/vocabulary';
 import { BARE_MEASURE_SQL } from './bare-queries';
 
 const INTERVAL_MS = 50;
 const CHANGED_BLOCKS_SQL = `SELECT id, maker_id, sequence, state, verdict, trimmed FROM blocks WHERE id = ANY($1::int[])`;
+// Blocks in `state` or past it, in the shared order of states (as the rows below count them).
+const reached = (state: BlockState) =>
+  `count(*) FILTER (WHERE state IN (${blockStates
+    .slice(blockStateRank[state])
+    .map((s) => `'${s}'`)
+    .join(', ')}))::int AS ${state}`;
 /** Every block of each touched maker, with the maker's name, the swap and its totals beside each row. */
 const APP_SHAPED_SQL = `WITH totals AS (
-  SELECT count(*)::int AS pledged,
-         count(*) FILTER (WHERE state <> 'pledged')::int AS sewn,
-         count(*) FILTER (WHERE state IN ('handed_in', 'received', 'measured', 'returned'))::int AS handed_in,
-         count(*) FILTER (WHERE state IN ('received', 'measured', 'returned'))::int AS received,
-         count(*) FILTER (WHERE state IN ('measured', 'returned'))::int AS measured,
-         count(*) FILTER (WHERE state = 'returned')::int AS returned,
+  SELECT ${blockStates.map(reached).join(',\n         ')},
          count(*) FILTER (WHERE verdict = 'true')::int AS v_true, count(*) FILTER (WHERE verdict = 'trim')::int AS v_trim,
          count(*) FILTER (WHERE verdict = 'short')::int AS v_short, count(*) FILTER (WHERE verdict = 'skewed')::int AS v_skewed,
          count(DISTINCT maker_id)::int AS members
@@ -79,9 +80,7 @@ async function drain(swapId: number) {
     const batch = queues.get(swapId)!.splice(0);
     if (batch.length === 0) break;
     const at = new Date().toISOString();
-    const change =
-      process.env.BARE_MESSAGE === 'app' ? await appShapedChange(swapId, batch, at) : await plainChange(swapId, batch, at);
-    io.to(room(swapId)).emit('board:changed', change);
+    io.to(room(swapId)).emit('board:changed', await changeFor(swapId, batch, at));
     sentAt.set(swapId, performance.now());
   }
   queues.delete(swapId);
@@ -188,6 +187,8 @@ async function appShapedChange(swapId: number, batch: Line[], at: string): Promi
     },
   };
 }
+
+const changeFor = process.env.BARE_MESSAGE === 'app' ? appShapedChange : plainChange;
 
 app.get('/health', (_req, res) => {
   res.json({ ok: true });
