@@ -188,6 +188,10 @@ export async function runApiBench(
     }
 
     const pct = (a: number, b: number) => Math.round((a / b) * 100);
+    // One decimal where a goal is judged, so a ratio just under the line does not print as the line itself.
+    const pctExact = (a: number, b: number) => round((a / b) * 100, 1);
+    // Bare Express's server and database CPU a request over the app's: the ratio a busy machine moves least.
+    const byCpu = (m: Record<ServerKey, Summary>) => `by CPU ${pctExact(m.express.cpuMs, m.app.cpuMs)} %`;
     const at = (name: string) => medians.get(name)!;
     if (opts.statementStats) console.table(await statementStats(databaseUrl));
     if (opts.only) return { rows, goals, perBlock: [], costFit: [], memory: memoryRows(servers) };
@@ -196,7 +200,7 @@ export async function runApiBench(
       goals.push(
         goal(
           `GET roster, ${c} connections: app ≥ 50 % of Express`,
-          `${pct(m.app.rps, m.express.rps)} %`,
+          `${pctExact(m.app.rps, m.express.rps)} % (${byCpu(m)})`,
           m.app.rps >= 0.5 * m.express.rps,
         ),
       );
@@ -215,19 +219,18 @@ export async function runApiBench(
       goals.push(
         goal(
           `POST measurement, ${c} connections: app ≥ 25 % of Express`,
-          `${pct(m.app.rps, m.express.rps)} %`,
+          `${pctExact(m.app.rps, m.express.rps)} % (${byCpu(m)})`,
           m.app.rps >= 0.25 * m.express.rps,
         ),
       );
     }
-    const ratios = swaps.map((swap) => {
-      const m = at(`GET roster ${sizeName(swap)}, 10 connections`);
-      return pct(m.app.rps, m.express.rps);
-    });
+    const sizes = swaps.map((swap) => at(`GET roster ${sizeName(swap)}, 10 connections`));
+    const ratios = sizes.map((m) => pctExact(m.app.rps, m.express.rps));
+    const cpuRatios = sizes.map((m) => pctExact(m.express.cpuMs, m.app.cpuMs));
     goals.push(
       goal(
         `roster ratio across ${swaps.map(sizeName).join(', ')} within 10 points`,
-        ratios.map((r) => `${r} %`).join(', '),
+        `${ratios.map((r) => `${r} %`).join(', ')} (by CPU ${cpuRatios.map((r) => `${r} %`).join(', ')})`,
         Math.max(...ratios) - Math.min(...ratios) <= 10,
       ),
     );
