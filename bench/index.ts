@@ -65,7 +65,11 @@ await section(
 );
 if (api) {
   const { goals, perBlock, costFit, memory } = api as ApiBenchResult;
-  await section('API goals', 'Ratios to bare Express from the runs above.', () => goals);
+  await section(
+    'API goals',
+    'Ratios to bare Express from the runs above: of the median rates, and in brackets of the CPU a request (bare Express’s server and database CPU over the app’s), which a busy machine moves less. A goal is judged on the rates.',
+    () => goals,
+  );
   await section(
     'Roster cost per block',
     'Server and database CPU per roster request (medians of the runs above) divided by the blocks it lists, at each size: a cost that grows with the work stays level down a column.',
