@@ -23,6 +23,8 @@ export interface LivePart {
 /**
  * The socket.io server: shares the HTTP session, keeps rooms in step across app nodes through the
  * PostgreSQL adapter (LISTEN/NOTIFY, large payloads in socket_io_attachments), and hosts the live parts.
+ * The adapter is patched (patches/): a large message's notice names its namespace, so the node that sent
+ * it does not read its own payload back.
  */
 export function liveStartup(parts: LivePart[]): FeatureStartup {
   return async ({ server, deps, built }) => {
