@@ -7,7 +7,9 @@
  * the rounds' B/A ratios, which a machine slowing down for a minute moves far less than it moves
  * either side.
  *
- *   npx tsx bench/compare.ts <git revision> [measure|roster|roster-600]
+ *   npx tsx bench/compare.ts <git revision> [measure|roster|roster-member|roster-600]
+ *
+ * `roster-member` reads the roster as one of the swap's makers, whose copy hides the others' verdicts.
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
@@ -19,12 +21,13 @@ import type { LoadOptions } from './load';
 import { startAppProcess } from './lib/app';
 import { repoRoot, type NodeProcess } from './lib/processes';
 import { loadWithCpu } from './lib/load-with-cpu';
-import { HISTORY_SIZE, newAccount, seedHistory, seedSwap, type SeededSwap } from './lib/seed';
+import { HISTORY_SIZE, newAccount, seedHistory, seedSwap, signIn, type SeededSwap } from './lib/seed';
 import { median, round } from './lib/stats';
 
 const SCENARIOS = {
   measure: { size: { members: 60, blocksEach: 4, tag: '60x4' }, connections: 10 },
   roster: { size: { members: 60, blocksEach: 4, tag: '60x4' }, connections: 10 },
+  'roster-member': { size: { members: 60, blocksEach: 4, tag: '60x4' }, connections: 10 },
   'roster-600': { size: { members: 600, blocksEach: 6, tag: '600x6' }, connections: 10 },
 } as const;
 type ScenarioName = keyof typeof SCENARIOS;
@@ -67,7 +70,10 @@ async function main() {
       const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Comparison Bee' });
       const swap: SeededSwap = await seedSwap(databaseUrl, coordinator, guild.id, scenario.size);
       if (scenario.size.tag !== HISTORY_SIZE.tag) await seedHistory(databaseUrl, coordinator, guild.id);
-      const headers = { cookie: coordinator.cookie, 'x-requested-with': 'blockpost' };
+      // A maker seeded with the swap signs in with the bench's password (seedSwap).
+      const reader =
+        scenarioName === 'roster-member' ? await signIn(app.url, `bench-${scenario.size.tag}-1@example.test`) : coordinator;
+      const headers = { cookie: reader.cookie, 'x-requested-with': 'blockpost' };
       const request: Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers' | 'freshClientId'> =
         scenarioName === 'measure'
           ? {

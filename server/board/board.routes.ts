@@ -24,10 +24,10 @@ export function boardRouter(deps: AppDeps) {
         // The roster is read beside the policy's query of the swap: one round trip for both.
         authorize: (req, { params }) => canReadSwap(deps, currentUser(req).id, params.swapId, ROSTER_WITH_SWAP),
       },
-      async ({ access: { swap, canManage } }, req, res) => {
+      async ({ access: { swap, canManage, verdictsVisibleTo } }, req, res) => {
         const viewer = { userId: currentUser(req).id, canManage };
         const members = membersFromChunks(takeColumn<string[]>(swap, 'roster')!);
-        res.json(await getRoster(deps, swap, { withAddresses: canManage, viewer, members }));
+        res.json(await getRoster(deps, swap, { withAddresses: canManage, viewer, members, verdictsVisibleTo }));
       },
     ),
   );
@@ -39,7 +39,7 @@ export function boardRouter(deps: AppDeps) {
       async ({ params, query, access }, req, res) => {
         const lines = await listActivity(deps, params.swapId, query.limit, query.before);
         const viewer = { userId: currentUser(req).id, canManage: access.canManage };
-        const seesAll = seesAllVerdicts(viewer, await guildVerdictsVisibleTo(access.swap.guildId));
+        const seesAll = seesAllVerdicts(viewer, access.verdictsVisibleTo ?? (await guildVerdictsVisibleTo(access.swap.guildId)));
         res.json(seesAll ? lines : activitiesForMember(lines, viewer.userId));
       },
     ),

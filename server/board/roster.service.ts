@@ -4,6 +4,7 @@
  */
 import { blockStateRank, type BlockState } from '@shared/vocabulary';
 import type { RosterBlockDto, RosterCounts, RosterDto, RosterRowDto } from '@shared/swap-types';
+import type { VerdictsVisibleTo } from '@shared/schemas/guilds';
 import type { Swap } from '../db/models';
 import type { AppDeps } from '../deps';
 import { photoRef } from '../blocks/photo-refs';
@@ -227,12 +228,18 @@ function rosterRows(members: MemberTuple[], withAddresses: boolean, totals: Tall
 export async function getRoster(
   deps: Pick<AppDeps, 'pool'>,
   swap: Swap,
-  opts: { withAddresses: boolean; viewer?: VerdictViewer; members?: MemberTuple[] },
+  opts: { withAddresses: boolean; viewer?: VerdictViewer; members?: MemberTuple[]; verdictsVisibleTo?: VerdictsVisibleTo },
 ): Promise<RosterDto> {
   const data = await buildRoster(deps, swap, opts);
   const roster = { ...data, rows: data.rows.map(({ email: _email, ...row }): RosterRowDto => row) };
   const { viewer } = opts;
-  if (!viewer || seesAllVerdicts(viewer, viewer.canManage ? 'officers' : await guildVerdictsVisibleTo(swap.guildId)))
+  if (
+    !viewer ||
+    seesAllVerdicts(
+      viewer,
+      viewer.canManage ? 'officers' : (opts.verdictsVisibleTo ?? (await guildVerdictsVisibleTo(swap.guildId))),
+    )
+  )
     return roster;
   return rosterForMember(roster, viewer.userId);
 }

@@ -3,7 +3,7 @@
  * guilds' swaps and act on their own sign-up; coordinators and admins manage the swap, plan the
  * return and export. The rules for single blocks build on these in blocks/blocks.policy.ts.
  */
-import type { Role } from '@shared/schemas/guilds';
+import type { Role, VerdictsVisibleTo } from '@shared/schemas/guilds';
 import { Swap } from '../db/models';
 import { assertGuildRole, can } from '../guilds/guilds.policy';
 import { ForbiddenError, NotFoundError } from '../http/errors';
@@ -15,6 +15,8 @@ export interface SwapAccess {
   swap: Swap;
   role: Role;
   canManage: boolean;
+  /** the guild's verdict setting, where the policy's read gave it (canReadSwap, canManageSwap) */
+  verdictsVisibleTo?: VerdictsVisibleTo;
 }
 
 /** Takes the role read by the viewerRole subquery off the swap, so the instance holds only its own columns. */
@@ -58,7 +60,7 @@ async function loadSwap(
   userId: number,
   swapId: number,
   extra?: SwapReadExtra,
-): Promise<{ swap: Swap; role: Role | null }> {
+): Promise<{ swap: Swap; role: Role | null; verdictsVisibleTo: VerdictsVisibleTo }> {
   const row = extra
     ? await withExtraRows(deps, userId, swapId, extra)
     : (
@@ -69,8 +71,12 @@ async function loadSwap(
         })
       ).rows[0];
   if (!row) throw new NotFoundError('That swap does not exist.');
-  const { viewerRole: role, ...values } = row;
-  return { swap: Swap.build(values as never, { isNewRecord: false, raw: true }), role: (role ?? null) as Role | null };
+  const { viewerRole: role, guildVerdictsVisibleTo, ...values } = row;
+  return {
+    swap: Swap.build(values as never, { isNewRecord: false, raw: true }),
+    role: (role ?? null) as Role | null,
+    verdictsVisibleTo: guildVerdictsVisibleTo as VerdictsVisibleTo,
+  };
 }
 
 async function withExtraRows(deps: Pick<AppDeps, 'pool'>, userId: number, swapId: number, extra: SwapReadExtra) {
@@ -97,14 +103,14 @@ export async function canReadSwap(
   swapId: number,
   extra?: SwapReadExtra,
 ): Promise<SwapAccess> {
-  const { swap, role } = await loadSwap(deps, userId, swapId, extra);
-  return readAccess(swap, role);
+  const { swap, role, verdictsVisibleTo } = await loadSwap(deps, userId, swapId, extra);
+  return { ...readAccess(swap, role), verdictsVisibleTo };
 }
 
 /** Coordinators and admins of the swap's guild. */
 export async function canManageSwap(deps: Pick<AppDeps, 'pool'>, userId: number, swapId: number): Promise<SwapAccess> {
-  const { swap, role } = await loadSwap(deps, userId, swapId);
-  return { swap, role: assertGuildRole(role, 'swaps:manage', 'That swap does not exist.'), canManage: true };
+  const { swap, role, verdictsVisibleTo } = await loadSwap(deps, userId, swapId);
+  return { swap, role: assertGuildRole(role, 'swaps:manage', 'That swap does not exist.'), canManage: true, verdictsVisibleTo };
 }
 
 /** Members of the guild may sign up for its swaps. */

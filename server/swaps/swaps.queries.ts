@@ -25,12 +25,14 @@ export function swapColumns(): string {
 let swapWithRoleSql: string | undefined;
 
 /**
- * Swap $1 with every column aliased to its attribute name (the row findByPk would read) and the role
- * of $2 in its guild as "viewerRole", numbered for a named statement on the plain pool.
+ * Swap $1 with every column aliased to its attribute name (the row findByPk would read), the role of $2
+ * in its guild as "viewerRole" and the guild's verdict setting as "guildVerdictsVisibleTo" (a member's
+ * board and activity list depend on it), numbered for a named statement on the plain pool.
  */
 export function swapWithViewerRole(): string {
   // Built once, as swapColumns is: every swap request sends it.
-  swapWithRoleSql ??= `SELECT ${swapColumns()}, ${viewerRole('Swap')} AS "viewerRole"
+  swapWithRoleSql ??= `SELECT ${swapColumns()}, ${viewerRole('Swap')} AS "viewerRole",
+                   (SELECT g.verdicts_visible_to FROM guilds g WHERE g.id = "Swap"."guild_id") AS "guildVerdictsVisibleTo"
             FROM swaps "Swap" WHERE "Swap"."id" = $swapId`
     .replaceAll('$swapId', '$1')
     .replaceAll('$viewerId', '$2');

@@ -87,4 +87,21 @@ describe('SQL round trips per request', () => {
     const again = await statementsOf(() => roles.coordinator.agent.get(`/api/swaps/${swap.id}/roster`));
     expect(again.statements.length, shown(again.statements)).toBe(1);
   });
+
+  it('a member’s roster and activity list read the guild’s verdict setting with the swap, not in a round trip of their own', async () => {
+    const { swap } = await sewingSwap(app, roles, { pledges: [2, 2] });
+    // Warm: the member's session is remembered, as for a board open on a phone.
+    await roles.member.agent.get(`/api/swaps/${swap.id}/roster`).expect(200);
+    const roster = await statementsOf(() => roles.member.agent.get(`/api/swaps/${swap.id}/roster`));
+    expect(roster.result.status).toBe(200);
+    expect(roster.statements.length, shown(roster.statements)).toBe(1);
+    const activity = await statementsOf(() => roles.member.agent.get(`/api/swaps/${swap.id}/activity`));
+    expect(activity.result.status).toBe(200);
+    // The swap with the role and the setting, then the lines.
+    expect(activity.statements.length, shown(activity.statements)).toBe(2);
+    expect(
+      activity.statements.some((s) => /FROM "guilds"/.test(s)),
+      shown(activity.statements),
+    ).toBe(false);
+  });
 });
