@@ -1,6 +1,7 @@
 /** Turns block and measurement rows into the API's answers, loading related rows in batches. */
 import type { Sequelize, Transaction } from 'sequelize';
 import type { BlockDto, MeasurementDto, PhotoRefDto } from '@shared/swap-types';
+import type { VerdictsVisibleTo } from '@shared/schemas/guilds';
 import type { Block, Measurement, Swap } from '../db/models';
 import { preparedQuery } from '../db/prepared';
 import { photoRef } from './photo-refs';
@@ -136,6 +137,8 @@ const iso = (d: Date | null | undefined) => d?.toISOString() ?? null;
 export interface BlockViewer {
   userId: number;
   canManage: boolean;
+  /** the guild's verdict setting where the policy's read gave it; read here when it did not */
+  verdictsVisibleTo?: VerdictsVisibleTo;
 }
 
 /**
@@ -173,7 +176,10 @@ export async function blockDtosFrom(
   const othersHidden =
     !!viewer &&
     blocks.some((b) => b.makerId !== viewer.userId) &&
-    !seesAllVerdicts(viewer, viewer.canManage ? 'officers' : await guildVerdictsVisibleTo(swap.guildId));
+    !seesAllVerdicts(
+      viewer,
+      viewer.canManage ? 'officers' : (viewer.verdictsVisibleTo ?? (await guildVerdictsVisibleTo(swap.guildId))),
+    );
   const dtos = blocks.map((b): BlockDto => {
     const latest = measurements.get(b.id) ?? [];
     const ruler = latest.find((m) => m.source === 'ruler') ?? null;

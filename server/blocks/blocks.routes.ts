@@ -51,8 +51,8 @@ export function blocksRouter(deps: AppDeps) {
         query: blocksQuerySchema,
         authorize: (req, { params }) => canReadSwap(deps, currentUser(req).id, params.swapId),
       },
-      async ({ query, access: { swap, canManage } }, req, res) => {
-        res.json(await blocks.listBlocks(deps, swap, { userId: currentUser(req).id, canManage }, query));
+      async ({ query, access: { swap, canManage, verdictsVisibleTo } }, req, res) => {
+        res.json(await blocks.listBlocks(deps, swap, { userId: currentUser(req).id, canManage, verdictsVisibleTo }, query));
       },
     ),
   );

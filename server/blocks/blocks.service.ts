@@ -186,7 +186,7 @@ export function getBlock(
 export async function listBlocks(
   deps: Pick<AppDeps, 'sequelize'>,
   swap: Swap,
-  viewer: { userId: number; canManage: boolean },
+  viewer: BlockViewer,
   query: BlocksQuery,
 ): Promise<BlockDto[]> {
   const makerId = query.maker === 'me' ? viewer.userId : query.maker;

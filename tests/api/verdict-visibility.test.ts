@@ -115,4 +115,37 @@ describe('who sees verdicts', () => {
     await roles.admin.agent.patch(`/api/guilds/${roles.guildId}`).send({ verdictsVisibleTo: 'officers' }).expect(200);
     expect(rowOf(await rosterOf(roles.member.agent), makers[1]!.id)).not.toHaveProperty('verdicts');
   });
+
+  it('leaves the verdicts out of the blocks another maker sewed for a member, until the guild shows them to all', async () => {
+    const returned = await sewingSwap(app, roles, { pledges: [1, 1] });
+    const id = returned.swap.id;
+    await move(roles.coordinator.agent, id, 'collecting');
+    for (const maker of returned.makers) {
+      const [block] = await myBlocks(maker.agent, id);
+      await receiveAndMeasure(roles.coordinator.agent, block!.id, { width: 9.5, height: 9.5 });
+    }
+    await move(roles.coordinator.agent, id, 'sorting');
+    const plan = await roles.coordinator.agent.post(`/api/swaps/${id}/distribution/plan`).expect(200);
+    const transfers = (plan.body.transfers as { from: number; to: number | null; count: number }[]).map(
+      ({ from, to, count }) => ({
+        from,
+        to,
+        count,
+      }),
+    );
+    await roles.coordinator.agent.post(`/api/swaps/${id}/distribution/confirm`).send({ transfers }).expect(200);
+    const receiver = returned.makers[0]!;
+    const incoming = async () =>
+      (await receiver.agent.get(`/api/swaps/${id}/blocks?recipient=me`).expect(200)).body as Record<string, unknown>[];
+
+    const hidden = await incoming();
+    expect(hidden).toHaveLength(1);
+    expect(hidden[0]).toMatchObject({ maker: { id: returned.makers[1]!.id }, state: 'returned' });
+    expect(hidden[0]).not.toHaveProperty('verdict');
+
+    await roles.admin.agent.patch(`/api/guilds/${roles.guildId}`).send({ verdictsVisibleTo: 'guild' }).expect(200);
+    expect((await incoming())[0]).toMatchObject({ verdict: 'true' });
+    await roles.admin.agent.patch(`/api/guilds/${roles.guildId}`).send({ verdictsVisibleTo: 'officers' }).expect(200);
+    expect((await incoming())[0]).not.toHaveProperty('verdict');
+  });
 });
