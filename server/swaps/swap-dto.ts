@@ -2,7 +2,8 @@
 import { QueryTypes } from 'sequelize';
 import type { Role } from '@shared/schemas/guilds';
 import type { SwapDto, SwapSummaryDto, SwapTransitionDto } from '@shared/swap-types';
-import { Guild, type Swap, type SwapTransition, User } from '../db/models';
+import type { Swap, SwapTransition } from '../db/models';
+import { preparedPoolQuery } from '../db/prepared';
 import type { AppDeps } from '../deps';
 import { SIGNUP_STATS } from './swaps.queries';
 
@@ -51,26 +52,54 @@ export function summaryDto(swap: Swap, stats: SignupStats | undefined): SwapSumm
   };
 }
 
+interface SwapDetailRow {
+  guildName: string;
+  guildTimeZone: string;
+  creatorName: string | null;
+  recipientName: string | null;
+  signups: string;
+  pledged: string;
+  mine: string;
+}
+
+/**
+ * What a swap's full answer shows besides its own row, in one named statement: its guild, the names of
+ * its creator and gift recipient, and its sign-up tallies (as SIGNUP_STATS counts them). A member opens
+ * the swap's page and its board often; this was four queries built by Sequelize.
+ */
+const SWAP_DETAIL = `SELECT g.name AS "guildName", g.time_zone AS "guildTimeZone",
+         (SELECT u.display_name FROM users u WHERE u.id = $createdById) AS "creatorName",
+         (SELECT u.display_name FROM users u WHERE u.id = $giftRecipientId) AS "recipientName",
+         t.signups, t.pledged, t.mine
+    FROM guilds g
+   CROSS JOIN LATERAL (SELECT count(*) AS signups, coalesce(sum(blocks), 0) AS pledged,
+                              coalesce(sum(blocks) FILTER (WHERE user_id = $userId), 0) AS mine
+                         FROM signups WHERE swap_id = $swapId AND status = 'active') t
+   WHERE g.id = $guildId`;
+
 /** The full swap as one member sees it. */
 export async function swapDto(
-  deps: Pick<AppDeps, 'sequelize'>,
+  deps: Pick<AppDeps, 'pool'>,
   swap: Swap,
   viewer: { userId: number; role: Role; canManage: boolean },
 ): Promise<SwapDto> {
-  const [guild, creator, stats, recipient] = await Promise.all([
-    Guild.findByPk(swap.guildId),
-    swap.createdById ? User.findByPk(swap.createdById, { attributes: ['id', 'displayName'] }) : null,
-    signupStats(deps, [swap.id], viewer.userId),
-    swap.giftRecipientId ? User.findByPk(swap.giftRecipientId, { attributes: ['id', 'displayName'] }) : null,
-  ]);
+  const [detail] = await preparedPoolQuery<SwapDetailRow>(deps.pool, SWAP_DETAIL, {
+    guildId: swap.guildId,
+    swapId: swap.id,
+    userId: viewer.userId,
+    createdById: swap.createdById ?? null,
+    giftRecipientId: swap.giftRecipientId ?? null,
+  });
+  const stats = { signups: Number(detail!.signups), pledged: Number(detail!.pledged), myPledge: Number(detail!.mine) };
   const giftRecipient =
     swap.mode !== 'gift'
       ? null
       : swap.giftRecipientId
-        ? { userId: swap.giftRecipientId, name: recipient?.displayName ?? 'A former member' }
+        ? { userId: swap.giftRecipientId, name: detail!.recipientName ?? 'A former member' }
         : { userId: null, name: swap.giftRecipientName ?? '' };
+  const creatorName = detail!.creatorName;
   return {
-    ...summaryDto(swap, stats.get(swap.id)),
+    ...summaryDto(swap, stats),
     description: swap.description,
     block: swap.blockSpec,
     seam: swap.seam,
@@ -81,13 +110,13 @@ export async function swapDto(
     signupReminderDays: swap.signupReminderDays,
     dueReminderDays: swap.dueReminderDays,
     giftRecipient,
-    createdBy: creator ? { id: creator.id, displayName: creator.displayName } : null,
+    createdBy: swap.createdById && creatorName != null ? { id: swap.createdById, displayName: creatorName } : null,
     createdAt: swap.createdAt.toISOString(),
     updatedAt: swap.updatedAt.toISOString(),
     distributionConfirmedAt: swap.distributionConfirmedAt?.toISOString() ?? null,
     fees: { entry: swap.entryFee, postage: swap.postageFee },
     signupOpen: signupIsOpen(swap),
-    guild: { id: guild!.id, name: guild!.name, timeZone: guild!.timeZone },
+    guild: { id: swap.guildId, name: detail!.guildName, timeZone: detail!.guildTimeZone },
     myRole: viewer.role,
     canManage: viewer.canManage,
   };

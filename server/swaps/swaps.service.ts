@@ -20,7 +20,7 @@ import type { AppDeps } from '../deps';
 import { signupStats, summaryDto, swapDto, transitionDto } from './swap-dto';
 import { ANNOUNCEMENT_AUDIENCE, BLOCK_STATE_COUNTS } from './swaps.queries';
 
-type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
+type Deps = Pick<AppDeps, 'events' | 'sequelize' | 'pool'>;
 type Viewer = { userId: number; role: Role; canManage: boolean };
 
 /** Sizes from the engine; an engine objection becomes a 400 on the block's field. */
@@ -106,7 +106,7 @@ export async function listSwaps(deps: Pick<AppDeps, 'sequelize'>, guildId: numbe
   return swaps.map((s) => summaryDto(s, stats.get(s.id)));
 }
 
-export const getSwap = (deps: Pick<AppDeps, 'sequelize'>, swap: Swap, viewer: Viewer) => swapDto(deps, swap, viewer);
+export const getSwap = (deps: Pick<AppDeps, 'pool'>, swap: Swap, viewer: Viewer) => swapDto(deps, swap, viewer);
 
 /**
  * Applies a PATCH. The block, tolerance, quota and mode change only in draft or sign-up; the title,

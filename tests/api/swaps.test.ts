@@ -128,6 +128,38 @@ describe('setting up a swap', () => {
       myPledge: 3,
     });
   });
+
+  it('shows a member the swap with its guild, creator, gift recipient and pledges, in one query besides the policy’s', async () => {
+    const swap = await createSwap(roles.coordinator.agent, roles.guildId, {
+      title: 'Comfort Quilt Stars',
+      mode: 'gift',
+      giftRecipientId: roles.member.id,
+    });
+    await move(roles.coordinator.agent, swap.id, 'signup');
+    await roles.coordinator.agent.post(`/api/swaps/${swap.id}/signups`).send({ blocks: 4 }).expect(200);
+    await roles.member.agent.post(`/api/swaps/${swap.id}/signups`).send({ blocks: 2 }).expect(200);
+    const names = await app.deps.pool.query<{ id: number; display_name: string; name: string; time_zone: string }>(
+      `SELECT u.id, u.display_name, g.name, g.time_zone FROM users u, guilds g WHERE u.id = ANY($1::int[]) AND g.id = $2`,
+      [[roles.coordinator.id, roles.member.id], roles.guildId],
+    );
+    const nameOf = (id: number) => names.rows.find((r) => r.id === id)!.display_name;
+
+    await roles.member.agent.get(`/api/swaps/${swap.id}`).expect(200); // the session remembered from here on
+    const { result, statements } = await statementsOf(() => roles.member.agent.get(`/api/swaps/${swap.id}`));
+    expect(result.status).toBe(200);
+    expect(result.body).toMatchObject({
+      title: 'Comfort Quilt Stars',
+      guild: { id: roles.guildId, name: names.rows[0]!.name, timeZone: names.rows[0]!.time_zone },
+      createdBy: { id: roles.coordinator.id, displayName: nameOf(roles.coordinator.id) },
+      giftRecipient: { userId: roles.member.id, name: nameOf(roles.member.id) },
+      signups: 2,
+      pledged: 6,
+      myPledge: 2,
+      myRole: 'member',
+      canManage: false,
+    });
+    expect(statements).toHaveLength(2);
+  });
 });
 
 describe('editing a swap', () => {
