@@ -7,9 +7,10 @@
  * the rounds' B/A ratios, which a machine slowing down for a minute moves far less than it moves
  * either side.
  *
- *   npx tsx bench/compare.ts <git revision> [measure|roster|roster-member|roster-600]
+ *   npx tsx bench/compare.ts <git revision> [measure|roster|roster-member|swap-member|roster-600]
  *
- * `roster-member` reads the roster as one of the swap's makers, whose copy hides the others' verdicts.
+ * `roster-member` reads the roster as one of the swap's makers, whose copy hides the others' verdicts;
+ * `swap-member` reads the swap itself (its page's answer) as that maker.
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
@@ -28,6 +29,7 @@ const SCENARIOS = {
   measure: { size: { members: 60, blocksEach: 4, tag: '60x4' }, connections: 10 },
   roster: { size: { members: 60, blocksEach: 4, tag: '60x4' }, connections: 10 },
   'roster-member': { size: { members: 60, blocksEach: 4, tag: '60x4' }, connections: 10 },
+  'swap-member': { size: { members: 60, blocksEach: 4, tag: '60x4' }, connections: 10 },
   'roster-600': { size: { members: 600, blocksEach: 6, tag: '600x6' }, connections: 10 },
 } as const;
 type ScenarioName = keyof typeof SCENARIOS;
@@ -71,8 +73,8 @@ async function main() {
       const swap: SeededSwap = await seedSwap(databaseUrl, coordinator, guild.id, scenario.size);
       if (scenario.size.tag !== HISTORY_SIZE.tag) await seedHistory(databaseUrl, coordinator, guild.id);
       // A maker seeded with the swap signs in with the bench's password (seedSwap).
-      const reader =
-        scenarioName === 'roster-member' ? await signIn(app.url, `bench-${scenario.size.tag}-1@example.test`) : coordinator;
+      const asMaker = scenarioName === 'roster-member' || scenarioName === 'swap-member';
+      const reader = asMaker ? await signIn(app.url, `bench-${scenario.size.tag}-1@example.test`) : coordinator;
       const headers = { cookie: reader.cookie, 'x-requested-with': 'blockpost' };
       const request: Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers' | 'freshClientId'> =
         scenarioName === 'measure'
@@ -83,7 +85,10 @@ async function main() {
               body: JSON.stringify({ width: '9 1/2', height: '9 1/2' }),
               freshClientId: true,
             }
-          : { paths: [`/api/swaps/${swap.swapId}/roster`], headers };
+          : {
+              paths: [scenarioName === 'swap-member' ? `/api/swaps/${swap.swapId}` : `/api/swaps/${swap.swapId}/roster`],
+              headers,
+            };
       return { app, request, databaseUrl };
     };
     const a = await startSide(`A (${sha})`, worktree);
