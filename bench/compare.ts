@@ -7,10 +7,10 @@
  * the rounds' B/A ratios, which a machine slowing down for a minute moves far less than it moves
  * either side.
  *
- *   npx tsx bench/compare.ts <git revision> [measure|roster|roster-member|swap-member|roster-600]
+ *   npx tsx bench/compare.ts <git revision> [measure|roster|roster-member|swap-member|home-member|roster-600]
  *
  * `roster-member` reads the roster as one of the swap's makers, whose copy hides the others' verdicts;
- * `swap-member` reads the swap itself (its page's answer) as that maker.
+ * `swap-member` reads the swap itself (its page's answer) as that maker, `home-member` their home screen.
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
@@ -25,14 +25,20 @@ import { loadWithCpu } from './lib/load-with-cpu';
 import { HISTORY_SIZE, newAccount, seedHistory, seedSwap, signIn, type SeededSwap } from './lib/seed';
 import { median, round } from './lib/stats';
 
-const SCENARIOS = {
-  measure: { size: { members: 60, blocksEach: 4, tag: '60x4' }, connections: 10 },
-  roster: { size: { members: 60, blocksEach: 4, tag: '60x4' }, connections: 10 },
-  'roster-member': { size: { members: 60, blocksEach: 4, tag: '60x4' }, connections: 10 },
-  'swap-member': { size: { members: 60, blocksEach: 4, tag: '60x4' }, connections: 10 },
-  'roster-600': { size: { members: 600, blocksEach: 6, tag: '600x6' }, connections: 10 },
-} as const;
-type ScenarioName = keyof typeof SCENARIOS;
+const SMALL = { members: 60, blocksEach: 4, tag: '60x4' };
+
+/** Each scenario's swap, and for a GET its path (`swap` for the swap's id) and whether one of its makers reads it. */
+const SCENARIOS: Record<
+  string,
+  { size: { members: number; blocksEach: number; tag: string }; connections: number; get?: string; asMaker?: boolean }
+> = {
+  measure: { size: SMALL, connections: 10 },
+  roster: { size: SMALL, connections: 10, get: '/api/swaps/swap/roster' },
+  'roster-member': { size: SMALL, connections: 10, get: '/api/swaps/swap/roster', asMaker: true },
+  'swap-member': { size: SMALL, connections: 10, get: '/api/swaps/swap', asMaker: true },
+  'home-member': { size: SMALL, connections: 10, get: '/api/me/next', asMaker: true },
+  'roster-600': { size: HISTORY_SIZE, connections: 10, get: '/api/swaps/swap/roster' },
+};
 
 interface Sample {
   rps: number;
@@ -42,13 +48,12 @@ interface Sample {
 }
 
 async function main() {
-  const [revision, scenarioArg = 'measure'] = process.argv.slice(2);
-  if (!revision || !(scenarioArg in SCENARIOS)) {
+  const [revision, scenarioName = 'measure'] = process.argv.slice(2);
+  const scenario = SCENARIOS[scenarioName];
+  if (!revision || !scenario) {
     console.error(`usage: npx tsx bench/compare.ts <git revision> [${Object.keys(SCENARIOS).join('|')}]`);
     process.exit(2);
   }
-  const scenarioName = scenarioArg as ScenarioName;
-  const scenario = SCENARIOS[scenarioName];
   const seconds = Number(process.env.BENCH_SECONDS ?? 4);
   const rounds = Number(process.env.BENCH_ROUNDS ?? 8);
 
@@ -73,8 +78,7 @@ async function main() {
       const swap: SeededSwap = await seedSwap(databaseUrl, coordinator, guild.id, scenario.size);
       if (scenario.size.tag !== HISTORY_SIZE.tag) await seedHistory(databaseUrl, coordinator, guild.id);
       // A maker seeded with the swap signs in with the bench's password (seedSwap).
-      const asMaker = scenarioName === 'roster-member' || scenarioName === 'swap-member';
-      const reader = asMaker ? await signIn(app.url, `bench-${scenario.size.tag}-1@example.test`) : coordinator;
+      const reader = scenario.asMaker ? await signIn(app.url, `bench-${scenario.size.tag}-1@example.test`) : coordinator;
       const headers = { cookie: reader.cookie, 'x-requested-with': 'blockpost' };
       const request: Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers' | 'freshClientId'> =
         scenarioName === 'measure'
@@ -85,10 +89,7 @@ async function main() {
               body: JSON.stringify({ width: '9 1/2', height: '9 1/2' }),
               freshClientId: true,
             }
-          : {
-              paths: [scenarioName === 'swap-member' ? `/api/swaps/${swap.swapId}` : `/api/swaps/${swap.swapId}/roster`],
-              headers,
-            };
+          : { paths: [scenario.get!.replace('/swaps/swap', `/swaps/${swap.swapId}`)], headers };
       return { app, request, databaseUrl };
     };
     const a = await startSide(`A (${sha})`, worktree);

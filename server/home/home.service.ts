@@ -21,19 +21,10 @@ const officerSwap = (r: q.SwapCountRow): OfficerSwap => ({
  * What is next for one person across all their guilds: blocks still owed (per swap, soonest due first),
  * swaps open for sign-up, each guild's next sew day with their answer, blocks coming back to them, chat
  * rooms with messages since they last looked, and for officers the blocks waiting to be received and the
- * swaps past their due date. Seven small queries, each bounded.
+ * swaps past their due date. Seven small reads, each bounded, in one round trip.
  */
-export async function nextForMe(deps: Pick<AppDeps, 'sequelize'>, userId: number): Promise<NextForMeDto> {
-  const { sequelize } = deps;
-  const [owed, open, days, back, rooms, toReceive, overdue] = await Promise.all([
-    q.owedBlocks(sequelize, userId),
-    q.openSwaps(sequelize, userId),
-    q.nextSewDays(sequelize, userId),
-    q.blocksComingBack(sequelize, userId),
-    q.unreadRooms(sequelize, userId),
-    q.blocksToReceive(sequelize, userId),
-    q.overdueSwaps(sequelize, userId),
-  ]);
+export async function nextForMe(deps: Pick<AppDeps, 'pool'>, userId: number): Promise<NextForMeDto> {
+  const { owed, open, days, back, rooms, toReceive, overdue } = await q.homeReads(deps.pool, userId);
   const bySwap = new Map<number, NextForMeDto['blocksOwed'][number]>();
   for (const r of owed) {
     const swap = bySwap.get(r.swap_id) ?? {

@@ -104,4 +104,13 @@ describe('SQL round trips per request', () => {
       shown(activity.statements),
     ).toBe(false);
   });
+
+  it('the home screen’s seven reads take one round trip once the session is remembered', async () => {
+    await sewingSwap(app, roles, { pledges: [2, 2] });
+    await roles.member.agent.get('/api/me/next').expect(200);
+    const { result, statements } = await statementsOf(() => roles.member.agent.get('/api/me/next'));
+    expect(result.status).toBe(200);
+    expect((result.body as { blocksOwed: unknown[] }).blocksOwed.length).toBeGreaterThan(0);
+    expect(statements.length, shown(statements)).toBe(1);
+  });
 });
