@@ -99,7 +99,7 @@ export function authRouter(deps: AppDeps) {
     route({ body: confirmEmailSchema }, async ({ body }, req, res) => {
       const { user } = await confirmSignup(deps, body.token);
       await logIn(req, user);
-      res.status(201).json(await getMe(user.id));
+      res.status(201).json(await getMe(deps, user.id));
     }),
   );
 
@@ -118,7 +118,7 @@ export function authRouter(deps: AppDeps) {
       });
       if (!user) throw new UnauthorizedError('That e-mail and password do not match an account.');
       await logIn(req, user);
-      res.json(await getMe(user.id));
+      res.json(await getMe(deps, user.id));
     }),
   );
 
@@ -155,7 +155,7 @@ export function authRouter(deps: AppDeps) {
   );
 
   router.get('/me', requireUser, async (req, res) => {
-    const me = await getMe(currentUser(req).id);
+    const me = await getMe(deps, currentUser(req).id);
     if (!me) throw new UnauthorizedError();
     res.json(me);
   });
@@ -166,7 +166,7 @@ export function authRouter(deps: AppDeps) {
     route({ body: profileUpdateSchema }, async ({ body }, req, res) => {
       await updateProfile(currentUser(req).id, body);
       deps.events.emit('account.changed', { userId: currentUser(req).id });
-      res.json(await getMe(currentUser(req).id));
+      res.json(await getMe(deps, currentUser(req).id));
     }),
   );
 

@@ -2,7 +2,7 @@ import { Op, QueryTypes, UniqueConstraintError } from 'sequelize';
 import type { RegisterInput, ProfileUpdateInput } from '@shared/schemas/auth';
 import type { MeDto } from '@shared/types';
 import { passwordStrength } from '@shared/password-strength';
-import { Guild, Membership, PasswordReset, PendingSignup, User } from '../db/models';
+import { Membership, PasswordReset, PendingSignup, User } from '../db/models';
 import { ConflictError, UnauthorizedError, ValidationError } from '../http/errors';
 import { hashPassword, verifyPassword } from './passwords';
 import { hashToken } from './tokens';
@@ -10,7 +10,8 @@ import { toSessionUser } from './passport';
 import { assertNameFreeInGuilds } from './display-names';
 import { SIGNUP_VALID_HOURS } from '../mail/compose/account';
 import type { AppDeps } from '../deps';
-import { END_SESSIONS } from './auth.queries';
+import { END_SESSIONS, ME } from './auth.queries';
+import { preparedPoolQuery } from '../db/prepared';
 
 export { RESET_VALID_MINUTES } from '../mail/compose/account';
 
@@ -88,25 +89,29 @@ export async function confirmSignup(
   }
 }
 
-export async function getMe(userId: number): Promise<MeDto | null> {
-  const user = await User.findByPk(userId);
-  if (!user) return null;
-  const memberships = await Membership.findAll({
-    where: { userId, status: 'active' },
-    include: [{ model: Guild, as: 'guild', attributes: ['id', 'name', 'defaultUnit'] }],
-    order: [['createdAt', 'ASC']],
-  });
+export async function getMe(deps: Pick<AppDeps, 'pool'>, userId: number): Promise<MeDto | null> {
+  const [row] = await preparedPoolQuery<MeRow>(deps.pool, ME, { userId });
+  if (!row) return null;
   return {
     // The mailing address is private: it goes to its owner here, and to coordinators of swaps they join.
-    user: { ...toSessionUser(user), mailingAddress: user.mailingAddress ?? null, unitsChosen: user.unitsChosen },
-    memberships: memberships.map((m) => ({
+    user: {
+      id: row.id,
+      email: row.email,
+      displayName: row.displayName,
+      units: row.units,
+      mailingAddress: row.mailingAddress ?? null,
+      unitsChosen: row.unitsChosen,
+    },
+    memberships: row.memberships.map((m) => ({
       guildId: m.guildId,
-      guildName: m.guild!.name,
+      guildName: m.guildName,
       role: m.role,
-      defaultUnit: m.guild!.defaultUnit,
+      defaultUnit: m.defaultUnit,
     })),
   };
 }
+
+type MeRow = MeDto['user'] & { memberships: MeDto['memberships'] };
 
 /** Changes name, units or address; a new name must not be another member's in any of the person's guilds. */
 export async function updateProfile(userId: number, input: ProfileUpdateInput) {

@@ -16,7 +16,7 @@ export function homeRouter(deps: AppDeps) {
   router.get(
     '/session',
     route({}, async (_input, req, res) => {
-      const me = req.user ? await getMe(req.user.id) : null;
+      const me = req.user ? await getMe(deps, req.user.id) : null;
       if (me) res.json(me);
       else res.status(204).end();
     }),

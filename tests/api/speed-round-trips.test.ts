@@ -105,6 +105,24 @@ describe('SQL round trips per request', () => {
     ).toBe(false);
   });
 
+  it('the session probe and /api/me answer the person and their guilds in one statement, as before', async () => {
+    await roles.member.agent.get('/api/session').expect(200);
+    for (const path of ['/api/session', '/api/me']) {
+      const { result, statements } = await statementsOf(() => roles.member.agent.get(path));
+      expect(result.status).toBe(200);
+      expect(statements.length, shown(statements)).toBe(1);
+      const me = result.body as { user: object; memberships: object[] };
+      // Same fields in the same order as the answer built from the models before.
+      expect(Object.keys(me)).toEqual(['user', 'memberships']);
+      expect(Object.keys(me.user)).toEqual(['id', 'email', 'displayName', 'units', 'mailingAddress', 'unitsChosen']);
+      expect(me.user).toMatchObject({ id: roles.member.id, email: roles.member.email, mailingAddress: null, unitsChosen: false });
+      expect(me.memberships).toEqual([
+        { guildId: roles.guildId, guildName: expect.any(String), role: 'member', defaultUnit: 'in' },
+      ]);
+      expect(Object.keys(me.memberships[0]!)).toEqual(['guildId', 'guildName', 'role', 'defaultUnit']);
+    }
+  });
+
   it('the home screen’s seven reads take one round trip once the session is remembered', async () => {
     await sewingSwap(app, roles, { pledges: [2, 2] });
     await roles.member.agent.get('/api/me/next').expect(200);
