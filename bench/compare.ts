@@ -7,10 +7,11 @@
  * the rounds' B/A ratios, which a machine slowing down for a minute moves far less than it moves
  * either side.
  *
- *   npx tsx bench/compare.ts <git revision> [measure|roster|roster-member|swap-member|home-member|roster-600]
+ *   npx tsx bench/compare.ts <git revision> [measure|roster|roster-member|swap-member|home-member|session-member|roster-600]
  *
  * `roster-member` reads the roster as one of the swap's makers, whose copy hides the others' verdicts;
- * `swap-member` reads the swap itself (its page's answer) as that maker, `home-member` their home screen.
+ * `swap-member` reads the swap itself (its page's answer) as that maker, `home-member` their home screen,
+ * `session-member` the session probe every start of the client sends.
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
@@ -37,6 +38,7 @@ const SCENARIOS: Record<
   'roster-member': { size: SMALL, connections: 10, get: '/api/swaps/swap/roster', asMaker: true },
   'swap-member': { size: SMALL, connections: 10, get: '/api/swaps/swap', asMaker: true },
   'home-member': { size: SMALL, connections: 10, get: '/api/me/next', asMaker: true },
+  'session-member': { size: SMALL, connections: 10, get: '/api/session', asMaker: true },
   'roster-600': { size: HISTORY_SIZE, connections: 10, get: '/api/swaps/swap/roster' },
 };
 
