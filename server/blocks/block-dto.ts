@@ -6,7 +6,7 @@ import type { Block, Measurement, Swap } from '../db/models';
 import { preparedQuery } from '../db/prepared';
 import { photoRef } from './photo-refs';
 import { LATEST_ESTIMATES, NEWEST_ESTIMATE_FIRST, latestEstimateDtos, type LatestEstimateRow } from './latest-estimate';
-import { blockWithoutVerdict, guildVerdictsVisibleTo, seesAllVerdicts } from './verdict-visibility';
+import { blockWithoutVerdict, viewerSeesAllVerdicts } from './verdict-visibility';
 
 /** True to size, trimmed to size, or accepted by an officer's decision. */
 export function isAccepted(block: Pick<Block, 'verdict' | 'trimmed' | 'state' | 'acceptedAt'>): boolean {
@@ -176,10 +176,7 @@ export async function blockDtosFrom(
   const othersHidden =
     !!viewer &&
     blocks.some((b) => b.makerId !== viewer.userId) &&
-    !seesAllVerdicts(
-      viewer,
-      viewer.canManage ? 'officers' : (viewer.verdictsVisibleTo ?? (await guildVerdictsVisibleTo(swap.guildId))),
-    );
+    !(await viewerSeesAllVerdicts(viewer, swap.guildId, viewer.verdictsVisibleTo));
   const dtos = blocks.map((b): BlockDto => {
     const latest = measurements.get(b.id) ?? [];
     const ruler = latest.find((m) => m.source === 'ruler') ?? null;

@@ -24,6 +24,18 @@ export async function guildVerdictsVisibleTo(guildId: number): Promise<VerdictsV
   return guild?.verdictsVisibleTo ?? 'officers';
 }
 
+/**
+ * Whether the viewer sees every maker's verdicts: officers without a read, anyone else by the guild's
+ * setting, taken from the policy's read of the swap where it gave it (`known`), else read here.
+ */
+export async function viewerSeesAllVerdicts(
+  viewer: VerdictViewer,
+  guildId: number,
+  known: VerdictsVisibleTo | undefined,
+): Promise<boolean> {
+  return viewer.canManage || seesAllVerdicts(viewer, known ?? (await guildVerdictsVisibleTo(guildId)));
+}
+
 /** A roster row without its verdicts: counts along the way stay, verdicts, acceptance and estimates go. */
 export function rowWithoutVerdicts(row: RosterRowDto): RosterRowDto {
   const { verdicts: _v, accepted: _a, ...rest } = row;

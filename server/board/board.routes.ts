@@ -6,7 +6,7 @@ import { canReadSwap, takeColumn } from '../swaps/swaps.policy';
 import { listActivity } from './board-activity';
 import { getRoster, membersFromChunks } from './roster.service';
 import { ROSTER_WITH_SWAP } from './board.queries';
-import { activitiesForMember, guildVerdictsVisibleTo, seesAllVerdicts } from '../blocks/verdict-visibility';
+import { activitiesForMember, viewerSeesAllVerdicts } from '../blocks/verdict-visibility';
 import type { AppDeps } from '../deps';
 
 /** The board's roster (addresses only for coordinators and admins) and its recent-activity list. */
@@ -39,7 +39,7 @@ export function boardRouter(deps: AppDeps) {
       async ({ params, query, access }, req, res) => {
         const lines = await listActivity(deps, params.swapId, query.limit, query.before);
         const viewer = { userId: currentUser(req).id, canManage: access.canManage };
-        const seesAll = seesAllVerdicts(viewer, access.verdictsVisibleTo ?? (await guildVerdictsVisibleTo(access.swap.guildId)));
+        const seesAll = await viewerSeesAllVerdicts(viewer, access.swap.guildId, access.verdictsVisibleTo);
         res.json(seesAll ? lines : activitiesForMember(lines, viewer.userId));
       },
     ),

@@ -10,7 +10,7 @@ import type { AppDeps } from '../deps';
 import { photoRef } from '../blocks/photo-refs';
 import { latestEstimateDto, type LatestEstimateRow } from '../blocks/latest-estimate';
 import { ROSTER_CHUNKS } from './board.queries';
-import { guildVerdictsVisibleTo, rosterForMember, seesAllVerdicts, type VerdictViewer } from '../blocks/verdict-visibility';
+import { rosterForMember, viewerSeesAllVerdicts, type VerdictViewer } from '../blocks/verdict-visibility';
 
 // A rank lookup rather than two searches of the list of states.
 const reached = (state: BlockState, step: BlockState) => blockStateRank[state] >= blockStateRank[step];
@@ -233,13 +233,6 @@ export async function getRoster(
   const data = await buildRoster(deps, swap, opts);
   const roster = { ...data, rows: data.rows.map(({ email: _email, ...row }): RosterRowDto => row) };
   const { viewer } = opts;
-  if (
-    !viewer ||
-    seesAllVerdicts(
-      viewer,
-      viewer.canManage ? 'officers' : (opts.verdictsVisibleTo ?? (await guildVerdictsVisibleTo(swap.guildId))),
-    )
-  )
-    return roster;
+  if (!viewer || (await viewerSeesAllVerdicts(viewer, swap.guildId, opts.verdictsVisibleTo))) return roster;
   return rosterForMember(roster, viewer.userId);
 }
