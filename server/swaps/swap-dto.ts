@@ -21,14 +21,26 @@ export async function signupStats(
 ): Promise<Map<number, SignupStats>> {
   const stats = new Map<number, SignupStats>();
   if (swapIds.length === 0) return stats;
-  const rows = await deps.sequelize.query<{ swap_id: number; signups: string; pledged: string; mine: string }>(SIGNUP_STATS, {
+  const rows = await deps.sequelize.query<SignupStatsRow & { swap_id: number }>(SIGNUP_STATS, {
     bind: { ids: swapIds, userId },
     type: QueryTypes.SELECT,
   });
-  for (const r of rows)
-    stats.set(r.swap_id, { signups: Number(r.signups), pledged: Number(r.pledged), myPledge: Number(r.mine) });
+  for (const r of rows) stats.set(r.swap_id, statsFrom(r));
   return stats;
 }
+
+/** A row of SIGNUP_STATS as it arrives (counts and sums are bigints, read as text). */
+interface SignupStatsRow {
+  signups: string;
+  pledged: string;
+  mine: string;
+}
+
+const statsFrom = (r: SignupStatsRow): SignupStats => ({
+  signups: Number(r.signups),
+  pledged: Number(r.pledged),
+  myPledge: Number(r.mine),
+});
 
 /** True while members may sign up, change their pledge or withdraw. */
 export function signupIsOpen(swap: Swap, now = new Date()): boolean {
@@ -52,19 +64,17 @@ export function summaryDto(swap: Swap, stats: SignupStats | undefined): SwapSumm
   };
 }
 
-interface SwapDetailRow {
+/** The swap's row of SIGNUP_STATS is null when nobody has signed up. */
+type SwapDetailRow = {
   guildName: string;
   guildTimeZone: string;
   creatorName: string | null;
   recipientName: string | null;
-  signups: string;
-  pledged: string;
-  mine: string;
-}
+} & (SignupStatsRow | { signups: null; pledged: null; mine: null });
 
 /**
  * What a swap's full answer shows besides its own row, in one named statement: its guild, the names of
- * its creator and gift recipient, and its sign-up tallies (as SIGNUP_STATS counts them). A member opens
+ * its creator and gift recipient, and its sign-up tallies (SIGNUP_STATS for the one swap). A member opens
  * the swap's page and its board often; this was four queries built by Sequelize.
  */
 const SWAP_DETAIL = `SELECT g.name AS "guildName", g.time_zone AS "guildTimeZone",
@@ -72,9 +82,7 @@ const SWAP_DETAIL = `SELECT g.name AS "guildName", g.time_zone AS "guildTimeZone
          (SELECT u.display_name FROM users u WHERE u.id = $giftRecipientId) AS "recipientName",
          t.signups, t.pledged, t.mine
     FROM guilds g
-   CROSS JOIN LATERAL (SELECT count(*) AS signups, coalesce(sum(blocks), 0) AS pledged,
-                              coalesce(sum(blocks) FILTER (WHERE user_id = $userId), 0) AS mine
-                         FROM signups WHERE swap_id = $swapId AND status = 'active') t
+    LEFT JOIN LATERAL (${SIGNUP_STATS}) t ON true
    WHERE g.id = $guildId`;
 
 /** The full swap as one member sees it. */
@@ -85,12 +93,12 @@ export async function swapDto(
 ): Promise<SwapDto> {
   const [detail] = await preparedPoolQuery<SwapDetailRow>(deps.pool, SWAP_DETAIL, {
     guildId: swap.guildId,
-    swapId: swap.id,
+    ids: [swap.id],
     userId: viewer.userId,
     createdById: swap.createdById ?? null,
     giftRecipientId: swap.giftRecipientId ?? null,
   });
-  const stats = { signups: Number(detail!.signups), pledged: Number(detail!.pledged), myPledge: Number(detail!.mine) };
+  const stats = detail!.signups === null ? undefined : statsFrom(detail!);
   const giftRecipient =
     swap.mode !== 'gift'
       ? null

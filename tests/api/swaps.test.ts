@@ -29,6 +29,10 @@ describe('setting up a swap', () => {
       tolerance: 0.125,
       squareness: 0.25,
       quota: { min: 1, max: 6 },
+      // Nobody has signed up to a draft: the tallies read 0, not null.
+      signups: 0,
+      pledged: 0,
+      myPledge: 0,
       signupReminderDays: 7,
       dueReminderDays: 2,
       canManage: true,
