@@ -90,28 +90,13 @@ export async function confirmSignup(
 }
 
 export async function getMe(deps: Pick<AppDeps, 'pool'>, userId: number): Promise<MeDto | null> {
-  const [row] = await preparedPoolQuery<MeRow>(deps.pool, ME, { userId });
+  // The statement's columns are the answer's fields, in its order.
+  const [row] = await preparedPoolQuery<MeDto['user'] & Pick<MeDto, 'memberships'>>(deps.pool, ME, { userId });
   if (!row) return null;
-  return {
-    // The mailing address is private: it goes to its owner here, and to coordinators of swaps they join.
-    user: {
-      id: row.id,
-      email: row.email,
-      displayName: row.displayName,
-      units: row.units,
-      mailingAddress: row.mailingAddress ?? null,
-      unitsChosen: row.unitsChosen,
-    },
-    memberships: row.memberships.map((m) => ({
-      guildId: m.guildId,
-      guildName: m.guildName,
-      role: m.role,
-      defaultUnit: m.defaultUnit,
-    })),
-  };
+  // The mailing address is private: it goes to its owner here, and to coordinators of swaps they join.
+  const { memberships, ...user } = row;
+  return { user, memberships };
 }
-
-type MeRow = MeDto['user'] & { memberships: MeDto['memberships'] };
 
 /** Changes name, units or address; a new name must not be another member's in any of the person's guilds. */
 export async function updateProfile(userId: number, input: ProfileUpdateInput) {
