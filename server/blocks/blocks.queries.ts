@@ -1,22 +1,16 @@
 /** The blocks feature's hand-written SQL; every value arrives as a bind parameter. */
-import { QueryTypes, type Model, type ModelStatic, type Sequelize, type Transaction } from 'sequelize';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { Block, Swap } from '../db/models';
 import type pg from 'pg';
 import type { Role } from '@shared/schemas/guilds';
 import { preparedPoolQuery, preparedQuery } from '../db/prepared';
+import { buildFromRow, modelColumns } from '../db/model-columns';
 import { viewerRole } from '../swaps/swaps.queries';
 import { relatedSql, type RelatedJson } from './block-dto';
 import { stepCtes } from './step-log';
 
-let selectList: string | undefined;
-
 /** Every column of both tables, aliased to attribute names (`swap.` before the swap's). */
-function columns(): string {
-  const of = (model: ModelStatic<Model>, table: string, prefix: string) =>
-    Object.entries(model.getAttributes()).map(([name, a]) => `${table}."${a.field ?? name}" AS "${prefix}${name}"`);
-  selectList ??= [...of(Block, 'b', ''), ...of(Swap, 's', 'swap.')].join(', ');
-  return selectList;
-}
+const columns = () => `${modelColumns(Block, 'b')}, ${modelColumns(Swap, 's', 'swap.')}`;
 
 /**
  * A block and its swap in one query, for the hot paths (policy checks, locked changes). The SQL is
@@ -55,8 +49,8 @@ function instancesFrom(row: Record<string, unknown>): { block: Block; swap: Swap
     else if (key.startsWith('m.')) more[key.slice('m.'.length)] = value;
     else blockValues[key] = value;
   }
-  const swap = Swap.build(swapValues as never, { isNewRecord: false, raw: true });
-  const block = Block.build(blockValues as never, { isNewRecord: false, raw: true });
+  const swap = buildFromRow(Swap, swapValues);
+  const block = buildFromRow(Block, blockValues);
   block.swap = swap;
   return { block, swap, more };
 }

@@ -12,6 +12,7 @@ import { oneTripTransaction, type TripStatement } from '../db/one-trip';
 import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
 import { swapColumns } from '../swaps/swaps.queries';
 import { activitiesForMember, rosterForMember } from '../blocks/verdict-visibility';
+import { buildFromRow } from '../db/model-columns';
 
 const FOREIGN_KEY_VIOLATION = '23503';
 
@@ -145,7 +146,7 @@ export class BoardFanout {
       version: string;
       verdictsVisibleTo: string;
     };
-    const swap = Swap.build(values as never, { isNewRecord: false, raw: true });
+    const swap = buildFromRow(Swap, values);
     const read = answered[answered.length - 1]!;
     return {
       swap,

@@ -1,34 +1,51 @@
-import { ChatRoom, type Membership } from '../db/models';
+import type { Role } from '@shared/schemas/guilds';
+import { ChatRoom } from '../db/models';
 import { NotFoundError } from '../http/errors';
-import { authorizeGuild, can } from '../guilds/guilds.policy';
-import { canReadSwap } from '../swaps/swaps.policy';
+import { assertGuildRole, can } from '../guilds/guilds.policy';
+import { buildFromRow } from '../db/model-columns';
+import { preparedPoolQuery } from '../db/prepared';
 import type { AppDeps } from '../deps';
+import { roomWithAccess } from './chat.queries';
 
 export interface RoomAccess {
   room: ChatRoom;
-  membership: Membership;
+  role: Role;
+  /** the sew day's or swap's title, as the room is headed */
+  title: string;
   canPost: boolean;
   canModerate: boolean;
 }
 
-/** A hidden swap behind a room reads as a missing room (or message), never as a swap. */
-const hideMissingSwap = (missing: string) => (error: unknown) => {
-  throw error instanceof NotFoundError ? new NotFoundError(missing) : error;
-};
+/** What a room is headed: its sew day's or swap's title. */
+export function roomTitle(kind: ChatRoom['kind'], title: string | null): string {
+  if (kind === 'sewday') return title ?? 'Sew day';
+  if (kind === 'swap') return title ?? 'Swap';
+  return 'Chat';
+}
+
+/** What a role may do in a room. */
+export const roomRights = (role: Role) => ({ canPost: can(role, 'chat:post'), canModerate: can(role, 'chat:moderate') });
 
 /**
  * Any active member of the room's guild may read and post; admins also moderate. A swap's room
- * follows the swap's own visibility (a draft is for its officers only).
+ * follows the swap's own visibility (a draft is for its officers only), and a hidden swap behind a room
+ * reads as a missing room (or message), never as a swap. One statement (`roomWithAccess`).
  */
 export async function authorizeRoom(
-  deps: Pick<AppDeps, 'sequelize' | 'pool'>,
+  deps: Pick<AppDeps, 'pool'>,
   userId: number,
   roomId: number,
   missing = 'That chat room does not exist.',
 ): Promise<RoomAccess> {
-  const room = await ChatRoom.findByPk(roomId);
-  if (!room) throw new NotFoundError('That chat room does not exist.');
-  const membership = await authorizeGuild(userId, room.guildId, 'guild:read', missing);
-  if (room.kind === 'swap' && room.swapId) await canReadSwap(deps, userId, room.swapId).catch(hideMissingSwap(missing));
-  return { room, membership, canPost: can(membership.role, 'chat:post'), canModerate: can(membership.role, 'chat:moderate') };
+  const [row] = await preparedPoolQuery<Record<string, unknown>>(deps.pool, roomWithAccess(), { roomId, userId });
+  if (!row) throw new NotFoundError('That chat room does not exist.');
+  const { viewerRole, sewDayTitle, swapTitle, swapState, ...values } = row;
+  const room = buildFromRow(ChatRoom, values);
+  const role = assertGuildRole(viewerRole as Role | null, 'guild:read', missing);
+  if (room.kind === 'swap' && room.swapId) {
+    const hidden = swapState === null || (swapState === 'draft' && !can(role, 'swaps:manage'));
+    if (hidden || !can(role, 'swaps:read')) throw new NotFoundError(missing);
+  }
+  const title = roomTitle(room.kind, ((room.kind === 'swap' ? swapTitle : sewDayTitle) ?? null) as string | null);
+  return { room, role, title, ...roomRights(role) };
 }

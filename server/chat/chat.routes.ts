@@ -28,7 +28,7 @@ export function chatRouter(deps: AppDeps) {
     '/chat/rooms/:roomId',
     requireUser,
     route({ params: roomParamsSchema, authorize: inRoom }, async ({ access }, req, res) => {
-      res.json(await roomDto(access, currentUser(req).id));
+      res.json(roomDto(access, currentUser(req).id));
     }),
   );
 

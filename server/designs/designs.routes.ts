@@ -25,7 +25,7 @@ export function designsRouter(deps: AppDeps) {
     '/photos/:photoId/colour',
     requireUser,
     route(
-      { params: photoColourParamsSchema, authorize: (req, { params }) => canSeePhoto(currentUser(req).id, params.photoId) },
+      { params: photoColourParamsSchema, authorize: (req, { params }) => canSeePhoto(deps, currentUser(req).id, params.photoId) },
       async ({ access: photo }, _req, res) => {
         const stats = await photoColour(deps, photo);
         if (!stats) throw new NotFoundError('The file of this photo is missing on the server, so its colours cannot be read.');

@@ -15,14 +15,14 @@ import { authorizeGuild, type GuildAction } from './guilds.policy';
 import * as guilds from './guilds.service';
 import type { AppDeps } from '../deps';
 
-/** Authorises `action` in the guild named by the path, before any body is read. */
-const may =
-  (action: GuildAction) =>
-  (req: Request, { params }: { params: { guildId: number } }) =>
-    authorizeGuild(currentUser(req).id, params.guildId, action);
 const invitationParamsSchema = guildParamsSchema.extend({ invitationId: idParam });
 
 export function guildsRouter(deps: AppDeps) {
+  /** Authorises `action` in the guild named by the path, before any body is read. */
+  const may =
+    (action: GuildAction) =>
+    (req: Request, { params }: { params: { guildId: number } }) =>
+      authorizeGuild(deps, currentUser(req).id, params.guildId, action);
   const router = Router();
   router.use(requireUser);
 

@@ -3,21 +3,18 @@
  * view; a member prints labels for their own blocks, officers for anyone's.
  */
 import type { LabelsQuery } from '@shared/schemas/intake';
-import { Swap } from '../db/models';
-import { authorizeGuild, can } from '../guilds/guilds.policy';
+import type { Swap } from '../db/models';
+import { assertGuildRole, can } from '../guilds/guilds.policy';
 import { ForbiddenError, NotFoundError } from '../http/errors';
+import { loadSwap } from '../swaps/swaps.policy';
+import type { AppDeps } from '../deps';
 
-async function loadSwap(swapId: number): Promise<Swap> {
-  const swap = await Swap.findByPk(swapId);
-  if (!swap) throw new NotFoundError('That swap does not exist.');
-  return swap;
-}
+const MISSING_SWAP = 'That swap does not exist.';
 
 /** Coordinators and admins of the swap's guild; drafts have no blocks to take in. */
-export async function canRunIntake(userId: number, swapId: number): Promise<Swap> {
-  const swap = await loadSwap(swapId);
-  const membership = await authorizeGuild(userId, swap.guildId, 'swaps:read', 'That swap does not exist.');
-  if (!can(membership.role, 'intake:run'))
+export async function canRunIntake(deps: Pick<AppDeps, 'pool'>, userId: number, swapId: number): Promise<Swap> {
+  const { swap, role } = await loadSwap(deps, userId, swapId);
+  if (!can(assertGuildRole(role, 'swaps:read', MISSING_SWAP), 'intake:run'))
     throw new ForbiddenError('Only the swap’s coordinators and the guild’s admins take blocks in.');
   return swap;
 }
@@ -27,14 +24,14 @@ export async function canRunIntake(userId: number, swapId: number): Promise<Swap
  * only for officers. Returns the swap and the maker to list (null for everyone).
  */
 export async function canPrintLabels(
+  deps: Pick<AppDeps, 'pool'>,
   userId: number,
   swapId: number,
   maker: LabelsQuery['maker'],
 ): Promise<{ swap: Swap; makerId: number | null }> {
-  const swap = await loadSwap(swapId);
-  const membership = await authorizeGuild(userId, swap.guildId, 'swaps:read', 'That swap does not exist.');
-  const officer = can(membership.role, 'intake:run');
-  if (swap.state === 'draft' && !officer) throw new NotFoundError('That swap does not exist.');
+  const { swap, role } = await loadSwap(deps, userId, swapId);
+  const officer = can(assertGuildRole(role, 'swaps:read', MISSING_SWAP), 'intake:run');
+  if (swap.state === 'draft' && !officer) throw new NotFoundError(MISSING_SWAP);
   const makerId = maker === 'me' ? userId : maker === 'all' ? null : maker;
   if (makerId !== userId && !officer) throw new ForbiddenError('Members print labels for their own blocks only.');
   return { swap, makerId };

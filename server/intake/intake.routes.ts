@@ -18,7 +18,7 @@ export function intakeRouter(deps: AppDeps) {
       {
         params: swapParamsSchema,
         query: labelsQuerySchema,
-        authorize: (req, { params, query }) => canPrintLabels(currentUser(req).id, params.swapId, query.maker),
+        authorize: (req, { params, query }) => canPrintLabels(deps, currentUser(req).id, params.swapId, query.maker),
       },
       async ({ access: { swap, makerId } }, _req, res) => {
         res.set('Cache-Control', 'no-store').json(await labelSheet(deps, swap, makerId));
@@ -30,7 +30,7 @@ export function intakeRouter(deps: AppDeps) {
     '/swaps/:swapId/intake',
     requireUser,
     route(
-      { params: swapParamsSchema, authorize: (req, { params }) => canRunIntake(currentUser(req).id, params.swapId) },
+      { params: swapParamsSchema, authorize: (req, { params }) => canRunIntake(deps, currentUser(req).id, params.swapId) },
       async ({ access: swap }, _req, res) => {
         res.set('Cache-Control', 'no-store').json(await intakePack(deps, swap));
       },
@@ -42,7 +42,7 @@ export function intakeRouter(deps: AppDeps) {
     '/intake/resolve',
     requireUser,
     route({ body: resolveBodySchema }, async ({ body }, req, res) => {
-      const swap = await canRunIntake(currentUser(req).id, body.swapId);
+      const swap = await canRunIntake(deps, currentUser(req).id, body.swapId);
       res.json(await resolveBlock(deps, swap, body));
     }),
   );

@@ -71,7 +71,7 @@ export function notificationsRouter(deps: AppDeps) {
       {
         params: mailLogParamsSchema,
         query: mailLogQuerySchema,
-        authorize: (req, { params }) => authorizeMailLog(currentUser(req).id, params.guildId),
+        authorize: (req, { params }) => authorizeMailLog(deps, currentUser(req).id, params.guildId),
       },
       async ({ params, query }, _req, res) => {
         res.json(await notifications.mailLog(params.guildId, query));
@@ -83,7 +83,10 @@ export function notificationsRouter(deps: AppDeps) {
     '/guilds/:guildId/mail-messages/:messageId',
     requireUser,
     route(
-      { params: messageParamsSchema, authorize: (req, { params }) => authorizeMailLog(currentUser(req).id, params.guildId) },
+      {
+        params: messageParamsSchema,
+        authorize: (req, { params }) => authorizeMailLog(deps, currentUser(req).id, params.guildId),
+      },
       async ({ params }, _req, res) => {
         res.json(await notifications.mailMessage(params.guildId, params.messageId));
       },

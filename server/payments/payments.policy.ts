@@ -8,13 +8,17 @@ import { authorizeGuild, can } from '../guilds/guilds.policy';
 import { canReadSwap } from '../swaps/swaps.policy';
 import type { AppDeps } from '../deps';
 
-export async function canPayGuild(userId: number, guildId: number): Promise<{ role: Role; isTreasurer: boolean }> {
-  const membership = await authorizeGuild(userId, guildId, 'payments:pay');
-  return { role: membership.role, isTreasurer: can(membership.role, 'payments:manage') };
+export async function canPayGuild(
+  deps: Pick<AppDeps, 'pool'>,
+  userId: number,
+  guildId: number,
+): Promise<{ role: Role; isTreasurer: boolean }> {
+  const { role } = await authorizeGuild(deps, userId, guildId, 'payments:pay');
+  return { role, isTreasurer: can(role, 'payments:manage') };
 }
 
-export async function canTreasure(userId: number, guildId: number): Promise<void> {
-  await authorizeGuild(userId, guildId, 'payments:manage');
+export async function canTreasure(deps: Pick<AppDeps, 'pool'>, userId: number, guildId: number): Promise<void> {
+  await authorizeGuild(deps, userId, guildId, 'payments:manage');
 }
 
 /** Members of the swap's guild pay its fees; officers also see everyone's standing. */

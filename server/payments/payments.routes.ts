@@ -110,7 +110,7 @@ export function paymentsRouter(deps: AppDeps) {
     '/guilds/:guildId/dues',
     requireUser,
     route(
-      { params: guildParamsSchema, authorize: (req, { params }) => canPayGuild(me(req), params.guildId) },
+      { params: guildParamsSchema, authorize: (req, { params }) => canPayGuild(deps, me(req), params.guildId) },
       async ({ params, access }, req, res) => {
         res.json(await payments.guildDues(deps, params.guildId, me(req), access.isTreasurer));
       },
@@ -124,7 +124,7 @@ export function paymentsRouter(deps: AppDeps) {
       {
         params: guildParamsSchema,
         body: duesCheckoutSchema,
-        authorize: (req, { params }) => canPayGuild(me(req), params.guildId),
+        authorize: (req, { params }) => canPayGuild(deps, me(req), params.guildId),
       },
       async ({ params }, req, res) => {
         res.json(await payments.startDuesCheckout(deps, params.guildId, me(req)));
@@ -139,7 +139,7 @@ export function paymentsRouter(deps: AppDeps) {
       {
         params: guildParamsSchema,
         query: guildPaymentsQuerySchema,
-        authorize: (req, { params }) => canTreasure(me(req), params.guildId),
+        authorize: (req, { params }) => canTreasure(deps, me(req), params.guildId),
       },
       async ({ params, query }, _req, res) => {
         const { format, ...filters } = query;
@@ -163,7 +163,7 @@ export function paymentsRouter(deps: AppDeps) {
     route(
       {
         params: guildParamsSchema.extend(paymentParamsSchema.shape),
-        authorize: (req, { params }) => canTreasure(me(req), params.guildId),
+        authorize: (req, { params }) => canTreasure(deps, me(req), params.guildId),
       },
       async ({ params }, _req, res) => {
         res.json(await refundById(deps, params.guildId, params.paymentId));

@@ -12,10 +12,6 @@ import * as sewDays from './sewdays.service';
 import type { AppDeps } from '../deps';
 
 type SewDayInput = { params: { sewDayId: number } };
-const readSewDay = (req: Request, { params }: SewDayInput) =>
-  authorizeSewDay(currentUser(req).id, params.sewDayId, 'sewdays:read');
-const manageSewDay = (req: Request, { params }: SewDayInput) =>
-  authorizeSewDay(currentUser(req).id, params.sewDayId, 'sewdays:manage');
 
 // The fields of a sew day, any subset; the service checks the merged whole.
 const sewDayChangesSchema = z
@@ -34,6 +30,10 @@ const sewDayChangesSchema = z
 
 /** Sew days: the guild's calendar, RSVPs and a calendar file per day. */
 export function sewDaysRouter(deps: AppDeps) {
+  const readSewDay = (req: Request, { params }: SewDayInput) =>
+    authorizeSewDay(deps, currentUser(req).id, params.sewDayId, 'sewdays:read');
+  const manageSewDay = (req: Request, { params }: SewDayInput) =>
+    authorizeSewDay(deps, currentUser(req).id, params.sewDayId, 'sewdays:manage');
   const router = Router();
 
   router.get(
@@ -43,7 +43,7 @@ export function sewDaysRouter(deps: AppDeps) {
       {
         params: guildParamsSchema,
         query: sewDayListQuerySchema,
-        authorize: (req, { params }) => authorizeGuild(currentUser(req).id, params.guildId, 'sewdays:read'),
+        authorize: (req, { params }) => authorizeGuild(deps, currentUser(req).id, params.guildId, 'sewdays:read'),
       },
       async ({ params, query, access: membership }, req, res) => {
         const viewer = { userId: currentUser(req).id, canManage: can(membership.role, 'sewdays:manage') };
@@ -59,7 +59,7 @@ export function sewDaysRouter(deps: AppDeps) {
       {
         params: guildParamsSchema,
         body: sewDayInputSchema,
-        authorize: (req, { params }) => authorizeGuild(currentUser(req).id, params.guildId, 'sewdays:manage'),
+        authorize: (req, { params }) => authorizeGuild(deps, currentUser(req).id, params.guildId, 'sewdays:manage'),
       },
       async ({ params, body }, req, res) => {
         res.status(201).json(await sewDays.scheduleSewDay(deps, params.guildId, currentUser(req).id, body));

@@ -10,6 +10,7 @@ import { ForbiddenError, NotFoundError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { swapWithViewerRole } from './swaps.queries';
 import { oneTripRead } from '../db/one-trip';
+import { buildFromRow } from '../db/model-columns';
 
 export interface SwapAccess {
   swap: Swap;
@@ -55,7 +56,7 @@ export function takeColumn<T>(swap: Swap, name: string): T | undefined {
  * built from the row as findByPk would build it (the pool parses these column types as Sequelize does).
  * With `extra`, its rows are read in the same round trip.
  */
-async function loadSwap(
+export async function loadSwap(
   deps: Pick<AppDeps, 'pool'>,
   userId: number,
   swapId: number,
@@ -73,7 +74,7 @@ async function loadSwap(
   if (!row) throw new NotFoundError('That swap does not exist.');
   const { viewerRole: role, guildVerdictsVisibleTo, ...values } = row;
   return {
-    swap: Swap.build(values as never, { isNewRecord: false, raw: true }),
+    swap: buildFromRow(Swap, values),
     role: (role ?? null) as Role | null,
     verdictsVisibleTo: guildVerdictsVisibleTo as VerdictsVisibleTo,
   };

@@ -1,5 +1,6 @@
 /** The swaps feature's hand-written SQL; every value arrives as a bind parameter. */
 import { Swap } from '../db/models';
+import { modelColumns } from '../db/model-columns';
 
 /**
  * The role of the person `$viewerId` in the guild of the swap aliased `swapAlias`, as a subquery read in
@@ -9,18 +10,11 @@ import { Swap } from '../db/models';
 export const viewerRole = (swapAlias: 'Swap' | 's') =>
   `(SELECT m.role FROM memberships m WHERE m.guild_id = "${swapAlias}"."guild_id" AND m.user_id = $viewerId AND m.status = 'active')`;
 
-let swapColumnList: string | undefined;
-
 /**
  * Every column of the swap aliased "Swap", named as its attributes, so a row builds the instance as
- * findByPk would. Built once, on first use, from the model.
+ * findByPk would.
  */
-export function swapColumns(): string {
-  swapColumnList ??= Object.entries(Swap.getAttributes())
-    .map(([name, a]) => `"Swap"."${a.field ?? name}" AS "${name}"`)
-    .join(', ');
-  return swapColumnList;
-}
+export const swapColumns = () => modelColumns(Swap, '"Swap"');
 
 let swapWithRoleSql: string | undefined;
 

@@ -31,7 +31,7 @@ export function swapsRouter(deps: AppDeps) {
     route(
       {
         params: guildParamsSchema,
-        authorize: (req, { params }) => authorizeGuild(currentUser(req).id, params.guildId, 'swaps:read'),
+        authorize: (req, { params }) => authorizeGuild(deps, currentUser(req).id, params.guildId, 'swaps:read'),
       },
       async ({ params, access: { role } }, req, res) => {
         res.json(
@@ -52,7 +52,7 @@ export function swapsRouter(deps: AppDeps) {
       {
         params: guildParamsSchema,
         body: createSwapSchema,
-        authorize: (req, { params }) => authorizeGuild(currentUser(req).id, params.guildId, 'swaps:manage'),
+        authorize: (req, { params }) => authorizeGuild(deps, currentUser(req).id, params.guildId, 'swaps:manage'),
       },
       async ({ params, body, access: { role } }, req, res) => {
         res

@@ -51,7 +51,7 @@ export function photosRouter(deps: AppDeps) {
     '/photos/:photoId',
     requireUser,
     route(
-      { params: photoParams, query: photoQuery, authorize: (req, { params }) => canSeePhoto(currentUser(req).id, params.photoId) },
+      { params: photoParams, query: photoQuery, authorize: (req, { params }) => canSeePhoto(deps, currentUser(req).id, params.photoId) },
       async ({ query: { size }, access: photo }, req, res) => {
         const extension = photo.mime === 'image/webp' ? 'webp' : 'jpg';
         await sendPhoto(req, res, deps, photo, size, {
@@ -70,7 +70,7 @@ export function photosRouter(deps: AppDeps) {
     '/photos/:photoId',
     requireUser,
     route(
-      { params: photoParams, authorize: (req, { params }) => canRemovePhoto(currentUser(req).id, params.photoId) },
+      { params: photoParams, authorize: (req, { params }) => canRemovePhoto(deps, currentUser(req).id, params.photoId) },
       async ({ access: photo }, _req, res) => {
         await removePhoto(deps, photo);
         res.status(204).end();

@@ -1,0 +1,25 @@
+import type { Model, ModelStatic } from 'sequelize';
+
+const lists = new Map<string, string>();
+
+/**
+ * Every column of `model` read from the table aliased `table`, each named `prefix` + its attribute, so a
+ * hand-written query's row builds the instance as findByPk would (`Model.build(row, { raw: true })`).
+ * Built once per model, alias and prefix, on first use: the models are initialised at start-up.
+ */
+export function modelColumns(model: ModelStatic<Model>, table: string, prefix = ''): string {
+  const key = `${model.name}\u0000${table}\u0000${prefix}`;
+  let list = lists.get(key);
+  if (list === undefined) {
+    list = Object.entries(model.getAttributes())
+      .map(([name, a]) => `${table}."${a.field ?? name}" AS "${prefix}${name}"`)
+      .join(', ');
+    lists.set(key, list);
+  }
+  return list;
+}
+
+/** A model instance built from a hand-written query's row, as findByPk would have built it. */
+export function buildFromRow<M extends Model>(model: ModelStatic<M>, row: Record<string, unknown>): M {
+  return model.build(row as never, { isNewRecord: false, raw: true });
+}
