@@ -1,4 +1,3 @@
-import { Op, QueryTypes } from 'sequelize';
 import {
   instantToWallTime,
   rsvpAnswers,
@@ -12,13 +11,14 @@ import {
   type SewDayListQuery,
 } from '@shared/schemas/sewdays';
 import { zodFields } from '@shared/schemas/errors';
-import { ChatRoom, Guild, Rsvp, SewDay, User } from '../db/models';
+import { ChatRoom, Guild, SewDay } from '../db/models';
 import { ConflictError, NotFoundError, ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
-import { RSVP_COUNTS, UPSERT_RSVP } from './sewdays.queries';
+import { preparedPoolQuery } from '../db/prepared';
+import { SEW_DAY_DETAIL, sewDayList, UPSERT_RSVP } from './sewdays.queries';
 
-type Deps = Pick<AppDeps, 'sequelize'>;
-type Events = Pick<AppDeps, 'events' | 'sequelize'>;
+type Deps = Pick<AppDeps, 'pool'>;
+type Events = Pick<AppDeps, 'events' | 'sequelize' | 'pool'>;
 
 interface Viewer {
   userId: number;
@@ -42,68 +42,72 @@ function toColumns(input: SewDayInput, timeZone: string) {
   };
 }
 
-/** Builds the answers for several sew days with three queries, whatever their number. */
-async function toDtos(deps: Deps, sewDays: SewDay[], timeZone: string, viewer: Viewer): Promise<SewDayDto[]> {
-  if (sewDays.length === 0) return [];
-  const ids = sewDays.map((s) => s.id);
-  const counts = await deps.sequelize.query<{ sew_day_id: number; answer: RsvpAnswer; n: string }>(RSVP_COUNTS, {
-    bind: { ids },
-    type: QueryTypes.SELECT,
-  });
-  const mine = await Rsvp.findAll({ where: { sewDayId: ids, userId: viewer.userId } });
-  const rooms = await ChatRoom.findAll({ where: { sewDayId: ids }, attributes: ['id', 'sewDayId'] });
-  return sewDays.map((s) => {
-    const rsvpCounts = Object.fromEntries(rsvpAnswers.map((a) => [a, 0])) as Record<RsvpAnswer, number>;
-    for (const c of counts) if (c.sew_day_id === s.id) rsvpCounts[c.answer] = Number(c.n);
-    return {
-      id: s.id,
-      guildId: s.guildId,
-      title: s.title,
-      startsAt: s.startsAt.toISOString(),
-      endsAt: s.endsAt.toISOString(),
-      startsAtLocal: instantToWallTime(s.startsAt, timeZone),
-      endsAtLocal: instantToWallTime(s.endsAt, timeZone),
-      timeZone,
-      place: s.place,
-      videoUrl: s.videoUrl,
-      notes: s.notes,
-      cancelledAt: s.cancelledAt?.toISOString() ?? null,
-      createdBy: s.createdBy ? { id: s.createdBy.id, displayName: s.createdBy.displayName } : null,
-      rsvpCounts,
-      myRsvp: mine.find((r) => r.sewDayId === s.id)?.answer ?? null,
-      chatRoomId: rooms.find((r) => r.sewDayId === s.id)?.id ?? null,
-      canManage: viewer.canManage,
-    };
-  });
+/** A sew day's row as SEW_DAY_ROW reads it; instants are strings where it came inside JSON. */
+interface SewDayRow {
+  id: number;
+  guildId: number;
+  title: string;
+  startsAt: Date | string;
+  endsAt: Date | string;
+  place: string | null;
+  videoUrl: string | null;
+  notes: string | null;
+  cancelledAt: Date | string | null;
+  creatorId: number | null;
+  creatorName: string | null;
+  rsvpCounts: Partial<Record<RsvpAnswer, number>> | null;
+  myRsvp: RsvpAnswer | null;
+  chatRoomId: number | null;
 }
 
-const withCreator = [{ model: User, as: 'createdBy', attributes: ['id', 'displayName'] }];
+function toDto(row: SewDayRow, timeZone: string, viewer: Viewer): SewDayDto {
+  const startsAt = new Date(row.startsAt);
+  const endsAt = new Date(row.endsAt);
+  return {
+    id: row.id,
+    guildId: row.guildId,
+    title: row.title,
+    startsAt: startsAt.toISOString(),
+    endsAt: endsAt.toISOString(),
+    startsAtLocal: instantToWallTime(startsAt, timeZone),
+    endsAtLocal: instantToWallTime(endsAt, timeZone),
+    timeZone,
+    place: row.place,
+    videoUrl: row.videoUrl,
+    notes: row.notes,
+    cancelledAt: row.cancelledAt === null ? null : new Date(row.cancelledAt).toISOString(),
+    createdBy: row.creatorId === null ? null : { id: row.creatorId, displayName: row.creatorName! },
+    rsvpCounts: Object.fromEntries(rsvpAnswers.map((a) => [a, row.rsvpCounts?.[a] ?? 0])) as Record<RsvpAnswer, number>,
+    myRsvp: row.myRsvp,
+    chatRoomId: row.chatRoomId,
+    canManage: viewer.canManage,
+  };
+}
 
-/** Upcoming (not yet ended, soonest first) or past (most recent first) sew days of a guild. */
+/**
+ * Upcoming (not yet ended, soonest first) or past (most recent first) sew days of a guild, in one
+ * statement with their answers counted, the caller's answer and their chat rooms.
+ */
 export async function listSewDays(deps: Deps, guildId: number, viewer: Viewer, query: SewDayListQuery): Promise<SewDayListDto> {
-  const guild = await guildZone(guildId);
-  const now = new Date();
-  const sewDays = await SewDay.findAll({
-    where: { guildId, endsAt: query.when === 'upcoming' ? { [Op.gte]: now } : { [Op.lt]: now } },
-    include: withCreator,
-    order: [['startsAt', query.when === 'upcoming' ? 'ASC' : 'DESC']],
-    limit: 100,
+  const [list] = await preparedPoolQuery<{ timeZone: string; sewDays: SewDayRow[] }>(deps.pool, sewDayList(query.when), {
+    guildId,
+    userId: viewer.userId,
+    now: new Date(),
   });
-  return { timeZone: guild.timeZone, canManage: viewer.canManage, sewDays: await toDtos(deps, sewDays, guild.timeZone, viewer) };
+  if (!list) throw new NotFoundError('That guild does not exist.');
+  const { timeZone } = list;
+  return { timeZone, canManage: viewer.canManage, sewDays: list.sewDays.map((row) => toDto(row, timeZone, viewer)) };
 }
 
-/** One sew day with everyone's answers, grouped for the page. */
+/** One sew day with everyone's answers, grouped for the page, in one statement. */
 export async function getSewDay(deps: Deps, sewDayId: number, viewer: Viewer): Promise<SewDayDetailDto> {
-  const sewDay = await SewDay.findByPk(sewDayId, { include: withCreator });
-  if (!sewDay) throw new NotFoundError('That sew day does not exist.');
-  const guild = await guildZone(sewDay.guildId);
-  const [dto] = await toDtos(deps, [sewDay], guild.timeZone, viewer);
-  const rsvps = await Rsvp.findAll({
-    where: { sewDayId },
-    include: [{ model: User, as: 'user', attributes: ['id', 'displayName'] }],
-    order: [[{ model: User, as: 'user' }, 'displayName', 'ASC']],
-  });
-  return { ...dto!, rsvps: rsvps.map((r) => ({ userId: r.userId, displayName: r.user!.displayName, answer: r.answer })) };
+  const [row] = await preparedPoolQuery<SewDayRow & { timeZone: string; rsvps: SewDayDetailDto['rsvps'] }>(
+    deps.pool,
+    SEW_DAY_DETAIL,
+    { sewDayId, userId: viewer.userId },
+  );
+  if (!row) throw new NotFoundError('That sew day does not exist.');
+  return { ...toDto(row, row.timeZone, viewer), rsvps: row.rsvps };
 }
 
 /** Schedules a sew day and opens its chat room in the same transaction. */
