@@ -1,6 +1,6 @@
 /** The chat feature's hand-written SQL; every value arrives as a bind parameter. */
 import { ChatRoom } from '../db/models';
-import { modelColumns } from '../db/model-columns';
+import { modelColumns, sqlOnce } from '../db/model-columns';
 import { roleIn } from '../guilds/guilds.queries';
 
 /**
@@ -8,19 +8,22 @@ import { roleIn } from '../guilds/guilds.queries';
  * guild, and the title and state of the sew day or swap it belongs to (a swap's room follows the
  * swap's visibility). Every read of a room's history and every message sent asks it.
  */
-export const roomWithAccess = () => `SELECT ${modelColumns(ChatRoom, 'r')}, ${roleIn('r.guild_id')} AS "viewerRole",
+export const roomWithAccess = sqlOnce(
+  () => `SELECT ${modelColumns(ChatRoom, 'r')}, ${roleIn('r.guild_id')} AS "viewerRole",
          d.title AS "sewDayTitle", s.title AS "swapTitle", s.state AS "swapState"
     FROM chat_rooms r
     LEFT JOIN sew_days d ON d.id = r.sew_day_id
     LEFT JOIN swaps s ON s.id = r.swap_id
-   WHERE r.id = $roomId`;
+   WHERE r.id = $roomId`,
+);
 
 /**
  * Swap $swapId's room, opened by this statement when it has none yet ($guildId is the swap's guild).
  * The common case, a room that exists, writes nothing. Two people opening it at once: the one whose
  * insert loses gets no row here (its snapshot sees neither room) and reads it again.
  */
-export const swapRoomOpened = () => `WITH opened AS (
+export const swapRoomOpened = sqlOnce(
+  () => `WITH opened AS (
     INSERT INTO chat_rooms (guild_id, kind, swap_id, created_at, updated_at)
     SELECT $guildId, 'swap', $swapId, now(), now()
      WHERE NOT EXISTS (SELECT 1 FROM chat_rooms WHERE swap_id = $swapId)
@@ -28,4 +31,5 @@ export const swapRoomOpened = () => `WITH opened AS (
     RETURNING ${modelColumns(ChatRoom, 'chat_rooms')})
   SELECT * FROM opened
   UNION ALL
-  SELECT ${modelColumns(ChatRoom, 'r')} FROM chat_rooms r WHERE r.swap_id = $swapId`;
+  SELECT ${modelColumns(ChatRoom, 'r')} FROM chat_rooms r WHERE r.swap_id = $swapId`,
+);

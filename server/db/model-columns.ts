@@ -23,3 +23,12 @@ export function modelColumns(model: ModelStatic<Model>, table: string, prefix = 
 export function buildFromRow<M extends Model>(model: ModelStatic<M>, row: Record<string, unknown>): M {
   return model.build(row as never, { isNewRecord: false, raw: true });
 }
+
+/**
+ * A statement whose text names a model's columns, built on first use (the models are initialised at
+ * start-up, after the modules load) and then kept: a hot route sends it on every request.
+ */
+export function sqlOnce(build: () => string): () => string {
+  let sql: string | undefined;
+  return () => (sql ??= build());
+}

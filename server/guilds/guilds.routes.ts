@@ -27,7 +27,7 @@ export function guildsRouter(deps: AppDeps) {
   router.use(requireUser);
 
   router.get('/', async (req, res) => {
-    res.json(await guilds.listMyGuilds(currentUser(req).id));
+    res.json(await guilds.listMyGuilds(deps, currentUser(req).id));
   });
 
   router.post(
@@ -40,7 +40,7 @@ export function guildsRouter(deps: AppDeps) {
   router.get(
     '/:guildId',
     route({ params: guildParamsSchema, authorize: may('guild:read') }, async ({ params, access }, _req, res) => {
-      res.json(await guilds.getGuild(params.guildId, access.role));
+      res.json(await guilds.getGuild(deps, params.guildId, access.role));
     }),
   );
 
@@ -57,7 +57,7 @@ export function guildsRouter(deps: AppDeps) {
   router.get(
     '/:guildId/members',
     route({ params: guildParamsSchema, authorize: may('members:read') }, async ({ params }, _req, res) => {
-      res.json(await guilds.listMembers(params.guildId));
+      res.json(await guilds.listMembers(deps, params.guildId));
     }),
   );
 

@@ -8,7 +8,9 @@ import { assertNameFreeInGuilds } from '../auth/display-names';
 import { invitationMail } from '../mail/account-messages';
 import { can } from './guilds.policy';
 import type { AppDeps } from '../deps';
-import { LOCK_INVITATIONS, PAYMENT_COUNT } from './guilds.queries';
+import { guildDetail, LOCK_INVITATIONS, MEMBER_LIST, myGuilds, PAYMENT_COUNT } from './guilds.queries';
+import { preparedPoolQuery } from '../db/prepared';
+import { buildFromRow } from '../db/model-columns';
 
 const INVITATION_VALID_DAYS = 14;
 
@@ -36,28 +38,28 @@ function guildDto(guild: Guild, myRole: Role): Omit<GuildDto, 'memberCount'> {
   };
 }
 
-async function memberCount(guildId: number) {
-  return Membership.count({ where: { guildId, status: 'active' } });
+type GuildRow = Record<string, unknown> & { memberCount: number };
+
+/** The caller's guilds by name, each with their role and its members counted, in one statement. */
+export async function listMyGuilds(deps: Pick<AppDeps, 'pool'>, userId: number): Promise<GuildDto[]> {
+  const rows = await preparedPoolQuery<GuildRow & { myRole: Role }>(deps.pool, myGuilds(), { userId });
+  return rows.map(({ myRole, memberCount, ...guild }) => ({ ...guildDto(buildFromRow(Guild, guild), myRole), memberCount }));
 }
 
-export async function listMyGuilds(userId: number): Promise<GuildDto[]> {
-  const memberships = await Membership.findAll({
-    where: { userId, status: 'active' },
-    include: [{ model: Guild, as: 'guild' }],
-    order: [[{ model: Guild, as: 'guild' }, 'name', 'ASC']],
-  });
-  return Promise.all(
-    memberships.map(async (m) => ({ ...guildDto(m.guild!, m.role), memberCount: await memberCount(m.guildId) })),
-  );
+/** The guild with its members counted, in one statement. */
+export async function getGuild(deps: Pick<AppDeps, 'pool'>, guildId: number, myRole: Role): Promise<GuildDto> {
+  const [row] = await preparedPoolQuery<GuildRow>(deps.pool, guildDetail(), { guildId });
+  if (!row) throw new NotFoundError('That guild does not exist.');
+  const { memberCount, ...guild } = row;
+  return { ...guildDto(buildFromRow(Guild, guild), myRole), memberCount };
 }
 
-export async function getGuild(guildId: number, myRole: Role): Promise<GuildDto> {
-  const guild = await Guild.findByPk(guildId);
-  if (!guild) throw new NotFoundError('That guild does not exist.');
-  return { ...guildDto(guild, myRole), memberCount: await memberCount(guildId) };
-}
-
-export async function updateGuild(deps: Pick<AppDeps, 'sequelize'>, guildId: number, myRole: Role, input: UpdateGuildInput) {
+export async function updateGuild(
+  deps: Pick<AppDeps, 'sequelize' | 'pool'>,
+  guildId: number,
+  myRole: Role,
+  input: UpdateGuildInput,
+) {
   const guild = await Guild.findByPk(guildId);
   if (!guild) throw new NotFoundError('That guild does not exist.');
   const { dues, currency, ...rest } = input;
@@ -77,22 +79,13 @@ export async function updateGuild(deps: Pick<AppDeps, 'sequelize'>, guildId: num
     ...(currency ? { currency } : {}),
     ...(dues !== undefined ? { duesAmount: dues?.amount ?? null, duesYear: dues?.year ?? null } : {}),
   });
-  return getGuild(guildId, myRole);
+  return getGuild(deps, guildId, myRole);
 }
 
-export async function listMembers(guildId: number): Promise<MemberDto[]> {
-  const memberships = await Membership.findAll({
-    where: { guildId, status: 'active' },
-    include: [{ model: User, as: 'user', attributes: ['id', 'displayName', 'email'] }],
-    order: [[{ model: User, as: 'user' }, 'displayName', 'ASC']],
-  });
-  return memberships.map((m) => ({
-    userId: m.userId,
-    displayName: m.user!.displayName,
-    email: m.user!.email,
-    role: m.role,
-    joinedAt: m.createdAt.toISOString(),
-  }));
+/** The guild's active members by name, in one statement. */
+export async function listMembers(deps: Pick<AppDeps, 'pool'>, guildId: number): Promise<MemberDto[]> {
+  const rows = await preparedPoolQuery<Omit<MemberDto, 'joinedAt'> & { joinedAt: Date }>(deps.pool, MEMBER_LIST, { guildId });
+  return rows.map((m) => ({ ...m, joinedAt: m.joinedAt.toISOString() }));
 }
 
 async function assertNotLastAdmin(guildId: number, userId: number, transaction: Transaction) {
@@ -106,14 +99,19 @@ async function assertNotLastAdmin(guildId: number, userId: number, transaction: 
   }
 }
 
-export async function changeRole(deps: Pick<AppDeps, 'events' | 'sequelize'>, guildId: number, userId: number, role: Role) {
+export async function changeRole(
+  deps: Pick<AppDeps, 'events' | 'sequelize' | 'pool'>,
+  guildId: number,
+  userId: number,
+  role: Role,
+) {
   await deps.sequelize.transaction(async (transaction) => {
     const membership = await Membership.findOne({ where: { guildId, userId, status: 'active' }, transaction });
     if (!membership) throw new NotFoundError('That person is not a member of this guild.');
     if (membership.role === 'admin' && role !== 'admin') await assertNotLastAdmin(guildId, userId, transaction);
     await membership.update({ role }, { transaction });
   });
-  return (await listMembers(guildId)).find((m) => m.userId === userId)!;
+  return (await listMembers(deps, guildId)).find((m) => m.userId === userId)!;
 }
 
 export async function removeMember(deps: Pick<AppDeps, 'events' | 'sequelize'>, guildId: number, userId: number) {

@@ -20,7 +20,7 @@ const SEW_DAY_ROW = `d.id, d.guild_id AS "guildId", d.title, d.starts_at AS "sta
  * Guild $guildId's time zone and its sew days as JSON rows, in one statement: `upcoming` (not yet ended
  * at $now, soonest first) or past (most recent first), at most 100.
  */
-export const sewDayList = (when: 'upcoming' | 'past') => {
+const sewDayListOf = (when: 'upcoming' | 'past') => {
   const [ended, order] = when === 'upcoming' ? ['>=', 'ASC'] : ['<', 'DESC'];
   return `SELECT g.time_zone AS "timeZone",
          coalesce((SELECT json_agg(x ORDER BY x."startsAt" ${order}, x.id)
@@ -30,6 +30,7 @@ export const sewDayList = (when: 'upcoming' | 'past') => {
                             ORDER BY d.starts_at ${order}, d.id LIMIT 100) x), '[]') AS "sewDays"
     FROM guilds g WHERE g.id = $guildId`;
 };
+export const SEW_DAY_LIST = { upcoming: sewDayListOf('upcoming'), past: sewDayListOf('past') } as const;
 
 /** Sew day $sewDayId as its page shows it: its row, its guild's time zone and everyone's answers by name. */
 export const SEW_DAY_DETAIL = `SELECT ${SEW_DAY_ROW},

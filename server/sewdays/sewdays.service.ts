@@ -15,7 +15,7 @@ import { ChatRoom, Guild, SewDay } from '../db/models';
 import { ConflictError, NotFoundError, ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { preparedPoolQuery } from '../db/prepared';
-import { SEW_DAY_DETAIL, sewDayList, UPSERT_RSVP } from './sewdays.queries';
+import { SEW_DAY_DETAIL, SEW_DAY_LIST, UPSERT_RSVP } from './sewdays.queries';
 
 type Deps = Pick<AppDeps, 'pool'>;
 type Events = Pick<AppDeps, 'events' | 'sequelize' | 'pool'>;
@@ -89,7 +89,7 @@ function toDto(row: SewDayRow, timeZone: string, viewer: Viewer): SewDayDto {
  * statement with their answers counted, the caller's answer and their chat rooms.
  */
 export async function listSewDays(deps: Deps, guildId: number, viewer: Viewer, query: SewDayListQuery): Promise<SewDayListDto> {
-  const [list] = await preparedPoolQuery<{ timeZone: string; sewDays: SewDayRow[] }>(deps.pool, sewDayList(query.when), {
+  const [list] = await preparedPoolQuery<{ timeZone: string; sewDays: SewDayRow[] }>(deps.pool, SEW_DAY_LIST[query.when], {
     guildId,
     userId: viewer.userId,
     now: new Date(),

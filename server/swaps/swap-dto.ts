@@ -1,11 +1,10 @@
 /** Turns swap rows into the API's answers. */
-import { QueryTypes } from 'sequelize';
 import type { Role } from '@shared/schemas/guilds';
 import type { SwapDto, SwapSummaryDto, SwapTransitionDto } from '@shared/swap-types';
 import type { Swap, SwapTransition } from '../db/models';
 import { preparedPoolQuery } from '../db/prepared';
 import type { AppDeps } from '../deps';
-import { SIGNUP_STATS } from './swaps.queries';
+import { signupTally } from './swaps.queries';
 
 interface SignupStats {
   signups: number;
@@ -13,30 +12,14 @@ interface SignupStats {
   myPledge: number;
 }
 
-/** Active sign-ups, blocks pledged and the caller's own pledge, per swap, in one query. */
-export async function signupStats(
-  deps: Pick<AppDeps, 'sequelize'>,
-  swapIds: number[],
-  userId: number,
-): Promise<Map<number, SignupStats>> {
-  const stats = new Map<number, SignupStats>();
-  if (swapIds.length === 0) return stats;
-  const rows = await deps.sequelize.query<SignupStatsRow & { swap_id: number }>(SIGNUP_STATS, {
-    bind: { ids: swapIds, userId },
-    type: QueryTypes.SELECT,
-  });
-  for (const r of rows) stats.set(r.swap_id, statsFrom(r));
-  return stats;
-}
-
-/** A row of SIGNUP_STATS as it arrives (counts and sums are bigints, read as text). */
-interface SignupStatsRow {
+/** A row of `signupTally` as it arrives (counts and sums are bigints, read as text). */
+export interface SignupStatsRow {
   signups: string;
   pledged: string;
   mine: string;
 }
 
-const statsFrom = (r: SignupStatsRow): SignupStats => ({
+export const statsFrom = (r: SignupStatsRow): SignupStats => ({
   signups: Number(r.signups),
   pledged: Number(r.pledged),
   myPledge: Number(r.mine),
@@ -64,17 +47,16 @@ export function summaryDto(swap: Swap, stats: SignupStats | undefined): SwapSumm
   };
 }
 
-/** The swap's row of SIGNUP_STATS is null when nobody has signed up. */
 type SwapDetailRow = {
   guildName: string;
   guildTimeZone: string;
   creatorName: string | null;
   recipientName: string | null;
-} & (SignupStatsRow | { signups: null; pledged: null; mine: null });
+} & SignupStatsRow;
 
 /**
  * What a swap's full answer shows besides its own row, in one named statement: its guild, the names of
- * its creator and gift recipient, and its sign-up tallies (SIGNUP_STATS for the one swap). A member opens
+ * its creator and gift recipient, and its sign-up tallies (`signupTally`). A member opens
  * the swap's page and its board often; this was four queries built by Sequelize.
  */
 const SWAP_DETAIL = `SELECT g.name AS "guildName", g.time_zone AS "guildTimeZone",
@@ -82,7 +64,7 @@ const SWAP_DETAIL = `SELECT g.name AS "guildName", g.time_zone AS "guildTimeZone
          (SELECT u.display_name FROM users u WHERE u.id = $giftRecipientId) AS "recipientName",
          t.signups, t.pledged, t.mine
     FROM guilds g
-    LEFT JOIN LATERAL (${SIGNUP_STATS}) t ON true
+    CROSS JOIN LATERAL (${signupTally('$swapId')}) t
    WHERE g.id = $guildId`;
 
 /** The full swap as one member sees it. */
@@ -93,12 +75,12 @@ export async function swapDto(
 ): Promise<SwapDto> {
   const [detail] = await preparedPoolQuery<SwapDetailRow>(deps.pool, SWAP_DETAIL, {
     guildId: swap.guildId,
-    ids: [swap.id],
+    swapId: swap.id,
     userId: viewer.userId,
     createdById: swap.createdById ?? null,
     giftRecipientId: swap.giftRecipientId ?? null,
   });
-  const stats = detail!.signups === null ? undefined : statsFrom(detail!);
+  const stats = statsFrom(detail!);
   const giftRecipient =
     swap.mode !== 'gift'
       ? null

@@ -1,6 +1,6 @@
 /** The swaps feature's hand-written SQL; every value arrives as a bind parameter. */
 import { Swap } from '../db/models';
-import { modelColumns } from '../db/model-columns';
+import { modelColumns, sqlOnce } from '../db/model-columns';
 
 /**
  * The role of the person `$viewerId` in the guild of the swap aliased `swapAlias`, as a subquery read in
@@ -16,27 +16,38 @@ export const viewerRole = (swapAlias: 'Swap' | 's') =>
  */
 export const swapColumns = () => modelColumns(Swap, '"Swap"');
 
-let swapWithRoleSql: string | undefined;
-
 /**
  * Swap $1 with every column aliased to its attribute name (the row findByPk would read), the role of $2
  * in its guild as "viewerRole" and the guild's verdict setting as "guildVerdictsVisibleTo" (a member's
  * board and activity list depend on it), numbered for a named statement on the plain pool.
  */
-export function swapWithViewerRole(): string {
-  // Built once, as swapColumns is: every swap request sends it.
-  swapWithRoleSql ??= `SELECT ${swapColumns()}, ${viewerRole('Swap')} AS "viewerRole",
+export const swapWithViewerRole = sqlOnce(() =>
+  `SELECT ${swapColumns()}, ${viewerRole('Swap')} AS "viewerRole",
                    (SELECT g.verdicts_visible_to FROM guilds g WHERE g.id = "Swap"."guild_id") AS "guildVerdictsVisibleTo"
             FROM swaps "Swap" WHERE "Swap"."id" = $swapId`
     .replaceAll('$swapId', '$1')
-    .replaceAll('$viewerId', '$2');
-  return swapWithRoleSql;
-}
+    .replaceAll('$viewerId', '$2'),
+);
 
-/** Active sign-ups, blocks pledged and the pledge of `$userId`, for each swap in `$ids`. */
-export const SIGNUP_STATS = `SELECT swap_id, count(*) AS signups, coalesce(sum(blocks), 0) AS pledged,
+/**
+ * Active sign-ups, blocks pledged and the pledge of `$userId` for the swap whose id is the SQL
+ * expression `swapId`: one row, zeros where nobody has signed up. Read as a LATERAL beside the swap.
+ */
+export const signupTally = (swapId: string) => `SELECT count(*) AS signups, coalesce(sum(blocks), 0) AS pledged,
             coalesce(sum(blocks) FILTER (WHERE user_id = $userId), 0) AS mine
-       FROM signups WHERE swap_id = ANY($ids::int[]) AND status = 'active' GROUP BY swap_id`;
+       FROM signups WHERE swap_id = ${swapId} AND status = 'active'`;
+
+/**
+ * Guild $guildId's swaps with every column (as swapColumns) and their sign-up tallies, newest first;
+ * drafts only where $withDrafts. The guild's swap list, in one statement.
+ */
+export const swapList = sqlOnce(
+  () => `SELECT ${swapColumns()}, t.signups, t.pledged, t.mine
+    FROM swaps "Swap"
+    CROSS JOIN LATERAL (${signupTally('"Swap".id')}) t
+   WHERE "Swap".guild_id = $guildId AND ($withDrafts OR "Swap".state <> 'draft')
+   ORDER BY "Swap".created_at DESC, "Swap".id DESC`,
+);
 
 /**
  * How many active members of guild $guildId would get swap $swapId's announcement: not announced to
