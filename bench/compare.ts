@@ -7,14 +7,17 @@
  * the rounds' B/A ratios, which a machine slowing down for a minute moves far less than it moves
  * either side.
  *
- *   npx tsx bench/compare.ts <git revision> [measure|roster|roster-member|swap-member|home-member|session-member|roster-600]
+ *   npx tsx bench/compare.ts <git revision> [scenario]   (the scenarios: SCENARIOS below; `measure` by default)
  *
  * `roster-member` reads the roster as one of the swap's makers, whose copy hides the others' verdicts;
  * `swap-member` reads the swap itself (its page's answer) as that maker, `home-member` their home screen,
- * `session-member` the session probe every start of the client sends.
+ * `session-member` the session probe every start of the client sends; `guild-member`, `swaps-member` and
+ * `sewdays-member` the guild's pages, `chat-member` a page of the swap's chat and `photo-member` a
+ * block photo's thumbnail, as the board shows it.
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
+import sharp from 'sharp';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { startThrowawayCluster } from '../scripts/lib/throwaway-cluster';
@@ -23,24 +26,90 @@ import type { LoadOptions } from './load';
 import { startAppProcess } from './lib/app';
 import { repoRoot, type NodeProcess } from './lib/processes';
 import { loadWithCpu } from './lib/load-with-cpu';
-import { HISTORY_SIZE, newAccount, seedHistory, seedSwap, signIn, type SeededSwap } from './lib/seed';
+import { HISTORY_SIZE, newAccount, seedHistory, seedSwap, signIn, type SeededSwap, type Session } from './lib/seed';
 import { median, round } from './lib/stats';
 
 const SMALL = { members: 60, blocksEach: 4, tag: '60x4' };
 
-/** Each scenario's swap, and for a GET its path (`swap` for the swap's id) and whether one of its makers reads it. */
+interface Seeded {
+  url: string;
+  guildId: number;
+  swap: SeededSwap;
+  coordinator: Session;
+  reader: Session;
+}
+
+/**
+ * Each scenario's swap, and for a GET its path, with `{guild}` and `{swap}` for the seeded ids and any
+ * other `{name}` for a value its `setup` returns; whether one of the swap's makers reads it.
+ */
 const SCENARIOS: Record<
   string,
-  { size: { members: number; blocksEach: number; tag: string }; connections: number; get?: string; asMaker?: boolean }
+  {
+    size: { members: number; blocksEach: number; tag: string };
+    connections: number;
+    get?: string;
+    asMaker?: boolean;
+    setup?: (seeded: Seeded) => Promise<Record<string, number>>;
+  }
 > = {
   measure: { size: SMALL, connections: 10 },
-  roster: { size: SMALL, connections: 10, get: '/api/swaps/swap/roster' },
-  'roster-member': { size: SMALL, connections: 10, get: '/api/swaps/swap/roster', asMaker: true },
-  'swap-member': { size: SMALL, connections: 10, get: '/api/swaps/swap', asMaker: true },
+  roster: { size: SMALL, connections: 10, get: '/api/swaps/{swap}/roster' },
+  'roster-member': { size: SMALL, connections: 10, get: '/api/swaps/{swap}/roster', asMaker: true },
+  'swap-member': { size: SMALL, connections: 10, get: '/api/swaps/{swap}', asMaker: true },
   'home-member': { size: SMALL, connections: 10, get: '/api/me/next', asMaker: true },
   'session-member': { size: SMALL, connections: 10, get: '/api/session', asMaker: true },
-  'roster-600': { size: HISTORY_SIZE, connections: 10, get: '/api/swaps/swap/roster' },
+  'guild-member': { size: SMALL, connections: 10, get: '/api/guilds/{guild}', asMaker: true },
+  'swaps-member': { size: SMALL, connections: 10, get: '/api/guilds/{guild}/swaps', asMaker: true },
+  'sewdays-member': { size: SMALL, connections: 10, get: '/api/guilds/{guild}/sew-days', asMaker: true, setup: seedSewDays },
+  'chat-member': { size: SMALL, connections: 10, get: '/api/chat/rooms/{room}/messages', asMaker: true, setup: seedChat },
+  'photo-member': { size: SMALL, connections: 10, get: '/api/photos/{photo}?size=thumb', asMaker: true, setup: seedPhoto },
+  'roster-600': { size: HISTORY_SIZE, connections: 10, get: '/api/swaps/{swap}/roster' },
 };
+
+/** Six sew days ahead, the reader going to every other one. */
+async function seedSewDays({ coordinator, reader, guildId }: Seeded) {
+  const year = new Date().getFullYear() + 1;
+  for (let month = 1; month <= 6; month++) {
+    const day = await coordinator.api<{ id: number }>('POST', `/guilds/${guildId}/sew-days`, {
+      title: `Open sewing ${month}`,
+      startsAt: `${year}-0${month}-10T10:00`,
+      endsAt: `${year}-0${month}-10T16:00`,
+      place: 'Parish hall, back room',
+    });
+    if (month % 2) await reader.api('PUT', `/sew-days/${day.id}/rsvp`, { answer: 'going' });
+  }
+  return {};
+}
+
+/** The swap's chat room with a page of messages in it (at the room's rate limit, ten a person). */
+async function seedChat({ coordinator, reader, swap }: Seeded) {
+  const room = await reader.api<{ id: number }>('GET', `/swaps/${swap.swapId}/chat`);
+  for (const [who, person] of [coordinator, reader].entries()) {
+    for (let i = 1; i <= 10; i++) {
+      await person.api('POST', `/chat/rooms/${room.id}/messages`, { body: `Pressing seams open on block ${i} (${who})` });
+    }
+  }
+  return { room: room.id };
+}
+
+/** A photo of one of the reader's blocks, served as the board's thumbnail. */
+async function seedPhoto({ reader, swap, url }: Seeded) {
+  const [block] = await reader.api<{ id: number }[]>('GET', `/swaps/${swap.swapId}/blocks?maker=me`);
+  const image = await sharp({ create: { width: 900, height: 900, channels: 3, background: { r: 180, g: 90, b: 60 } } })
+    .jpeg()
+    .toBuffer();
+  const form = new FormData();
+  form.append('photos', new Blob([new Uint8Array(image)], { type: 'image/jpeg' }), 'block.jpg');
+  const res = await fetch(`${url}/api/blocks/${block!.id}/photos`, {
+    method: 'POST',
+    headers: { cookie: reader.cookie, 'x-requested-with': 'blockpost' },
+    body: form,
+  });
+  if (!res.ok) throw new Error(`photo upload answered ${res.status}: ${await res.text()}`);
+  const body = (await res.json()) as { id: number }[] | { photos: { id: number }[] };
+  return { photo: (Array.isArray(body) ? body : body.photos)[0]!.id };
+}
 
 interface Sample {
   rps: number;
@@ -82,6 +151,8 @@ async function main() {
       // A maker seeded with the swap signs in with the bench's password (seedSwap).
       const reader = scenario.asMaker ? await signIn(app.url, `bench-${scenario.size.tag}-1@example.test`) : coordinator;
       const headers = { cookie: reader.cookie, 'x-requested-with': 'blockpost' };
+      const seeded = { url: app.url, guildId: guild.id, swap, coordinator, reader };
+      const ids: Record<string, number> = { guild: guild.id, swap: swap.swapId, ...(await scenario.setup?.(seeded)) };
       const request: Pick<LoadOptions, 'method' | 'paths' | 'body' | 'headers' | 'freshClientId'> =
         scenarioName === 'measure'
           ? {
@@ -91,7 +162,7 @@ async function main() {
               body: JSON.stringify({ width: '9 1/2', height: '9 1/2' }),
               freshClientId: true,
             }
-          : { paths: [scenario.get!.replace('/swaps/swap', `/swaps/${swap.swapId}`)], headers };
+          : { paths: [scenario.get!.replace(/\{(\w+)\}/g, (_all, name: string) => String(ids[name]))], headers };
       return { app, request, databaseUrl };
     };
     const a = await startSide(`A (${sha})`, worktree);
