@@ -2,19 +2,34 @@
 import { formatLength } from '@shared/quilt';
 import type { Units } from '@shared/schemas/auth';
 
+/**
+ * A formatter per zone, kept: making one costs about ten times as much as using it, and a reminder
+ * sweep formats a date for every maker. The zones are a short, fixed list.
+ */
+function formatIn(cache: Map<string, Intl.DateTimeFormat>, make: (timeZone: string) => Intl.DateTimeFormat, timeZone: string) {
+  let format = cache.get(timeZone);
+  if (!format) cache.set(timeZone, (format = make(timeZone)));
+  return format;
+}
+
+const longDates = new Map<string, Intl.DateTimeFormat>();
+const dateKeys = new Map<string, Intl.DateTimeFormat>();
+
 /** "Monday 1 March 2027 at 6:00 pm" in the given IANA zone (or without the time). */
 export function mailDate(date: Date | string, timeZone: string, withTime = true): string {
   // Built from parts: ICU versions differ on commas in the long English form.
-  const parts = new Intl.DateTimeFormat('en-GB', {
-    timeZone,
-    weekday: 'long',
-    day: 'numeric',
-    month: 'long',
-    year: 'numeric',
-    hour: 'numeric',
-    minute: '2-digit',
-    hourCycle: 'h12',
-  }).formatToParts(new Date(date));
+  const longDate = (zone: string) =>
+    new Intl.DateTimeFormat('en-GB', {
+      timeZone: zone,
+      weekday: 'long',
+      day: 'numeric',
+      month: 'long',
+      year: 'numeric',
+      hour: 'numeric',
+      minute: '2-digit',
+      hourCycle: 'h12',
+    });
+  const parts = formatIn(longDates, longDate, timeZone).formatToParts(new Date(date));
   const part = (type: Intl.DateTimeFormatPartTypes) => parts.find((p) => p.type === type)?.value ?? '';
   const day = `${part('weekday')} ${part('day')} ${part('month')} ${part('year')}`;
   if (!withTime) return day;
@@ -28,7 +43,9 @@ export function zoneLabel(timeZone: string): string {
 
 /** The calendar date (YYYY-MM-DD) of an instant in a zone; used in idempotency keys. */
 export function localDateKey(date: Date | string, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(new Date(date));
+  const dateKey = (zone: string) =>
+    new Intl.DateTimeFormat('en-CA', { timeZone: zone, year: 'numeric', month: '2-digit', day: '2-digit' });
+  return formatIn(dateKeys, dateKey, timeZone).format(new Date(date));
 }
 
 /**
