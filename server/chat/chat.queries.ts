@@ -33,3 +33,18 @@ export const swapRoomOpened = sqlOnce(
   UNION ALL
   SELECT ${modelColumns(ChatRoom, 'r')} FROM chat_rooms r WHERE r.swap_id = $swapId`,
 );
+
+/** A message with its author's name and, unless removed, its photos in order (null for none). */
+const MESSAGE_ROW = `m.id, m.room_id AS "roomId", m.author_id AS "authorId", u.display_name AS "authorName", m.body,
+         m.created_at AS "createdAt", m.edited_at AS "editedAt", m.deleted_at AS "deletedAt", m.deleted_by_id AS "deletedById",
+         CASE WHEN m.deleted_at IS NULL THEN
+           (SELECT json_agg(json_build_object('id', p.id, 'width', p.width, 'height', p.height) ORDER BY p.id)
+              FROM photos p WHERE p.chat_message_id = m.id)
+         END AS photos
+    FROM chat_messages m LEFT JOIN users u ON u.id = m.author_id`;
+
+/** The newest $limit messages of room $roomId, newest first; a second text for those older than $before. */
+export const HISTORY_PAGE = {
+  newest: `SELECT ${MESSAGE_ROW} WHERE m.room_id = $roomId ORDER BY m.id DESC LIMIT $limit`,
+  before: `SELECT ${MESSAGE_ROW} WHERE m.room_id = $roomId AND m.id < $before ORDER BY m.id DESC LIMIT $limit`,
+} as const;

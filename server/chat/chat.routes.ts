@@ -36,7 +36,7 @@ export function chatRouter(deps: AppDeps) {
     '/chat/rooms/:roomId/messages',
     requireUser,
     route({ params: roomParamsSchema, query: historyQuerySchema, authorize: inRoom }, async ({ params, query }, _req, res) => {
-      res.json(await chat.history(params.roomId, query));
+      res.json(await chat.history(deps, params.roomId, query));
     }),
   );
 

@@ -12,7 +12,9 @@ import { AppError, ConflictError, ForbiddenError, NotFoundError, ValidationError
 import { commitStagedPhotos, deletePhotos, discardStaged, preparePhotosQueued, stagePhotos } from '../uploads/photo-store';
 import type { IncomingPhotoFile } from '../uploads/photo-pipeline';
 import type { AppDeps } from '../deps';
-import { authorInclude, messageDto, messageDtos, photoDto } from './chat-dto';
+import { authorInclude, messageDto, messageRowDto, photoDto, type MessageRow } from './chat-dto';
+import { preparedPoolQuery } from '../db/prepared';
+import { HISTORY_PAGE } from './chat.queries';
 import { authorizeRoom, type RoomAccess } from './chat.policy';
 
 type ChatDeps = Pick<AppDeps, 'events' | 'sequelize' | 'pool' | 'config'>;
@@ -37,16 +39,13 @@ export class RateLimitedError extends AppError {
 }
 
 /** A page of a room's history, newest first; `before` is the id of the oldest message already shown. */
-export async function history(roomId: number, query: HistoryQuery): Promise<ChatPageDto> {
-  const rows = await ChatMessage.findAll({
-    where: { roomId, ...(query.before ? { id: { [Op.lt]: query.before } } : {}) },
-    include: authorInclude,
-    order: [['id', 'DESC']],
-    limit: query.limit + 1,
-  });
+export async function history(deps: Pick<AppDeps, 'pool'>, roomId: number, query: HistoryQuery): Promise<ChatPageDto> {
+  // One more than the page, to know whether an older page follows.
+  const bind = { roomId, limit: query.limit + 1, ...(query.before ? { before: query.before } : {}) };
+  const rows = await preparedPoolQuery<MessageRow>(deps.pool, HISTORY_PAGE[query.before ? 'before' : 'newest'], bind);
   const more = rows.length > query.limit;
   const page = more ? rows.slice(0, query.limit) : rows;
-  return { messages: await messageDtos(page), nextCursor: more ? page.at(-1)!.id : null };
+  return { messages: page.map(messageRowDto), nextCursor: more ? page.at(-1)!.id : null };
 }
 
 /**
