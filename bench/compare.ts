@@ -107,8 +107,8 @@ async function seedPhoto({ reader, swap, url }: Seeded) {
     body: form,
   });
   if (!res.ok) throw new Error(`photo upload answered ${res.status}: ${await res.text()}`);
-  const body = (await res.json()) as { id: number }[] | { photos: { id: number }[] };
-  return { photo: (Array.isArray(body) ? body : body.photos)[0]!.id };
+  const { photos } = (await res.json()) as { photos: { id: number }[] };
+  return { photo: photos[0]!.id };
 }
 
 interface Sample {

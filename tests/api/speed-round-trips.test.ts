@@ -8,6 +8,7 @@ import { createTestApp, type TestApp } from '../helpers/test-app';
 import { guildWithRoles } from '../helpers/factories';
 import { countStatements, statementsOf } from '../helpers/sql-count';
 import { myBlocks, sewingSwap, type Roles } from './swaps-support';
+import { picture } from '../fixtures/photos';
 
 let app: TestApp;
 let roles: Roles;
@@ -130,5 +131,70 @@ describe('SQL round trips per request', () => {
     expect(result.status).toBe(200);
     expect((result.body as { blocksOwed: unknown[] }).blocksOwed.length).toBeGreaterThan(0);
     expect(statements.length, shown(statements)).toBe(1);
+  });
+
+  it('a member’s guild pages, sew days, chat and photos each take the policy’s statement and one more, all named', async () => {
+    const { swap } = await sewingSwap(app, roles, { pledges: [2, 2] });
+    const [block] = await myBlocks(roles.member.agent, swap.id);
+    const upload = await roles.member.agent
+      .post(`/api/blocks/${block!.id}/photos`)
+      .attach('photos', await picture('png', 400, 400), { filename: 'block.png', contentType: 'image/png' })
+      .expect(201);
+    const photoId = (upload.body as { photos: { id: number }[] }).photos[0]!.id;
+    const nextYear = new Date().getFullYear() + 1;
+    const sewDay = await roles.coordinator.agent
+      .post(`/api/guilds/${roles.guildId}/sew-days`)
+      .send({
+        title: 'Binding afternoon',
+        startsAt: `${nextYear}-02-06T13:00`,
+        endsAt: `${nextYear}-02-06T17:00`,
+        place: 'Library annex',
+      })
+      .expect(201);
+    await roles.member.agent.put(`/api/sew-days/${sewDay.body.id}/rsvp`).send({ answer: 'going' }).expect(200);
+    const room = await roles.member.agent.get(`/api/swaps/${swap.id}/chat`).expect(200);
+    await roles.member.agent
+      .post(`/api/chat/rooms/${room.body.id}/messages`)
+      .field('body', 'Cornerstones pressed toward the sashing')
+      .attach('photos', await picture('png', 300, 200), { filename: 'pressing.png', contentType: 'image/png' })
+      .expect(201);
+
+    const reads: [path: string, check: (body: never) => boolean][] = [
+      ['/api/guilds', (body: { memberCount: number }[]) => body.some((g) => g.memberCount === 3)],
+      [`/api/guilds/${roles.guildId}`, (body: { memberCount: number }) => body.memberCount === 3],
+      [`/api/guilds/${roles.guildId}/members`, (body: unknown[]) => body.length === 3],
+      [
+        `/api/guilds/${roles.guildId}/swaps`,
+        (body: { id: number; myPledge: number }[]) => body.some((s) => s.id === swap.id && s.myPledge === 2),
+      ],
+      [
+        `/api/guilds/${roles.guildId}/sew-days`,
+        (body: { sewDays: { myRsvp: string; chatRoomId: number | null }[] }) =>
+          body.sewDays.some((d) => d.myRsvp === 'going' && d.chatRoomId !== null),
+      ],
+      [`/api/sew-days/${sewDay.body.id}`, (body: { rsvps: unknown[] }) => body.rsvps.length === 1],
+      [`/api/swaps/${swap.id}/chat`, (body: { id: number }) => body.id === room.body.id],
+      [
+        `/api/chat/rooms/${room.body.id}/messages`,
+        (body: { messages: { photos: unknown[] }[] }) => body.messages[0]!.photos.length === 1,
+      ],
+      [`/api/photos/${photoId}?size=thumb`, () => true],
+    ];
+    for (const [path, check] of reads) {
+      await roles.member.agent.get(path).expect(200); // the session, then the statements, are ready
+      const { result, statements, named } = await statementsOf(() => roles.member.agent.get(path));
+      expect(result.status, path).toBe(200);
+      expect(check(result.body as never), `${path}: ${JSON.stringify(result.body)}`).toBe(true);
+      // The guild list needs no policy: one statement. The others: the policy's row with the role, then the page.
+      expect(statements.length, `${path}\n${shown(statements)}`).toBe(
+        path === '/api/guilds' || path.startsWith('/api/photos/') ? 1 : 2,
+      );
+      expect(named.length, `${path}: every statement named\n${shown(statements)}`).toBe(statements.length);
+      // A swap's chat room that exists is read, never written.
+      expect(
+        statements.some((sql) => /^\s*(?:WITH[\s\S]*)?INSERT/i.test(sql) && !/NOT EXISTS/.test(sql)),
+        path,
+      ).toBe(false);
+    }
   });
 });
