@@ -16,6 +16,14 @@ export interface RoomAccess {
   canModerate: boolean;
 }
 
+/** A row of `roomWithAccess`: the room's columns, then what deciding access needs. */
+type RoomRow = Record<string, unknown> & {
+  viewerRole: Role | null;
+  sewDayTitle: string | null;
+  swapTitle: string | null;
+  swapState: string | null;
+};
+
 /** What a room is headed: its sew day's or swap's title. */
 export function roomTitle(kind: ChatRoom['kind'], title: string | null): string {
   if (kind === 'sewday') return title ?? 'Sew day';
@@ -37,15 +45,14 @@ export async function authorizeRoom(
   roomId: number,
   missing = 'That chat room does not exist.',
 ): Promise<RoomAccess> {
-  const [row] = await preparedPoolQuery<Record<string, unknown>>(deps.pool, roomWithAccess(), { roomId, userId });
+  const [row] = await preparedPoolQuery<RoomRow>(deps.pool, roomWithAccess(), { roomId, userId });
   if (!row) throw new NotFoundError('That chat room does not exist.');
   const { viewerRole, sewDayTitle, swapTitle, swapState, ...values } = row;
   const room = buildFromRow(ChatRoom, values);
-  const role = assertGuildRole(viewerRole as Role | null, 'guild:read', missing);
-  if (room.kind === 'swap' && room.swapId) {
-    const hidden = swapState === null || (swapState === 'draft' && !can(role, 'swaps:manage'));
-    if (hidden || !can(role, 'swaps:read')) throw new NotFoundError(missing);
+  const role = assertGuildRole(viewerRole, 'guild:read', missing);
+  if (room.kind === 'swap' && (swapState === null || (swapState === 'draft' && !can(role, 'swaps:manage')))) {
+    throw new NotFoundError(missing);
   }
-  const title = roomTitle(room.kind, ((room.kind === 'swap' ? swapTitle : sewDayTitle) ?? null) as string | null);
+  const title = roomTitle(room.kind, room.kind === 'swap' ? swapTitle : sewDayTitle);
   return { room, role, title, ...roomRights(role) };
 }

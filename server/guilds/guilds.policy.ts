@@ -1,9 +1,9 @@
+import type { Model, ModelStatic } from 'sequelize';
 import type { Role } from '@shared/schemas/guilds';
 import { ForbiddenError, NotFoundError } from '../http/errors';
 import { preparedPoolQuery } from '../db/prepared';
-import type { AppDeps } from '../deps';
-import type { Model, ModelStatic } from 'sequelize';
 import { buildFromRow, modelColumns } from '../db/model-columns';
+import type { AppDeps } from '../deps';
 import { GUILD_ROLE, roleIn } from './guilds.queries';
 
 /** Everything a guild role may do. Anything not listed is denied. */
