@@ -1,9 +1,10 @@
 /** Turns block and measurement rows into the API's answers, loading related rows in batches. */
-import type { Sequelize, Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import type { BlockDto, MeasurementDto, PhotoRefDto } from '@shared/swap-types';
 import type { VerdictsVisibleTo } from '@shared/schemas/guilds';
 import type { Block, Measurement, Swap } from '../db/models';
-import { preparedQuery } from '../db/prepared';
+import { preparedPoolQuery, preparedQuery } from '../db/prepared';
+import type { AppDeps } from '../deps';
 import { photoRef } from './photo-refs';
 import { LATEST_ESTIMATES, NEWEST_ESTIMATE_FIRST, latestEstimateDtos, type LatestEstimateRow } from './latest-estimate';
 import { blockWithoutVerdict, viewerSeesAllVerdicts } from './verdict-visibility';
@@ -123,10 +124,17 @@ export function relatedBind(blocks: Pick<Block, 'id' | 'makerId' | 'recipientId'
   };
 }
 
-async function relatedRows(db: Sequelize, blocks: Block[], transaction?: Transaction): Promise<RelatedJson> {
-  const [row] = await preparedQuery<RelatedJson>(db, relatedSql(), relatedBind(blocks), transaction);
+/** Reads the blocks' related rows: inside a transaction on its connection, outside one on the plain pool; named either way. */
+async function relatedRows(deps: BlockReadDeps, blocks: Block[], transaction?: Transaction): Promise<RelatedJson> {
+  const bind = relatedBind(blocks);
+  const [row] = transaction
+    ? await preparedQuery<RelatedJson>(deps.sequelize, relatedSql(), bind, transaction)
+    : await preparedPoolQuery<RelatedJson>(deps.pool, relatedSql(), bind);
   return row!;
 }
+
+/** What reading block answers needs: the transaction's connection, or the plain pool outside one. */
+export type BlockReadDeps = Pick<AppDeps, 'sequelize' | 'pool'>;
 
 const iso = (d: Date | null | undefined) => d?.toISOString() ?? null;
 
@@ -146,13 +154,13 @@ export interface BlockViewer {
  * `viewer`, another maker's hand-in note (tracking numbers, addresses) is left out unless they manage the swap.
  */
 export async function blockDtos(
-  db: Sequelize,
+  deps: BlockReadDeps,
   blocks: Block[],
   swap: Swap,
   { transaction, viewer }: { transaction?: Transaction; viewer?: BlockViewer } = {},
 ): Promise<BlockDto[]> {
   if (blocks.length === 0) return [];
-  return blockDtosFrom(blocks, swap, await relatedRows(db, blocks, transaction), viewer);
+  return blockDtosFrom(blocks, swap, await relatedRows(deps, blocks, transaction), viewer);
 }
 
 /** Block answers from their related rows, read already (`relatedSql`); see `blockDtos`. */
@@ -225,11 +233,11 @@ export async function blockDtosFrom(
 }
 
 export async function blockDto(
-  db: Sequelize,
+  deps: BlockReadDeps,
   block: Block,
   swap: Swap,
   options: { transaction?: Transaction; viewer?: BlockViewer } = {},
 ): Promise<BlockDto> {
-  const [dto] = await blockDtos(db, [block], swap, options);
+  const [dto] = await blockDtos(deps, [block], swap, options);
   return dto!;
 }

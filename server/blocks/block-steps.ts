@@ -15,7 +15,7 @@ import { LAST_STEP } from './blocks.queries';
 import { applyStep, type Snapshot, type StepAction } from './step-log';
 import type { Reply } from '../http/route';
 
-type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
+type Deps = Pick<AppDeps, 'events' | 'sequelize' | 'pool'>;
 
 interface StepRow {
   id: number;
@@ -86,7 +86,7 @@ export async function undoLastStep(
     type: QueryTypes.UPDATE,
     transaction,
   });
-  const dto = await blockDto(deps.sequelize, block, swap, { transaction });
+  const dto = await blockDto(deps, block, swap, { transaction });
   return { body: { ...dto, undone: undoWords[step.action] }, after: blockChanged(deps, locked, actor.userId, from) };
 }
 
@@ -114,7 +114,7 @@ export async function acceptByDecision(
     { action: 'accepted', byId: actorId },
   );
   return {
-    body: await blockDto(deps.sequelize, block, swap, { transaction }),
+    body: await blockDto(deps, block, swap, { transaction }),
     after: blockChanged(deps, locked, actorId, 'measured'),
   };
 }

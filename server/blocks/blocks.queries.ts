@@ -4,7 +4,7 @@ import { Block, Swap } from '../db/models';
 import type pg from 'pg';
 import type { Role } from '@shared/schemas/guilds';
 import { preparedPoolQuery, preparedQuery } from '../db/prepared';
-import { buildFromRow, modelColumns } from '../db/model-columns';
+import { buildFromRow, modelColumns, sqlOnce } from '../db/model-columns';
 import { viewerRole } from '../swaps/swaps.queries';
 import { relatedSql, type RelatedJson } from './block-dto';
 import { stepCtes } from './step-log';
@@ -179,3 +179,14 @@ export async function storeAnswer(
 /** One block's steps not yet undone, newest first: the last is what Undo takes back. */
 export const LAST_STEP = `SELECT id, action, by_id, before, measurement_id FROM block_steps
                            WHERE block_id = $blockId AND undone_at IS NULL ORDER BY id DESC LIMIT 1`;
+
+/**
+ * Swap $swapId's blocks, every column as its attribute, by maker and sequence: one maker's ($makerId;
+ * every maker's where null) and, where $toMe, only those returned to $userId.
+ */
+export const swapBlocks = sqlOnce(
+  () => `SELECT ${modelColumns(Block, 'b')} FROM blocks b
+   WHERE b.swap_id = $swapId AND ($makerId::int IS NULL OR b.maker_id = $makerId)
+     AND (NOT $toMe::boolean OR (b.recipient_id = $userId AND b.state = 'returned'))
+   ORDER BY b.maker_id, b.sequence`,
+);

@@ -10,10 +10,12 @@ import type { Reply } from '../http/route';
 import type { AppDeps } from '../deps';
 import { blockDto, blockDtos, type BlockViewer } from './block-dto';
 import { idempotent } from './idempotency';
-import { findBlockWithSwap } from './blocks.queries';
+import { findBlockWithSwap, swapBlocks } from './blocks.queries';
+import { preparedPoolQuery } from '../db/prepared';
+import { buildFromRow } from '../db/model-columns';
 import { applyStep } from './step-log';
 
-type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
+type Deps = Pick<AppDeps, 'events' | 'sequelize' | 'pool'>;
 
 /**
  * A block to change, as the route's policy read and locked it, with the transaction it is locked
@@ -65,7 +67,7 @@ export function blockChanged(
 
 /** The block's answer as it is after the change, read in the change's transaction. */
 async function answer(deps: Deps, { block, swap, transaction }: LockedBlock, after?: () => void, status = 200) {
-  return { status, body: await blockDto(deps.sequelize, block, swap, { transaction }), after };
+  return { status, body: await blockDto(deps, block, swap, { transaction }), after };
 }
 
 /**
@@ -172,11 +174,11 @@ export async function markTrimmed(deps: Deps, locked: LockedBlock, actorId: numb
 
 /** One block as the policy read it (with its swap). */
 export function getBlock(
-  deps: Pick<AppDeps, 'sequelize'>,
+  deps: Pick<AppDeps, 'sequelize' | 'pool'>,
   { block, swap }: { block: Block; swap: Swap },
   viewer: BlockViewer,
 ): Promise<BlockDto> {
-  return blockDto(deps.sequelize, block, swap, { viewer });
+  return blockDto(deps, block, swap, { viewer });
 }
 
 /**
@@ -184,7 +186,7 @@ export function getBlock(
  * caller) are open to every member; anyone else's blocks, or all of them, only to officers.
  */
 export async function listBlocks(
-  deps: Pick<AppDeps, 'sequelize'>,
+  deps: Pick<AppDeps, 'sequelize' | 'pool'>,
   swap: Swap,
   viewer: BlockViewer,
   query: BlocksQuery,
@@ -192,16 +194,12 @@ export async function listBlocks(
   const makerId = query.maker === 'me' ? viewer.userId : query.maker;
   const mine = makerId === viewer.userId || (query.recipient === 'me' && makerId === undefined);
   if (!viewer.canManage && !mine) throw new ForbiddenError('Members see their own blocks: ask for maker=me or recipient=me.');
-  const blocks = await Block.findAll({
-    where: {
-      swapId: swap.id,
-      ...(makerId ? { makerId } : {}),
-      ...(query.recipient === 'me' ? { recipientId: viewer.userId, state: 'returned' } : {}),
-    },
-    order: [
-      ['makerId', 'ASC'],
-      ['sequence', 'ASC'],
-    ],
+  const rows = await preparedPoolQuery<Record<string, unknown>>(deps.pool, swapBlocks(), {
+    swapId: swap.id,
+    makerId: makerId ?? null,
+    toMe: query.recipient === 'me',
+    userId: viewer.userId,
   });
-  return blockDtos(deps.sequelize, blocks, swap, { viewer });
+  const blocks = rows.map((row) => buildFromRow(Block, row));
+  return blockDtos(deps, blocks, swap, { viewer });
 }

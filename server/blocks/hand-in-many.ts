@@ -7,7 +7,7 @@ import type { AppDeps } from '../deps';
 import { blockDtos } from './block-dto';
 import { handInLocked, lockedBlock } from './blocks.service';
 
-type Deps = Pick<AppDeps, 'events' | 'sequelize'>;
+type Deps = Pick<AppDeps, 'events' | 'sequelize' | 'pool'>;
 
 /**
  * Marks each chosen block handed in, the same way one block is; blocks already handed in keep their
@@ -32,7 +32,7 @@ export async function handInMany(deps: Deps, swap: Swap, actorId: number, input:
       if (from !== 'handed_in') changes.push({ blockId: id, from });
       done.push(block);
     }
-    return { dtos: await blockDtos(deps.sequelize, done, swap, { transaction }), changes };
+    return { dtos: await blockDtos(deps, done, swap, { transaction }), changes };
   });
   for (const c of changes) {
     deps.events.emit('block.changed', {
