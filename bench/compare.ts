@@ -143,7 +143,9 @@ async function main() {
      */
     const startSide = async (name: string, root?: string) => {
       const databaseUrl = await cluster.database(`bench_${apps.length}`);
-      const app = await startAppProcess(databaseUrl, { root, name });
+      // BENCH_PROFILE_DIR: a `node --cpu-prof` profile of this tree's side (bench/profile.ts sums it up).
+      const profileDir = root ? undefined : process.env.BENCH_PROFILE_DIR;
+      const app = await startAppProcess(databaseUrl, { root, name, profileDir });
       apps.push(app);
       const coordinator = await newAccount(app.url, databaseUrl, 'compare-coordinator@example.test', 'Compare Coordinator');
       const guild = await coordinator.api<{ id: number }>('POST', '/guilds', { name: 'Comparison Bee' });
