@@ -13,7 +13,7 @@
  * `swap-member` reads the swap itself (its page's answer) as that maker, `home-member` their home screen,
  * `session-member` the session probe every start of the client sends; `guild-member`, `swaps-member` and
  * `sewdays-member` the guild's pages, `chat-member` a page of the swap's chat, `blocks-member` the
- * maker's own blocks (their swap page's list) and `photo-member` a block photo's thumbnail, as the board shows it.
+ * maker's own blocks (their swap page's list), `transitions-member` the swap's state changes (its timeline) and `photo-member` a block photo's thumbnail, as the board shows it.
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
@@ -63,6 +63,7 @@ const SCENARIOS: Record<
   'swaps-member': { size: SMALL, connections: 10, get: '/api/guilds/{guild}/swaps', asMaker: true },
   'sewdays-member': { size: SMALL, connections: 10, get: '/api/guilds/{guild}/sew-days', asMaker: true, setup: seedSewDays },
   'chat-member': { size: SMALL, connections: 10, get: '/api/chat/rooms/{room}/messages', asMaker: true, setup: seedChat },
+  'transitions-member': { size: SMALL, connections: 10, get: '/api/swaps/{swap}/transitions', asMaker: true },
   'blocks-member': { size: SMALL, connections: 10, get: '/api/swaps/{swap}/blocks?maker=me', asMaker: true },
   'photo-member': { size: SMALL, connections: 10, get: '/api/photos/{photo}?size=thumb', asMaker: true, setup: seedPhoto },
   'roster-600': { size: HISTORY_SIZE, connections: 10, get: '/api/swaps/{swap}/roster' },

@@ -1,7 +1,7 @@
 /** Turns swap rows into the API's answers. */
 import type { Role } from '@shared/schemas/guilds';
-import type { SwapDto, SwapSummaryDto, SwapTransitionDto } from '@shared/swap-types';
-import type { Swap, SwapTransition } from '../db/models';
+import type { SwapDto, SwapSummaryDto } from '@shared/swap-types';
+import type { Swap } from '../db/models';
 import { preparedPoolQuery } from '../db/prepared';
 import type { AppDeps } from '../deps';
 import { signupTally } from './swaps.queries';
@@ -109,16 +109,5 @@ export async function swapDto(
     guild: { id: swap.guildId, name: detail!.guildName, timeZone: detail!.guildTimeZone },
     myRole: viewer.role,
     canManage: viewer.canManage,
-  };
-}
-
-export function transitionDto(t: SwapTransition): SwapTransitionDto {
-  return {
-    id: t.id,
-    from: t.fromState,
-    to: t.toState,
-    by: t.by ? { id: t.by.id, displayName: t.by.displayName } : null,
-    at: t.at.toISOString(),
-    reason: t.reason ?? null,
   };
 }

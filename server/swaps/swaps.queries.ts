@@ -1,6 +1,7 @@
 /** The swaps feature's hand-written SQL; every value arrives as a bind parameter. */
 import { Swap } from '../db/models';
 import { modelColumns, sqlOnce } from '../db/model-columns';
+import type { SwapReadExtra } from './swaps.policy';
 
 /**
  * The role of the person `$viewerId` in the guild of the swap aliased `swapAlias`, as a subquery read in
@@ -60,3 +61,18 @@ export const ANNOUNCEMENT_AUDIENCE = `SELECT count(*) AS n FROM memberships m
 
 /** Swap $swapId's blocks counted by state, verdict and whether trimmed. */
 export const BLOCK_STATE_COUNTS = `SELECT state, verdict, trimmed, count(*) AS n FROM blocks WHERE swap_id = $swapId GROUP BY state, verdict, trimmed`;
+
+/**
+ * Swap $1's state changes, oldest first, each as one JSON value with the name of who made it, read
+ * with the swap policy's query in the same message (`SwapReadExtra`): none unless $2 has a role in the
+ * swap's guild. The policy still decides on the swap's row. Every swap page shows them.
+ */
+export const TRANSITIONS_WITH_SWAP: SwapReadExtra = {
+  name: 'transitions_for_viewer',
+  column: 'transition',
+  rows: `SELECT json_build_object('id', t.id, 'from', t.from_state, 'to', t.to_state, 'byId', u.id, 'byName', u.display_name,
+                           'at', t.at, 'reason', t.reason) AS transition
+           FROM swap_transitions t LEFT JOIN users u ON u.id = t.by_id
+          WHERE t.swap_id = $1 AND EXISTS (SELECT 1 FROM swaps "Swap" WHERE "Swap"."id" = $1 AND ${viewerRole('Swap')} IS NOT NULL)
+          ORDER BY t.at, t.id`.replaceAll('$viewerId', '$2'),
+};

@@ -13,7 +13,8 @@ import { route } from '../http/route';
 import { currentUser, requireUser } from '../auth/require-user';
 import { authorizeGuild, can } from '../guilds/guilds.policy';
 import type { AppDeps } from '../deps';
-import { canJoinSwap, canManageSwap, canReadSwap } from './swaps.policy';
+import { canJoinSwap, canManageSwap, canReadSwap, takeColumn } from './swaps.policy';
+import { TRANSITIONS_WITH_SWAP } from './swaps.queries';
 import * as swaps from './swaps.service';
 import * as signups from './signups.service';
 
@@ -84,9 +85,16 @@ export function swapsRouter(deps: AppDeps) {
   router.get(
     '/swaps/:swapId/transitions',
     requireUser,
-    route({ params: swapParamsSchema, authorize: readSwap }, async ({ params }, _req, res) => {
-      res.json(await swaps.listTransitions(params.swapId));
-    }),
+    route(
+      {
+        params: swapParamsSchema,
+        // Read beside the policy's query of the swap: one round trip for both.
+        authorize: (req, { params }) => canReadSwap(deps, currentUser(req).id, params.swapId, TRANSITIONS_WITH_SWAP),
+      },
+      async ({ access: { swap } }, _req, res) => {
+        res.json(swaps.listTransitions(takeColumn<swaps.TransitionRow[]>(swap, 'transition')!));
+      },
+    ),
   );
 
   router.get(

@@ -13,11 +13,11 @@ import {
 } from '@shared/schemas/swaps';
 import type { Role } from '@shared/schemas/guilds';
 import type { SwapDto, SwapSummaryDto, SwapTransitionDto, TransitionPreviewDto } from '@shared/swap-types';
-import { Block, Guild, Membership, Signup, Swap, SwapTransition, User } from '../db/models';
+import { Block, Guild, Membership, Signup, Swap, SwapTransition } from '../db/models';
 import { daysUntil, inDays, mailDate } from '../mail/format';
 import { ConflictError, NotFoundError, ValidationError } from '../http/errors';
 import type { AppDeps } from '../deps';
-import { statsFrom, summaryDto, swapDto, transitionDto, type SignupStatsRow } from './swap-dto';
+import { statsFrom, summaryDto, swapDto, type SignupStatsRow } from './swap-dto';
 import { ANNOUNCEMENT_AUDIENCE, BLOCK_STATE_COUNTS, swapList } from './swaps.queries';
 import { preparedPoolQuery } from '../db/prepared';
 import { buildFromRow } from '../db/model-columns';
@@ -250,16 +250,27 @@ export async function transitionSwap(
   return swapDto(deps, swap, viewer);
 }
 
-export async function listTransitions(swapId: number): Promise<SwapTransitionDto[]> {
-  const rows = await SwapTransition.findAll({
-    where: { swapId },
-    include: [{ model: User, as: 'by', attributes: ['id', 'displayName'] }],
-    order: [
-      ['at', 'ASC'],
-      ['id', 'ASC'],
-    ],
-  });
-  return rows.map(transitionDto);
+/** A state change as TRANSITIONS_WITH_SWAP reads it (its instant inside JSON, so a string). */
+export interface TransitionRow {
+  id: number;
+  from: SwapState | null;
+  to: SwapState;
+  byId: number | null;
+  byName: string | null;
+  at: string;
+  reason: string | null;
+}
+
+/** The swap's state changes, read with the policy's query (TRANSITIONS_WITH_SWAP). */
+export function listTransitions(rows: TransitionRow[]): SwapTransitionDto[] {
+  return rows.map((t) => ({
+    id: t.id,
+    from: t.from,
+    to: t.to,
+    by: t.byId === null ? null : { id: t.byId, displayName: t.byName! },
+    at: new Date(t.at).toISOString(),
+    reason: t.reason,
+  }));
 }
 
 type Warning = TransitionPreviewDto['warnings'][number];
