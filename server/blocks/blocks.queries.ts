@@ -10,7 +10,7 @@ import { relatedSql, type RelatedJson } from './block-dto';
 import { stepCtes } from './step-log';
 
 /** Every column of both tables, aliased to attribute names (`swap.` before the swap's). */
-const columns = () => `${modelColumns(Block, 'b')}, ${modelColumns(Swap, 's', 'swap.')}`;
+const columns = sqlOnce(() => `${modelColumns(Block, 'b')}, ${modelColumns(Swap, 's', 'swap.')}`);
 
 /**
  * A block and its swap in one query, for the hot paths (policy checks, locked changes). The SQL is
