@@ -12,11 +12,12 @@ export const PAYMENT_COUNT = 'SELECT count(*)::int AS n FROM payments WHERE guil
 export const LOCK_INVITATIONS = 'SELECT pg_advisory_xact_lock(hashtext($guildKey)), pg_advisory_xact_lock(hashtext($inviterKey))';
 
 /**
- * The role of $userId in the guild whose id is the SQL expression `guildId`, as a subquery read with
- * another row (a photo, a sew day, a chat room): null without an active membership.
+ * The role of a person (the bind parameter `person`, $userId unless named) in the guild whose id is the
+ * SQL expression `guildId`, as a subquery read with another row (a swap, a photo, a sew day, a chat room):
+ * memberships hold one row per guild and person, and it gives null without an active one.
  */
-export const roleIn = (guildId: string) =>
-  `(SELECT m.role FROM memberships m WHERE m.guild_id = ${guildId} AND m.user_id = $userId AND m.status = 'active')`;
+export const roleIn = (guildId: string, person = '$userId') =>
+  `(SELECT m.role FROM memberships m WHERE m.guild_id = ${guildId} AND m.user_id = ${person} AND m.status = 'active')`;
 
 /** The role of $userId in guild $guildId; no row without an active membership. */
 export const GUILD_ROLE = `SELECT role FROM memberships WHERE guild_id = $guildId AND user_id = $userId AND status = 'active'`;

@@ -30,7 +30,7 @@ export function signupIsOpen(swap: Swap, now = new Date()): boolean {
   return swap.state === 'signup' && swap.signupClosesAt.getTime() > now.getTime();
 }
 
-export function summaryDto(swap: Swap, stats: SignupStats | undefined): SwapSummaryDto {
+export function summaryDto(swap: Swap, stats: SignupStats): SwapSummaryDto {
   return {
     id: swap.id,
     guildId: swap.guildId,
@@ -41,9 +41,9 @@ export function summaryDto(swap: Swap, stats: SignupStats | undefined): SwapSumm
     signupClosesAt: swap.signupClosesAt.toISOString(),
     dueAt: swap.dueAt.toISOString(),
     quota: { min: swap.quotaMin, max: swap.quotaMax },
-    signups: stats?.signups ?? 0,
-    pledged: stats?.pledged ?? 0,
-    myPledge: stats?.myPledge ?? 0,
+    signups: stats.signups,
+    pledged: stats.pledged,
+    myPledge: stats.myPledge,
   };
 }
 

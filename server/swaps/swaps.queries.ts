@@ -1,15 +1,11 @@
 /** The swaps feature's hand-written SQL; every value arrives as a bind parameter. */
 import { Swap } from '../db/models';
 import { modelColumns, sqlOnce } from '../db/model-columns';
+import { roleIn } from '../guilds/guilds.queries';
 import type { SwapReadExtra } from './swaps.policy';
 
-/**
- * The role of the person `$viewerId` in the guild of the swap aliased `swapAlias`, as a subquery read in
- * the same query as the swap: memberships hold one row per guild and user, and it gives null without
- * an active one.
- */
-export const viewerRole = (swapAlias: 'Swap' | 's') =>
-  `(SELECT m.role FROM memberships m WHERE m.guild_id = "${swapAlias}"."guild_id" AND m.user_id = $viewerId AND m.status = 'active')`;
+/** The role of the person `$viewerId` in the guild of the swap aliased `swapAlias`, read in the same query as the swap. */
+export const viewerRole = (swapAlias: 'Swap' | 's') => roleIn(`"${swapAlias}"."guild_id"`, '$viewerId');
 
 /**
  * Every column of the swap aliased "Swap", named as its attributes, so a row builds the instance as
