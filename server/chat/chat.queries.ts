@@ -48,3 +48,22 @@ export const HISTORY_PAGE = {
   newest: `SELECT ${MESSAGE_ROW} WHERE m.room_id = $roomId ORDER BY m.id DESC LIMIT $limit`,
   before: `SELECT ${MESSAGE_ROW} WHERE m.room_id = $roomId AND m.id < $before ORDER BY m.id DESC LIMIT $limit`,
 } as const;
+
+/** Holds one person's posts in turn, on every node, until the transaction ends: the limit below counts under it. */
+export const LOCK_SENDER = 'SELECT pg_advisory_xact_lock(7314005, $authorId)';
+
+/**
+ * Message $body by $authorId in room $roomId at $at, written only when its author posted fewer than
+ * $limit messages since $since. One row: the message's id (null when refused) and the oldest of the
+ * author's last $limit messages in the window, which says when the next may go.
+ */
+export const POST_WITHIN_LIMIT = `WITH recent AS (
+    SELECT created_at FROM chat_messages
+     WHERE author_id = $authorId::int AND created_at > $since::timestamptz
+     ORDER BY created_at DESC LIMIT $limit::int),
+  posted AS (
+    INSERT INTO chat_messages (room_id, author_id, body, created_at, updated_at)
+    SELECT $roomId::int, $authorId::int, $body::text, $at::timestamptz, $at::timestamptz
+     WHERE (SELECT count(*) FROM recent) < $limit::int
+    RETURNING id)
+  SELECT (SELECT id FROM posted) AS id, (SELECT min(created_at) FROM recent) AS "oldestRecent"`;

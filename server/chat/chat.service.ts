@@ -1,4 +1,3 @@
-import { Op } from 'sequelize';
 import {
   CHAT_PHOTOS_MAX,
   CHAT_RATE_LIMIT,
@@ -13,11 +12,20 @@ import { commitStagedPhotos, deletePhotos, discardStaged, preparePhotosQueued, s
 import type { IncomingPhotoFile } from '../uploads/photo-pipeline';
 import type { AppDeps } from '../deps';
 import { authorInclude, messageDto, messageRowDto, photoDto, type MessageRow } from './chat-dto';
-import { preparedPoolQuery } from '../db/prepared';
-import { HISTORY_PAGE } from './chat.queries';
+import { preparedPoolQuery, preparedQuery, tripStatement } from '../db/prepared';
+import { oneTripTransaction } from '../db/one-trip';
+import { HISTORY_PAGE, LOCK_SENDER, POST_WITHIN_LIMIT } from './chat.queries';
 import { authorizeRoom, type RoomAccess } from './chat.policy';
 
 type ChatDeps = Pick<AppDeps, 'events' | 'sequelize' | 'pool' | 'config'>;
+
+/** What POST_WITHIN_LIMIT answers: the new message's id, or null and when the oldest counted one was sent. */
+interface PostedRow {
+  id: number | null;
+  oldestRecent: Date | string | null;
+}
+
+const FOREIGN_KEY_VIOLATION = '23503';
 
 export class RateLimitedError extends AppError {
   constructor(
@@ -70,47 +78,56 @@ export async function postMessage(
   const { room } = access;
   // Photos are re-encoded (in the bounded queue) and written before the transaction and its lock.
   const staged = files.length ? await stagePhotos(deps, await preparePhotosQueued(deps, files)) : [];
-  const message = await deps.sequelize
-    .transaction(async (transaction) => {
-      await deps.sequelize.query('SELECT pg_advisory_xact_lock(7314005, $userId)', { bind: { userId: authorId }, transaction });
-      const since = new Date(Date.now() - CHAT_RATE_WINDOW_MS);
-      const recent = await ChatMessage.findAll({
-        where: { authorId, createdAt: { [Op.gt]: since } },
-        attributes: ['createdAt'],
-        order: [['createdAt', 'ASC']],
-        transaction,
-      });
-      if (recent.length >= CHAT_RATE_LIMIT) {
-        const freeAt = recent[recent.length - CHAT_RATE_LIMIT]!.createdAt.getTime() + CHAT_RATE_WINDOW_MS;
-        throw new RateLimitedError(Math.max(1, Math.ceil((freeAt - Date.now()) / 1000)));
-      }
-      const created = await ChatMessage.create(
-        { roomId: room.id, authorId, body: input.body, deletedById: null },
-        { transaction },
-      );
-      const photos = staged.length
-        ? await commitStagedPhotos(deps, {
+  const at = new Date();
+  const post = {
+    roomId: room.id,
+    authorId,
+    body: input.body,
+    at,
+    since: new Date(at.getTime() - CHAT_RATE_WINDOW_MS),
+    limit: CHAT_RATE_LIMIT,
+  };
+  const refusedOrPosted = (row: PostedRow | undefined): number => {
+    if (!row) throw new Error('the message was neither written nor refused');
+    if (row.id !== null) return row.id;
+    const freeAt = new Date(row.oldestRecent!).getTime() + CHAT_RATE_WINDOW_MS;
+    throw new RateLimitedError(Math.max(1, Math.ceil((freeAt - Date.now()) / 1000)));
+  };
+  const message = await (
+    staged.length
+      ? deps.sequelize.transaction(async (transaction) => {
+          await preparedQuery(deps.sequelize, LOCK_SENDER, { authorId }, transaction);
+          const [row] = await preparedQuery<PostedRow>(deps.sequelize, POST_WITHIN_LIMIT, post, transaction);
+          const id = refusedOrPosted(row);
+          const photos = await commitStagedPhotos(deps, {
             staged,
             guildId: room.guildId,
             uploadedBy: authorId,
-            owner: { chatMessageId: created.id },
+            owner: { chatMessageId: id },
             transaction,
-          })
-        : [];
-      return { created, photos };
-    })
-    .catch(async (error: unknown) => {
-      await discardStaged(deps, staged);
-      throw error;
-    });
+          });
+          return { id, photos };
+        })
+      : // Text alone, the most of a sew day's messages: the lock and the write in one round trip.
+        oneTripTransaction(deps.pool, [tripStatement(LOCK_SENDER, { authorId }), tripStatement(POST_WITHIN_LIMIT, post)]).then(
+          (answered) => ({ id: refusedOrPosted(answered[1]![0] as PostedRow | undefined), photos: [] as Photo[] }),
+        )
+  ).catch(async (error: unknown) => {
+    await discardStaged(deps, staged);
+    // pg's own error, or Sequelize's around it.
+    const { code, parent } = error as { code?: string; parent?: { code?: string } };
+    if ((code ?? parent?.code) === FOREIGN_KEY_VIOLATION)
+      throw new NotFoundError('This chat room was removed; the message was not sent.');
+    throw error;
+  });
   // Built from what was just written: a new message needs no second read.
   const dto: ChatMessageDto = {
-    id: message.created.id,
+    id: message.id,
     roomId: room.id,
     author: { id: authorId, displayName: author.displayName },
-    body: message.created.body,
+    body: input.body,
     photos: message.photos.map(photoDto),
-    createdAt: message.created.createdAt.toISOString(),
+    createdAt: at.toISOString(),
     editedAt: null,
     removed: null,
   };

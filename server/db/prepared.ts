@@ -7,6 +7,7 @@
 import { createHash } from 'node:crypto';
 import type pg from 'pg';
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import type { TripStatement, TripValue } from './one-trip';
 
 interface Statement {
   name: string;
@@ -63,4 +64,14 @@ export async function preparedPoolQuery<T extends object>(
   const { name, text, params } = statementFor(sql);
   const result = await pool.query<T>({ name, text, values: params.map((param) => bind[param]) });
   return result.rows;
+}
+
+/**
+ * `sql` (with `$name` parameters from `bind`) as one statement of `oneTripTransaction`. Its name has a
+ * prefix of its own: a statement PREPAREd in SQL and one parsed by pg's client share a connection's
+ * names, and the two must never meet.
+ */
+export function tripStatement(sql: string, bind: Record<string, TripValue>): TripStatement {
+  const { name, text, params } = statementFor(sql);
+  return { name: `trip_${name}`, text, values: params.map((param) => bind[param] ?? null) };
 }

@@ -200,4 +200,21 @@ describe('SQL round trips per request', () => {
     }
     expect(await lastRoomId()).toBe(roomIdBefore);
   });
+
+  it('a text message takes the room’s check and one round trip for the lock, the limit and the write', async () => {
+    const { swap } = await sewingSwap(app, roles, { pledges: [2] });
+    const room = await roles.member.agent.get(`/api/swaps/${swap.id}/chat`).expect(200);
+    await roles.member.agent.post(`/api/chat/rooms/${room.body.id}/messages`).send({ body: 'Warming up the iron' }).expect(201);
+    const { result, statements, named } = await statementsOf(() =>
+      roles.member.agent.post(`/api/chat/rooms/${room.body.id}/messages`).send({ body: 'Pressing the seams open' }),
+    );
+    expect(result.status, JSON.stringify(result.body)).toBe(201);
+    expect(statements.length, shown(statements)).toBe(2);
+    // The room with the role, named; then BEGIN, the lock, the counted write and COMMIT in one message
+    // (after their PREPAREs on a connection that meets them for the first time).
+    expect(named).toHaveLength(1);
+    expect(statements[1], shown(statements)).toMatch(
+      /^(?:PREPARE trip_bp_\w+ AS [^;]*;\n)*BEGIN;\nEXECUTE trip_bp_\w+\(\d+\);\nEXECUTE trip_bp_\w+\(.*\);\nCOMMIT$/s,
+    );
+  });
 });
