@@ -1,5 +1,6 @@
-/** Hand-written SQL of the design wall, bind parameters only. */
-import { QueryTypes, type Sequelize } from 'sequelize';
+/** Hand-written SQL of the design wall, bind parameters only; each a named statement on the plain pool. */
+import type pg from 'pg';
+import { preparedPoolQuery } from '../db/prepared';
 
 export interface PlaceableBlockRow {
   id: number;
@@ -23,12 +24,13 @@ export interface PlaceableBlockRow {
  * photo and that photo's colour statistics. Blocks returned to the caller come first.
  */
 export function placeableBlocks(
-  sequelize: Sequelize,
+  pool: pg.Pool,
   swapId: number,
   userId: number,
   allReturned: boolean,
 ): Promise<PlaceableBlockRow[]> {
-  return sequelize.query<PlaceableBlockRow>(
+  return preparedPoolQuery<PlaceableBlockRow>(
+    pool,
     `SELECT b.id, b.sequence, b.maker_id, u.display_name AS maker_name,
             p.id AS photo_id, p.width AS photo_width, p.height AS photo_height,
             c.mean_l, c.mean_a, c.mean_b, c.p10, c.p50, c.p90
@@ -40,7 +42,7 @@ export function placeableBlocks(
       WHERE b.swap_id = $swapId
         AND (b.maker_id = $userId OR (b.state = 'returned' AND (b.recipient_id = $userId OR $allReturned)))
       ORDER BY (b.maker_id = $userId), u.display_name, b.sequence, b.id`,
-    { bind: { swapId, userId, allReturned }, type: QueryTypes.SELECT },
+    { swapId, userId, allReturned },
   );
 }
 
@@ -55,10 +57,11 @@ export interface DesignRow {
   updated_at: Date;
 }
 
-export async function findDesign(sequelize: Sequelize, swapId: number, userId: number): Promise<DesignRow | null> {
-  const [row] = await sequelize.query<DesignRow>(
+export async function findDesign(pool: pg.Pool, swapId: number, userId: number): Promise<DesignRow | null> {
+  const [row] = await preparedPoolQuery<DesignRow>(
+    pool,
     'SELECT columns, rows, sashing, cornerstones, borders, alternate, cells, updated_at FROM designs WHERE swap_id = $swapId AND user_id = $userId',
-    { bind: { swapId, userId }, type: QueryTypes.SELECT },
+    { swapId, userId },
   );
   return row ?? null;
 }
@@ -74,8 +77,9 @@ export interface DesignWrite {
 }
 
 /** Inserts or replaces the caller's design of a swap (one row per member and swap). */
-export async function upsertDesign(sequelize: Sequelize, swapId: number, userId: number, d: DesignWrite): Promise<DesignRow> {
-  const [row] = await sequelize.query<DesignRow>(
+export async function upsertDesign(pool: pg.Pool, swapId: number, userId: number, d: DesignWrite): Promise<DesignRow> {
+  const [row] = await preparedPoolQuery<DesignRow>(
+    pool,
     `INSERT INTO designs (swap_id, user_id, columns, rows, sashing, cornerstones, borders, alternate, cells)
      VALUES ($swapId, $userId, $columns, $rows, $sashing, $cornerstones, $borders::jsonb, $alternate, $cells::jsonb)
      ON CONFLICT (swap_id, user_id) DO UPDATE SET columns = EXCLUDED.columns, rows = EXCLUDED.rows, sashing = EXCLUDED.sashing,
@@ -83,18 +87,15 @@ export async function upsertDesign(sequelize: Sequelize, swapId: number, userId:
        updated_at = now()
      RETURNING columns, rows, sashing, cornerstones, borders, alternate, cells, updated_at`,
     {
-      bind: {
-        swapId,
-        userId,
-        columns: d.columns,
-        rows: d.rows,
-        sashing: d.sashing,
-        cornerstones: d.cornerstones,
-        borders: d.borders === null ? null : JSON.stringify(d.borders),
-        alternate: d.alternate,
-        cells: JSON.stringify(d.cells),
-      },
-      type: QueryTypes.SELECT,
+      swapId,
+      userId,
+      columns: d.columns,
+      rows: d.rows,
+      sashing: d.sashing,
+      cornerstones: d.cornerstones,
+      borders: d.borders === null ? null : JSON.stringify(d.borders),
+      alternate: d.alternate,
+      cells: JSON.stringify(d.cells),
     },
   );
   return row!;

@@ -19,7 +19,7 @@ import { ValidationError } from '../http/errors';
 import type { DesignAccess } from './designs.policy';
 import { findDesign, placeableBlocks, upsertDesign, type DesignRow, type PlaceableBlockRow } from './designs.queries';
 
-type Deps = Pick<AppDeps, 'sequelize'>;
+type Deps = Pick<AppDeps, 'pool'>;
 
 interface Layout {
   columns: number;
@@ -58,7 +58,7 @@ function blockDto(r: PlaceableBlockRow, userId: number): DesignBlockDto {
 }
 
 async function loadBlocks(deps: Deps, access: DesignAccess): Promise<DesignBlockDto[]> {
-  const rows = await placeableBlocks(deps.sequelize, access.swap.id, access.userId, access.allReturned);
+  const rows = await placeableBlocks(deps.pool, access.swap.id, access.userId, access.allReturned);
   return rows.map((r) => blockDto(r, access.userId));
 }
 
@@ -177,7 +177,7 @@ const layoutOf = (body: DesignBody): Layout => ({
 
 /** The caller's design of a swap: the saved one, or a first layout of every block they may place. */
 export async function getDesign(deps: Deps, access: DesignAccess): Promise<DesignDto> {
-  const [blocks, row] = await Promise.all([loadBlocks(deps, access), findDesign(deps.sequelize, access.swap.id, access.userId)]);
+  const [blocks, row] = await Promise.all([loadBlocks(deps, access), findDesign(deps.pool, access.swap.id, access.userId)]);
   const layout = row ? fromRow(row, new Set(blocks.map((b) => b.id))) : firstLayout(access, blocks);
   return toDto(access, layout, blocks, row?.updated_at ?? null);
 }
@@ -188,7 +188,7 @@ export async function saveDesign(deps: Deps, access: DesignAccess, body: DesignB
   checkLayout(access, body, new Set(blocks.map((b) => b.id)));
   const layout = layoutOf(body);
   const plan = planOf(access, layout); // refuses lengths the engine cannot use before anything is saved
-  const row = await upsertDesign(deps.sequelize, access.swap.id, access.userId, {
+  const row = await upsertDesign(deps.pool, access.swap.id, access.userId, {
     columns: layout.columns,
     rows: layout.rows,
     sashing: layout.sashing ?? null,
@@ -214,7 +214,7 @@ export async function arrangeDesign(deps: Deps, access: DesignAccess, body: Desi
     checkLayout(access, body, new Set(blocks.map((b) => b.id)));
     layout = layoutOf(body);
   } else {
-    const row = await findDesign(deps.sequelize, access.swap.id, access.userId);
+    const row = await findDesign(deps.pool, access.swap.id, access.userId);
     layout = row ? fromRow(row, new Set(blocks.map((b) => b.id))) : firstLayout(access, blocks);
   }
   const colours = new Map<number, Lab>(blocks.flatMap((b) => (b.colour ? [[b.id, b.colour.meanLab] as [number, Lab]] : [])));

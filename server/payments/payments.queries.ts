@@ -43,12 +43,26 @@ export interface SwapFeeRow {
   currency: string;
 }
 
-export async function swapFeeRow(db: Db, swapId: number): Promise<SwapFeeRow | null> {
-  const { rows } = await db.query<SwapFeeRow>(
-    `SELECT s.id, s.guild_id, s.title, s.state, s.signup_closes_at, s.entry_fee, s.postage_fee, g.currency
-       FROM swaps s JOIN guilds g ON g.id = s.guild_id WHERE s.id = $1`,
-    [swapId],
-  );
+/** A swap's fees with where one person stands on them: signed up, sending by post, their payments' kinds and states. */
+export interface SwapFeesForRow extends SwapFeeRow {
+  signed_up: boolean;
+  by_post: boolean;
+  /** the person's payments for the swap, newest first */
+  mine: Pick<PaymentRow, 'kind' | 'status'>[];
+}
+
+/** Swap $1's fees and where person $2 stands on them, in one named statement (a member's fees tab and checkout). */
+export async function swapFeesFor(db: Db, swapId: number, userId: number): Promise<SwapFeesForRow | null> {
+  const { rows } = await db.query<SwapFeesForRow>({
+    name: 'swap_fees_for',
+    text: `SELECT s.id, s.guild_id, s.title, s.state, s.signup_closes_at, s.entry_fee, s.postage_fee, g.currency,
+              EXISTS (SELECT 1 FROM signups WHERE swap_id = s.id AND user_id = $2 AND status = 'active') AS signed_up,
+              EXISTS (SELECT 1 FROM blocks WHERE swap_id = s.id AND maker_id = $2 AND hand_in_how = 'post') AS by_post,
+              (SELECT coalesce(json_agg(json_build_object('kind', p.kind, 'status', p.status) ORDER BY p.created_at DESC, p.id DESC), '[]')
+                 FROM payments p WHERE p.swap_id = s.id AND p.user_id = $2) AS mine
+         FROM swaps s JOIN guilds g ON g.id = s.guild_id WHERE s.id = $1`,
+    values: [swapId, userId],
+  });
   return rows[0] ?? null;
 }
 
@@ -68,12 +82,11 @@ export async function guildSettings(db: Db, guildId: number): Promise<GuildPayme
   return rows[0] ?? null;
 }
 
-/** Payments of one person (or of everyone, user null) for a swap, newest first. */
-export async function paymentsForSwap(db: Db, swapId: number, userId: number | null): Promise<PaymentRow[]> {
-  const { rows } = await db.query<PaymentRow>(
-    `SELECT * FROM payments WHERE swap_id = $1 AND ($2::int IS NULL OR user_id = $2) ORDER BY created_at DESC, id DESC`,
-    [swapId, userId],
-  );
+/** Everyone's payments for a swap, newest first. */
+export async function paymentsForSwap(db: Db, swapId: number): Promise<PaymentRow[]> {
+  const { rows } = await db.query<PaymentRow>(`SELECT * FROM payments WHERE swap_id = $1 ORDER BY created_at DESC, id DESC`, [
+    swapId,
+  ]);
   return rows;
 }
 
@@ -100,15 +113,6 @@ export async function swapParticipants(
     [swapId],
   );
   return rows;
-}
-
-export async function isSignedUp(db: Db, swapId: number, userId: number): Promise<{ signed_up: boolean; by_post: boolean }> {
-  const { rows } = await db.query<{ signed_up: boolean; by_post: boolean }>(
-    `SELECT EXISTS (SELECT 1 FROM signups WHERE swap_id = $1 AND user_id = $2 AND status = 'active') AS signed_up,
-            EXISTS (SELECT 1 FROM blocks WHERE swap_id = $1 AND maker_id = $2 AND hand_in_how = 'post') AS by_post`,
-    [swapId, userId],
-  );
-  return rows[0]!;
 }
 
 export async function guildMembers(db: Db, guildId: number): Promise<{ user_id: number; display_name: string }[]> {

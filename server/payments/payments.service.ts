@@ -39,7 +39,7 @@ const payable = (standing: FeeStanding) => standing === 'owed' || standing === '
 function feeLines(
   fees: { entry: number; postage: number },
   who: { signed_up: boolean; by_post: boolean },
-  rows: PaymentRow[],
+  rows: Pick<PaymentRow, 'kind' | 'status'>[],
 ): FeeLine[] {
   const lines: FeeLine[] = [];
   if (fees.entry > 0)
@@ -66,20 +66,19 @@ function feeLines(
 
 /** A swap's fees and the caller's standing; officers also get every signed-up member's. */
 export async function swapFees(deps: Deps, swapId: number, userId: number, canManage: boolean): Promise<SwapFeesDto> {
-  const swap = await q.swapFeeRow(deps.pool, swapId);
+  const swap = await q.swapFeesFor(deps.pool, swapId, userId);
   if (!swap) throw new NotFoundError('That swap does not exist.');
   const fees = { entry: swap.entry_fee, postage: swap.postage_fee };
-  const [me, myRows] = await Promise.all([q.isSignedUp(deps.pool, swapId, userId), q.paymentsForSwap(deps.pool, swapId, userId)]);
   const dto: SwapFeesDto = {
     swapId,
     currency: swap.currency,
     fees,
     enabled: paymentsEnabled(deps.config),
     testMode: paymentsTestMode(deps.config),
-    mine: feeLines(fees, me, myRows),
+    mine: feeLines(fees, swap, swap.mine),
   };
   if (canManage && (fees.entry > 0 || fees.postage > 0)) {
-    const [people, all] = await Promise.all([q.swapParticipants(deps.pool, swapId), q.paymentsForSwap(deps.pool, swapId, null)]);
+    const [people, all] = await Promise.all([q.swapParticipants(deps.pool, swapId), q.paymentsForSwap(deps.pool, swapId)]);
     dto.members = people.map((p) => {
       const theirs = all.filter((r) => r.user_id === p.user_id);
       const lines = feeLines(fees, { signed_up: true, by_post: p.by_post }, theirs);
@@ -229,20 +228,19 @@ export async function startSwapCheckout(
   userId: number,
   kinds?: ('entry' | 'postage')[],
 ): Promise<{ url: string }> {
-  const swap = await q.swapFeeRow(deps.pool, swapId);
+  const swap = await q.swapFeesFor(deps.pool, swapId, userId);
   if (!swap) throw new NotFoundError('That swap does not exist.');
   if (swap.state === 'cancelled' || swap.state === 'complete')
     throw new ConflictError(`This swap is ${swap.state}; it takes no more payments.`, 'swap_closed');
   const fees = { entry: swap.entry_fee, postage: swap.postage_fee };
   if (fees.entry === 0 && fees.postage === 0) throw new ConflictError('This swap has no fee to pay.', 'nothing_owed');
-  const [me, rows] = await Promise.all([q.isSignedUp(deps.pool, swapId, userId), q.paymentsForSwap(deps.pool, swapId, userId)]);
-  if (!me.signed_up)
+  if (!swap.signed_up)
     throw new ConflictError('Sign up for the swap first; its fees are for members who take part.', 'not_signed_up');
-  const wanted = feeLines(fees, me, rows).filter(
+  const wanted = feeLines(fees, swap, swap.mine).filter(
     (l) => payable(l.standing) && (!kinds || kinds.includes(l.kind as 'entry' | 'postage')),
   );
   if (wanted.length === 0) {
-    const postageAsked = kinds?.includes('postage') && fees.postage > 0 && !me.by_post;
+    const postageAsked = kinds?.includes('postage') && fees.postage > 0 && !swap.by_post;
     throw new ConflictError(
       postageAsked
         ? 'Return postage is only for members who send their blocks by post; hand a block in by post first.'
