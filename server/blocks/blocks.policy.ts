@@ -3,6 +3,7 @@
  * sewn, hands it in and measures it; coordinators and admins of the guild take it in, measure it
  * with the ruler and trim it; both may read it.
  */
+import type pg from 'pg';
 import type { Sequelize, Transaction } from 'sequelize';
 import type { Role } from '@shared/schemas/guilds';
 import type { Block, Swap } from '../db/models';
@@ -23,12 +24,14 @@ export interface BlockAccess extends SwapAccess {
  */
 export interface BlockRead {
   db: Sequelize;
+  /** where a read outside a transaction runs, as a named statement */
+  pool: pg.Pool;
   transaction?: Transaction;
 }
 
 /** The block with its swap and the caller's role in the swap's guild, in one query. */
 async function loadBlock(
-  { db, transaction }: BlockRead,
+  { db, pool, transaction }: BlockRead,
   userId: number,
   blockId: number,
 ): Promise<{ block: Block; swap: Swap; role: Role | null }> {
@@ -37,6 +40,7 @@ async function loadBlock(
     bind: { viewerId: userId },
     transaction,
     lockForChange: !!transaction,
+    pool,
   });
   if (!found) throw new NotFoundError('That block does not exist.');
   return { ...found, role: takeViewerRole(found.swap) };

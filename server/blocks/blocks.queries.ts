@@ -25,12 +25,23 @@ const columns = sqlOnce(() => `${modelColumns(Block, 'b')}, ${modelColumns(Swap,
 export async function findBlockWithSwap(
   db: Sequelize,
   blockId: number,
-  options: { extraSwapColumns?: string; bind?: Record<string, unknown>; transaction?: Transaction; lockForChange?: boolean } = {},
+  options: {
+    extraSwapColumns?: string;
+    bind?: Record<string, unknown>;
+    transaction?: Transaction;
+    lockForChange?: boolean;
+    /** outside a transaction, the statement is named on this pool rather than planned anew by Sequelize */
+    pool?: pg.Pool;
+  } = {},
 ): Promise<{ block: Block; swap: Swap } | null> {
   const sql = `SELECT ${columns()}${options.extraSwapColumns ? `, ${options.extraSwapColumns}` : ''}
                  FROM blocks b JOIN swaps s ON s.id = b.swap_id
                 WHERE b.id = $blockId${options.lockForChange ? ' FOR NO KEY UPDATE OF b' : ''}`;
-  const [row] = await preparedQuery<Record<string, unknown>>(db, sql, { ...options.bind, blockId }, options.transaction);
+  const bind = { ...options.bind, blockId };
+  const [row] =
+    !options.transaction && options.pool
+      ? await preparedPoolQuery<Record<string, unknown>>(options.pool, sql, bind)
+      : await preparedQuery<Record<string, unknown>>(db, sql, bind, options.transaction);
   if (!row) return null;
   const { block, swap } = instancesFrom(row);
   return { block, swap };

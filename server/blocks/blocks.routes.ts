@@ -32,7 +32,7 @@ export function blocksRouter(deps: AppDeps) {
   const as =
     (policy: BlockPolicy) =>
     (req: Request, { params, transaction }: BlockInput) =>
-      policy({ db, transaction }, currentUser(req).id, params.blockId);
+      policy({ db, pool: deps.pool, transaction }, currentUser(req).id, params.blockId);
   const locked = (access: BlockAccess, transaction: Transaction) => ({ block: access.block, swap: access.swap, transaction });
   /** A change to one block: the policy's read is the locked read, and the answer is sent after commit. */
   const change = <B extends ZodType | undefined>(body: B, policy: BlockPolicy) => ({
@@ -69,7 +69,7 @@ export function blocksRouter(deps: AppDeps) {
     '/blocks/:blockId/measurements',
     requireUser,
     route({ params: blockParamsSchema, authorize: as(canReadBlock) }, async ({ access: { block } }, _req, res) => {
-      res.json(await listMeasurements(block));
+      res.json(await listMeasurements(deps, block));
     }),
   );
 

@@ -6,7 +6,9 @@
 import { checkBlock } from '@shared/quilt';
 import type { MeasurementBody } from '@shared/schemas/blocks';
 import type { BlockDto, MeasurementDto } from '@shared/swap-types';
-import { Block, Measurement, type Swap, User } from '../db/models';
+import { Block, Measurement, type Swap } from '../db/models';
+import { preparedPoolQuery } from '../db/prepared';
+import { buildFromRow, modelColumns, sqlOnce } from '../db/model-columns';
 import { ConflictError, NotFoundError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { blockDtosFrom, measurementDto, withMeasurement } from './block-dto';
@@ -189,15 +191,21 @@ async function measureOnce(
   };
 }
 
-/** Every measurement of a block, newest first. */
-export async function listMeasurements(block: Block): Promise<MeasurementDto[]> {
-  const rows = await Measurement.findAll({
-    where: { blockId: block.id },
-    include: [{ model: User, as: 'measuredBy', attributes: ['id', 'displayName'] }],
-    order: [
-      ['createdAt', 'DESC'],
-      ['id', 'DESC'],
-    ],
-  });
-  return rows.map(measurementDto);
+/** Block $blockId's measurements with who measured each, newest first. */
+const BLOCK_MEASUREMENTS = sqlOnce(
+  () => `SELECT ${modelColumns(Measurement, 'm')}, u.id AS "by.id", u.display_name AS "by.displayName"
+           FROM measurements m LEFT JOIN users u ON u.id = m.measured_by_id
+          WHERE m.block_id = $blockId ORDER BY m.created_at DESC, m.id DESC`,
+);
+
+/** Every measurement of a block, newest first, in one named statement (an officer opening a board row). */
+export async function listMeasurements(deps: Pick<AppDeps, 'pool'>, block: Block): Promise<MeasurementDto[]> {
+  const rows = await preparedPoolQuery<Record<string, unknown>>(deps.pool, BLOCK_MEASUREMENTS(), { blockId: block.id });
+  return rows.map(({ 'by.id': id, 'by.displayName': displayName, ...values }) =>
+    measurementDto(
+      Object.assign(buildFromRow(Measurement, values), {
+        measuredBy: id == null ? null : { id: id as number, displayName: displayName as string },
+      }),
+    ),
+  );
 }
