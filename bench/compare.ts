@@ -13,7 +13,9 @@
  * `swap-member` reads the swap itself (its page's answer) as that maker, `home-member` their home screen,
  * `session-member` the session probe every start of the client sends; `guild-member`, `swaps-member` and
  * `sewdays-member` the guild's pages, `chat-member` a page of the swap's chat, `blocks-member` the
- * maker's own blocks (their swap page's list), `transitions-member` the swap's state changes (its timeline) and `photo-member` a block photo's thumbnail, as the board shows it.
+ * maker's own blocks (their swap page's list), `transitions-member` the swap's state changes (its timeline), `photo-member` a block photo's thumbnail, as the board shows it,
+ * `block-photos-member` a block's gallery, `measurements-member` a block's measurements (a board row opened),
+ * `fees-member` the swap's fees tab and `design-member` the maker's design wall.
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
@@ -66,6 +68,16 @@ const SCENARIOS: Record<
   'transitions-member': { size: SMALL, connections: 10, get: '/api/swaps/{swap}/transitions', asMaker: true },
   'blocks-member': { size: SMALL, connections: 10, get: '/api/swaps/{swap}/blocks?maker=me', asMaker: true },
   'photo-member': { size: SMALL, connections: 10, get: '/api/photos/{photo}?size=thumb', asMaker: true, setup: seedPhoto },
+  'block-photos-member': { size: SMALL, connections: 10, get: '/api/blocks/{block}/photos', asMaker: true, setup: seedPhoto },
+  'measurements-member': {
+    size: SMALL,
+    connections: 10,
+    get: '/api/blocks/{block}/measurements',
+    asMaker: true,
+    setup: seedMeasurements,
+  },
+  'fees-member': { size: SMALL, connections: 10, get: '/api/swaps/{swap}/fees', asMaker: true },
+  'design-member': { size: SMALL, connections: 10, get: '/api/swaps/{swap}/design', asMaker: true },
   'roster-600': { size: HISTORY_SIZE, connections: 10, get: '/api/swaps/{swap}/roster' },
 };
 
@@ -110,7 +122,17 @@ async function seedPhoto({ reader, swap, url }: Seeded) {
   });
   if (!res.ok) throw new Error(`photo upload answered ${res.status}: ${await res.text()}`);
   const { photos } = (await res.json()) as { photos: { id: number }[] };
-  return { photo: photos[0]!.id };
+  return { photo: photos[0]!.id, block: block!.id };
+}
+
+/** One of the reader's blocks measured three times with the ruler (its history, as a board row opens it). */
+async function seedMeasurements({ coordinator, reader, swap }: Seeded) {
+  const blocks = await reader.api<{ id: number; state: string }[]>('GET', `/swaps/${swap.swapId}/blocks?maker=me`);
+  const block = blocks.find((b) => b.state === 'measured') ?? blocks[0]!;
+  if (block.state !== 'measured') await coordinator.api('POST', `/blocks/${block.id}/received`, {});
+  for (const width of ['8 1/2', '8 5/8', '8 7/16'])
+    await coordinator.api('POST', `/blocks/${block.id}/measurements`, { width, height: '8 1/2', note: 'rechecked' });
+  return { block: block.id };
 }
 
 interface Sample {
