@@ -114,7 +114,9 @@ it('marks the eight corners on a photo, shows the estimate and verdict, saves it
   await board.goto(`${server.url}/guilds/${g.guildId}/swaps/${swapId}/board`);
   await board.getByText('Live: changes appear by themselves.').waitFor();
   await board.evaluate(() => ((window as unknown as { stayedOpen: boolean }).stayedOpen = true));
-  expect(await board.getByText('📷 likely short').count()).toBe(0);
+  // The board's camera mark: the drawn camera and the estimate's word.
+  const cameraMark = board.locator('li span', { has: board.locator('svg'), hasText: 'likely short' });
+  expect(await cameraMark.count()).toBe(0);
 
   await page.getByRole('button', { name: 'Save this estimate' }).click();
   await page.getByText('✓ Saved.').waitFor();
@@ -129,7 +131,7 @@ it('marks the eight corners on a photo, shows the estimate and verdict, saves it
     .getByTitle(/^Block 1: .*photo estimate likely short/)
     .first()
     .waitFor({ timeout: 5000 });
-  await board.getByText('📷 likely short').first().waitFor();
+  await cameraMark.first().waitFor();
   expect(await board.evaluate(() => (window as unknown as { stayedOpen?: boolean }).stayedOpen)).toBe(true);
 });
 

@@ -1,6 +1,7 @@
 import type { RosterBlockDto } from '@shared/swap-types';
 import { VERDICT_LABELS, blockStateLabels, likelyVerdict } from '@shared/vocabulary';
 import { verdictTone } from '@/entities/block/components/verdict-badge';
+import { CameraGlyph } from '@/components/ui/camera-glyph';
 
 // A photo estimate is an early warning: shown with its own camera mark until a ruler verdict exists.
 const estimateOf = (block: RosterBlockDto) => (block.verdict ? null : block.photoEstimate);
@@ -30,7 +31,8 @@ export function BlockMarkers({ blocks }: { blocks: RosterBlockDto[] }) {
                 aria-hidden="true"
                 className={`ml-0.5 border-l border-walnut/25 pl-1 font-semibold ${verdictTone(estimate.verdict).text}`}
               >
-                📷 {likelyVerdict(estimate.verdict, true)}
+                <CameraGlyph className="mr-0.5" />
+                {likelyVerdict(estimate.verdict, true)}
               </span>
             )}
           </li>

@@ -18,6 +18,7 @@ import { invalidateSwapData } from '@/entities/block/api/block-keys';
 import { MeasureForm } from './measure-form';
 import { BlockStateText } from './state-badge';
 import { NoVerdict, VerdictBadge } from '@/entities/block/components/verdict-badge';
+import { CameraGlyph } from '@/components/ui/camera-glyph';
 
 // Photo estimates are taken from sign-up until the return is confirmed.
 const ESTIMATING = ['signup', 'sewing', 'collecting', 'sorting'];
@@ -111,7 +112,8 @@ export function MyBlockCard({ swap, block }: { swap: SwapDto; block: BlockDto })
                 className="inline-flex min-h-11 items-center font-semibold text-indigo underline underline-offset-4"
                 to={paths.photoMeasure(swap.guildId, swap.id, block.id, p.id)}
               >
-                <span aria-hidden="true">📷&nbsp;</span>Measure from {block.photos.length > 1 ? `photo ${i + 1}` : 'this photo'}
+                <CameraGlyph className="mr-1.5" />
+                Measure from {block.photos.length > 1 ? `photo ${i + 1}` : 'this photo'}
               </Link>
             ))}
           </p>

@@ -24,6 +24,7 @@ import { MeasureForm } from './measure-form';
 import { sizeText } from '@/lib/lengths';
 import { BlockStateText } from './state-badge';
 import { NoVerdict, VerdictBadge } from '@/entities/block/components/verdict-badge';
+import { CameraGlyph } from '@/components/ui/camera-glyph';
 
 const MEASURABLE = ['received', 'measured'];
 
@@ -117,7 +118,8 @@ function BlockLine({ swap, maker, block }: { swap: SwapDto; maker: string; block
                 className="inline-flex min-h-11 items-center font-semibold text-indigo underline underline-offset-4"
                 to={paths.photoMeasure(swap.guildId, swap.id, block.id, p.id)}
               >
-                <span aria-hidden="true">📷&nbsp;</span>Measure from {block.photos.length > 1 ? `photo ${i + 1}` : 'this photo'}
+                <CameraGlyph className="mr-1.5" />
+                Measure from {block.photos.length > 1 ? `photo ${i + 1}` : 'this photo'}
                 <span className="sr-only">
                   {' '}
                   (block {block.sequence} of {maker})
