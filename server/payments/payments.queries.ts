@@ -82,6 +82,25 @@ export async function guildSettings(db: Db, guildId: number): Promise<GuildPayme
   return rows[0] ?? null;
 }
 
+/** The guild's dues settings with one person's payments of this year's dues (their states, newest first). */
+export interface GuildDuesForRow extends GuildPaymentSettingsRow {
+  mine: Pick<PaymentRow, 'status'>[];
+}
+
+/** Guild $1's dues and person $2's payments of them, in one named statement (a member's dues page and checkout). */
+export async function guildDuesFor(db: Db, guildId: number, userId: number): Promise<GuildDuesForRow | null> {
+  const { rows } = await db.query<GuildDuesForRow>({
+    name: 'guild_dues_for',
+    text: `SELECT g.id, g.name, g.currency, g.dues_amount, g.dues_year,
+              (SELECT coalesce(json_agg(json_build_object('status', p.status) ORDER BY p.created_at DESC, p.id DESC), '[]')
+                 FROM payments p
+                WHERE p.guild_id = g.id AND p.kind = 'dues' AND p.dues_year = g.dues_year AND p.user_id = $2) AS mine
+         FROM guilds g WHERE g.id = $1`,
+    values: [guildId, userId],
+  });
+  return rows[0] ?? null;
+}
+
 /** Everyone's payments for a swap, newest first. */
 export async function paymentsForSwap(db: Db, swapId: number): Promise<PaymentRow[]> {
   const { rows } = await db.query<PaymentRow>(`SELECT * FROM payments WHERE swap_id = $1 ORDER BY created_at DESC, id DESC`, [
@@ -90,11 +109,11 @@ export async function paymentsForSwap(db: Db, swapId: number): Promise<PaymentRo
   return rows;
 }
 
-export async function duesPayments(db: Db, guildId: number, year: number, userId: number | null): Promise<PaymentRow[]> {
+/** Everyone's payments of a year's dues, newest first. */
+export async function duesPayments(db: Db, guildId: number, year: number): Promise<PaymentRow[]> {
   const { rows } = await db.query<PaymentRow>(
-    `SELECT * FROM payments WHERE guild_id = $1 AND kind = 'dues' AND dues_year = $2 AND ($3::int IS NULL OR user_id = $3)
-      ORDER BY created_at DESC, id DESC`,
-    [guildId, year, userId],
+    `SELECT * FROM payments WHERE guild_id = $1 AND kind = 'dues' AND dues_year = $2 ORDER BY created_at DESC, id DESC`,
+    [guildId, year],
   );
   return rows;
 }
@@ -223,10 +242,11 @@ const LIST_FROM = `
 const LIST = `SELECT ${LIST_COLUMNS}${LIST_FROM}`;
 
 export async function listForUser(db: Db, userId: number, sessionId: string | null): Promise<PaymentListRow[]> {
-  const { rows } = await db.query<PaymentListRow>(
-    `${LIST} WHERE p.user_id = $1 AND ($2::text IS NULL OR p.checkout_session_id = $2) ORDER BY p.created_at DESC, p.id DESC LIMIT 500`,
-    [userId, sessionId],
-  );
+  const { rows } = await db.query<PaymentListRow>({
+    name: 'payments_of_user',
+    text: `${LIST} WHERE p.user_id = $1 AND ($2::text IS NULL OR p.checkout_session_id = $2) ORDER BY p.created_at DESC, p.id DESC LIMIT 500`,
+    values: [userId, sessionId],
+  });
   return rows;
 }
 

@@ -91,7 +91,7 @@ export async function swapFees(deps: Deps, swapId: number, userId: number, canMa
 
 /** The guild's dues for its current year and the caller's standing; admins also get every member's. */
 export async function guildDues(deps: Deps, guildId: number, userId: number, isAdmin: boolean): Promise<GuildDuesDto> {
-  const guild = await q.guildSettings(deps.pool, guildId);
+  const guild = await q.guildDuesFor(deps.pool, guildId, userId);
   if (!guild) throw new NotFoundError('That guild does not exist.');
   const dues = guild.dues_amount && guild.dues_year ? { amount: guild.dues_amount, year: guild.dues_year } : null;
   const dto: GuildDuesDto = {
@@ -103,12 +103,9 @@ export async function guildDues(deps: Deps, guildId: number, userId: number, isA
     mine: 'not_owed',
   };
   if (!dues) return dto;
-  dto.mine = standingOf(true, await q.duesPayments(deps.pool, guildId, dues.year, userId));
+  dto.mine = standingOf(true, guild.mine);
   if (isAdmin) {
-    const [members, all] = await Promise.all([
-      q.guildMembers(deps.pool, guildId),
-      q.duesPayments(deps.pool, guildId, dues.year, null),
-    ]);
+    const [members, all] = await Promise.all([q.guildMembers(deps.pool, guildId), q.duesPayments(deps.pool, guildId, dues.year)]);
     dto.members = members.map((m) => ({
       userId: m.user_id,
       displayName: m.display_name,
@@ -264,10 +261,10 @@ export async function startSwapCheckout(
 
 /** Checkout for this year's dues. */
 export async function startDuesCheckout(deps: Deps, guildId: number, userId: number): Promise<{ url: string }> {
-  const guild = await q.guildSettings(deps.pool, guildId);
+  const guild = await q.guildDuesFor(deps.pool, guildId, userId);
   if (!guild) throw new NotFoundError('That guild does not exist.');
   if (!guild.dues_amount || !guild.dues_year) throw new ConflictError('The guild asks for no dues right now.', 'nothing_owed');
-  const standing = standingOf(true, await q.duesPayments(deps.pool, guildId, guild.dues_year, userId));
+  const standing = standingOf(true, guild.mine);
   if (!payable(standing))
     throw new ConflictError(
       `Your ${guild.dues_year} dues are already ${standing === 'paid' ? 'paid' : 'on their way'}.`,
