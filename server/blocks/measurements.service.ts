@@ -8,7 +8,7 @@ import type { MeasurementBody } from '@shared/schemas/blocks';
 import type { BlockDto, MeasurementDto } from '@shared/swap-types';
 import { Block, Measurement, type Swap } from '../db/models';
 import { preparedPoolQuery } from '../db/prepared';
-import { buildFromRow, modelColumns, sqlOnce } from '../db/model-columns';
+import { buildFromRow, modelColumns, personBeside, sqlOnce } from '../db/model-columns';
 import { ConflictError, NotFoundError } from '../http/errors';
 import type { AppDeps } from '../deps';
 import { blockDtosFrom, measurementDto, withMeasurement } from './block-dto';
@@ -201,11 +201,8 @@ const BLOCK_MEASUREMENTS = sqlOnce(
 /** Every measurement of a block, newest first, in one named statement (an officer opening a board row). */
 export async function listMeasurements(deps: Pick<AppDeps, 'pool'>, block: Block): Promise<MeasurementDto[]> {
   const rows = await preparedPoolQuery<Record<string, unknown>>(deps.pool, BLOCK_MEASUREMENTS(), { blockId: block.id });
-  return rows.map(({ 'by.id': id, 'by.displayName': displayName, ...values }) =>
-    measurementDto(
-      Object.assign(buildFromRow(Measurement, values), {
-        measuredBy: id == null ? null : { id: id as number, displayName: displayName as string },
-      }),
-    ),
-  );
+  return rows.map((row) => {
+    const { person, values } = personBeside(row, 'by');
+    return measurementDto(Object.assign(buildFromRow(Measurement, values), { measuredBy: person }));
+  });
 }

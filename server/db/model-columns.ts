@@ -32,3 +32,21 @@ export function sqlOnce(build: () => string): () => string {
   let sql: string | undefined;
   return () => (sql ??= build());
 }
+
+/** Someone named beside a row, as the answers show a person. */
+export interface PersonRef {
+  id: number;
+  displayName: string;
+}
+
+/**
+ * A row read with a person's `"<prefix>.id"` and `"<prefix>.displayName"` beside its own columns (a LEFT
+ * JOIN of users): the person (null when there is none) and the row's own columns apart.
+ */
+export function personBeside(
+  row: Record<string, unknown>,
+  prefix: string,
+): { person: PersonRef | null; values: Record<string, unknown> } {
+  const { [`${prefix}.id`]: id, [`${prefix}.displayName`]: displayName, ...values } = row;
+  return { person: id == null ? null : { id: id as number, displayName: displayName as string }, values };
+}

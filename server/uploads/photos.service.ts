@@ -11,12 +11,12 @@ import type { IncomingPhotoFile } from './photo-pipeline';
 import { commitStagedPhotos, deletePhotos, discardStaged, preparePhotosQueued, stagePhotos, storageOf } from './photo-store';
 import type { StoredObject } from './storage/photo-storage';
 import { preparedPoolQuery } from '../db/prepared';
-import { buildFromRow, modelColumns, sqlOnce } from '../db/model-columns';
+import { buildFromRow, modelColumns, personBeside, sqlOnce, type PersonRef } from '../db/model-columns';
 
 const uploader = { model: User, as: 'uploadedBy', attributes: ['id', 'displayName'] };
 
 /** What a photo's answer is made of: a Photo row, with its uploader's id and name when known. */
-type PhotoFields = Omit<Photo, 'uploadedBy'> & { uploadedBy?: { id: number; displayName: string } | null };
+type PhotoFields = Omit<Photo, 'uploadedBy'> & { uploadedBy?: PersonRef | null };
 
 export function photoDto(photo: PhotoFields): PhotoDto {
   return {
@@ -80,13 +80,10 @@ const BLOCK_PHOTOS = sqlOnce(
 /** A block's photos, oldest first, in one named statement (each block's gallery asks for them). */
 export async function listBlockPhotos(deps: Pick<AppDeps, 'pool'>, blockId: number): Promise<PhotoDto[]> {
   const rows = await preparedPoolQuery<Record<string, unknown>>(deps.pool, BLOCK_PHOTOS(), { blockId });
-  return rows.map(({ 'uploader.id': id, 'uploader.displayName': displayName, ...values }) =>
-    photoDto(
-      Object.assign(buildFromRow(Photo, values), {
-        uploadedBy: id == null ? null : { id: id as number, displayName: displayName as string },
-      }),
-    ),
-  );
+  return rows.map((row) => {
+    const { person, values } = personBeside(row, 'uploader');
+    return photoDto(Object.assign(buildFromRow(Photo, values), { uploadedBy: person }));
+  });
 }
 
 /** The requested size of a photo from the store, or null when its file is missing. */
