@@ -21,7 +21,7 @@ export function notificationsRouter(deps: AppDeps) {
   const secret = deps.config.SESSION_SECRET;
 
   router.get('/me/mail-preferences', requireUser, async (req, res) => {
-    res.json(await notifications.getPreferences(currentUser(req).id));
+    res.json(await notifications.getPreferences(deps, currentUser(req).id));
   });
 
   router.patch(

@@ -18,25 +18,38 @@ import { NotFoundError, ValidationError } from '../http/errors';
 import { verifyUnsubscribeToken } from '../mail/unsubscribe-token';
 import { preferencesOf, setPreferences } from '../mail/preferences';
 import type { AppDeps } from '../deps';
+import { preparedPoolQuery } from '../db/prepared';
 
 const LOG_PAGE_SIZE = 50;
 
-export async function getPreferences(userId: number): Promise<MailPreferencesDto> {
-  const [user, prefs] = await Promise.all([User.findByPk(userId, { attributes: ['email'] }), preferencesOf(userId)]);
-  if (!user) throw new NotFoundError('That account no longer exists.');
+/** Person $userId's address and the categories they chose (no row: the default, on). */
+const MAIL_CHOICES = `SELECT u.email,
+         coalesce((SELECT json_object_agg(p.category, p.enabled) FROM mail_preferences p WHERE p.user_id = u.id), '{}') AS chosen
+    FROM users u WHERE u.id = $userId`;
+
+/** The caller's mail choices, every category with its default where they chose nothing, in one named statement. */
+export async function getPreferences(deps: Pick<AppDeps, 'pool'>, userId: number): Promise<MailPreferencesDto> {
+  const [row] = await preparedPoolQuery<{ email: string; chosen: Partial<Record<string, boolean>> }>(deps.pool, MAIL_CHOICES, {
+    userId,
+  });
+  if (!row) throw new NotFoundError('That account no longer exists.');
   return {
-    email: user.email,
-    categories: mailCategories.map((category) => ({ category, ...mailCategoryInfo[category], enabled: prefs[category] })),
+    email: row.email,
+    categories: mailCategories.map((category) => ({
+      category,
+      ...mailCategoryInfo[category],
+      enabled: row.chosen[category] ?? true,
+    })),
   };
 }
 
 export async function updatePreferences(
-  deps: Pick<AppDeps, 'sequelize'>,
+  deps: Pick<AppDeps, 'sequelize' | 'pool'>,
   userId: number,
   changes: Partial<Record<MailCategory, boolean>>,
 ) {
   await setPreferences(deps, userId, changes);
-  return getPreferences(userId);
+  return getPreferences(deps, userId);
 }
 
 /** "m•••••@example.org": enough to recognise, not enough to harvest from a forwarded link. */

@@ -133,7 +133,7 @@ describe('SQL round trips per request', () => {
     expect(statements.length, shown(statements)).toBe(1);
   });
 
-  it('a member’s pages (guild, sew days, chat, photos, a block’s gallery and measurements, fees, dues, payments, the design wall, a swap’s timeline) take one to three statements, all named', async () => {
+  it('a member’s pages (guild, sew days, chat, photos, a block’s gallery and measurements, fees, dues, payments, mail choices, the design wall, a swap’s timeline) take one to three statements, all named', async () => {
     const { swap } = await sewingSwap(app, roles, { pledges: [2, 2] });
     const [block] = await myBlocks(roles.member.agent, swap.id);
     const upload = await roles.member.agent
@@ -185,6 +185,11 @@ describe('SQL round trips per request', () => {
       [`/api/swaps/${swap.id}/fees`, (body: { mine: unknown[] }) => Array.isArray(body.mine)],
       [`/api/guilds/${roles.guildId}/dues`, (body: { mine: string }) => typeof body.mine === 'string'],
       ['/api/me/payments', (body: unknown[]) => Array.isArray(body)],
+      [
+        '/api/me/mail-preferences',
+        (body: { email: string; categories: { enabled: boolean }[] }) =>
+          body.email === roles.member.email && body.categories.every((c) => c.enabled),
+      ],
       // The policy's row, then the placeable blocks and the saved layout side by side.
       [`/api/swaps/${swap.id}/design`, (body: { blocks: unknown[] }) => body.blocks.length === 2],
     ];
@@ -197,11 +202,11 @@ describe('SQL round trips per request', () => {
       const { result, statements, named } = await statementsOf(() => roles.member.agent.get(path));
       expect(result.status, path).toBe(200);
       expect(check(result.body as never), `${path}: ${JSON.stringify(result.body)}`).toBe(true);
-      // The guild list and one's payments need no policy, a photo and a swap's state changes are read with
+      // The guild list, one's payments and mail choices need no policy, a photo and a swap's state changes are read with
       // it: one statement.
       // The others: the policy's row with the role, then the page (the design wall: its two reads at once).
       const oneTrip =
-        path === '/api/guilds' || path === '/api/me/payments' || path.startsWith('/api/photos/') || path.endsWith('/transitions');
+        path === '/api/guilds' || path.startsWith('/api/me/') || path.startsWith('/api/photos/') || path.endsWith('/transitions');
       expect(statements.length, `${path}\n${shown(statements)}`).toBe(oneTrip ? 1 : path.endsWith('/design') ? 3 : 2);
       // Named, or prepared statements executed in one message (oneTripRead): none planned anew.
       const prepared = statements.filter((sql) => /^\s*(?:PREPARE|EXECUTE) /.test(sql)).length;
