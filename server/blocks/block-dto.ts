@@ -3,7 +3,7 @@ import type { Transaction } from 'sequelize';
 import type { BlockDto, MeasurementDto, PhotoRefDto } from '@shared/swap-types';
 import type { VerdictsVisibleTo } from '@shared/schemas/guilds';
 import type { Block, Measurement, Swap } from '../db/models';
-import { preparedPoolQuery, preparedQuery } from '../db/prepared';
+import { preparedQuery } from '../db/prepared';
 import type { AppDeps } from '../deps';
 import { photoRef } from './photo-refs';
 import { LATEST_ESTIMATES, NEWEST_ESTIMATE_FIRST, latestEstimateDtos, type LatestEstimateRow } from './latest-estimate';
@@ -127,9 +127,7 @@ export function relatedBind(blocks: Pick<Block, 'id' | 'makerId' | 'recipientId'
 /** Reads the blocks' related rows: inside a transaction on its connection, outside one on the plain pool; named either way. */
 async function relatedRows(deps: BlockReadDeps, blocks: Block[], transaction?: Transaction): Promise<RelatedJson> {
   const bind = relatedBind(blocks);
-  const [row] = transaction
-    ? await preparedQuery<RelatedJson>(deps.sequelize, relatedSql(), bind, transaction)
-    : await preparedPoolQuery<RelatedJson>(deps.pool, relatedSql(), bind);
+  const [row] = await preparedQuery<RelatedJson>(deps.pool, relatedSql(), bind, transaction);
   return row!;
 }
 

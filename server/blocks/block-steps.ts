@@ -107,7 +107,6 @@ export async function acceptByDecision(
   if (isAccepted(block))
     throw new ConflictError('This block is accepted already; there is nothing to decide.', 'already_accepted');
   await applyStep(
-    deps.sequelize,
     transaction,
     block,
     { acceptedAt: new Date(), acceptedById: actorId, acceptedReason: input.reason },

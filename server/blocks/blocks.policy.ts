@@ -4,7 +4,7 @@
  * with the ruler and trim it; both may read it.
  */
 import type pg from 'pg';
-import type { Sequelize, Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import type { Role } from '@shared/schemas/guilds';
 import type { Block, Swap } from '../db/models';
 import { assertGuildRole } from '../guilds/guilds.policy';
@@ -23,24 +23,21 @@ export interface BlockAccess extends SwapAccess {
  * request is about to make, and the service works on the instance read here.
  */
 export interface BlockRead {
-  db: Sequelize;
-  /** where a read outside a transaction runs, as a named statement */
   pool: pg.Pool;
   transaction?: Transaction;
 }
 
 /** The block with its swap and the caller's role in the swap's guild, in one query. */
 async function loadBlock(
-  { db, pool, transaction }: BlockRead,
+  { pool, transaction }: BlockRead,
   userId: number,
   blockId: number,
 ): Promise<{ block: Block; swap: Swap; role: Role | null }> {
-  const found = await findBlockWithSwap(db, blockId, {
+  const found = await findBlockWithSwap(pool, blockId, {
     extraSwapColumns: `${viewerRole('s')} AS "swap.viewerRole"`,
     bind: { viewerId: userId },
     transaction,
     lockForChange: !!transaction,
-    pool,
   });
   if (!found) throw new NotFoundError('That block does not exist.');
   return { ...found, role: takeViewerRole(found.swap) };

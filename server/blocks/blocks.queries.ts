@@ -23,25 +23,14 @@ const columns = sqlOnce(() => `${modelColumns(Block, 'b')}, ${modelColumns(Swap,
  * block but lets rows that merely reference it (a measurement, a step, a photo) be inserted meanwhile.
  */
 export async function findBlockWithSwap(
-  db: Sequelize,
+  pool: pg.Pool,
   blockId: number,
-  options: {
-    extraSwapColumns?: string;
-    bind?: Record<string, unknown>;
-    transaction?: Transaction;
-    lockForChange?: boolean;
-    /** outside a transaction, the statement is named on this pool rather than planned anew by Sequelize */
-    pool?: pg.Pool;
-  } = {},
+  options: { extraSwapColumns?: string; bind?: Record<string, unknown>; transaction?: Transaction; lockForChange?: boolean } = {},
 ): Promise<{ block: Block; swap: Swap } | null> {
   const sql = `SELECT ${columns()}${options.extraSwapColumns ? `, ${options.extraSwapColumns}` : ''}
                  FROM blocks b JOIN swaps s ON s.id = b.swap_id
                 WHERE b.id = $blockId${options.lockForChange ? ' FOR NO KEY UPDATE OF b' : ''}`;
-  const bind = { ...options.bind, blockId };
-  const [row] =
-    !options.transaction && options.pool
-      ? await preparedPoolQuery<Record<string, unknown>>(options.pool, sql, bind)
-      : await preparedQuery<Record<string, unknown>>(db, sql, bind, options.transaction);
+  const [row] = await preparedQuery<Record<string, unknown>>(pool, sql, { ...options.bind, blockId }, options.transaction);
   if (!row) return null;
   const { block, swap } = instancesFrom(row);
   return { block, swap };

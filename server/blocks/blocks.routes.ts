@@ -32,7 +32,7 @@ export function blocksRouter(deps: AppDeps) {
   const as =
     (policy: BlockPolicy) =>
     (req: Request, { params, transaction }: BlockInput) =>
-      policy({ db, pool: deps.pool, transaction }, currentUser(req).id, params.blockId);
+      policy({ pool: deps.pool, transaction }, currentUser(req).id, params.blockId);
   const locked = (access: BlockAccess, transaction: Transaction) => ({ block: access.block, swap: access.swap, transaction });
   /** A change to one block: the policy's read is the locked read, and the answer is sent after commit. */
   const change = <B extends ZodType | undefined>(body: B, policy: BlockPolicy) => ({

@@ -28,12 +28,8 @@ export interface LockedBlock {
 }
 
 /** The block, locked for a change of its state, and its swap, in one query (for changes outside a block route). */
-export async function lockedBlock(
-  deps: Pick<AppDeps, 'sequelize'>,
-  blockId: number,
-  transaction: Transaction,
-): Promise<LockedBlock> {
-  const found = await findBlockWithSwap(deps.sequelize, blockId, { transaction, lockForChange: true });
+export async function lockedBlock(deps: Pick<AppDeps, 'pool'>, blockId: number, transaction: Transaction): Promise<LockedBlock> {
+  const found = await findBlockWithSwap(deps.pool, blockId, { transaction, lockForChange: true });
   if (!found) throw new NotFoundError('That block does not exist.');
   return { ...found, transaction };
 }
@@ -79,7 +75,7 @@ export async function markBlockSewn(deps: Deps, locked: LockedBlock, actorId: nu
   const { block, swap, transaction } = locked;
   assertSwapIn(swap, ['signup', 'sewing', 'collecting'], 'marked sewn');
   if (block.state !== 'pledged') return undefined;
-  await applyStep(deps.sequelize, transaction, block, { state: 'sewn', sewnAt: new Date() }, { action: 'sewn', byId: actorId });
+  await applyStep(transaction, block, { state: 'sewn', sewnAt: new Date() }, { action: 'sewn', byId: actorId });
   return blockChanged(deps, locked, actorId, 'pledged');
 }
 
@@ -103,7 +99,6 @@ export async function handInLocked(
   const from = block.state;
   const now = new Date();
   await applyStep(
-    deps.sequelize,
     transaction,
     block,
     {
@@ -141,7 +136,6 @@ export function receive(deps: Deps, locked: LockedBlock, actorId: number, client
       const from = block.state;
       const now = new Date();
       await applyStep(
-        deps.sequelize,
         transaction,
         block,
         { state: 'received', receivedAt: now, receivedById: actorId, sewnAt: block.sewnAt ?? now },
@@ -162,13 +156,7 @@ export async function markTrimmed(deps: Deps, locked: LockedBlock, actorId: numb
     throw new ConflictError('Only a measured block with the verdict “Trim to size” can be marked trimmed.', 'not_trim');
   }
   if (block.trimmed) return answer(deps, locked);
-  await applyStep(
-    deps.sequelize,
-    transaction,
-    block,
-    { trimmed: true, trimmedAt: new Date() },
-    { action: 'trimmed', byId: actorId },
-  );
+  await applyStep(transaction, block, { trimmed: true, trimmedAt: new Date() }, { action: 'trimmed', byId: actorId });
   return answer(deps, locked, blockChanged(deps, locked, actorId, 'measured'));
 }
 

@@ -1,7 +1,7 @@
 /** The record of steps taken on a block, with the columns just before each, so a step can be undone. */
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { Block } from '../db/models';
-import { preparedQuery } from '../db/prepared';
+import { transactionQuery } from '../db/prepared';
 
 export type StepAction = 'sewn' | 'handed_in' | 'received' | 'measured' | 'trimmed' | 'accepted';
 
@@ -83,13 +83,12 @@ export function stepCtes(
  * one statement. The instance is changed to match, so the answer is built without reading it again.
  */
 export async function applyStep(
-  db: Sequelize,
   transaction: Transaction,
   block: Block,
   changes: Partial<Record<(typeof RESTORED)[number], unknown>>,
   step: Omit<Step, 'blockId' | 'before'>,
 ): Promise<void> {
   const { sql, bind } = stepCtes(block, changes, step);
-  await preparedQuery(db, `WITH ${sql} SELECT 1`, { ...bind, measurementId: step.measurementId ?? null }, transaction);
+  await transactionQuery(transaction, `WITH ${sql} SELECT 1`, { ...bind, measurementId: step.measurementId ?? null });
   block.set(changes as never, { raw: true });
 }

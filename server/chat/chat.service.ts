@@ -12,7 +12,7 @@ import { commitStagedPhotos, deletePhotos, discardStaged, preparePhotosQueued, s
 import type { IncomingPhotoFile } from '../uploads/photo-pipeline';
 import type { AppDeps } from '../deps';
 import { authorInclude, messageDto, messageRowDto, photoDto, type MessageRow } from './chat-dto';
-import { preparedPoolQuery, preparedQuery, tripStatement } from '../db/prepared';
+import { preparedPoolQuery, transactionQuery, tripStatement } from '../db/prepared';
 import { oneTripTransaction } from '../db/one-trip';
 import { HISTORY_PAGE, LOCK_SENDER, POST_WITHIN_LIMIT } from './chat.queries';
 import { authorizeRoom, type RoomAccess } from './chat.policy';
@@ -96,8 +96,8 @@ export async function postMessage(
   const message = await (
     staged.length
       ? deps.sequelize.transaction(async (transaction) => {
-          await preparedQuery(deps.sequelize, LOCK_SENDER, { authorId }, transaction);
-          const [row] = await preparedQuery<PostedRow>(deps.sequelize, POST_WITHIN_LIMIT, post, transaction);
+          await transactionQuery(transaction, LOCK_SENDER, { authorId });
+          const [row] = await transactionQuery<PostedRow>(transaction, POST_WITHIN_LIMIT, post);
           const id = refusedOrPosted(row);
           const photos = await commitStagedPhotos(deps, {
             staged,

@@ -1,12 +1,12 @@
 /**
- * Hand-written statements run as named (prepared) statements on a transaction's own connection.
- * PostgreSQL then plans each once per connection instead of on every request: on the measurement
+ * Hand-written statements run as named (prepared) statements, on a transaction's own connection or on
+ * the plain pool. PostgreSQL then plans each once per connection instead of on every request: on the measurement
  * path, planning the block's locked read, its step and its answer's related rows cost more database
  * time than running them (pg_stat_statements under the API bench, docs/benchmarks.md).
  */
 import { createHash } from 'node:crypto';
 import type pg from 'pg';
-import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import type { TripStatement, TripValue } from './one-trip';
 
 interface Statement {
@@ -34,22 +34,30 @@ function statementFor(sql: string): Statement {
   return statement;
 }
 
-/**
- * Runs `sql` (with `$name` parameters from `bind`) and returns its rows. Inside a transaction it is a
- * named statement on the transaction's connection; outside one, an ordinary Sequelize query.
- */
-export async function preparedQuery<T extends object>(
-  db: Sequelize,
+/** Runs `sql` (with `$name` parameters from `bind`) as a named statement on the transaction's own connection. */
+export async function transactionQuery<T extends object>(
+  transaction: Transaction,
   sql: string,
   bind: Record<string, unknown>,
-  transaction?: Transaction,
 ): Promise<T[]> {
-  if (!transaction) return db.query<T>(sql, { bind, type: QueryTypes.SELECT });
   const { name, text, params } = statementFor(sql);
   // Sequelize keeps the transaction's pg client on it; it parses column types as Sequelize's queries do.
   const { connection } = transaction as unknown as { connection: pg.ClientBase };
   const result = await connection.query<T>({ name, text, values: params.map((param) => bind[param]) });
   return result.rows;
+}
+
+/**
+ * Runs `sql` (with `$name` parameters from `bind`) as a named statement either way: on the transaction's
+ * own connection inside one, on the plain pool outside one.
+ */
+export function preparedQuery<T extends object>(
+  pool: pg.Pool,
+  sql: string,
+  bind: Record<string, unknown>,
+  transaction?: Transaction,
+): Promise<T[]> {
+  return transaction ? transactionQuery<T>(transaction, sql, bind) : preparedPoolQuery<T>(pool, sql, bind);
 }
 
 /**

@@ -16,8 +16,7 @@ export function photoEstimatesRouter(deps: AppDeps) {
     route(
       {
         params: estimateParamsSchema,
-        authorize: (req, { params }) =>
-          canSeeEstimates({ db: deps.sequelize, pool: deps.pool }, currentUser(req).id, params.blockId),
+        authorize: (req, { params }) => canSeeEstimates(deps, currentUser(req).id, params.blockId),
       },
       async ({ access }, _req, res) => {
         res.json(await listEstimates(access));
@@ -33,8 +32,7 @@ export function photoEstimatesRouter(deps: AppDeps) {
       {
         params: estimateParamsSchema,
         body: photoEstimateBodySchema,
-        authorize: (req, { params }) =>
-          canEstimateBlock({ db: deps.sequelize, pool: deps.pool }, currentUser(req).id, params.blockId),
+        authorize: (req, { params }) => canEstimateBlock(deps, currentUser(req).id, params.blockId),
       },
       async ({ body, access }, req, res) => {
         res.status(201).json(await recordEstimate(deps, access, currentUser(req).id, body));

@@ -19,7 +19,7 @@ export function photosRouter(deps: AppDeps) {
     '/blocks/:blockId/photos',
     requireUser,
     route(
-      { params: blockPhotosParams, authorize: (req, { params }) => canSeeBlockPhotos({ db: deps.sequelize, pool: deps.pool }, currentUser(req).id, params.blockId) },
+      { params: blockPhotosParams, authorize: (req, { params }) => canSeeBlockPhotos(deps, currentUser(req).id, params.blockId) },
       async ({ params }, _req, res) => {
         res.json(await listBlockPhotos(deps, params.blockId));
       },
@@ -34,7 +34,7 @@ export function photosRouter(deps: AppDeps) {
       {
         params: blockPhotosParams,
         authorize: async (req, { params }) => {
-          const access = await canAddBlockPhotos({ db: deps.sequelize, pool: deps.pool }, currentUser(req).id, params.blockId);
+          const access = await canAddBlockPhotos(deps, currentUser(req).id, params.blockId);
           // A full photo queue refuses before the body is read, so a busy server spends nothing on it.
           photoQueue(deps.config).assertRoom();
           return access;
