@@ -1,16 +1,8 @@
 /** Reading and writing people's mail choices. No row means the default: every kind of mail is on. */
 import { Op } from 'sequelize';
-import { mailCategories, mailCategoryInfo, type AnyMailCategory, type MailCategory } from '@shared/schemas/notifications';
+import { mailCategoryInfo, type AnyMailCategory, type MailCategory } from '@shared/schemas/notifications';
 import { MailPreference } from '../db/models';
 import type { AppDeps } from '../deps';
-
-/** Each category's on/off for one person. */
-export async function preferencesOf(userId: number): Promise<Record<MailCategory, boolean>> {
-  const rows = await MailPreference.findAll({ where: { userId } });
-  const result = Object.fromEntries(mailCategories.map((c) => [c, true])) as Record<MailCategory, boolean>;
-  for (const row of rows) if (mailCategories.includes(row.category)) result[row.category] = row.enabled;
-  return result;
-}
 
 /** Sets some categories on or off for one person (upsert per category). */
 export async function setPreferences(

@@ -44,7 +44,7 @@ export function notificationsRouter(deps: AppDeps) {
   router.get(
     '/unsubscribe/info',
     route({ query: unsubscribeQuerySchema }, async ({ query }, _req, res) => {
-      res.json(await notifications.unsubscribeInfo(secret, query.token));
+      res.json(await notifications.unsubscribeInfo(deps, secret, query.token));
     }),
   );
 

@@ -16,7 +16,7 @@ import type { z } from 'zod';
 import { MailMessage, User } from '../db/models';
 import { NotFoundError, ValidationError } from '../http/errors';
 import { verifyUnsubscribeToken } from '../mail/unsubscribe-token';
-import { preferencesOf, setPreferences } from '../mail/preferences';
+import { setPreferences } from '../mail/preferences';
 import type { AppDeps } from '../deps';
 import { preparedPoolQuery } from '../db/prepared';
 
@@ -27,18 +27,29 @@ const MAIL_CHOICES = `SELECT u.email,
          coalesce((SELECT json_object_agg(p.category, p.enabled) FROM mail_preferences p WHERE p.user_id = u.id), '{}') AS chosen
     FROM users u WHERE u.id = $userId`;
 
-/** The caller's mail choices, every category with its default where they chose nothing, in one named statement. */
-export async function getPreferences(deps: Pick<AppDeps, 'pool'>, userId: number): Promise<MailPreferencesDto> {
+/** A person's address and each category on or off (the default, on, where they chose nothing); null without the account. */
+async function mailChoicesOf(
+  deps: Pick<AppDeps, 'pool'>,
+  userId: number,
+): Promise<{ email: string; enabled: Record<MailCategory, boolean> } | null> {
   const [row] = await preparedPoolQuery<{ email: string; chosen: Partial<Record<string, boolean>> }>(deps.pool, MAIL_CHOICES, {
     userId,
   });
-  if (!row) throw new NotFoundError('That account no longer exists.');
+  if (!row) return null;
+  const enabled = Object.fromEntries(mailCategories.map((c) => [c, row.chosen[c] ?? true])) as Record<MailCategory, boolean>;
+  return { email: row.email, enabled };
+}
+
+/** The caller's mail choices, in one named statement. */
+export async function getPreferences(deps: Pick<AppDeps, 'pool'>, userId: number): Promise<MailPreferencesDto> {
+  const choices = await mailChoicesOf(deps, userId);
+  if (!choices) throw new NotFoundError('That account no longer exists.');
   return {
-    email: row.email,
+    email: choices.email,
     categories: mailCategories.map((category) => ({
       category,
       ...mailCategoryInfo[category],
-      enabled: row.chosen[category] ?? true,
+      enabled: choices.enabled[category],
     })),
   };
 }
@@ -70,17 +81,16 @@ function tokenOrThrow(secret: string, token: string) {
 }
 
 /** What an unsubscribe link is about, for its confirmation page. */
-export async function unsubscribeInfo(secret: string, token: string): Promise<UnsubscribeInfoDto> {
+export async function unsubscribeInfo(deps: Pick<AppDeps, 'pool'>, secret: string, token: string): Promise<UnsubscribeInfoDto> {
   const { userId, category } = tokenOrThrow(secret, token);
-  const user = await User.findByPk(userId, { attributes: ['email'] });
-  if (!user) throw new NotFoundError('The account this link was sent to no longer exists.');
-  const prefs = await preferencesOf(userId);
-  return { category, ...mailCategoryInfo[category], enabled: prefs[category], emailHint: emailHint(user.email) };
+  const choices = await mailChoicesOf(deps, userId);
+  if (!choices) throw new NotFoundError('The account this link was sent to no longer exists.');
+  return { category, ...mailCategoryInfo[category], enabled: choices.enabled[category], emailHint: emailHint(choices.email) };
 }
 
 /** Switches the link's category off (or back on); the token alone is the authority. */
 export async function applyUnsubscribe(
-  deps: Pick<AppDeps, 'sequelize'>,
+  deps: Pick<AppDeps, 'sequelize' | 'pool'>,
   secret: string,
   token: string,
   enabled: boolean,
@@ -89,7 +99,7 @@ export async function applyUnsubscribe(
   if (!(await User.findByPk(userId, { attributes: ['id'] })))
     throw new NotFoundError('The account this link was sent to no longer exists.');
   await setPreferences(deps, userId, { [category]: enabled });
-  return unsubscribeInfo(secret, token);
+  return unsubscribeInfo(deps, secret, token);
 }
 
 type LogQuery = z.output<typeof mailLogQuerySchema>;
