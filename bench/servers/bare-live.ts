@@ -1,9 +1,9 @@
 /**
  * The reference for the burst benchmark: plain Express 5, one pg pool and socket.io on one node, no
  * session, no checks, no logging. A measurement is the API reference's single INSERT; the board's
- * changes are coalesced by the app's rule (the first after a quiet spell at once, the rest together
- * once 50 ms have passed since the last went out), each read with one query of the touched blocks' rows
- * and numbered in memory. It is what the burst's latency would be with none of the app's work: what
+ * changes are paced by the app's own code (server/board/change-pacing.ts: the first after a quiet spell
+ * at once, the rest together, at most one each 50 ms), each read with one query of the touched blocks'
+ * rows and numbered in memory. It is what the burst's latency would be with none of the app's work: what
  * this machine allows under the same load. Run as its own process: DATABASE_URL and PORT from the
  * environment. With BARE_MESSAGE=app each change carries what the app's message carries (every touched
  * maker's whole row with each block, the totals, named activity lines), still read with one query: the
@@ -17,6 +17,7 @@ import type { BoardChange } from '../../shared/live-events';
 import type { BlockState, SwapMode, SwapState } from '../../shared/schemas/swaps';
 import { blockStateRank, blockStates } from '../../shared/vocabulary';
 import { BARE_MEASURE_SQL } from './bare-queries';
+import { paceChanges } from '../../server/board/change-pacing';
 
 const INTERVAL_MS = 50;
 const CHANGED_BLOCKS_SQL = `SELECT id, maker_id, sequence, state, verdict, trimmed FROM blocks WHERE id = ANY($1::int[])`;
@@ -53,7 +54,6 @@ const io = new Server(server);
 
 const versions = new Map<number, number>();
 const queues = new Map<number, Line[]>();
-const sentAt = new Map<number, number>();
 const room = (swapId: number) => `board:${swapId}`;
 
 io.on('connection', (socket) => {
@@ -73,18 +73,16 @@ function push(swapId: number, line: Line) {
   void drain(swapId);
 }
 
-async function drain(swapId: number) {
-  for (;;) {
-    const wait = (sentAt.get(swapId) ?? -Infinity) + INTERVAL_MS - performance.now();
-    await new Promise((r) => (wait > 0 ? setTimeout(r, wait) : setImmediate(r)));
-    const batch = queues.get(swapId)!.splice(0);
-    if (batch.length === 0) break;
-    const at = new Date().toISOString();
-    io.to(room(swapId)).emit('board:changed', await changeFor(swapId, batch, at));
-    sentAt.set(swapId, performance.now());
-  }
-  queues.delete(swapId);
-  sentAt.delete(swapId);
+function drain(swapId: number) {
+  return paceChanges<Line[], object>(INTERVAL_MS, {
+    take: () => {
+      const batch = queues.get(swapId)!.splice(0);
+      return batch.length > 0 ? batch : null;
+    },
+    read: (batch) => changeFor(swapId, batch, new Date().toISOString()),
+    send: (change) => io.to(room(swapId)).emit('board:changed', change),
+    stopped: () => queues.delete(swapId),
+  });
 }
 
 function nextVersion(swapId: number) {

@@ -13,6 +13,7 @@ import { boardOfficersRoom, boardRoom, boardViewerRoom } from '../live/rooms';
 import { swapColumns } from '../swaps/swaps.queries';
 import { activitiesForMember, rosterForMember } from '../blocks/verdict-visibility';
 import { buildFromRow } from '../db/model-columns';
+import { paceChanges } from './change-pacing';
 
 const FOREIGN_KEY_VIOLATION = '23503';
 
@@ -48,21 +49,19 @@ export const BOARD_CHANGE_INTERVAL_MS = 50;
 /**
  * Turns committed swap events into board changes. Events of one swap are handled one batch at a time,
  * and a node sends at most one change per swap per `intervalMs`: the first event after a quiet spell
- * goes out at once, and whatever arrives meanwhile waits for the interval to pass and goes out as one
- * change carrying every row it touched (a meeting night's burst of measurements makes a few changes a
- * second, not one per block). Each change takes the next number from the swap's counter in
- * PostgreSQL and holds that row lock while the roster is read, so on every node a higher number
- * always carries a later state.
+ * goes out at once, and whatever arrives meanwhile goes out as one change carrying every row it
+ * touched once the interval has passed, read a little ahead so that it is ready then (change-pacing.ts;
+ * a meeting night's burst of measurements makes a few changes a second, not one per block). Each
+ * change takes the next number from the swap's counter in PostgreSQL and holds that row lock while the
+ * roster is read, so on every node a higher number always carries a later state.
  */
 export class BoardFanout {
   private queues = new Map<number, SwapEvent[]>();
-  /** when each swap's last change went out (performance.now()) */
-  private sentAt = new Map<number, number>();
   /** the swaps' drains under way, which `close` waits for */
   private draining = new Set<Promise<void>>();
 
   /**
-   * @param db the fan-out's own small pool (see `publish`), with the plain pool's settings.
+   * @param db the fan-out's own small pool (see `readChange`), with the plain pool's settings.
    */
   constructor(
     private io: LiveServer,
@@ -94,31 +93,33 @@ export class BoardFanout {
     while (this.draining.size > 0) await Promise.all(this.draining);
   }
 
-  private async drain(swapId: number) {
-    for (;;) {
-      // Let the rest of a burst arrive (at least the rest of this tick) before the batch is taken.
-      const wait = (this.sentAt.get(swapId) ?? -Infinity) + this.intervalMs - performance.now();
-      await new Promise((r) => (wait > 0 ? setTimeout(r, wait) : setImmediate(r)));
-      const batch = this.queues.get(swapId)!.splice(0);
-      if (batch.length === 0) break;
-      await this.publish(swapId, batch).catch((err: unknown) => this.deps.logger.error({ err, swapId }, 'board change not sent'));
-      this.sentAt.set(swapId, performance.now());
-    }
-    this.queues.delete(swapId);
-    this.sentAt.delete(swapId);
+  private drain(swapId: number) {
+    return paceChanges(this.intervalMs, {
+      take: () => {
+        const batch = this.queues.get(swapId)!.splice(0);
+        return batch.length > 0 ? batch : null;
+      },
+      read: (batch) =>
+        this.changeFor(swapId, batch).catch((err: unknown) => {
+          this.deps.logger.error({ err, swapId }, 'board change not sent');
+          return null;
+        }),
+      send: ({ guildId, verdictsVisibleTo, change }) => this.send(guildId, verdictsVisibleTo, change),
+      stopped: () => this.queues.delete(swapId),
+    });
   }
 
-  private async publish(swapId: number, batch: SwapEvent[]) {
+  private async changeFor(swapId: number, batch: SwapEvent[]) {
     const affected = affectedUsers(batch);
     const result = await this.readChange(swapId, batch, affected);
-    if (!result) return;
+    if (!result) return null;
     const change: BoardChange = {
       swapId,
       version: result.version,
       activities: result.activities,
       patch: patchFor(result.roster, affected),
     };
-    this.send(result.swap.guildId, result.verdictsVisibleTo, change);
+    return { guildId: result.swap.guildId, verdictsVisibleTo: result.verdictsVisibleTo, change };
   }
 
   /**

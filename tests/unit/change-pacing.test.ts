@@ -1,0 +1,116 @@
+/**
+ * The board's pacing of one swap's changes (server/board/change-pacing.ts), on fake timers: at most one
+ * change per interval, each event sent once, and under a steady stream with slow reads the changes
+ * still go out about one interval apart (reading only once the interval had passed made the gap the
+ * interval and a read).
+ */
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { paceChanges } from '../../server/board/change-pacing';
+
+const INTERVAL = 50;
+
+/** A swap's queue with events pushed by the test, paced as the board's fan-out paces it. */
+function pacedQueue(readMs: number | (() => number)) {
+  let queue: number[] | null = null;
+  const sent: { at: number; events: number[] }[] = [];
+  let running: Promise<void> | null = null;
+  const push = (event: number) => {
+    if (queue) {
+      queue.push(event);
+      return;
+    }
+    queue = [event];
+    running = paceChanges(INTERVAL, {
+      take: () => {
+        const batch = queue!.splice(0);
+        return batch.length > 0 ? batch : null;
+      },
+      read: async (batch) => {
+        await new Promise((r) => setTimeout(r, typeof readMs === 'number' ? readMs : readMs()));
+        return batch;
+      },
+      send: (events) => sent.push({ at: performance.now(), events }),
+      stopped: () => {
+        queue = null;
+      },
+    });
+  };
+  return { push, sent, isRunning: () => queue !== null, finished: () => running };
+}
+
+const gaps = (sent: { at: number }[]) => sent.slice(1).map((s, i) => s.at - sent[i]!.at);
+
+beforeEach(() => {
+  vi.useFakeTimers({ toFake: ['setTimeout', 'clearTimeout', 'setImmediate', 'performance'] });
+});
+afterEach(() => {
+  vi.useRealTimers();
+});
+
+describe('pacing a swap’s board changes', () => {
+  it('sends the first change at once, then at most one an interval, every event exactly once', async () => {
+    const board = pacedQueue(2);
+    for (let event = 0; event < 100; event++) {
+      board.push(event);
+      await vi.advanceTimersByTimeAsync(4);
+    }
+    await vi.advanceTimersByTimeAsync(500);
+
+    expect(board.sent[0]!.at).toBeLessThanOrEqual(2 + 1); // the read's time, no interval first
+    for (const gap of gaps(board.sent)) expect(gap).toBeGreaterThanOrEqual(INTERVAL);
+    expect(board.sent.flatMap((s) => s.events)).toEqual([...Array(100).keys()]);
+    expect(board.sent.length).toBeLessThanOrEqual(1 + Math.ceil(400 / INTERVAL) + 1);
+    expect(board.isRunning()).toBe(false); // stopped after a quiet interval
+  });
+
+  it('reads ahead, so slow reads under a steady stream still send about one change an interval', async () => {
+    const board = pacedQueue(30);
+    for (let event = 0; event < 200; event++) {
+      board.push(event);
+      await vi.advanceTimersByTimeAsync(5);
+    }
+    await vi.advanceTimersByTimeAsync(500);
+
+    const spacing = gaps(board.sent).sort((a, b) => a - b);
+    expect(spacing[0]).toBeGreaterThanOrEqual(INTERVAL);
+    // Once the reads' time is learned the gap is the interval; the old rule made it 50 + 30 = 80 ms.
+    expect(spacing[Math.floor(spacing.length / 2)]).toBeLessThanOrEqual(INTERVAL + 1);
+    expect(board.sent.flatMap((s) => s.events)).toEqual([...Array(200).keys()]);
+  });
+
+  it('holds an event that comes just after an early empty take until the interval has passed', async () => {
+    // The first read takes 40 ms, so the next batch is taken 20 ms before the interval ends; the next
+    // read is quick, so a change taken at once would go out well within the interval.
+    const reads = [40, 1];
+    const board = pacedQueue(() => reads.shift() ?? 1);
+    board.push(1);
+    await vi.advanceTimersByTimeAsync(41); // sent at 40 ms; the learned read time is 20 ms
+    expect(board.sent).toHaveLength(1);
+    await vi.advanceTimersByTimeAsync(30); // 71 ms: the early take (at 70 ms) found nothing
+    board.push(2);
+    await vi.advanceTimersByTimeAsync(200);
+
+    expect(board.sent.map((s) => s.events)).toEqual([[1], [2]]);
+    expect(board.sent[1]!.at - board.sent[0]!.at).toBeGreaterThanOrEqual(INTERVAL);
+  });
+
+  it('a read with nothing to send still takes its turn, and the pacing goes on', async () => {
+    let reads = 0;
+    const queue: number[] = [];
+    const sent: { at: number; events: number[] }[] = [];
+    const done = paceChanges(INTERVAL, {
+      take: () => (queue.length ? queue.splice(0) : null),
+      read: async (batch) => (++reads === 1 ? null : batch),
+      send: (events) => sent.push({ at: performance.now(), events }),
+      stopped: () => undefined,
+    });
+    queue.push(1);
+    await vi.advanceTimersByTimeAsync(1);
+    queue.push(2);
+    await vi.advanceTimersByTimeAsync(200);
+    await done;
+
+    expect(sent.map((s) => s.events)).toEqual([[2]]);
+    expect(sent[0]!.at).toBeGreaterThanOrEqual(INTERVAL); // the empty read at 0 ms had its interval
+  });
+});
