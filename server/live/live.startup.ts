@@ -1,11 +1,11 @@
 import { Server } from 'socket.io';
-import { createAdapter } from '@socket.io/postgres-adapter';
 import type { FeatureStartup } from '../features';
 import type { AppDeps } from '../deps';
 import type { LiveServer, LiveSocket } from './live-types';
 import { attachLiveAuth, endAtSessionExpiry, socketSessionId } from './live-auth';
 import { Presence } from './presence';
 import { guildPrefix, sessionRoom, userRoom } from './rooms';
+import { liveAdapter } from './live-adapter';
 
 export interface LiveContext {
   io: LiveServer;
@@ -31,9 +31,7 @@ export function liveStartup(parts: LivePart[]): FeatureStartup {
     const io: LiveServer = new Server(server, {
       serveClient: false,
       maxHttpBufferSize: 64 * 1024,
-      adapter: createAdapter(deps.pool, {
-        errorHandler: (err) => deps.logger.warn({ err }, 'socket.io adapter error'),
-      }),
+      adapter: liveAdapter(deps.pool, (err) => deps.logger.warn({ err }, 'socket.io adapter error')),
     });
     attachLiveAuth(io, deps, built);
     const presence = new Presence(io, deps.logger);
