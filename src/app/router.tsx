@@ -1,6 +1,6 @@
 import { createBrowserRouter, Navigate, useParams, type RouteObject } from 'react-router';
 import { AppShell } from './app-shell';
-import { RedirectIfSignedIn, RequireSignedIn } from './guards';
+import { RedirectIfSignedIn, RequireGuildAdmin, RequireSignedIn } from './guards';
 import { RouteError } from './route-error';
 import { Loading } from '@/components/ui/page';
 import { paths } from '@/lib/paths';
@@ -150,17 +150,23 @@ export const routes: RouteObject[] = [
                 lazy: () => import('@/features/guilds/components/members-page').then((m) => ({ Component: m.MembersPage })),
               },
               {
-                path: 'mail',
-                lazy: () =>
-                  import('@/features/notifications/components/mail-log-page').then((m) => ({ Component: m.MailLogPage })),
-              },
-              {
                 path: 'dues',
                 lazy: () => import('@/features/payments/components/dues-page').then((m) => ({ Component: m.DuesPage })),
               },
               {
-                path: 'payments',
-                lazy: () => import('@/features/payments/components/treasurer-page').then((m) => ({ Component: m.TreasurerPage })),
+                element: <RequireGuildAdmin />,
+                children: [
+                  {
+                    path: 'mail',
+                    lazy: () =>
+                      import('@/features/notifications/components/mail-log-page').then((m) => ({ Component: m.MailLogPage })),
+                  },
+                  {
+                    path: 'payments',
+                    lazy: () =>
+                      import('@/features/payments/components/treasurer-page').then((m) => ({ Component: m.TreasurerPage })),
+                  },
+                ],
               },
               {
                 path: 'sew-days',
