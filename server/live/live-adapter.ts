@@ -6,7 +6,7 @@ import { createAdapter } from '@socket.io/postgres-adapter';
  * bytes or more ("payload string too long"; the limit is BLCKSZ − NAMEDATALEN − 128 in a default
  * build), but the adapter's own threshold sends one of exactly 8,000 inline, and that message never
  * reached the other nodes. Anything larger goes through socket_io_attachments. (A known bug upstream,
- * socketio/socket.io-postgres-adapter#17, fixed after 0.5.0.)
+ * socketio/socket.io-postgres-adapter#17; 0.5.0, the latest release, still sends it inline.)
  */
 export const NOTIFY_PAYLOAD_MAX_BYTES = 7_999;
 
