@@ -104,7 +104,13 @@ export class BoardFanout {
           this.deps.logger.error({ err, swapId }, 'board change not sent');
           return null;
         }),
-      send: ({ guildId, verdictsVisibleTo, change }) => this.send(guildId, verdictsVisibleTo, change),
+      send: ({ guildId, verdictsVisibleTo, change }) => {
+        try {
+          this.send(guildId, verdictsVisibleTo, change);
+        } catch (err) {
+          this.deps.logger.error({ err, swapId }, 'board change not sent');
+        }
+      },
       stopped: () => this.queues.delete(swapId),
     });
   }

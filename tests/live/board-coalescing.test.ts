@@ -157,4 +157,39 @@ describe('board fan-out under a burst', () => {
     // One message per change for the other nodes, whoever watches here.
     expect(published).toHaveLength(3);
   });
+
+  it('logs a change whose sending failed and goes on sending the swap’s later changes', async () => {
+    const { swap, makers } = await sewingSwap(app, roles, { pledges: [2] });
+    await move(roles.coordinator.agent, swap.id, 'collecting');
+    const blocks = await myBlocks(makers[0]!.agent, swap.id);
+    for (const b of blocks) await roles.coordinator.agent.post(`/api/blocks/${b.id}/received`).send({}).expect(200);
+
+    const { io, sent } = recordingIo();
+    let failures = 0;
+    const sendOnce = io.local.to.bind(io.local);
+    // The first change's copy for the officers throws, as a broken socket layer would.
+    (io.local as { to: typeof io.local.to }).to = (room: string) => {
+      if (room.includes(':board-officers:') && failures++ === 0) throw new Error('the socket layer failed');
+      return sendOnce(room);
+    };
+    const errors: unknown[] = [];
+    const logger = Object.assign(Object.create(app.deps.logger) as typeof app.deps.logger, {
+      error: (...args: unknown[]) => void errors.push(args),
+    });
+    const fanout = new BoardFanout(io, { ...app.deps, logger }, app.deps.pool);
+    app.deps.events.onAny((name, payload) => {
+      if ((payload as { swapId?: unknown }).swapId === swap.id) fanout.push({ name, payload } as SwapEvent);
+    });
+
+    for (const b of blocks) {
+      await roles.coordinator.agent
+        .post(`/api/blocks/${b.id}/measurements`)
+        .send({ width: '9 1/2', height: '9 1/2' })
+        .expect(201);
+      await new Promise((r) => setTimeout(r, 2 * BOARD_CHANGE_INTERVAL_MS));
+    }
+    await expect.poll(() => sent.length, { timeout: 5_000 }).toBe(1);
+    expect(errors).toHaveLength(1);
+    expect(sent[0]!.change.activities.map((a) => a.blockId)).toEqual([blocks[1]!.id]);
+  });
 });
