@@ -74,11 +74,14 @@ describe('board fan-out under a burst', () => {
     await expect.poll(() => measuredActivities().length, { timeout: 10_000 }).toBe(blocks.length);
     const elapsed = performance.now() - started;
 
-    // Coalesced: far fewer changes than measurements, and never two within the interval.
+    // Coalesced: far fewer changes than measurements, and none bunched together. The pacing's own clock
+    // keeps them an interval apart (exactly, on fake timers: tests/unit/change-pacing.test.ts); the times
+    // here are taken at the emit, which a pause of this busy process (a collection, another suite) can
+    // shift by several milliseconds either way.
     expect(sent.length).toBeLessThan(blocks.length);
     expect(sent.length).toBeLessThanOrEqual(1 + Math.ceil(elapsed / BOARD_CHANGE_INTERVAL_MS));
     for (let i = 1; i < sent.length; i++)
-      expect(sent[i]!.at - sent[i - 1]!.at).toBeGreaterThanOrEqual(BOARD_CHANGE_INTERVAL_MS - 2);
+      expect(sent[i]!.at - sent[i - 1]!.at).toBeGreaterThanOrEqual(BOARD_CHANGE_INTERVAL_MS / 2);
 
     // One message per change to the other nodes, whatever the kinds of viewer.
     expect(published.map((c) => c.version)).toEqual(sent.map((s) => s.change.version));
