@@ -18,6 +18,9 @@ export default defineConfig({
           name: 'unit',
           include: ['tests/unit/**/*.test.{ts,tsx}', 'tests/reference/**/*.test.ts'],
           environment: 'node',
+          // The reference checks that find a drawn block with OpenCV take about a second each; on a machine
+          // busy with other suites one took over the default 5 s.
+          testTimeout: 20_000,
         },
       },
       {
