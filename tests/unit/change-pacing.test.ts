@@ -40,6 +40,15 @@ function pacedQueue(readMs: number | (() => number)) {
 
 const gaps = (sent: { at: number }[]) => sent.slice(1).map((s, i) => s.at - sent[i]!.at);
 
+/** Events 0 … count − 1, one each `everyMs`, then time enough for the pacing to send them all and stop. */
+async function stream(board: ReturnType<typeof pacedQueue>, count: number, everyMs: number) {
+  for (let event = 0; event < count; event++) {
+    board.push(event);
+    await vi.advanceTimersByTimeAsync(everyMs);
+  }
+  await vi.advanceTimersByTimeAsync(500);
+}
+
 beforeEach(() => {
   vi.useFakeTimers({ toFake: ['setTimeout', 'clearTimeout', 'setImmediate', 'performance'] });
 });
@@ -50,11 +59,7 @@ afterEach(() => {
 describe('pacing a swap’s board changes', () => {
   it('sends the first change at once, then at most one an interval, every event exactly once', async () => {
     const board = pacedQueue(2);
-    for (let event = 0; event < 100; event++) {
-      board.push(event);
-      await vi.advanceTimersByTimeAsync(4);
-    }
-    await vi.advanceTimersByTimeAsync(500);
+    await stream(board, 100, 4);
 
     expect(board.sent[0]!.at).toBeLessThanOrEqual(2 + 1); // the read's time, no interval first
     for (const gap of gaps(board.sent)) expect(gap).toBeGreaterThanOrEqual(INTERVAL);
@@ -65,11 +70,7 @@ describe('pacing a swap’s board changes', () => {
 
   it('reads ahead, so slow reads under a steady stream still send about one change an interval', async () => {
     const board = pacedQueue(30);
-    for (let event = 0; event < 200; event++) {
-      board.push(event);
-      await vi.advanceTimersByTimeAsync(5);
-    }
-    await vi.advanceTimersByTimeAsync(500);
+    await stream(board, 200, 5);
 
     const spacing = gaps(board.sent).sort((a, b) => a - b);
     expect(spacing[0]).toBeGreaterThanOrEqual(INTERVAL);
